@@ -1,0 +1,10 @@
+/** Physical constants, SI. */
+
+/** Boltzmann constant, J/K: exact by definition (SI Brochure, 9th ed., 2019). */
+export const BOLTZMANN = 1.380649e-23;
+/** Elementary charge, C: exact by definition (SI Brochure, 9th ed., 2019). */
+export const ELEMENTARY_CHARGE = 1.602176634e-19;
+/** Vacuum magnetic permeability, N/A²: CODATA 2022 recommended value (measured since 2019). */
+export const MU0 = 1.25663706127e-6;
+/** Seconds in an hour, for battery life. */
+export const HOUR = 3600;

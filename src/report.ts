@@ -1,0 +1,234 @@
+/**
+ * The report: a pure function of the design. Solves the stage, builds its circuit and runs every analysis.
+ * The app, the CLI and the tests all read this one object.
+ */
+import type { Design, Topology } from './design.js';
+import { sensorFront, type SensorFront } from './sensors.js';
+import { chooseTopology, peakRange, type TopologyChoiceResult } from './topology.js';
+import { solveStage, type Part, type SolvedStage } from './solver.js';
+import { buildCircuit, type StageCircuit } from './circuit.js';
+import {
+  batterySweep, clipping, dcLinear, errorBudget, frequencyResponse, instrumentDrive, noise, speed, spread, supply, transferCurve,
+  type BatteryStep, type ClipResult, type DcPoint, type ErrorBudget, type FrequencyResponse, type InstrumentDrive, type NoiseResult,
+  type Speed, type SpreadResult, type SupplyResult,
+} from './analysis.js';
+import type { Warning } from './warnings.js';
+import { formatEng } from './units.js';
+import { calibrationSteps, type CalibrationStep } from './calibration.js';
+
+export interface Verdict {
+  level: 'pass' | 'caution' | 'fail';
+  title: string;
+  detail: string;
+}
+
+export interface Report {
+  design: Design;
+  front: SensorFront;
+  choice: TopologyChoiceResult;
+  stage: SolvedStage | null;
+  circuit: StageCircuit | null;
+  dc: DcPoint | null;
+  clip: ClipResult | null;
+  transfer: ReturnType<typeof transferCurve> | null;
+  response: FrequencyResponse | null;
+  speed: Speed | null;
+  noise: NoiseResult | null;
+  errors: ErrorBudget | null;
+  supply: SupplyResult | null;
+  battery: BatteryStep[];
+  spread: SpreadResult | null;
+  drive: InstrumentDrive | null;
+  calibration: CalibrationStep[];
+  warnings: Warning[];
+  verdicts: Verdict[];
+  /** Figures that could not be computed, with the reason. */
+  absent: Record<string, string>;
+}
+
+export interface AnalyseOptions {
+  /** Skip the Monte Carlo (for quick edits and batch runs); trials otherwise from the design. */
+  spreadTrials?: number;
+  /** Points of the AC plot. */
+  acPoints?: number;
+}
+
+/** Analyses a (validated) design. Never throws for a valid design: what cannot be computed is in `absent`. */
+export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
+  const front = sensorFront(design.sensor, design);
+  const choice = chooseTopology(design, front);
+  const warnings: Warning[] = [...front.warnings];
+  const absent: Record<string, string> = {};
+  const empty: Report = {
+    design, front, choice, stage: null, circuit: null, dc: null, clip: null, transfer: null, response: null, speed: null, noise: null,
+    errors: null, supply: null, battery: [], spread: null, drive: null, calibration: [], warnings, verdicts: [], absent,
+  };
+  if (!choice.chosen) {
+    warnings.push({ code: 'no-topology', level: 'fail', message: `No stage fits: ${choice.why}.` });
+    for (const g of choice.guidance) warnings.push({ code: 'guidance', level: 'info', message: g });
+    absent.all = 'no topology can reach the target on these rails';
+    empty.verdicts = verdictsOf(empty);
+    return empty;
+  }
+  const stage = solveStage(design, front, choice.chosen);
+  warnings.push(...stage.warnings);
+  if (!stage.parts.length && stage.network.feedback === null && stage.network.reference.kind !== 'none') {
+    absent.all = 'the resistor solver found no realisation';
+    const r = { ...empty, stage };
+    r.verdicts = verdictsOf(r);
+    return r;
+  }
+  const circuit = buildCircuit(design, stage, front);
+  const passband = !front.passesDc;
+  const dc = dcLinear(circuit, passband);
+  if (!dc) {
+    absent.all = 'the circuit could not be solved (singular network)';
+    warnings.push({ code: 'singular', level: 'fail', message: 'The circuit has no unique solution; check for a part of zero or infinite value.' });
+    const r = { ...empty, stage, circuit };
+    r.verdicts = verdictsOf(r);
+    return r;
+  }
+  const clip = clipping(design, front, dc);
+  const transfer = transferCurve(design, dc, clip);
+  const sp = speed(design, circuit, front, dc);
+  const fLo = front.passesDc ? 1 : Math.max(front.lowCorner / 100, 0.01);
+  const response = frequencyResponse(circuit, fLo, Math.max(sp.smallSignal * 100, 1e3), opts.acPoints ?? 200);
+  const nz = noise(design, circuit, sp);
+  const errors = errorBudget(design, stage, front, circuit, dc);
+  const sup = supply(design, front, circuit, dc, passband);
+  const battery = batterySweep(design, stage, front, dc.out[0]);
+  const trials = opts.spreadTrials ?? design.analysis.spreadTrials;
+  const spr = trials > 0 ? spread(design, front, circuit, dc, trials) : null;
+  if (!spr) absent.spread = 'the tolerance spread was not run';
+  const drive = instrumentDrive(design, stage, front, sp.smallSignal);
+  const report: Report = {
+    design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, spread: spr, drive,
+    calibration: [], warnings, verdicts: [], absent,
+  };
+  report.calibration = calibrationSteps(report);
+  warnings.push(...findings(report));
+  report.verdicts = verdictsOf(report);
+  return report;
+}
+
+const f3 = (x: number, unit = '') => formatEng(x, unit, 3);
+
+/** Findings in plain words from the figures. */
+function findings(r: Report): Warning[] {
+  const w: Warning[] = [];
+  const d = r.design;
+  const m = d.sensor.measurand;
+  const clip = r.clip!, sp = r.speed!;
+  const [a, b] = clip.rangePeak;
+  if (d.target.signal === 'ac-rms') w.push({ code: 'ac-peak', level: 'info', message: `The range is rms: headroom is checked at the sine peak, ±${f3(Math.max(Math.abs(a), Math.abs(b)), m)} (√2 × rms).` });
+  if (!clip.linearAtZero) {
+    w.push({ code: 'not-linear-at-zero', level: 'fail', message: `At zero ${m} the stage is already out of its linear region (${clip.limits.find((l) => l.cause === clip.first)?.why ?? 'a limit is exceeded'}).` });
+  } else {
+    if (clip.measurandLow > a) w.push({ code: 'clips-in-range-low', level: 'fail', message: `The output saturates at ${f3(clip.measurandLow, m)}, inside the wanted range (${f3(a, m)}): ${why(clip, clip.firstLow)}.` });
+    if (clip.measurandHigh < b) w.push({ code: 'clips-in-range-high', level: 'fail', message: `The output saturates at ${f3(clip.measurandHigh, m)}, inside the wanted range (${f3(b, m)}): ${why(clip, clip.firstHigh)}.` });
+  }
+  if (d.target.bandwidth > 0 && sp.smallSignal < d.target.bandwidth) {
+    w.push({ code: 'bandwidth-short', level: 'fail', message: `The chain's bandwidth is ${f3(sp.smallSignal, 'Hz')}, below the ${f3(d.target.bandwidth, 'Hz')} wanted.` });
+  }
+  if (d.target.bandwidth > 0 && sp.fullPower < d.target.bandwidth) {
+    w.push({ code: 'slew-limited', level: 'caution', message: `Full-scale signals are slew-limited above ${f3(sp.fullPower, 'Hz')} (SR/(2π·Vpeak)); the wanted range and ${f3(d.target.bandwidth, 'Hz')} cannot both be had.` });
+  }
+  if (r.drive) {
+    if (!r.drive.drives50) w.push({ code: 'no-50-ohm', level: 'info', message: 'Do not switch the instrument to its 50 Ω input: the op-amp cannot drive it over the range.' });
+    if (r.drive.isolation > 0) w.push({ code: 'capacitive-load', level: 'caution', message: `The instrument and cable capacitance sits on the op-amp output unisolated: fit a series resistor of about ${f3(r.drive.isolation, 'Ω')} (output.filter).` });
+  }
+  if (r.stage && !r.stage.network.reference.trim && d.target.trim.zero && r.stage.network.reference.kind !== 'none') {
+    w.push({ code: 'no-zero-trim', level: 'info', message: 'No zero trimmer could be fitted; the zero depends on part tolerances.' });
+  }
+  if (r.battery.length) {
+    const last = r.battery[r.battery.length - 1]!;
+    if (last.measurandLow > a || last.measurandHigh < b) w.push({ code: 'battery-clips', level: 'caution', message: `At the battery's end of life (${f3(last.voltage, 'V')}) the output clips at ${f3(last.measurandLow, m)} / ${f3(last.measurandHigh, m)}.` });
+    const shift = Math.max(...r.battery.map((s) => Math.abs(s.zeroShift)));
+    if (shift > d.analysis.zeroLimit) w.push({ code: 'battery-zero-shift', level: 'caution', message: `The zero moves by up to ${f3(shift, 'V')} as the battery sags, because the reference is taken from it; feed the reference from a regulated rail.` });
+  }
+  return w;
+}
+
+function why(clip: ClipResult, cause: string | null): string {
+  return clip.limits.find((l) => l.cause === cause)?.why ?? 'a limit is reached';
+}
+
+/** The short pass / caution / fail list a person reads first. */
+export function verdictsOf(r: Report): Verdict[] {
+  const v: Verdict[] = [];
+  const d = r.design;
+  const m = d.sensor.measurand;
+  if (!r.clip || !r.speed || !r.noise || !r.stage) {
+    v.push({ level: 'fail', title: 'No design', detail: r.warnings.filter((w) => w.level === 'fail').map((w) => w.message).join(' ') || (r.absent.all ?? 'not computed') });
+    return v;
+  }
+  const c = r.clip;
+  const [a, b] = c.rangePeak;
+  const inRange = c.linearAtZero && c.measurandLow <= a && c.measurandHigh >= b;
+  v.push({
+    level: inRange ? (Math.min(c.headroom.lowPercent, c.headroom.highPercent) < 5 ? 'caution' : 'pass') : 'fail',
+    title: inRange ? 'Covers the range without clipping' : 'Clips inside the range',
+    detail: `Linear from ${f3(c.measurandLow, m)} to ${f3(c.measurandHigh, m)} (${c.firstLow ?? '—'} / ${c.firstHigh ?? '—'} first); headroom ${f3(c.headroom.low, 'V')} low, ${f3(c.headroom.high, 'V')} high.`,
+  });
+  const inputLimit = c.limits.find((l) => l.cause === 'opamp-input')!;
+  const inputOk = inputLimit.low <= a && inputLimit.high >= b;
+  v.push({ level: inputOk ? 'pass' : 'fail', title: inputOk ? 'Op-amp inputs stay in their range' : 'Op-amp input range is violated', detail: inputLimit.why + (inputOk ? '.' : `: leaves it at ${f3(Math.max(inputLimit.low, a), m)} / ${f3(Math.min(inputLimit.high, b), m)}.`) });
+  const se = r.stage.scaleError;
+  v.push({ level: Math.abs(se) < d.target.tolerance ? 'pass' : 'caution', title: `Scale ${f3(r.dc!.out[1], `V/${m}`)} before trim`, detail: `${(se * 100).toFixed(3)} % from the target with the trimmers at mid; zero ${f3(r.dc!.out[0], 'V')}.` });
+  const bwOk = !(d.target.bandwidth > 0) || r.speed.smallSignal >= d.target.bandwidth;
+  v.push({ level: bwOk ? 'pass' : 'fail', title: `Bandwidth ${f3(r.speed.smallSignal, 'Hz')}`, detail: `Rise time ${f3(r.speed.riseTime, 's')}; full-power bandwidth ${f3(r.speed.fullPower, 'Hz')}.` });
+  v.push({ level: 'pass', title: `Noise ${f3(r.noise.referredRms, `${m} rms`)}`, detail: `${f3(r.noise.rms, 'V rms')} at the output over ${f3(r.noise.band[0], 'Hz')}…${f3(r.noise.band[1], 'Hz')}, about ${f3(r.noise.peakToPeak, 'V')} peak-to-peak.` });
+  if (r.errors) v.push({ level: 'pass', title: `Error ±${f3(r.errors.afterTrim, m)} after calibration`, detail: `Worst case before trimming ±${f3(r.errors.worstCase, m)} (RSS ±${f3(r.errors.rss, m)}) at ${f3(r.errors.at, m)}.` });
+  if (r.supply) {
+    const life = r.supply.batteryLife;
+    v.push({ level: life !== null && life < 4 ? 'caution' : 'pass', title: life !== null ? `Battery life about ${life.toFixed(1)} h` : `Supply current ${f3(r.supply.current, 'A')}`, detail: `Draws ${f3(r.supply.current, 'A')} in total.` });
+  }
+  for (const w of r.warnings.filter((x) => x.level === 'fail' && !x.code.startsWith('clips-in-range'))) v.push({ level: 'fail', title: w.code, detail: w.message });
+  return v;
+}
+
+/** Cautions printed on every parts list and shown in the app. */
+export const SAFETY_CAUTIONS: readonly string[] = [
+  'Clamp only onto insulated conductors. Never fit a probe to a bare or damaged conductor.',
+  'A home-built probe has no measurement-category (CAT) rating: do not rely on it for protection from mains voltages.',
+  'De-energise the circuit before fitting or removing the probe, and re-check before switching on.',
+  'Follow local electrical codes and defer to a licensed electrician for work on fixed installations.',
+];
+
+/** The report as the CLI's JSON object ("gainwright-report", version 1). Non-finite numbers become null. */
+export function reportJson(r: Report): Record<string, unknown> {
+  const num = (x: number | null | undefined) => (x === null || x === undefined || !Number.isFinite(x) ? null : x);
+  const s = r.stage;
+  const part = (p: Part) => ({ ref: p.ref, role: p.role, ohms: p.kind === 'capacitor' ? null : p.ohms, ...(p.farads ? { farads: p.farads } : {}), series: p.series, tolerance: p.tolerance, label: p.label, code: p.code, ...(p.setting !== undefined ? { setting: p.setting } : {}) });
+  return {
+    format: 'gainwright-report',
+    version: 1,
+    title: r.design.title,
+    topology: (s?.ideal.topology ?? null) as Topology | null,
+    topologyWhy: r.choice.why,
+    parts: s ? s.parts.map(part) : [],
+    gain: num(s?.gain),
+    noiseGain: num(r.stage ? (s!.ideal.topology === 'non-inverting' ? s!.gain : 1 + s!.gain) : null),
+    scale: num(r.dc?.out[1]),
+    scaleError: num(s?.scaleError),
+    zero: num(r.dc?.out[0]),
+    reference: num(s?.reference),
+    clip: r.clip ? { outputLow: num(r.clip.outputLow), outputHigh: num(r.clip.outputHigh), measurandLow: num(r.clip.measurandLow), measurandHigh: num(r.clip.measurandHigh), first: r.clip.first, firstLow: r.clip.firstLow, firstHigh: r.clip.firstHigh } : null,
+    headroom: r.clip ? { low: num(r.clip.headroom.low), high: num(r.clip.headroom.high) } : null,
+    bandwidth: r.speed ? { smallSignal: num(r.speed.smallSignal), fullPower: num(r.speed.fullPower), lowCorner: num(r.speed.lowCorner), riseTime: num(r.speed.riseTime), phaseAtCorner: num(r.speed.phaseAtCorner) } : null,
+    noise: r.noise ? { densityAt1kHz: num(r.noise.densityAt1kHz), rms: num(r.noise.rms), band: r.noise.band, referredRms: num(r.noise.referredRms), peakToPeak: num(r.noise.peakToPeak) } : null,
+    errors: r.errors ? { worstCase: num(r.errors.worstCase), rss: num(r.errors.rss), afterTrim: num(r.errors.afterTrim), at: num(r.errors.at) } : null,
+    supply: r.supply ? { current: num(r.supply.current), batteryLife: num(r.supply.batteryLife) } : null,
+    spread: r.spread ? { scaleStd: num(r.spread.scaleStd), zeroStd: num(r.spread.zeroStd), yield: num(r.spread.yield), trials: r.spread.trials } : null,
+    drive: r.drive ? { scaleAt1M: num(r.drive.scaleAt1M), scaleAt50: num(r.drive.scaleAt50), drives50: r.drive.drives50, isolation: num(r.drive.isolation), probeRatio: r.drive.probeRatio } : null,
+    sensor: { sensitivity: num(r.front.sensitivity), figures: r.front.figures.map((f) => ({ key: f.key, label: f.label, value: num(f.value), unit: f.unit })) },
+    battery: r.battery.map((b) => ({ voltage: b.voltage, measurandLow: num(b.measurandLow), measurandHigh: num(b.measurandHigh), headroomLow: num(b.headroomLow), headroomHigh: num(b.headroomHigh), zeroShift: num(b.zeroShift) })),
+    alternatives: s ? s.alternatives.map((a, i) => ({ index: i, feedback: a.a.parts, leg: a.b.parts, error: num(a.error), parts: a.parts })) : [],
+    calibration: r.calibration.map((c) => c.text),
+    warnings: r.warnings.map((w) => ({ code: w.code, level: w.level, message: w.message })),
+    cautions: [...SAFETY_CAUTIONS, ...r.front.cautions],
+    absent: r.absent,
+  };
+}
+
+export { peakRange };

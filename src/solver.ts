@@ -1,0 +1,354 @@
+/**
+ * The resistor solver: from an ideal stage (gain and reference) to real E-series parts, a reference
+ * divider and trimmers sized to cover the tolerance stack.
+ *
+ * Trimmer sizing (our definitions, stated in docs/method.md):
+ * - coverage: a trimmer's half-span (from its mid setting to either end) must be at least
+ *   COVERAGE × the worst-case tolerance stack it has to absorb;
+ * - resolution: the smallest standard trimmer (100 Ω, 200 Ω, 500 Ω, 1 kΩ … 1 MΩ) that gives that
+ *   coverage wastes the least resolution; its settable step is SETTABILITY of its full travel.
+ */
+import type { Design, Topology } from './design.js';
+import { TRIMMER_VALUES, usualTolerance, significantFigures, type SeriesName } from './eseries.js';
+import { armTable, searchPairs, type Arm, type PairCandidate, type PairResult } from './search.js';
+import type { SensorFront } from './sensors.js';
+import { referenceRails, type IdealStage } from './topology.js';
+import { formatEng, rkmCode } from './units.js';
+import type { Warning } from './warnings.js';
+
+/** Trim half-span must be at least this many times the worst-case stack it absorbs. */
+export const COVERAGE = 1.5;
+/** Fraction of a trimmer's travel a person can set reliably (single-turn cermet, common practice, from memory). */
+export const SETTABILITY = 1 / 200;
+/** End-to-end tolerance of a trimmer (±20 %, common practice). */
+export const TRIMMER_TOLERANCE = 0.2;
+
+export type PartRole =
+  | 'feedback' | 'ground-leg' | 'input' | 'reference-top' | 'reference-bottom'
+  | 'gain-trim' | 'zero-trim' | 'output-series' | 'output-capacitor';
+
+export const ROLE_NAMES: Record<PartRole, string> = {
+  feedback: 'feedback',
+  'ground-leg': 'ground leg',
+  input: 'input',
+  'reference-top': 'reference top',
+  'reference-bottom': 'reference bottom',
+  'gain-trim': 'gain trim',
+  'zero-trim': 'zero trim',
+  'output-series': 'output series / isolation',
+  'output-capacitor': 'output filter capacitor',
+};
+
+export interface Trimmer {
+  ohms: number;
+  /** Wiper position, 0…1 (0.5 = mid). */
+  setting: number;
+  /** What the trim must absorb (fraction of scale for gain, volts at the output for zero). */
+  need: number;
+  /** What it can absorb either side of its setting, same unit. */
+  halfSpan: number;
+  /** Settable step, same unit. */
+  step: number;
+}
+
+export interface ReferenceNetwork {
+  /** none: no reference (buffer); rail: tied straight to a rail; divider: a divider with optional trimmer. */
+  kind: 'none' | 'rail' | 'divider';
+  /** Rails it hangs between, V. */
+  railBottom: number;
+  railTop: number;
+  /** Which rail is the top: the battery/positive rail or the regulated one. */
+  topRail: 'positive' | 'regulated';
+  top: Arm | null;
+  bottom: Arm | null;
+  trim: Trimmer | null;
+  /** Open-circuit voltage with the trimmer at its setting, V. */
+  voltage: number;
+  /** Thevenin resistance with the trimmer at its setting, Ω. */
+  thevenin: number;
+}
+
+export interface StageNetwork {
+  topology: Topology;
+  /** Fixed feedback arm (null = a wire, for a unity buffer) and its series gain trimmer. */
+  feedback: Arm | null;
+  gainTrim: Trimmer | null;
+  /** Ground leg (non-inverting, may be null when the divider's Thevenin is the whole leg or for a buffer) or input resistor (inverting). */
+  leg: Arm | null;
+  reference: ReferenceNetwork;
+}
+
+export interface Part {
+  ref: string;
+  role: PartRole;
+  kind: 'resistor' | 'trimmer' | 'capacitor';
+  ohms: number;
+  farads?: number;
+  series: SeriesName | 'trimmer' | 'capacitor';
+  tolerance: number;
+  label: string;
+  code: string;
+  /** Trimmer wiper setting (0…1). */
+  setting?: number;
+}
+
+export interface SolvedStage {
+  ideal: IdealStage;
+  network: StageNetwork;
+  parts: Part[];
+  /** Gain alternatives, ranked; `chosen` is the index built. */
+  alternatives: PairCandidate[];
+  chosen: number;
+  /** The smallest gain error the search found anywhere (the optimum). */
+  bestError: number;
+  /** Ideal-op-amp gain and reference from the real parts, trimmers at their settings. */
+  gain: number;
+  reference: number;
+  /** Relative scale error before trimming (trimmers at mid). */
+  scaleError: number;
+  warnings: Warning[];
+}
+
+const trimmerAtLeast = (ohms: number): number => TRIMMER_VALUES.find((v) => v >= ohms) ?? TRIMMER_VALUES[TRIMMER_VALUES.length - 1]!;
+
+/** The smallest standard trimmer value at or above `ohms` (common practice 1-2-5 values). */
+export function standardTrimmer(ohms: number): number {
+  return trimmerAtLeast(ohms);
+}
+
+const par = (a: number, b: number) => (a === 0 || b === 0 ? 0 : (a * b) / (a + b));
+
+/**
+ * Preferred feedback resistance: 100 kΩ (10 kΩ–100 kΩ is the usual range for general-purpose op-amps:
+ * low enough for noise and bias-current error, high enough not to load the output or drain a battery;
+ * common practice), kept inside the window.
+ */
+export function preferredFeedback(design: Design): number {
+  const { resistanceMin: lo, resistanceMax: hi } = design.target;
+  return Math.min(Math.max(100e3, lo * 10), hi / 2);
+}
+
+/** Worst-case relative scale error the gain trim must absorb. */
+export function scaleStack(design: Design, front: SensorFront, ideal: IdealStage): number {
+  const tol = design.target.tolerance;
+  const g = ideal.gain;
+  const resistors = ideal.topology === 'non-inverting' ? (2 * tol * (g - 1)) / g : 2 * tol;
+  const rail = front.ratiometricSupply && design.supply.sensorRail === 'regulated' && design.supply.regulated ? design.supply.regulated.tolerance : 0;
+  return front.sensitivityTolerance + resistors + rail;
+}
+
+/** Worst-case zero error at the op-amp output, V, that the zero trim must absorb. */
+export function zeroStack(design: Design, front: SensorFront, ideal: IdealStage, gainTrimSpan: number): number {
+  const { opamp, target } = design;
+  const g = ideal.gain;
+  const ng = ideal.noiseGain;
+  const [lo, hi] = referenceRails(design);
+  const vspan = hi - lo;
+  const r = Number.isFinite(ideal.reference) ? (ideal.reference - lo) / vspan : 0;
+  const refGain = ideal.topology === 'non-inverting' ? g - 1 : 1 + g;
+  const dividerTol = vspan * Math.max(r * (1 - r), 0) * 2 * target.tolerance;
+  const railTol = design.supply.referenceRail === 'regulated' && design.supply.regulated ? Math.abs(ideal.reference - lo) * design.supply.regulated.tolerance : 0;
+  const fromSpanTrim = Math.abs((Number.isFinite(ideal.reference) ? ideal.reference : 0) - front.quiescent) * g * gainTrimSpan;
+  return g * front.quiescentTolerance + ng * opamp.offsetVoltage + Math.abs(opamp.biasCurrent) * preferredFeedback(design) + refGain * (dividerTol + railTol) + fromSpanTrim;
+}
+
+interface DividerSolve {
+  ref: ReferenceNetwork;
+  warnings: Warning[];
+}
+
+/** Solves the reference divider for an open-circuit voltage `vref` and a Thevenin near `rthTarget`. */
+export function solveDivider(design: Design, vref: number, rthTarget: number, zeroNeedAtRef: number, refGain: number): DividerSolve {
+  const [lo, hi] = referenceRails(design);
+  const topRail = design.supply.referenceRail === 'regulated' && design.supply.regulated ? 'regulated' : 'positive';
+  const vspan = hi - lo;
+  const warnings: Warning[] = [];
+  const r = (vref - lo) / vspan;
+  const wantTrim = design.target.trim.zero;
+  if (!wantTrim && (Math.abs(r) < 1e-6 || Math.abs(1 - r) < 1e-6)) {
+    const v = r < 0.5 ? lo : hi;
+    return { ref: { kind: 'rail', railBottom: lo, railTop: hi, topRail, top: null, bottom: null, trim: null, voltage: v, thevenin: 0 }, warnings };
+  }
+  const { series, resistanceMin, resistanceMax, arrangements, tolerance } = design.target;
+  const table = armTable(series, resistanceMin, resistanceMax, arrangements);
+  const rc = Math.min(Math.max(r, 0.02), 0.98);
+  let sigma = rthTarget / (rc * (1 - rc));
+  sigma = Math.min(Math.max(sigma, resistanceMin * 2), resistanceMax * 2);
+  let rp = 0;
+  let trim: Trimmer | null = null;
+  if (wantTrim) {
+    const need = zeroNeedAtRef; // volts at the reference
+    rp = standardTrimmer((2 * COVERAGE * need * sigma) / vspan);
+    if (rp > sigma) sigma = rp * 2;
+  }
+  // (Rb + α·Rp) / (Rt + Rp + Rb) = r with α = 1/2.
+  const alpha = 0.5;
+  const prefTop = Math.max(sigma * (1 - r) - rp * (1 - alpha), resistanceMin);
+  const res: PairResult = searchPairs(table, table, {
+    idealB: (a) => (r * (a + rp) - alpha * rp) / (1 - r),
+    error: (a, b) => ((b + alpha * rp) / (a + rp + b) - r) * vspan * refGain, // volts at the output
+    preferredA: prefTop,
+    floor: Math.max(vspan * refGain * tolerance / 50, 1e-6),
+    aMin: prefTop / 2,
+    aMax: prefTop * 2,
+  }, 1);
+  let top: Arm | null, bottom: Arm | null, setting = alpha;
+  if (res.ranked.length) {
+    top = res.ranked[0]!.a;
+    bottom = res.ranked[0]!.b;
+  } else if (wantTrim && rp > 0) {
+    // Reference too close to the bottom rail for a centred trimmer: drop the bottom arm and set the wiper off-centre.
+    const t = trimTopOnly(table, r, rp, prefTop);
+    top = t.top; bottom = null; setting = t.setting;
+    warnings.push({ code: 'zero-trim-off-centre', level: 'caution', message: `The reference sits close to the rail, so the zero trimmer starts at ${(setting * 100).toFixed(0)} % of its travel rather than mid.` });
+  } else {
+    top = null; bottom = null;
+  }
+  const rt = top?.ohms ?? 0, rb = bottom?.ohms ?? 0;
+  const upper = rt + (1 - setting) * rp;
+  const lower = rb + setting * rp;
+  const voltage = lo + vspan * (lower / (upper + lower));
+  const thevenin = par(upper, lower);
+  if (trim === null && wantTrim && rp > 0) {
+    const halfSpanV = Math.min(setting, 1 - setting) * rp / (rt + rp + rb) * vspan * refGain;
+    trim = { ohms: rp, setting, need: zeroNeedAtRef * refGain, halfSpan: halfSpanV, step: (rp / (rt + rp + rb)) * vspan * refGain * SETTABILITY };
+  }
+  if (!top) {
+    warnings.push({ code: 'reference-unrealisable', level: 'fail', message: `No divider from ${design.target.series} parts in the window gives ${vref.toPrecision(4)} V.` });
+  }
+  return { ref: { kind: 'divider', railBottom: lo, railTop: hi, topRail, top, bottom, trim, voltage, thevenin }, warnings };
+}
+
+function trimTopOnly(table: ReturnType<typeof armTable>, r: number, rp: number, prefTop: number): { top: Arm; setting: number } {
+  // α·Rp / (Rt + Rp) = r → Rt = α·Rp/r − Rp; pick α = 0.5 if possible else the nearest workable.
+  let bestI = 0, bestD = Infinity;
+  for (let i = 0; i < table.size; i++) {
+    const d = Math.abs(Math.log(table.value[i]! / prefTop));
+    if (d < bestD) { bestD = d; bestI = i; }
+  }
+  const rt = table.value[bestI]!;
+  const setting = Math.min(Math.max((r * (rt + rp)) / rp, 0.02), 0.98);
+  return { top: { ohms: rt, parts: [table.p1[bestI]!, ...(table.p2[bestI]! ? [table.p2[bestI]!] : [])], arrangement: table.kind[bestI] === 0 ? 'single' : table.kind[bestI] === 1 ? 'series' : 'parallel' }, setting };
+}
+
+/** Ideal-op-amp gain and reference of a realised network. */
+export function networkGain(net: StageNetwork, sourceResistance: number): { gain: number; noiseGain: number; reference: number } {
+  const rf = (net.feedback?.ohms ?? 0) + (net.gainTrim ? net.gainTrim.ohms * net.gainTrim.setting : 0);
+  const rth = net.reference.kind === 'divider' ? net.reference.thevenin : 0;
+  if (net.topology === 'non-inverting') {
+    if (!net.leg && net.reference.kind === 'none') return { gain: 1, noiseGain: 1, reference: NaN };
+    const rleg = (net.leg?.ohms ?? 0) + rth;
+    const g = 1 + rf / rleg;
+    return { gain: g, noiseGain: g, reference: net.reference.voltage };
+  }
+  const rin = (net.leg?.ohms ?? 0) + sourceResistance;
+  const g = rf / rin;
+  return { gain: g, noiseGain: 1 + g, reference: net.reference.voltage };
+}
+
+/** Solves the whole stage: reference divider, gain network, trimmers, parts. */
+export function solveStage(design: Design, front: SensorFront, ideal: IdealStage): SolvedStage {
+  const warnings: Warning[] = [];
+  const { target } = design;
+  const table = armTable(target.series, target.resistanceMin, target.resistanceMax, target.arrangements);
+  const floor = target.tolerance / 20;
+  const rfPref = preferredFeedback(design);
+  const g = ideal.gain;
+  const [railLo, railHi] = referenceRails(design);
+
+  // Unity buffer: a wire from output to − input, nothing else.
+  if (ideal.topology === 'non-inverting' && !ideal.needsReference) {
+    const network: StageNetwork = { topology: 'non-inverting', feedback: null, gainTrim: null, leg: null, reference: { kind: 'none', railBottom: railLo, railTop: railHi, topRail: 'positive', top: null, bottom: null, trim: null, voltage: NaN, thevenin: 0 } };
+    if (target.trim.gain || target.trim.zero) warnings.push({ code: 'buffer-no-trim', level: 'info', message: 'A unity buffer has no gain or zero to trim; the sensor\'s own scale and zero pass straight through.' });
+    return { ideal, network, parts: partsOf(network, design), alternatives: [], chosen: 0, bestError: 0, gain: 1, reference: NaN, scaleError: 0, warnings };
+  }
+
+  const sStack = scaleStack(design, front, ideal);
+  const refGain = ideal.topology === 'non-inverting' ? g - 1 : 1 + g;
+  // Gain trimmer in series with the feedback arm: d(scale)/scale = dRf/Rf · (G−1)/G (non-inv) or dRf/Rf (inv).
+  const rfSens = ideal.topology === 'non-inverting' ? (g - 1) / g : 1;
+  let gainTrimOhms = 0;
+  if (target.trim.gain) gainTrimOhms = standardTrimmer((2 * COVERAGE * sStack * rfPref) / rfSens);
+  const gainHalfSpanFrac = gainTrimOhms ? (gainTrimOhms / 2 / rfPref) * rfSens : 0;
+  const zNeed = zeroStack(design, front, ideal, gainHalfSpanFrac);
+
+  const legPref = ideal.topology === 'non-inverting' ? rfPref / (g - 1) : rfPref / g;
+  // The divider's Thevenin is half the ground leg: its current stays small, and the gain trim absorbs its tolerance.
+  const rthTarget = ideal.topology === 'non-inverting' ? legPref * 0.5 : par(legPref, rfPref);
+  let vref = ideal.reference;
+  let div = solveDivider(design, vref, rthTarget, zNeed / refGain, refGain);
+
+  const rs = ideal.topology === 'inverting' ? front.sourceResistance : 0;
+  let gainRes: PairResult | null = null;
+  let chosen = 0;
+  let pick: PairCandidate | null = null;
+  for (let iter = 0; iter < 3; iter++) {
+    const rth = ideal.topology === 'non-inverting' && div.ref.kind === 'divider' ? div.ref.thevenin : 0;
+    const half = gainTrimOhms / 2;
+    const aPref = Math.max(rfPref - half, target.resistanceMin);
+    gainRes = searchPairs(table, table, ideal.topology === 'non-inverting'
+      ? { idealB: (a) => (a + half) / (g - 1) - rth, error: (a, b) => (1 + (a + half) / (b + rth)) / g - 1, preferredA: aPref, floor, aMin: aPref / 3.2, aMax: aPref * 3.2 }
+      : { idealB: (a) => (a + half) / g - rs, error: (a, b) => (a + half) / (b + rs) / g - 1, preferredA: aPref, floor, aMin: aPref / 3.2, aMax: aPref * 3.2 }, 10);
+    if (!gainRes.ranked.length) break;
+    chosen = Math.min(target.alternative, gainRes.ranked.length - 1);
+    pick = gainRes.ranked[chosen]!;
+    // Re-aim the reference at the real gain so the zero lands where asked, then re-solve once.
+    const gReal = g * (1 + pick.error);
+    const vrefNew = ideal.topology === 'non-inverting' ? (gReal * front.quiescent - ideal.pinZero) / (gReal - 1) : (ideal.pinZero + gReal * front.quiescent) / (1 + gReal);
+    if (Math.abs(vrefNew - vref) < 1e-7 * (railHi - railLo)) break;
+    vref = vrefNew;
+    const next = solveDivider(design, vref, rthTarget, zNeed / refGain, refGain);
+    if (next.ref.kind === 'divider' && div.ref.kind === 'divider' && Math.abs(next.ref.thevenin - div.ref.thevenin) < 1e-9 * div.ref.thevenin) { div = next; break; }
+    div = next;
+  }
+  warnings.push(...div.warnings);
+  if (!gainRes || !pick) {
+    warnings.push({ code: 'gain-unrealisable', level: 'fail', message: `No pair of ${target.series} arms within ${formatEng(target.resistanceMin, 'Ω')}…${formatEng(target.resistanceMax, 'Ω')} gives a gain of ${g.toPrecision(4)}; widen the resistance window.` });
+    const network: StageNetwork = { topology: ideal.topology, feedback: null, gainTrim: null, leg: null, reference: div.ref };
+    return { ideal, network, parts: [], alternatives: [], chosen: 0, bestError: NaN, gain: NaN, reference: div.ref.voltage, scaleError: NaN, warnings };
+  }
+  let gainTrim: Trimmer | null = null;
+  if (gainTrimOhms) {
+    const rfTot = pick.a.ohms + gainTrimOhms / 2;
+    const halfSpan = (gainTrimOhms / 2 / rfTot) * rfSens;
+    gainTrim = { ohms: gainTrimOhms, setting: 0.5, need: sStack, halfSpan, step: (gainTrimOhms / rfTot) * rfSens * SETTABILITY };
+    if (halfSpan < COVERAGE * sStack * 0.999) warnings.push({ code: 'gain-trim-short', level: 'caution', message: `The gain trimmer covers ±${(halfSpan * 100).toFixed(2)} %, less than ${COVERAGE} × the ±${(sStack * 100).toFixed(2)} % worst-case stack.` });
+  }
+  const network: StageNetwork = { topology: ideal.topology, feedback: pick.a, gainTrim, leg: pick.b, reference: div.ref };
+  const real = networkGain(network, front.sourceResistance);
+  const scaleError = real.gain / g - 1;
+  return { ideal, network, parts: partsOf(network, design), alternatives: gainRes.ranked, chosen, bestError: Math.abs(gainRes.best?.error ?? NaN), gain: real.gain, reference: real.reference, scaleError, warnings };
+}
+
+/** Numbers the parts R1, R2 … and RV1, RV2 … in signal-path order and writes their labels and codes. */
+export function partsOf(net: StageNetwork, design: Design): Part[] {
+  const { series, tolerance } = design.target;
+  const tol = tolerance ?? usualTolerance(series);
+  const sig = significantFigures(series);
+  const parts: Part[] = [];
+  let r = 0, rv = 0;
+  const addArm = (arm: Arm | null, role: PartRole) => {
+    if (!arm) return;
+    for (const ohms of arm.parts) {
+      parts.push({ ref: `R${++r}`, role, kind: 'resistor', ohms, series, tolerance: tol, label: `${formatEng(ohms, 'Ω', sig)}${arm.parts.length > 1 ? ` (${arm.arrangement})` : ''}`, code: rkmCode(ohms, sig) });
+    }
+  };
+  const addTrim = (t: Trimmer | null, role: PartRole) => {
+    if (!t) return;
+    parts.push({ ref: `RV${++rv}`, role, kind: 'trimmer', ohms: t.ohms, series: 'trimmer', tolerance: TRIMMER_TOLERANCE, label: formatEng(t.ohms, 'Ω', 2) + ' trimmer', code: rkmCode(t.ohms, 2), setting: t.setting });
+  };
+  addArm(net.feedback, 'feedback');
+  addTrim(net.gainTrim, 'gain-trim');
+  addArm(net.leg, net.topology === 'non-inverting' ? 'ground-leg' : 'input');
+  if (net.reference.kind === 'divider') {
+    addArm(net.reference.top, 'reference-top');
+    addTrim(net.reference.trim, 'zero-trim');
+    addArm(net.reference.bottom, 'reference-bottom');
+  }
+  const f = design.output.filter;
+  if (f) {
+    parts.push({ ref: `R${++r}`, role: 'output-series', kind: 'resistor', ohms: f.resistance, series, tolerance: tol, label: formatEng(f.resistance, 'Ω', sig), code: rkmCode(f.resistance, sig) });
+    if (f.capacitance > 0) parts.push({ ref: 'C1', role: 'output-capacitor', kind: 'capacitor', ohms: 0, farads: f.capacitance, series: 'capacitor', tolerance: 0.1, label: formatEng(f.capacitance, 'F', 2), code: '' });
+  }
+  return parts;
+}
