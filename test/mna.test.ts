@@ -1,0 +1,100 @@
+import { describe, expect, it } from 'vitest';
+import { adjointAt, compile, solveDc, transferFrom, workspace, type Element } from '../src/mna.js';
+
+// Node 1 = source, 2 = + input, 3 = − input, 4 = op-amp internal, 5 = output.
+function nonInverting(a0: number, rf: number, rg: number, poleHz = 0): Element[] {
+  return [
+    { kind: 'V', name: 'VS', a: 1, b: 0, value: 0, dc0: 0, dc1: 1, ac: 1 },
+    { kind: 'R', name: 'RS', a: 1, b: 2, value: 0 },
+    { kind: 'E', name: 'EOA', a: 4, b: 0, value: a0, cp: 2, cn: 3, pole: poleHz },
+    { kind: 'R', name: 'ROUT', a: 4, b: 5, value: 1e-3 },
+    { kind: 'R', name: 'RF', a: 5, b: 3, value: rf },
+    { kind: 'R', name: 'RG', a: 3, b: 0, value: rg },
+  ];
+}
+const names = ['0', 'src', 'inp', 'inn', 'int', 'out'];
+
+describe('MNA against closed forms', () => {
+  // Black's feedback formula (any control-systems or op-amp text; Texas A&M ECEN 457 notes eq. 1):
+  // closed-loop gain A/(1 + A·β) with β = Rg/(Rf + Rg).
+  it('non-inverting gain with finite open-loop gain is A/(1+Aβ)', () => {
+    const a0 = 1e4, rf = 9000, rg = 1000;
+    const c = compile(names, nonInverting(a0, rf, rg));
+    const sol = solveDc(c, [(e) => e.dc1 ?? 0])!;
+    const beta = rg / (rf + rg);
+    expect(sol.columns[0]![4]! / (a0 / (1 + a0 * beta))).toBeCloseTo(1, 6);
+  });
+  it('inverting gain with finite open-loop gain is −(Rf/Rin)·Aβ/(1+Aβ), β = Rin/(Rin+Rf)', () => {
+    const a0 = 1e3, rf = 47e3, rin = 4.7e3;
+    const el: Element[] = [
+      { kind: 'V', name: 'VS', a: 1, b: 0, value: 0, dc0: 0, dc1: 1, ac: 1 },
+      { kind: 'R', name: 'RIN', a: 1, b: 3, value: rin },
+      { kind: 'E', name: 'EOA', a: 4, b: 0, value: a0, cp: 2, cn: 3 },
+      { kind: 'R', name: 'ROUT', a: 4, b: 5, value: 1e-3 },
+      { kind: 'R', name: 'RF', a: 5, b: 3, value: rf },
+      { kind: 'R', name: 'RP', a: 2, b: 0, value: 1 },
+    ];
+    const c = compile(names, el);
+    const g = solveDc(c, [(e) => e.dc1 ?? 0])!.columns[0]![4]!;
+    const beta = rin / (rin + rf);
+    expect(g / (-(rf / rin) * (a0 * beta) / (1 + a0 * beta))).toBeCloseTo(1, 6);
+  });
+  // Single-pole op-amp: closed-loop corner f_p·(1 + A0·β) ≈ GBW / noise gain (ECEN 457 eq. 2; NEETS Module 8:
+  // GBW 1 MHz gives gain 10 out to 100 kHz).
+  it('closed-loop −3 dB corner of a gain-10 stage on a 1 MHz GBW part is 100 kHz', () => {
+    const a0 = 1e5, gbw = 1e6;
+    const c = compile(names, nonInverting(a0, 9000, 1000, gbw / a0));
+    const ws = workspace(c);
+    const mag = (f: number) => {
+      adjointAt(c, 2 * Math.PI * f, 5, ws);
+      const [re, im] = transferFrom(c, 0, ws);
+      return Math.hypot(re, im);
+    };
+    const g0 = mag(1);
+    const exact = (gbw / a0) * (1 + a0 * 0.1);
+    expect(mag(exact) / g0).toBeCloseTo(Math.SQRT1_2, 4);
+    expect(exact / 100e3).toBeCloseTo(1, 3);
+  });
+  // UC Berkeley EE105 lecture 5: A0 = 1e4 with a pole at 1e3 rad/s has unity gain at 1e7 rad/s (1.59 MHz).
+  it('open-loop single pole crosses unity at A0·ωp (EE105: 1e4 × 1e3 rad/s → 1.59 MHz)', () => {
+    const el: Element[] = [
+      { kind: 'V', name: 'VS', a: 1, b: 0, value: 0, dc0: 0, dc1: 1, ac: 1 },
+      { kind: 'E', name: 'EOA', a: 2, b: 0, value: 1e4, cp: 1, cn: 0, pole: 1e3 / (2 * Math.PI) },
+      { kind: 'R', name: 'RL', a: 2, b: 0, value: 1e3 },
+    ];
+    const c = compile(['0', 'in', 'out'], el);
+    const ws = workspace(c);
+    adjointAt(c, 1e7, 2, ws);
+    const [re, im] = transferFrom(c, 0, ws);
+    expect(Math.hypot(re, im)).toBeCloseTo(1, 3);
+  });
+  // RC low-pass: |H| = 1/√2 at f = 1/(2πRC) (any circuits text).
+  it('RC low-pass is −3 dB at 1/(2πRC) with −45° phase', () => {
+    const r = 1000, cap = 100e-9;
+    const el: Element[] = [
+      { kind: 'V', name: 'VS', a: 1, b: 0, value: 0, ac: 1 },
+      { kind: 'R', name: 'R', a: 1, b: 2, value: r },
+      { kind: 'C', name: 'C', a: 2, b: 0, value: cap },
+    ];
+    const c = compile(['0', 'in', 'out'], el);
+    const ws = workspace(c);
+    adjointAt(c, 1 / (r * cap), 2, ws);
+    const [re, im] = transferFrom(c, 0, ws);
+    expect(Math.hypot(re, im)).toBeCloseTo(Math.SQRT1_2, 9);
+    expect((Math.atan2(im, re) * 180) / Math.PI).toBeCloseTo(-45, 6);
+  });
+  it('a current source into a resistor gives I·R (Ohm\'s law), and an inductor shorts DC', () => {
+    const el: Element[] = [
+      { kind: 'I', name: 'I', a: 0, b: 1, value: 0, dc0: 2e-3 },
+      { kind: 'R', name: 'R', a: 1, b: 0, value: 1500 },
+    ];
+    expect(solveDc(compile(['0', 'n'], el), [(e) => e.dc0 ?? 0])!.columns[0]![0]).toBeCloseTo(3, 12);
+    const el2: Element[] = [...el, { kind: 'L', name: 'L', a: 1, b: 0, value: 1 }];
+    expect(solveDc(compile(['0', 'n'], el2), [(e) => e.dc0 ?? 0])!.columns[0]![0]).toBeCloseTo(0, 12);
+    expect(solveDc(compile(['0', 'n'], el2), [(e) => e.dc0 ?? 0], true)!.columns[0]![0]).toBeCloseTo(3, 12);
+  });
+  it('a floating node makes the matrix singular and the solve says so (null)', () => {
+    const el: Element[] = [{ kind: 'C', name: 'C', a: 1, b: 0, value: 1e-9 }];
+    expect(solveDc(compile(['0', 'n'], el), [() => 0])).toBeNull();
+  });
+});

@@ -1,0 +1,85 @@
+import { describe, expect, it } from 'vitest';
+import { networkGain, solveStage, standardTrimmer, COVERAGE } from '../src/solver.js';
+import { chooseTopology } from '../src/topology.js';
+import { sensorFront } from '../src/sensors.js';
+import { validateDesign, type Design } from '../src/design.js';
+import { DEMOS } from '../src/demos.js';
+import { isMember } from '../src/eseries.js';
+
+function design(id: string, patch: (d: any) => void = () => {}): Design {
+  const doc = structuredClone(DEMOS.find((d) => d.id === id)!.document) as any;
+  patch(doc);
+  const v = validateDesign(doc);
+  if (!v.ok) throw new Error(JSON.stringify(v.problems));
+  return v.design;
+}
+const solve = (d: Design) => {
+  const f = sensorFront(d.sensor, d);
+  return solveStage(d, f, chooseTopology(d, f).chosen!);
+};
+
+describe('standardTrimmer (1-2-5 values 100 Ω … 1 MΩ, common practice)', () => {
+  it('rounds up to the next standard value', () => {
+    expect(standardTrimmer(90)).toBe(100);
+    expect(standardTrimmer(1001)).toBe(2000);
+    expect(standardTrimmer(3000)).toBe(5000);
+    expect(standardTrimmer(5e6)).toBe(1e6);
+  });
+});
+
+describe('solveStage', () => {
+  it('12.5 mV/A → 100 mV/A on 9 V: E96 parts, scale error under 0.5 % before trim', () => {
+    const s = solve(design('generic-sensor'));
+    const fixed = s.parts.filter((p) => p.kind === 'resistor');
+    expect(fixed.length).toBeGreaterThan(2);
+    for (const p of fixed) expect(isMember(p.ohms, 'E96'), `${p.ref} ${p.ohms}`).toBe(true);
+    expect(Math.abs(s.scaleError)).toBeLessThan(0.005);
+    // The closed form from the real parts: G = 1 + Rf/(Rg + Rth) must equal 8 within the reported error.
+    expect(networkGain(s.network, 0).gain / 8 - 1).toBeCloseTo(s.scaleError, 12);
+  });
+  it('includes the divider\'s Thevenin resistance in the ground leg (gain 1 + Rf/(Rg + Rth))', () => {
+    const s = solve(design('generic-sensor'));
+    const rf = s.network.feedback!.ohms + s.network.gainTrim!.ohms / 2;
+    const rg = s.network.leg!.ohms;
+    const rth = s.network.reference.thevenin;
+    expect(rth).toBeGreaterThan(0);
+    expect(s.gain).toBeCloseTo(1 + rf / (rg + rth), 12);
+    // Ignoring Rth would be off by far more than the part tolerance.
+    expect(Math.abs(1 + rf / rg - s.gain) / s.gain).toBeGreaterThan(0.05);
+  });
+  it('sizes the gain trimmer to cover the stack with margin and no more than one 1-2-5 step beyond', () => {
+    const s = solve(design('generic-sensor'));
+    const t = s.network.gainTrim!;
+    expect(t.halfSpan).toBeGreaterThanOrEqual(COVERAGE * t.need * 0.95);
+    expect(t.halfSpan).toBeLessThan(COVERAGE * t.need * 2.5 * 1.3);
+  });
+  it('the zero trimmer covers its stack', () => {
+    const s = solve(design('generic-sensor'));
+    const z = s.network.reference.trim!;
+    expect(z.halfSpan).toBeGreaterThanOrEqual(COVERAGE * z.need * 0.9);
+  });
+  it('without trims, every part is a fixed E96 resistor and the reference still lands', () => {
+    const s = solve(design('generic-sensor', (x) => { x.target.trim = { gain: false, zero: false }; }));
+    expect(s.parts.every((p) => p.kind === 'resistor')).toBe(true);
+    expect(Math.abs(s.scaleError)).toBeLessThan(0.001);
+    const ideal = (8 * (1 + s.scaleError) * 2.5 - 4.5) / (8 * (1 + s.scaleError) - 1);
+    expect(Math.abs(s.reference - ideal)).toBeLessThan(2e-3);
+  });
+  it('a unity target becomes a buffer with no parts in the gain network', () => {
+    const s = solve(design('generic-sensor', (x) => { x.target.scale = 0.0125; x.target.zero = 2.5; }));
+    expect(s.network.feedback).toBeNull();
+    expect(s.parts.filter((p) => p.role !== 'output-series')).toEqual([]);
+    expect(s.gain).toBe(1);
+  });
+  it('ranks alternatives and builds the one the design picks', () => {
+    const s0 = solve(design('generic-sensor'));
+    expect(s0.alternatives.length).toBeGreaterThan(3);
+    const s2 = solve(design('generic-sensor', (x) => { x.target.alternative = 2; }));
+    expect(s2.chosen).toBe(2);
+    expect(s2.network.feedback!.ohms).toBe(s0.alternatives[2]!.a.ohms);
+  });
+  it('a window that cannot hold the ratio says so', () => {
+    const s = solve(design('generic-sensor', (x) => { x.target.resistanceMin = 1e3; x.target.resistanceMax = 1e4; x.target.scale = 5; x.target.range = [-0.5, 0.5]; x.target.trim = { gain: false, zero: false }; }));
+    expect(s.warnings.map((w) => w.code)).toContain('gain-unrealisable');
+  });
+});
