@@ -175,7 +175,10 @@ export function frequencyResponse(sc: StageCircuit, f1: number, f2: number, poin
     freqs[i] = f;
     const [re, im] = transferAt(sc, f, ws);
     magnitude[i] = Math.hypot(re, im);
-    phase[i] = (Math.atan2(im, re) * 180) / Math.PI;
+    let ph = (Math.atan2(im, re) * 180) / Math.PI;
+    // Unwrap, so the phase runs on smoothly past ±180°.
+    if (i > 0) { while (ph - phase[i - 1]! > 180) ph -= 360; while (ph - phase[i - 1]! < -180) ph += 360; }
+    phase[i] = ph;
   }
   return { freqs, magnitude, phase };
 }

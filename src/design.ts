@@ -379,7 +379,7 @@ const SCHEMA: Spec = {
       def: {},
       fields: {
         noiseBand: {
-          t: 'tuple', optional: true,
+          t: 'tuple', optional: true, nullable: true,
           items: [num('hertz', 'positive', { max: 1e11 }), num('hertz', 'positive', { max: 1e11 })],
         },
         spreadTrials: opt(num('trials', 'positive', { min: 10, max: 1e6 }), 2000),

@@ -141,8 +141,8 @@ function findings(r: Report): Warning[] {
     w.push({ code: 'no-zero-trim', level: 'info', message: 'No zero trimmer could be fitted; the zero depends on part tolerances.' });
   }
   if (r.battery.length) {
-    const last = r.battery[r.battery.length - 1]!;
-    if (last.measurandLow > a || last.measurandHigh < b) w.push({ code: 'battery-clips', level: 'caution', message: `At the battery's end of life (${f3(last.voltage, 'V')}) the output clips at ${f3(last.measurandLow, m)} / ${f3(last.measurandHigh, m)}.` });
+    const firstBad = r.battery.find((s) => s.measurandLow > a || s.measurandHigh < b);
+    if (firstBad) w.push({ code: 'battery-clips', level: 'caution', message: `Once the battery is down to ${f3(firstBad.voltage, 'V')} the output clips inside the range (linear only from ${f3(firstBad.measurandLow, m)} to ${f3(firstBad.measurandHigh, m)}); end of life is ${f3(r.battery[r.battery.length - 1]!.voltage, 'V')}.` });
     const shift = Math.max(...r.battery.map((s) => Math.abs(s.zeroShift)));
     if (shift > d.analysis.zeroLimit) w.push({ code: 'battery-zero-shift', level: 'caution', message: `The zero moves by up to ${f3(shift, 'V')} as the battery sags, because the reference is taken from it; feed the reference from a regulated rail.` });
   }
@@ -183,7 +183,18 @@ export function verdictsOf(r: Report): Verdict[] {
     const life = r.supply.batteryLife;
     v.push({ level: life !== null && life < 4 ? 'caution' : 'pass', title: life !== null ? `Battery life about ${life.toFixed(1)} h` : `Supply current ${f3(r.supply.current, 'A')}`, detail: `Draws ${f3(r.supply.current, 'A')} in total.` });
   }
-  for (const w of r.warnings.filter((x) => x.level === 'fail' && !x.code.startsWith('clips-in-range'))) v.push({ level: 'fail', title: w.code, detail: w.message });
+  const titles: Record<string, string> = {
+    'battery-clips': 'Clips as the battery runs down', 'battery-zero-shift': 'Zero moves with the battery', 'capacitive-load': 'Capacitive load on the op-amp output',
+    'slew-limited': 'Slew-limited at full scale', 'gap-critical': 'Gap is critical', 'burden-power': 'Burden overloaded', 'shunt-power': 'Shunt overloaded',
+    'ct-no-dc': 'A current transformer passes no DC', 'bandwidth-short': 'Bandwidth too low',
+  };
+  for (const w of r.warnings.filter((x) => (x.level === 'fail' || x.level === 'caution') && !x.code.startsWith('clips-in-range') && x.code !== 'bandwidth-short')) {
+    v.push({ level: w.level === 'fail' ? 'fail' : 'caution', title: titles[w.code] ?? w.code, detail: w.message });
+  }
+  if (d.target.bandwidth > 0 && !bwOk) v[3]!.detail = `${r.warnings.find((w) => w.code === 'bandwidth-short')?.message ?? ''} ${v[3]!.detail}`;
+  // Worst first.
+  const rank = { fail: 0, caution: 1, pass: 2 } as const;
+  v.sort((a, b) => rank[a.level] - rank[b.level]);
   return v;
 }
 

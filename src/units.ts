@@ -15,7 +15,7 @@ math.createUnit('gauss', { definition: '1e-4 T', aliases: ['gausses'] });
 
 /** A physical kind of quantity a field holds, as a mathjs unit expression of its SI unit. */
 export type Dimension =
-  | 'ohm' | 'V' | 'A' | 'Hz' | 's' | 'm' | 'T' | 'K' | 'F' | 'C' | 'W'
+  | 'ohm' | 'V' | 'A' | 'Hz' | 's' | 'm' | 'T' | 'K' | 'F' | 'C' | 'W' | 'H'
   | 'V/A' | 'V/T' | 'V/s' | 'V/Hz^0.5' | 'A/Hz^0.5' | 'V/K' | '1/K' | '1';
 
 export type ParseResult = { ok: true; value: number } | { ok: false; message: string };
@@ -33,6 +33,7 @@ export const DIMENSION_NAMES: Record<Dimension, string> = {
   F: 'a capacitance (e.g. 100 nF)',
   C: 'a charge (e.g. 565 mAh)',
   W: 'a power (e.g. 0.25 W)',
+  H: 'an inductance factor in henries per turn² (e.g. 3 µH)',
   'V/A': 'a sensitivity in volts per ampere (e.g. 12.5 mV/A)',
   'V/T': 'a sensitivity in volts per tesla (e.g. 25 mV/mT, 2.5 mV/G)',
   'V/s': 'a slew rate (e.g. 0.5 V/µs)',

@@ -16,7 +16,7 @@ export type Spec =
   | { t: 'str'; optional?: boolean; def?: string; oneOf?: readonly string[]; maxLength?: number }
   | { t: 'bool'; optional?: boolean; def?: boolean }
   | { t: 'obj'; fields: Record<string, Spec>; optional?: boolean; nullable?: boolean; def?: unknown }
-  | { t: 'tuple'; items: Spec[]; optional?: boolean; def?: unknown[] }
+  | { t: 'tuple'; items: Spec[]; optional?: boolean; nullable?: boolean; def?: unknown[] | null }
   | { t: 'list'; item: Spec; optional?: boolean; def?: unknown[]; nonEmpty?: boolean; maxItems?: number }
   | { t: 'variant'; tag: string; variants: Record<string, Record<string, Spec>>; optional?: boolean };
 
@@ -100,6 +100,7 @@ export function check(value: unknown, spec: Spec, path: string, problems: Proble
       return checkFields(value as Record<string, unknown>, spec.fields, path, problems);
     }
     case 'tuple': {
+      if (value === null && spec.nullable) return null;
       if (!Array.isArray(value) || value.length !== spec.items.length) {
         problems.push({ path: label, message: `must be a list of ${spec.items.length} values` });
         return undefined;

@@ -23,6 +23,15 @@ describe('validateDesign', () => {
   it('accepts every demo', () => {
     for (const d of DEMOS) expect(validateDesign(structuredClone(d.document)).ok, d.id).toBe(true);
   });
+  it('is idempotent: a validated design validates again unchanged', () => {
+    for (const d of DEMOS) {
+      const once = validateDesign(structuredClone(d.document));
+      if (!once.ok) throw new Error(d.id);
+      const twice = validateDesign(JSON.parse(JSON.stringify(once.design)));
+      expect(twice.ok, d.id).toBe(true);
+      if (twice.ok) expect(twice.design).toEqual(once.design);
+    }
+  });
   it('names the field path: opamp.gbw must be a positive number of hertz', () => {
     const d = issueExample();
     (d.opamp as Record<string, unknown>).gbw = -1;

@@ -1,0 +1,69 @@
+import type { ReactiveController, ReactiveControllerHost } from 'lit';
+import {
+  Chart, LineController, LineElement, PointElement, BarController, BarElement, LinearScale, LogarithmicScale, CategoryScale,
+  Legend, Title, Tooltip, type ChartConfiguration,
+} from 'chart.js';
+import type { ChartData, Series } from '../src/charts.js';
+
+// Only what the five plots use, so the rest of Chart.js is left out of the bundle.
+Chart.register(LineController, LineElement, PointElement, BarController, BarElement, LinearScale, LogarithmicScale, CategoryScale, Legend, Title, Tooltip);
+
+const SOURCE_COLOURS = ['#2f7d6d', '#b5651d', '#6a4c93', '#8c8c2a', '#c0392b', '#3d6fa8'];
+
+function styleFor(s: Series, i: number) {
+  switch (s.role) {
+    case 'main': return { borderColor: '#1d4f91', backgroundColor: '#1d4f91', borderWidth: 2 };
+    case 'clipped': return { borderColor: '#a11d1d', backgroundColor: '#a11d1d', borderWidth: 2, borderDash: [6, 4] };
+    case 'limit': return { borderColor: '#7a828f', backgroundColor: '#7a828f', borderWidth: 1, borderDash: [2, 3] };
+    case 'range': return { borderColor: '#a4520f', backgroundColor: '#a4520f', borderWidth: 1.5, borderDash: [8, 3] };
+    case 'secondary': return { borderColor: '#6a4c93', backgroundColor: '#6a4c93', borderWidth: 1.5, borderDash: [4, 2] };
+    default: return { borderColor: SOURCE_COLOURS[i % SOURCE_COLOURS.length], backgroundColor: SOURCE_COLOURS[i % SOURCE_COLOURS.length], borderWidth: 1.2 };
+  }
+}
+
+/** Turns our plain chart data into a Chart.js configuration. */
+export function chartConfig(d: ChartData): ChartConfiguration {
+  const datasets = d.series.map((s, i) => ({
+    label: s.label, data: s.points, parsing: false as const, pointRadius: 0, tension: 0, spanGaps: false,
+    yAxisID: s.axis === 'y2' ? 'y2' : 'y', ...styleFor(s, i),
+  }));
+  const scales: Record<string, unknown> = {
+    x: { type: d.x.log ? 'logarithmic' : 'linear', title: { display: true, text: d.x.label }, ...(d.bars ? { offset: true } : {}) },
+    y: { type: d.y.log ? 'logarithmic' : 'linear', title: { display: true, text: d.y.label } },
+  };
+  if (d.y2) scales.y2 = { type: 'linear', position: 'right', title: { display: true, text: d.y2.label }, grid: { drawOnChartArea: false } };
+  return {
+    type: d.bars ? 'bar' : 'line',
+    data: { datasets: datasets as never },
+    options: {
+      animation: false, responsive: true, maintainAspectRatio: false, normalized: true,
+      plugins: { title: { display: true, text: d.title }, legend: { labels: { boxWidth: 14 } } },
+      scales: scales as never,
+    },
+  } as ChartConfiguration;
+}
+
+/** Owns one Chart.js instance on a canvas of its host; updates it when the data change. */
+export class ChartController implements ReactiveController {
+  private chart: Chart | null = null;
+  constructor(private host: ReactiveControllerHost & { canvas: HTMLCanvasElement | null; data: ChartData | null }) {
+    host.addController(this);
+  }
+  hostUpdated(): void {
+    const { canvas, data } = this.host;
+    if (!canvas || !data) return;
+    const cfg = chartConfig(data);
+    if (!this.chart || this.chart.canvas !== canvas || (this.chart.config as { type?: string }).type !== cfg.type) {
+      this.chart?.destroy();
+      this.chart = new Chart(canvas, cfg);
+    } else {
+      this.chart.data = cfg.data;
+      this.chart.options = cfg.options ?? {};
+      this.chart.update('none');
+    }
+  }
+  hostDisconnected(): void {
+    this.chart?.destroy();
+    this.chart = null;
+  }
+}

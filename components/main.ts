@@ -1,0 +1,2 @@
+// Browser entry point: defines the elements; index.html places <gw-app>.
+import './gw-app.js';

@@ -1,0 +1,77 @@
+/**
+ * Keeping designs: the share link (the design in the URL fragment), the versioned autosave envelope and a
+ * safe file name. Pure functions; the app does the storage and the download.
+ */
+import { parseDesignText, serialiseDesign, validateDesign, type Design, type ValidationResult } from './design.js';
+
+export const AUTOSAVE_KEY = 'gainwright.autosave';
+export const AUTOSAVE_VERSION = 1;
+
+function toBase64Url(text: string): string {
+  const bytes = new TextEncoder().encode(text);
+  let bin = '';
+  for (const b of bytes) bin += String.fromCharCode(b);
+  return btoa(bin).replace(/\+/g, '-').replace(/\//g, '_').replace(/=+$/, '');
+}
+
+function fromBase64Url(s: string): string | null {
+  if (!/^[A-Za-z0-9_-]*$/.test(s)) return null;
+  try {
+    const bin = atob(s.replace(/-/g, '+').replace(/_/g, '/') + '==='.slice((s.length + 3) % 4));
+    const bytes = Uint8Array.from(bin, (c) => c.charCodeAt(0));
+    return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    return null;
+  }
+}
+
+/** The fragment that carries a design: `#d=<base64url of the JSON>`. */
+export function shareFragment(design: Design): string {
+  return `#d=${toBase64Url(JSON.stringify(design))}`;
+}
+
+/** Reads a design from a URL fragment; `null` when the fragment carries none. */
+export function designFromFragment(hash: string): ValidationResult | null {
+  const m = /^#d=(.*)$/.exec(hash);
+  if (!m) return null;
+  if (m[1]!.length > 1_400_000) return { ok: false, problems: [{ path: '(link)', message: 'is too long to be a design' }] };
+  const text = fromBase64Url(m[1]!);
+  if (text === null) return { ok: false, problems: [{ path: '(link)', message: 'is damaged: it does not decode to text' }] };
+  return parseDesignText(text);
+}
+
+/** The autosave entry: versioned so that a future format can migrate it. */
+export function autosaveEntry(design: Design): string {
+  return JSON.stringify({ v: AUTOSAVE_VERSION, savedAt: new Date().toISOString(), design });
+}
+
+export type RestoreResult =
+  | { kind: 'none' }
+  | { kind: 'ok'; design: Design }
+  | { kind: 'damaged'; text: string; reason: string };
+
+/** Reads the autosave entry; a damaged one is reported with its text so that nothing is lost. */
+export function restoreAutosave(stored: string | null): RestoreResult {
+  if (stored === null || stored === '') return { kind: 'none' };
+  let doc: unknown;
+  try {
+    doc = JSON.parse(stored);
+  } catch {
+    return { kind: 'damaged', text: stored, reason: 'the saved entry is not valid JSON' };
+  }
+  const env = doc as { v?: unknown; design?: unknown };
+  if (typeof env !== 'object' || env === null || env.v !== AUTOSAVE_VERSION) {
+    return { kind: 'damaged', text: stored, reason: 'the saved entry has an unknown layout' };
+  }
+  const v = validateDesign(env.design);
+  if (!v.ok) return { kind: 'damaged', text: stored, reason: `the saved design has problems: ${v.problems.slice(0, 3).map((p) => `${p.path}: ${p.message}`).join('; ')}` };
+  return { kind: 'ok', design: v.design };
+}
+
+/** A file name from the title: letters, digits and dashes only. */
+export function fileName(design: Design, ext: string): string {
+  const base = design.title.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'design';
+  return `${base}.${ext}`;
+}
+
+export { serialiseDesign };

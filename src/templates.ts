@@ -1,0 +1,24 @@
+/** Starting figures when a person switches the sensor model (taken from the demos, our own scenarios). */
+import type { Design, SensorType } from './design.js';
+import { DEMOS } from './demos.js';
+
+const FROM: Record<SensorType, string> = {
+  'hall-gap-core': 'bench-clamp',
+  'current-transformer': 'appliance-ct',
+  'voltage-output': 'generic-sensor',
+  shunt: 'generic-sensor',
+};
+
+/** The design with its sensor replaced by a starting sensor of `type`; the rest is kept. */
+export function sensorTemplate(design: Design, type: SensorType): Record<string, unknown> {
+  if (design.sensor.type === type) return design as unknown as Record<string, unknown>;
+  const demo = DEMOS.find((d) => d.id === FROM[type])!.document as Record<string, any>;
+  const sensor = type === 'shunt'
+    ? { type: 'shunt', measurand: 'A', resistance: 0.01, powerRating: 1 }
+    : structuredClone(demo.sensor);
+  const target = { ...design.target };
+  if (type === 'current-transformer') target.signal = 'ac-rms';
+  const supply = { ...design.supply };
+  if (supply.sensorRail === 'regulated' && !supply.regulated) supply.sensorRail = 'positive';
+  return { ...design, sensor, target, supply } as unknown as Record<string, unknown>;
+}

@@ -1,0 +1,182 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import { startHarness, watchedPage, type Harness } from './harness.js';
+
+let h: Harness;
+beforeAll(async () => { h = await startHarness(); });
+afterAll(async () => { await h?.close(); });
+
+const partsText = (page: Page) => page.locator('gw-parts').first().locator('tbody').innerText();
+const verdictText = (page: Page) => page.locator('gw-verdicts ul').first().innerText();
+const transferData = (page: Page) => page.evaluate(() => {
+  const chart = document.querySelector('gw-app')!.shadowRoot!.querySelector('gw-chart[data-chart="transfer"]') as unknown as { data: { series: Array<{ points: Array<{ x: number; y: number }> }> } };
+  return JSON.stringify(chart.data.series[0]!.points.slice(0, 5));
+});
+const field = (page: Page, path: string) => page.locator(`input[data-path="${path}"]`);
+
+async function typeInto(page: Page, path: string, text: string): Promise<void> {
+  const f = field(page, path);
+  await f.fill(text);
+  await f.press('Enter');
+  await f.blur();
+}
+
+describe('the app in Chromium', () => {
+  it('loads with the demo design and its verdict, without console errors or off-site requests', async () => {
+    const { page, errors, offsite } = await watchedPage(h);
+    await page.goto(h.url);
+    await expect.poll(() => verdictText(page)).toMatch(/Covers the range|Clips/);
+    expect(await page.locator('gw-verdicts li').count()).toBeGreaterThan(4);
+    expect(await partsText(page)).toMatch(/R1/);
+    expect(await page.locator('.safety-banner').innerText()).toMatch(/insulated conductors/);
+    mkdirSync('docs', { recursive: true });
+    await page.screenshot({ path: 'docs/screenshot-main.png' });
+    expect(errors).toEqual([]);
+    expect(offsite).toEqual([]);
+    await page.context().close();
+  });
+
+  it('a new sensitivity changes the gain, the parts and the transfer plot', async () => {
+    const { page, errors } = await watchedPage(h);
+    await page.goto(h.url);
+    await expect.poll(() => partsText(page)).toMatch(/R1/);
+    const parts0 = await partsText(page);
+    const plot0 = await transferData(page);
+    const figures0 = await page.locator('gw-figures table').first().innerText();
+    await typeInto(page, 'sensor.hallSensitivity', '31 mV/mT');
+    await expect.poll(() => partsText(page)).not.toBe(parts0);
+    expect(await transferData(page)).not.toBe(plot0);
+    const figures1 = await page.locator('gw-figures table').first().innerText();
+    expect(figures1).not.toBe(figures0);
+    expect(await field(page, 'sensor.hallSensitivity').inputValue()).toBe('31 V/T');
+    expect(errors).toEqual([]);
+    await page.context().close();
+  });
+
+  it('a bad value shows a message at the field and the old results stay', async () => {
+    const { page } = await watchedPage(h);
+    await page.goto(h.url);
+    await expect.poll(() => partsText(page)).toMatch(/R1/);
+    const parts0 = await partsText(page);
+    await typeInto(page, 'opamp.gbw', 'fast please');
+    await expect.poll(() => page.locator('gw-field[path="opamp.gbw"] [role="alert"]').innerText()).toMatch(/cannot read "fast please"/);
+    expect(await partsText(page)).toBe(parts0);
+    await typeInto(page, 'opamp.gbw', '-3 MHz');
+    await expect.poll(() => page.locator('gw-field[path="opamp.gbw"] [role="alert"]').innerText()).toMatch(/positive number of hertz/);
+    expect(await partsText(page)).toBe(parts0);
+    expect(await page.locator('gw-chart').count()).toBeGreaterThan(3);
+    await page.context().close();
+  });
+
+  it('save, then open the file again, gives the same parts', async () => {
+    const { page } = await watchedPage(h);
+    await page.goto(h.url);
+    await expect.poll(() => partsText(page)).toMatch(/R1/);
+    await typeInto(page, 'target.scale', '50 mV/A');
+    await expect.poll(() => verdictText(page)).toMatch(/Scale 50/);
+    const parts = await partsText(page);
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Save' }).click()]);
+    const dir = mkdtempSync(join(tmpdir(), 'gw-e2e-'));
+    const file = join(dir, 'saved.json');
+    await download.saveAs(file);
+    expect(JSON.parse(readFileSync(file, 'utf8')).target.scale).toBe(0.05);
+    // Open it in a fresh page that starts from the demo.
+    const fresh = await watchedPage(h);
+    await fresh.page.goto(h.url);
+    await fresh.page.locator('#open-file').setInputFiles(file);
+    await expect.poll(() => partsText(fresh.page)).toBe(parts);
+    await page.context().close();
+    await fresh.page.context().close();
+  });
+
+  it('a reload finds the design still there', async () => {
+    const { page } = await watchedPage(h);
+    await page.goto(h.url);
+    await typeInto(page, 'target.zero', '4 V');
+    await expect.poll(() => verdictText(page)).toMatch(/zero 4\.00 V/);
+    const parts = await partsText(page);
+    await page.reload();
+    await expect.poll(() => partsText(page)).toBe(parts);
+    expect(await field(page, 'target.zero').inputValue()).toBe('4 V');
+    await page.context().close();
+  });
+
+  it('the share link opens the same design in a fresh browser', async () => {
+    const { page } = await watchedPage(h, { permissions: ['clipboard-read', 'clipboard-write'] });
+    await page.goto(h.url);
+    await typeInto(page, 'target.zero', '3.5 V');
+    await expect.poll(() => verdictText(page)).toMatch(/zero 3\.50 V/);
+    const parts = await partsText(page);
+    await page.getByRole('button', { name: 'Share link' }).click();
+    const link = await page.locator('input.share').inputValue();
+    expect(link).toMatch(/#d=/);
+    const other = await watchedPage(h);
+    await other.page.goto(link);
+    await expect.poll(() => partsText(other.page)).toBe(parts);
+    expect(await field(other.page, 'target.zero').inputValue()).toBe('3.5 V');
+    await page.context().close();
+    await other.page.context().close();
+  });
+
+  it('the print view holds the parts list, the calibration steps and the cautions', async () => {
+    const { page } = await watchedPage(h);
+    await page.goto(h.url);
+    await expect.poll(() => partsText(page)).toMatch(/R1/);
+    await page.emulateMedia({ media: 'print' });
+    const sheet = page.locator('.sheet');
+    await expect.poll(() => sheet.isVisible()).toBe(true);
+    const text = await sheet.innerText();
+    expect(text).toMatch(/Parts list/);
+    expect(text).toMatch(/RV1/);
+    expect(text).toMatch(/Calibration/);
+    expect(text).toMatch(/Zero: /);
+    expect(text).toMatch(/insulated conductors/);
+    expect(text).toMatch(/measurement-category/);
+    expect(await page.locator('main').isVisible()).toBe(false);
+    await page.screenshot({ path: 'docs/screenshot-print.png', fullPage: true });
+    await page.context().close();
+  });
+
+  it('a title with markup is shown as text and runs nothing', async () => {
+    const { page, errors } = await watchedPage(h);
+    await page.goto(h.url);
+    await page.evaluate(() => { (window as unknown as { __pwned: boolean }).__pwned = false; });
+    const title = page.locator('input[aria-label="Design title"]');
+    await title.fill('<img src=x onerror="window.__pwned=true">');
+    await title.press('Enter');
+    await title.blur();
+    await page.emulateMedia({ media: 'print' });
+    await expect.poll(() => page.locator('.sheet h1').innerText()).toBe('<img src=x onerror="window.__pwned=true">');
+    expect(await page.locator('.sheet img').count()).toBe(0);
+    expect(await page.evaluate(() => (window as unknown as { __pwned: boolean }).__pwned)).toBe(false);
+    expect(errors).toEqual([]);
+    await page.context().close();
+  });
+
+  it('a damaged file leaves the current design untouched with a message', async () => {
+    const { page } = await watchedPage(h);
+    await page.goto(h.url);
+    await expect.poll(() => partsText(page)).toMatch(/R1/);
+    const parts = await partsText(page);
+    const dir = mkdtempSync(join(tmpdir(), 'gw-e2e-'));
+    const bad = join(dir, 'bad.json');
+    writeFileSync(bad, '{"format":"gainwright-design","version":1,"sensor":');
+    await page.locator('#open-file').setInputFiles(bad);
+    await expect.poll(() => page.locator('.notice.bad').innerText()).toMatch(/not valid JSON/);
+    expect(await partsText(page)).toBe(parts);
+    await page.context().close();
+  });
+
+  it('is usable at 360 px wide', async () => {
+    const { page, errors } = await watchedPage(h, { viewport: { width: 360, height: 740 } });
+    await page.goto(h.url);
+    await expect.poll(() => verdictText(page)).toMatch(/Pass|Caution|Fail/i);
+    const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+    expect(overflow).toBeLessThanOrEqual(1);
+    expect(errors).toEqual([]);
+    await page.context().close();
+  });
+});
