@@ -71,6 +71,16 @@ export function bomRows(r: Report): BomRow[] {
       });
     }
   }
+  const sensorName: Record<string, string> = {
+    'hall-gap-core': `linear Hall sensor in a ${formatEng(r.design.sensor.type === 'hall-gap-core' ? r.design.sensor.core.gap : 0, 'm')} core gap`,
+    'current-transformer': 'current transformer (burden listed separately if not fitted)',
+    shunt: `shunt ${formatEng(r.design.sensor.type === 'shunt' ? r.design.sensor.resistance : 0, 'Ω')}`,
+    'voltage-output': 'voltage-output sensor',
+  };
+  rows.push({ ref: 'S1', value: sensorName[r.design.sensor.type] ?? 'sensor', code: '', spec: `${formatEng(r.front.sensitivity, `V/${r.design.sensor.measurand}`)} as designed`, dissipation: null, rating: null, quantity: 1, role: 'sensor' });
+  if (r.design.supply.regulated) {
+    rows.push({ ref: 'U2', value: `${formatEng(r.design.supply.regulated.voltage, 'V')} regulator`, code: '', spec: `low-dropout, ±${r.design.supply.regulated.tolerance * 100} %, with its input and output capacitors`, dissipation: null, rating: null, quantity: 1, role: 'regulated rail for the sensor and/or reference' });
+  }
   rows.push({ ref: 'U1', value: r.design.opamp.name || 'op-amp', code: '', spec: `GBW ${formatEng(r.design.opamp.gbw, 'Hz')}, SR ${formatEng(r.design.opamp.slewRate, 'V/s')}`, dissipation: null, rating: null, quantity: 1, role: 'amplifier' });
   rows.push({ ref: 'C9', value: '100 nF', code: '104', spec: 'ceramic X7R, 50 V', dissipation: null, rating: null, quantity: 1, role: 'supply decoupling at U1 (common practice)' });
   return rows;
