@@ -31,9 +31,17 @@ const lin = (c0: Float64Array, c1: Float64Array, node: number): [number, number]
 
 /** DC solution of the stage, linear in the measurand, with inductors open for AC-coupled sensors. */
 export function dcLinear(sc: StageCircuit, passband: boolean): DcPoint | null {
-  const sol = solveDc(sc.circuit, [(e) => e.dc0 ?? 0, (e) => e.dc1 ?? 0], passband);
+  // The zero is a true DC operating point (inductors shorted); the scale of an AC-coupled sensor is its
+  // passband value (inductors open), which is what an rms reading sees.
+  const sol = solveDc(sc.circuit, [(e) => e.dc0 ?? 0, (e) => e.dc1 ?? 0], false);
   if (!sol) return null;
-  const [c0, c1] = sol.columns as [Float64Array, Float64Array];
+  const c0 = sol.columns[0]!;
+  let c1 = sol.columns[1]!;
+  if (passband) {
+    const pb = solveDc(sc.circuit, [(e) => e.dc1 ?? 0], true);
+    if (!pb) return null;
+    c1 = pb.columns[0]!;
+  }
   const n = sc.nodes;
   const k = sc.circuit.branch[sc.opampIndex]!;
   // Branch current of the gain block flows from its + terminal into the source: the pin current is its negative.
@@ -477,10 +485,16 @@ export function spread(design: Design, front: SensorFront, sc: StageCircuit, dc:
     } else {
       sig.dc1 = sig1 * (1 + front.sensitivityTolerance * (2 * rand() - 1));
     }
-    stamp(c, 0, A, false, passband);
-    const piv = luFactor(A);
+    stamp(c, 0, A, false, false);
+    let piv = luFactor(A);
     if (!piv) { scales[t] = NaN; zeros[t] = NaN; continue; }
     const b0 = rhs(c, (e) => e.dc0 ?? 0); zeroIm.fill(0); luSolve(A, piv, b0, zeroIm);
+    if (passband) {
+      // An AC-coupled sensor's scale is its passband value (inductors open): a second factorisation.
+      stamp(c, 0, A, false, true);
+      piv = luFactor(A);
+      if (!piv) { scales[t] = NaN; zeros[t] = NaN; continue; }
+    }
     const b1 = rhs(c, (e) => e.dc1 ?? 0); zeroIm.fill(0); luSolve(A, piv, b1, zeroIm);
     scales[t] = b1[o]!; zeros[t] = b0[o]!;
     if (Math.abs(b1[o]! / s0 - 1) <= design.analysis.scaleLimit && Math.abs(b0[o]! - z0) <= design.analysis.zeroLimit) pass++;

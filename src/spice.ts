@@ -9,6 +9,7 @@
  */
 import { BOLTZMANN } from './constants.js';
 import type { Report } from './report.js';
+import { solveDc } from './mna.js';
 
 const fmt = (x: number) => (Number.isFinite(x) ? Number(x.toPrecision(9)).toString() : '0');
 const node = (names: string[], i: number) => (i === 0 ? '0' : names[i]!.replace(/[^A-Za-z0-9_]/g, '_'));
@@ -34,9 +35,10 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
   const title = d.title.replace(/[\r\n]+/g, ' ').slice(0, 120);
   lines.push(`* Gainwright netlist: ${title}`);
   lines.push(`* Exported ${date} (ISO 8601). Topology: ${r.stage?.ideal.topology ?? 'none'}.`);
-  lines.push('* Model assumptions: linear small-signal op-amp (single pole at GBW/A0, open-loop output resistance),');
-  lines.push('* no output clipping or slew limit (the report applies those separately), offsets and bias currents omitted,');
-  lines.push('* trimmers as two resistors at their settings, sensor as an ideal source with its resistance and bandwidth.');
+  lines.push('* Model assumptions: behavioural op-amp with a single pole at GBW/A0, open-loop output resistance, and its');
+  lines.push('* internal output limited to the swing (outputLow above the - rail, outputHigh below the + rail); no slew limit,');
+  lines.push('* no output current limit, offsets and bias currents omitted; trimmers as two resistors at their settings;');
+  lines.push('* sensor as an ideal source with its resistance and bandwidth (its own output limits are not modelled).');
   lines.push(`* Measurand ${d.sensor.measurand}: the signal source is ${c.elements[sc.signalIndex]?.name ?? '?'}; its value is quiescent + sensitivity x measurand.`);
   lines.push(`* Output node: ${node(names, sc.nodes.out)}. Temperature ${fmt(tempC)} C.`);
   lines.push('*');
@@ -89,7 +91,10 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
           lines.push(`${spiceName('G', `${e.name}_GM`)} 0 ${p} ${cp} ${cn} ${fmt(e.value / rp)}`);
           lines.push(`${spiceName('R', `${e.name}_RP`)} ${p} 0 ${fmt(rp)} noisy=0`);
           lines.push(`${spiceName('C', `${e.name}_CP`)} ${p} 0 ${fmt(cp2)}`);
-          lines.push(`${spiceName('E', e.name)} ${a} ${b} ${p} 0 1`);
+          // The internal output clips at the swing limits, as the report's clipping analysis assumes.
+          const lo = d.supply.negative + d.opamp.outputLow;
+          const hi = (r.design.supply.positive) - d.opamp.outputHigh;
+          lines.push(`${spiceName('B', e.name)} ${a} ${b} V=max(${fmt(lo)}, min(${fmt(hi)}, V(${p})))`);
         } else {
           lines.push(`${spiceName('E', e.name)} ${a} ${b} ${cp} ${cn} ${fmt(e.value)}`);
         }
@@ -98,15 +103,54 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
     }
   });
   const sig = c.elements[sc.signalIndex];
-  const fTop = Math.max(r.speed.smallSignal * 100, 1e3);
+  const band = r.noise?.band ?? [1, Math.max(r.speed.smallSignal * 100, 1e3)];
+  const out = node(names, sc.nodes.out);
+  const sigName = sig ? spiceName(sig.kind, sig.name) : '';
+  // Start Newton at the operating point the report found: the behavioural limiter makes a cold start hard.
+  const op = r.dc ? nodesetLine(r) : null;
   lines.push('*');
-  lines.push('.op');
-  lines.push(`.ac dec 40 1 ${fmt(fTop)}`);
-  if (sig) lines.push(`.noise v(${node(names, sc.nodes.out)}) ${spiceName(sig.kind, sig.name)} dec 40 1 ${fmt(fTop)}`);
-  lines.push(`.print ac vm(${node(names, sc.nodes.out)}) vp(${node(names, sc.nodes.out)})`);
-  if (sig) lines.push('.print noise onoise_spectrum');
+  if (op) lines.push(op);
+  lines.push('* Analyses (ngspice .control block): results go to gainwright-*.txt as plain columns in the working folder.');
+  lines.push('* For another simulator replace the block with its own .dc/.ac/.noise lines.');
+  lines.push('.control');
+  lines.push('set wr_singlescale');
+  lines.push('set wr_vecnames');
+  lines.push('op');
+  lines.push(`wrdata gainwright-op.txt v(${out})`);
+  if (sig && r.front.passesDc && r.transfer) {
+    // DC sweep of the signal source across the range and half a range beyond each end (the transfer plot's span).
+    const x0 = r.transfer.x[0]!, x1 = r.transfer.x[r.transfer.x.length - 1]!;
+    const v = (x: number) => (sig.dc0 ?? 0) + (sig.dc1 ?? 0) * x;
+    lines.push(`* source value = ${fmt(sig.dc0 ?? 0)} + ${fmt(sig.dc1 ?? 0)} x measurand, from ${fmt(x0)} to ${fmt(x1)} ${d.sensor.measurand}`);
+    lines.push(`dc ${sigName} ${fmt(v(x0))} ${fmt(v(x1))} ${fmt((v(x1) - v(x0)) / 400)}`);
+    lines.push(`wrdata gainwright-dc.txt v(${out})`);
+  }
+  lines.push(`ac dec 40 ${fmt(Math.min(band[0], 1))} ${fmt(Math.max(band[1], r.speed.smallSignal * 10))}`);
+  lines.push(`wrdata gainwright-ac.txt vm(${out}) vp(${out})`);
+  if (sig) {
+    lines.push(`noise v(${out}) ${sigName} dec 40 ${fmt(band[0])} ${fmt(band[1])}`);
+    lines.push('setplot noise1');
+    lines.push('wrdata gainwright-noise.txt onoise_spectrum');
+  }
+  lines.push('quit');
+  lines.push('.endc');
   lines.push('.end');
   return lines.join('\n') + '\n';
+}
+
+/** `.nodeset` of every node at zero measurand, from the report's own DC solution. */
+function nodesetLine(r: Report): string | null {
+  const sc = r.circuit!;
+  const sol = solveDc(sc.circuit, [(e) => e.dc0 ?? 0], !r.front.passesDc);
+  if (!sol) return null;
+  const col = sol.columns[0]!;
+  const names = sc.circuit.nodeNames;
+  const parts: string[] = [];
+  for (let i = 1; i < names.length; i++) parts.push(`V(${node(names, i)})=${fmt(col[i - 1]!)}`);
+  // The op-amp's pole node sits at the internal output voltage.
+  const e = sc.circuit.elements[sc.opampIndex];
+  if (e) parts.push(`V(${node(names, e.a)}_pole)=${fmt(col[e.a - 1]!)}`);
+  return `.nodeset ${parts.join(' ')}`;
 }
 
 /** SPICE wants the first letter to be the element type. */

@@ -1,0 +1,53 @@
+/** Designs for the simulator cross-check: scenarios of our own invention, patched from the demos. */
+import { validateDesign, type Design } from '../../src/design.js';
+import { DEMOS } from '../../src/demos.js';
+import { OPAMP_ARCHETYPES } from '../../src/opamps.js';
+
+const arche = (id: string) => ({ ...OPAMP_ARCHETYPES.find((a) => a.id === id)!.spec });
+
+function from(id: string, patch: (d: any) => void = () => {}): Design {
+  const doc = structuredClone(DEMOS.find((d) => d.id === id)!.document) as any;
+  patch(doc);
+  const v = validateDesign(doc);
+  if (!v.ok) throw new Error(`${id}: ${JSON.stringify(v.problems)}`);
+  return v.design;
+}
+
+export const CROSSCHECK_DESIGNS: Array<[string, Design]> = [
+  ['voltage sensor, non-inverting, divider with trimmers', from('generic-sensor')],
+  ['voltage sensor, divider without trimmer', from('generic-sensor', (d) => { d.target.trim = { gain: false, zero: false }; })],
+  ['voltage sensor, inverting', from('generic-sensor', (d) => { d.target.scale = -0.1; })],
+  ['Hall clamp, regulated reference, output resistor', from('bench-clamp')],
+  ['Hall clamp, 3 turns, RC output filter', from('bench-clamp', (d) => { d.sensor.turns = 3; d.target.zero = 2.5; d.target.range = [-10, 10]; d.output.filter = { resistance: 1000, capacitance: 10e-9 }; })],
+  ['current transformer, inverting, RC filter', from('appliance-ct')],
+  ['shunt, split supply, reference tied to ground', from('generic-sensor', (d) => {
+    d.sensor = { type: 'shunt', measurand: 'A', resistance: 0.01, powerRating: 1 };
+    d.supply = { positive: 5, negative: -5 }; d.opamp = arche('cmos-rail-to-rail');
+    d.target = { ...d.target, scale: 0.5, zero: 0, range: [-5, 5], trim: { gain: false, zero: false } };
+  })],
+  ['shunt, split supply, zero trim between the rails', from('generic-sensor', (d) => {
+    d.sensor = { type: 'shunt', measurand: 'A', resistance: 0.01, powerRating: 1 };
+    d.supply = { positive: 5, negative: -5 }; d.opamp = arche('cmos-rail-to-rail');
+    d.target = { ...d.target, scale: 0.5, zero: 0.5, range: [-5, 5] };
+  })],
+  ['voltage sensor, split supply, inverting, RC filter into 10 kΩ', from('generic-sensor', (d) => {
+    d.supply = { positive: 12, negative: -12 }; d.sensor.quiescent = 0; d.sensor.outputMin = -10; d.sensor.outputMax = 10;
+    d.opamp.inputLow = 1.5; d.opamp.outputLow = 1.5;
+    d.target = { ...d.target, scale: -0.2, zero: 0, range: [-40, 40] };
+    d.output = { filter: { resistance: 470, capacitance: 1e-9 }, load: { resistance: 10e3, capacitance: 100e-12 } };
+  })],
+  ['Hall sensor, fast CMOS at 5 V, capacitive load', from('bench-clamp', (d) => {
+    d.opamp = arche('fast-cmos'); d.supply = { positive: 5, negative: 0, sensorRail: 'positive', referenceRail: 'positive' };
+    d.target = { ...d.target, scale: 0.05, zero: 2.5, range: [-20, 20], bandwidth: 0 };
+    d.output = { filter: { resistance: 47, capacitance: 0 }, load: { resistance: 10e3, capacitance: 100e-12 } };
+  })],
+  ['voltage sensor, low-noise op-amp, gain 40, split supply', from('generic-sensor', (d) => {
+    d.opamp = arche('low-noise-bipolar'); d.supply = { positive: 15, negative: -15 }; d.sensor.quiescent = 0; d.sensor.outputMin = -10; d.sensor.outputMax = 10;
+    d.target = { ...d.target, scale: 0.5, zero: 0, range: [-20, 20] };
+  })],
+  ['current transformer, non-inverting, split supply', from('appliance-ct', (d) => {
+    d.supply = { positive: 5, negative: -5 };
+    d.target = { ...d.target, scale: 0.2, zero: 0, topology: 'non-inverting', trim: { gain: false, zero: false } };
+    d.output = { filter: null, load: { resistance: 1e6, capacitance: 15e-12 } };
+  })],
+];
