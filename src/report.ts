@@ -15,6 +15,7 @@ import {
 import type { Warning } from './warnings.js';
 import { formatEng } from './units.js';
 import { calibrationSteps, type CalibrationStep } from './calibration.js';
+import { solveDc } from './mna.js';
 
 export interface Verdict {
   level: 'pass' | 'caution' | 'fail';
@@ -133,6 +134,16 @@ function findings(r: Report): Warning[] {
   if (d.target.bandwidth > 0 && sp.fullPower < d.target.bandwidth) {
     w.push({ code: 'slew-limited', level: 'caution', message: `Full-scale signals are slew-limited above ${f3(sp.fullPower, 'Hz')} (SR/(2π·Vpeak)); the wanted range and ${f3(d.target.bandwidth, 'Hz')} cannot both be had.` });
   }
+  // What the amplifier's input network draws from the sensor's output (through its source resistance).
+  const sc = r.circuit;
+  if (sc && (d.sensor.type === 'voltage-output' || d.sensor.type === 'hall-gap-core')) {
+    const draw = sensorDraw(r);
+    if (draw !== null && r.front.outputDrive > 0 && draw > r.front.outputDrive) {
+      w.push({ code: 'sensor-drive', level: 'fail', message: `The amplifier's input network draws up to ${f3(draw, 'A')} from the sensor, more than the ${f3(r.front.outputDrive, 'A')} it can drive.` });
+    } else if (draw !== null && draw > 1e-6) {
+      w.push({ code: 'sensor-load', level: 'info', message: `The input network draws up to ${f3(draw, 'A')} from the sensor's output${r.front.outputDrive > 0 ? ` (it can drive ${f3(r.front.outputDrive, 'A')})` : '; check that the sensor can drive it'}.` });
+    }
+  }
   if (r.drive) {
     if (!r.drive.drives50) w.push({ code: 'no-50-ohm', level: 'info', message: 'Do not switch the instrument to its 50 Ω input: the op-amp cannot drive it over the range.' });
     if (r.drive.isolation > 0) w.push({ code: 'capacitive-load', level: 'caution', message: `The instrument and cable capacitance sits on the op-amp output unisolated: fit a series resistor of about ${f3(r.drive.isolation, 'Ω')} (output.filter).` });
@@ -147,6 +158,30 @@ function findings(r: Report): Warning[] {
     if (shift > d.analysis.zeroLimit) w.push({ code: 'battery-zero-shift', level: 'caution', message: `The zero moves by up to ${f3(shift, 'V')} as the battery sags, because the reference is taken from it; feed the reference from a regulated rail.` });
   }
   return w;
+}
+
+/** Largest current the sensor output delivers over the range, A (null when the circuit has no source resistor). */
+export function sensorDraw(r: Report): number | null {
+  const sc = r.circuit;
+  if (!sc || !r.clip) return null;
+  // The sensor output node and the amplifier input node: the current in between is what the sensor drives.
+  const sol = solveDc(sc.circuit, [(e) => e.dc0 ?? 0, (e) => e.dc1 ?? 0], !r.front.passesDc);
+  if (!sol) return null;
+  const [c0, c1] = sol.columns as [Float64Array, Float64Array];
+  const rsIdx = sc.circuit.elements.findIndex((e) => e.name === 'RS' && e.kind === 'R');
+  const [a, b] = r.clip.rangePeak;
+  let worst = 0;
+  if (rsIdx >= 0) {
+    const e = sc.circuit.elements[rsIdx]!;
+    const v = (col: Float64Array, n: number) => (n > 0 ? col[n - 1]! : 0);
+    for (const x of [a, 0, b]) worst = Math.max(worst, Math.abs((v(c0, e.a) - v(c0, e.b) + (v(c1, e.a) - v(c1, e.b)) * x) / e.value));
+    return worst;
+  }
+  // No source resistance: the sensor drives the input network directly; the current is the source's own.
+  const k = sc.circuit.branch[sc.signalIndex]!;
+  if (k < 0) return null;
+  for (const x of [a, 0, b]) worst = Math.max(worst, Math.abs(c0[k]! + c1[k]! * x));
+  return worst;
 }
 
 function why(clip: ClipResult, cause: string | null): string {

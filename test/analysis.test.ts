@@ -156,3 +156,32 @@ describe('every demo reports finite numbers', () => {
     expect(r.calibration.length).toBeGreaterThan(4);
   });
 });
+
+describe('sensor output drive', () => {
+  it('an inverting input network that draws more than the sensor can drive is a failure', () => {
+    // Inverting: the sensor drives (Vs − Vp)/(Rin + Rs); with a 1 µA drive limit that is exceeded.
+    const r = analyse(design('generic-sensor', (x) => { x.target.scale = -0.1; x.sensor.outputDrive = 1e-6; }), { spreadTrials: 0 });
+    expect(r.warnings.map((w) => w.code)).toContain('sensor-drive');
+  });
+  it('a non-inverting stage draws only bias current from the sensor', () => {
+    const r = analyse(design('generic-sensor', (x) => { x.sensor.outputDrive = 1e-6; }), { spreadTrials: 0 });
+    expect(r.warnings.map((w) => w.code)).not.toContain('sensor-drive');
+  });
+});
+
+describe('a shunt design reaches the full report', () => {
+  it('with parts, limits, calibration and the low-side note', () => {
+    const r = analyse(design('generic-sensor', (x) => {
+      x.sensor = { type: 'shunt', measurand: 'A', resistance: 0.01, powerRating: 1 };
+      x.supply = { positive: 5, negative: -5 };
+      x.opamp.inputLow = -0.1; x.opamp.inputHigh = -0.1; x.opamp.outputLow = 0.05; x.opamp.outputHigh = 0.05;
+      x.target = { ...x.target, scale: 0.5, zero: 0, range: [-5, 5] };
+    }), { spreadTrials: 100 });
+    expect(r.stage!.parts.length).toBeGreaterThan(1);
+    expect(r.clip!.limits.map((l) => l.cause)).toContain('burden');
+    expect(r.calibration.some((c) => c.text.startsWith('Span'))).toBe(true);
+    expect(r.warnings.map((w) => w.code)).toContain('low-side-only');
+    // Scale 0.5 V/A from 10 mV/A: gain 50 (the shunt's 10 mΩ is its own source resistance).
+    expect(r.dc!.out[1]).toBeCloseTo(0.5, 3);
+  });
+});
