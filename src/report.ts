@@ -125,8 +125,13 @@ function findings(r: Report): Warning[] {
   if (!clip.linearAtZero) {
     w.push({ code: 'not-linear-at-zero', level: 'fail', message: `At zero ${m} the stage is already out of its linear region (${clip.limits.find((l) => l.cause === clip.first)?.why ?? 'a limit is exceeded'}).` });
   } else {
-    if (clip.measurandLow > a) w.push({ code: 'clips-in-range-low', level: 'fail', message: `The output saturates at ${f3(clip.measurandLow, m)}, inside the wanted range (${f3(a, m)}): ${why(clip, clip.firstLow)}.` });
-    if (clip.measurandHigh < b) w.push({ code: 'clips-in-range-high', level: 'fail', message: `The output saturates at ${f3(clip.measurandHigh, m)}, inside the wanted range (${f3(b, m)}): ${why(clip, clip.firstHigh)}.` });
+    const fix = (cause: string | null) => cause === 'opamp-output' || cause === 'opamp-current'
+      ? ' To fit, move the zero (target.zero) towards the middle of the swing, lower the scale, use a split supply, or an op-amp whose output swings closer to the rails.'
+      : cause === 'opamp-input' ? ' An op-amp whose input range includes the rail, a lower sensor offset, or the inverting stage (its inputs sit still) would fit.'
+      : cause === 'core' ? ' Fewer turns or a longer gap raise the core\'s limit.'
+      : cause === 'sensor' ? ' The sensor itself runs out first: fewer turns, a longer gap, or a sensor with a wider range.' : '';
+    if (clip.measurandLow > a) w.push({ code: 'clips-in-range-low', level: 'fail', message: `The output saturates at ${f3(clip.measurandLow, m)}, inside the wanted range (${f3(a, m)}): ${why(clip, clip.firstLow)}.${fix(clip.firstLow)}` });
+    if (clip.measurandHigh < b) w.push({ code: 'clips-in-range-high', level: 'fail', message: `The output saturates at ${f3(clip.measurandHigh, m)}, inside the wanted range (${f3(b, m)}): ${why(clip, clip.firstHigh)}.${fix(clip.firstHigh)}` });
   }
   if (d.target.bandwidth > 0 && sp.smallSignal < d.target.bandwidth) {
     w.push({ code: 'bandwidth-short', level: 'fail', message: `The chain's bandwidth is ${f3(sp.smallSignal, 'Hz')}, below the ${f3(d.target.bandwidth, 'Hz')} wanted.` });

@@ -179,4 +179,40 @@ describe('the app in Chromium', () => {
     expect(errors).toEqual([]);
     await page.context().close();
   });
+
+  it('a damaged autosave does not brick the app: it starts from the demo and offers the text', async () => {
+    const { page, errors } = await watchedPage(h);
+    await page.goto(h.url);
+    await page.evaluate(() => localStorage.setItem('gainwright.autosave', '{"v":1,"design":{"format":"gainwright-design","version":1,"sensor":'));
+    await page.reload();
+    await expect.poll(() => page.locator('.notice.bad').innerText()).toMatch(/could not be read/);
+    expect(await partsText(page)).toMatch(/R1/);
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download the damaged text' }).click()]);
+    const dir = mkdtempSync(join(tmpdir(), 'gw-e2e-'));
+    await download.saveAs(join(dir, 'damaged.txt'));
+    expect(readFileSync(join(dir, 'damaged.txt'), 'utf8')).toMatch(/"sensor":$/);
+    expect(errors).toEqual([]);
+    await page.context().close();
+  });
+
+  it('a damaged share link leaves the design alone with a message', async () => {
+    const { page, errors } = await watchedPage(h);
+    await page.goto(`${h.url}#d=eyJmb3JtYXQiOiJub3BlIn0`);
+    await expect.poll(() => page.locator('.notice.bad').innerText()).toMatch(/link does not carry a usable design/);
+    expect(await partsText(page)).toMatch(/R1/);
+    expect(errors).toEqual([]);
+    await page.context().close();
+  });
+
+  it('answers an edit within the budget, measured with performance marks', async () => {
+    const { page } = await watchedPage(h);
+    await page.goto(h.url);
+    await expect.poll(() => partsText(page)).toMatch(/R1/);
+    await typeInto(page, 'sensor.hallSensitivity', '27 mV/mT');
+    await expect.poll(() => page.evaluate(() => performance.getEntriesByName('gw-edit').length)).toBeGreaterThan(0);
+    const ms = await page.evaluate(() => performance.getEntriesByName('gw-edit').at(-1)!.duration);
+    // Budget 50 ms on this machine (issue 6); the test allows slack for a loaded CI host.
+    expect(ms).toBeLessThan(250);
+    await page.context().close();
+  });
 });

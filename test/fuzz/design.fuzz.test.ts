@@ -1,0 +1,170 @@
+/**
+ * Property-based tests (fast-check, fixed seed): random valid designs never make the report throw or show a
+ * non-finite number; random invalid documents always come back as problems with field paths, and the CLI
+ * exits 2 with them. FUZZ_RUNS raises the count (`npm run fuzz`).
+ */
+import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import { validateDesign } from '../../src/design.js';
+import { analyse, reportJson } from '../../src/report.js';
+import { main } from '../../src/cli.js';
+import { DEMOS } from '../../src/demos.js';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+
+const RUNS = Number(process.env.FUZZ_RUNS ?? 2000);
+const SEED = 20261201;
+
+function nonFinite(x: unknown, path = ''): string[] {
+  if (typeof x === 'number') return Number.isFinite(x) ? [] : [path];
+  if (Array.isArray(x)) return x.flatMap((v, i) => nonFinite(v, `${path}[${i}]`));
+  if (x && typeof x === 'object') return Object.entries(x).flatMap(([k, v]) => nonFinite(v, `${path}.${k}`));
+  return [];
+}
+
+const logUniform = (lo: number, hi: number) => fc.double({ min: Math.log10(lo), max: Math.log10(hi), noNaN: true }).map((e) => 10 ** e);
+
+const sensorArb = fc.oneof(
+  fc.record({ type: fc.constant('voltage-output'), measurand: fc.constant('A'), sensitivity: fc.oneof(logUniform(1e-4, 1), logUniform(1e-4, 1).map((v) => -v)), quiescent: fc.double({ min: -5, max: 5, noNaN: true }), sourceResistance: logUniform(0.1, 1e4), noiseDensity: logUniform(1e-9, 1e-6), bandwidth: logUniform(1e2, 1e7) }),
+  fc.record({ type: fc.constant('hall-gap-core'), measurand: fc.constant('A'), hallSensitivity: logUniform(1, 200), quiescent: fc.double({ min: 0.5, max: 4.5, noNaN: true }), linearField: logUniform(0.01, 0.5), turns: fc.integer({ min: 1, max: 20 }), core: fc.record({ pathLength: logUniform(0.02, 0.2), permeability: logUniform(100, 1e4), gap: logUniform(2e-4, 5e-3), saturation: logUniform(0.2, 0.5) }), bandwidth: logUniform(1e3, 1e6) }),
+  fc.record({ type: fc.constant('current-transformer'), measurand: fc.constant('A'), secondaryTurns: fc.integer({ min: 100, max: 5000 }), burden: logUniform(1, 1000), inductanceFactor: logUniform(1e-7, 1e-5), windingResistance: logUniform(1, 300), quiescent: fc.double({ min: -1, max: 3, noNaN: true }) }),
+  fc.record({ type: fc.constant('shunt'), measurand: fc.constant('A'), resistance: logUniform(1e-3, 1), powerRating: logUniform(0.1, 5) }),
+);
+
+const designArb = fc.record({
+  sensor: sensorArb,
+  positive: fc.double({ min: 2.5, max: 30, noNaN: true }),
+  split: fc.boolean(),
+  gbw: logUniform(1e5, 1e8),
+  slew: logUniform(1e5, 1e8),
+  aol: fc.double({ min: 60, max: 140, noNaN: true }),
+  inLo: fc.double({ min: -0.3, max: 2, noNaN: true }),
+  inHi: fc.double({ min: -0.3, max: 2, noNaN: true }),
+  outLo: fc.double({ min: 0, max: 1.5, noNaN: true }),
+  outHi: fc.double({ min: 0, max: 1.5, noNaN: true }),
+  scale: fc.oneof(logUniform(1e-3, 10), logUniform(1e-3, 10).map((v) => -v)),
+  zeroFrac: fc.double({ min: 0.05, max: 0.95, noNaN: true }),
+  span: logUniform(0.1, 100),
+  topology: fc.constantFrom('auto', 'non-inverting', 'inverting'),
+  series: fc.constantFrom('E12', 'E24', 'E96'),
+  signal: fc.constantFrom('dc', 'ac-rms'),
+  trimGain: fc.boolean(),
+  trimZero: fc.boolean(),
+  filter: fc.option(fc.record({ resistance: logUniform(10, 1e4), capacitance: fc.oneof(fc.constant(0), logUniform(1e-12, 1e-6)) }), { nil: null }),
+  battery: fc.boolean(),
+}).map((g) => {
+  const negative = g.split ? -g.positive : 0;
+  const zero = negative + (g.positive - negative) * g.zeroFrac;
+  return {
+    format: 'gainwright-design', version: 1, title: 'fuzz',
+    sensor: g.sensor,
+    supply: { positive: g.positive, negative, ...(g.battery && !g.split ? { battery: { fresh: g.positive * 1.05, endOfLife: g.positive * 0.6, capacity: 2000 } } : {}) },
+    opamp: { gbw: g.gbw, slewRate: g.slew, openLoopGainDb: g.aol, inputLow: g.inLo, inputHigh: g.inHi, outputLow: g.outLo, outputHigh: g.outHi, voltageNoise: 1e-8, currentNoise: 1e-13, offsetVoltage: 1e-3, biasCurrent: 1e-8, supplyCurrent: 1e-3 },
+    target: { scale: g.scale, zero, range: [-g.span, g.span], topology: g.topology, series: g.series, signal: g.signal, trim: { gain: g.trimGain, zero: g.trimZero } },
+    output: { filter: g.filter, load: { resistance: 1e6, capacitance: 15e-12 } },
+    analysis: { spreadTrials: 10 },
+  };
+});
+
+describe('random valid designs', () => {
+  it(`never throw and never report a non-finite number (${RUNS} cases)`, () => {
+    let analysed = 0;
+    fc.assert(fc.property(designArb, (doc) => {
+      const v = validateDesign(doc);
+      if (!v.ok) {
+        // Cross-field rules (e.g. an input range wider than the rails) may refuse a generated design: that
+        // must come back as problems with paths, never a throw.
+        expect(v.problems.length).toBeGreaterThan(0);
+        for (const p of v.problems) expect(p.path).toMatch(/^[a-zA-Z(]/);
+        return;
+      }
+      analysed++;
+      const r = analyse(v.design, { spreadTrials: 10, acPoints: 20 });
+      const j = reportJson(r);
+      expect(nonFinite(j)).toEqual([]);
+      // A figure that is absent says why.
+      if (j.clip === null) expect(Object.keys(r.absent).length).toBeGreaterThan(0);
+      for (const verdict of r.verdicts) expect(verdict.detail).not.toMatch(/NaN|Infinity/);
+    }), { numRuns: RUNS, seed: SEED });
+    expect(analysed).toBeGreaterThan(RUNS / 2);
+  }, 600_000);
+});
+
+const base = () => structuredClone(DEMOS.find((d) => d.id === 'generic-sensor')!.document) as Record<string, any>;
+const PATHS = ['sensor.sensitivity', 'sensor.quiescent', 'sensor.sourceResistance', 'supply.positive', 'supply.negative', 'opamp.gbw', 'opamp.slewRate', 'opamp.inputHigh', 'opamp.voltageNoise', 'target.scale', 'target.zero', 'target.range', 'target.series', 'target.resistanceMin', 'target.tolerance', 'title', 'sensor.type', 'format', 'version'];
+const badValue = fc.oneof(
+  fc.constant('12 volts'), fc.constant(null), fc.constant(-1), fc.constant(0), fc.constant(1e300), fc.constant(-1e300), fc.constant(1e-300),
+  fc.constant([]), fc.constant({}), fc.constant(true), fc.constant('NaN'), fc.string({ maxLength: 8 }), fc.constant(undefined),
+);
+
+function setDeep(doc: Record<string, any>, path: string, value: unknown): void {
+  const keys = path.split('.');
+  let o = doc;
+  for (const k of keys.slice(0, -1)) o = o[k];
+  if (value === undefined) delete o[keys[keys.length - 1]!];
+  else o[keys[keys.length - 1]!] = value;
+}
+
+const invalidArb = fc.oneof(
+  // One or more fields broken.
+  fc.array(fc.tuple(fc.constantFrom(...PATHS), badValue), { minLength: 1, maxLength: 4 }).map((muts) => {
+    const d = base();
+    for (const [p, v] of muts) setDeep(d, p, v);
+    return d;
+  }),
+  // Unknown fields anywhere.
+  fc.tuple(fc.constantFrom('', 'sensor.', 'opamp.', 'target.', 'supply.'), fc.string({ minLength: 1, maxLength: 6 }).filter((s) => /^[a-z]+$/.test(s) && !['type'].includes(s))).map(([pre, k]) => {
+    const d = base();
+    setDeep(d, `${pre}zz${k}`, 1);
+    return d;
+  }),
+  // Reversed or impossible relations.
+  fc.constantFrom(
+    (d: any) => { d.target.range = [20, -20]; },
+    (d: any) => { d.supply.positive = -9; d.supply.negative = 0; },
+    (d: any) => { d.sensor.sensitivity = 0; },
+    (d: any) => { d.target.resistanceMin = 1e6; d.target.resistanceMax = 1e3; },
+    (d: any) => { d.version = 99; },
+    (d: any) => { d.format = 'some-other-format'; },
+  ).map((f) => { const d = base(); f(d); return d; }),
+);
+
+describe('random invalid documents', () => {
+  it(`come back as problems with field paths, never a throw (${RUNS} cases)`, () => {
+    fc.assert(fc.property(invalidArb, (doc) => {
+      const v = validateDesign(doc);
+      if (v.ok) return; // a mutation may happen to stay valid (e.g. a title string); nothing to check
+      expect(v.problems.length).toBeGreaterThan(0);
+      for (const p of v.problems) {
+        expect(typeof p.path).toBe('string');
+        expect(p.path.length).toBeGreaterThan(0);
+        expect(p.message.length).toBeGreaterThan(3);
+      }
+    }), { numRuns: RUNS, seed: SEED });
+  });
+
+  it('most mutations are refused (the generator really produces bad documents)', () => {
+    const samples = fc.sample(invalidArb, { numRuns: 500, seed: SEED });
+    const refused = samples.filter((d) => !validateDesign(d).ok).length;
+    expect(refused / samples.length).toBeGreaterThan(0.8);
+  });
+
+  it('the CLI exits 2 with the messages and no stack trace (200 files)', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'gw-fuzz-'));
+    const samples = fc.sample(invalidArb, { numRuns: 200, seed: SEED + 1 });
+    let checked = 0;
+    for (const [i, doc] of samples.entries()) {
+      if (validateDesign(doc).ok) continue;
+      const f = join(dir, `d${i}.json`);
+      writeFileSync(f, JSON.stringify(doc));
+      let err = '';
+      const code = await main(['report', f, '--no-spread'], { out: () => {}, err: (s) => { err += s; } });
+      expect(code).toBe(2);
+      expect(err, err).toMatch(/^  [\w.\[\]()]+: \S/m);
+      expect(err).not.toMatch(/\n\s+at /);
+      checked++;
+    }
+    expect(checked).toBeGreaterThan(100);
+  });
+});
