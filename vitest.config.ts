@@ -5,6 +5,7 @@ export default defineConfig({
     include: ['test/**/*.test.ts'],
     exclude: ['test/e2e/**', 'test/crosscheck/**', 'node_modules/**'],
     environment: 'node',
+    setupFiles: ['test/setup.ts'],
     testTimeout: 60_000,
   },
 });

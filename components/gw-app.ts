@@ -22,6 +22,10 @@ import './gw-schematic.js';
 import './gw-parts.js';
 import './gw-figures.js';
 
+/** The unit engine (mathjs units) loads after the first render so that it does not delay it. */
+let unitsLoading: Promise<unknown> | null = null;
+const loadUnits = () => (unitsLoading ??= import('../src/units-mathjs.js'));
+
 /** Monte Carlo trials run on each edit: enough for a stable histogram, quick enough to keep typing smooth. */
 const EDIT_TRIALS = 400;
 
@@ -86,6 +90,10 @@ export class GwApp extends LitElement {
     super.connectedCallback();
     this._restore();
     window.addEventListener('hashchange', this._onHash);
+    this.updateComplete.then(() => {
+      performance.mark('gw-first-render');
+      void loadUnits();
+    });
   }
 
   override disconnectedCallback(): void {
@@ -172,7 +180,7 @@ export class GwApp extends LitElement {
     this._notice = { text: `Not applied: ${formatProblems(problems).split('\n').slice(0, 3).join('; ')}`, bad: true };
   }
 
-  private _onFieldInput = (e: CustomEvent<FieldInputDetail>): void => {
+  private _onFieldInput = async (e: CustomEvent<FieldInputDetail>): Promise<void> => {
     const { path, text } = e.detail;
     const def = FIELDS.find((f) => f.path === path);
     if (!def) return;
@@ -184,7 +192,11 @@ export class GwApp extends LitElement {
       this._apply(setPath(this._design, path, undefined), path);
       return;
     }
-    const parsed = parseField(def, text, this._design);
+    let parsed = parseField(def, text, this._design);
+    if (!parsed.ok && parsed.pending) {
+      await loadUnits();
+      parsed = parseField(def, text, this._design);
+    }
     if (!parsed.ok) {
       this._messages = { ...this._messages, [path]: `${parsed.message}; the last good value stays in force` };
       return;

@@ -174,6 +174,19 @@ export function transferAt(sc: StageCircuit, f: number, ws = workspace(sc.circui
   return [re, im];
 }
 
+/** The frequency response read from a noise sweep's signal transfer (same adjoint solves, no extra work). */
+export function responseFromSpectrum(s: NoiseSpectrum): FrequencyResponse {
+  const n = s.freqs.length;
+  const magnitude = new Float64Array(n), phase = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    magnitude[i] = Math.hypot(s.signalRe[i]!, s.signalIm[i]!);
+    let ph = (Math.atan2(s.signalIm[i]!, s.signalRe[i]!) * 180) / Math.PI;
+    if (i > 0) { while (ph - phase[i - 1]! > 180) ph -= 360; while (ph - phase[i - 1]! < -180) ph += 360; }
+    phase[i] = ph;
+  }
+  return { freqs: s.freqs, magnitude, phase };
+}
+
 export function frequencyResponse(sc: StageCircuit, f1: number, f2: number, points = 200): FrequencyResponse {
   const freqs = new Float64Array(points);
   const magnitude = new Float64Array(points), phase = new Float64Array(points);
@@ -264,10 +277,15 @@ export interface NoiseResult {
   shares: Array<{ name: string; rms: number; fraction: number }>;
 }
 
-export function noise(design: Design, sc: StageCircuit, sp: Speed): NoiseResult {
+/** The default noise band: 1 Hz (or a tenth of an AC-coupled chain's low corner) to 100 × the −3 dB frequency. */
+export function defaultBand(sp: Speed): [number, number] {
+  return [Math.max(1, sp.lowCorner / 10 || 1), Math.max(100 * sp.smallSignal, 10)];
+}
+
+export function noise(design: Design, sc: StageCircuit, sp: Speed, points = 201): NoiseResult {
   const T = design.environment.temperature;
-  const band: [number, number] = design.analysis.noiseBand ?? [Math.max(1, sp.lowCorner / 10 || 1), Math.max(100 * sp.smallSignal, 10)];
-  const freqs = logGrid(band[0], band[1], 24);
+  const band: [number, number] = design.analysis.noiseBand ?? defaultBand(sp);
+  const freqs = logGrid(band[0], band[1], 24, points);
   const spectrum = noiseSpectrum(sc.circuit, sc.nodes.out, freqs, T);
   const power = integratePower(freqs, spectrum.total);
   const at1k = noiseSpectrum(sc.circuit, sc.nodes.out, Float64Array.of(1000), T).total[0]!;

@@ -9,6 +9,7 @@
  */
 import { readFileSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
+import './units-mathjs.js';
 import { formatProblems, MAX_DESIGN_BYTES, parseDesignText } from './design.js';
 import { analyse, reportJson } from './report.js';
 import { textReport } from './text-report.js';

@@ -46,6 +46,9 @@ export interface NoiseSpectrum {
   /** Total output density, V/√Hz. */
   total: Float64Array;
   sources: NoiseSourceShare[];
+  /** The signal transfer (measurand to output) at the same frequencies, from the same adjoint solves. */
+  signalRe: Float64Array;
+  signalIm: Float64Array;
 }
 
 /**
@@ -62,8 +65,16 @@ export function noiseSpectrum(c: Circuit, out: number, freqs: Float64Array, kelv
   });
   const shares = noisy.map((s) => ({ name: s.name, density: new Float64Array(freqs.length) }));
   const total = new Float64Array(freqs.length);
+  const signalRe = new Float64Array(freqs.length), signalIm = new Float64Array(freqs.length);
+  const driven: number[] = [];
+  c.elements.forEach((e, i) => { if ((e.kind === 'V' || e.kind === 'I') && e.ac) driven.push(i); });
   for (let k = 0; k < freqs.length; k++) {
     if (!adjointAt(c, 2 * Math.PI * freqs[k]!, out, ws)) continue;
+    for (const i of driven) {
+      const [hr, hi] = transferFrom(c, i, ws);
+      const g = c.elements[i]!.ac!;
+      signalRe[k]! += g * hr; signalIm[k]! += g * hi;
+    }
     let sum = 0;
     for (let s = 0; s < noisy.length; s++) {
       const [hr, hi] = transferFrom(c, noisy[s]!.i, ws);
@@ -73,13 +84,13 @@ export function noiseSpectrum(c: Circuit, out: number, freqs: Float64Array, kelv
     }
     total[k] = Math.sqrt(sum);
   }
-  return { freqs, total, sources: shares };
+  return { freqs, total, sources: shares, signalRe, signalIm };
 }
 
-/** Log-spaced frequencies, `perDecade` points per decade, f1 and f2 included. */
-export function logGrid(f1: number, f2: number, perDecade: number): Float64Array {
+/** Log-spaced frequencies, `perDecade` points per decade (or exactly `count`, made odd), f1 and f2 included. */
+export function logGrid(f1: number, f2: number, perDecade: number, count?: number): Float64Array {
   const decades = Math.log10(f2 / f1);
-  let n = Math.max(2, Math.ceil(decades * perDecade) + 1);
+  let n = count ?? Math.max(2, Math.ceil(decades * perDecade) + 1);
   if (n % 2 === 0) n++; // odd count for Simpson's rule
   const out = new Float64Array(n);
   for (let i = 0; i < n; i++) out[i] = f1 * 10 ** ((decades * i) / (n - 1));

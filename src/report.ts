@@ -8,7 +8,7 @@ import { chooseTopology, peakRange, type TopologyChoiceResult } from './topology
 import { solveStage, type Part, type SolvedStage } from './solver.js';
 import { buildCircuit, type StageCircuit } from './circuit.js';
 import {
-  batterySweep, clipping, dcLinear, errorBudget, frequencyResponse, instrumentDrive, noise, speed, spread, supply, transferCurve,
+  batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, noise, speed, spread, supply, transferCurve,
   type BatteryStep, type ClipResult, type DcPoint, type ErrorBudget, type FrequencyResponse, type InstrumentDrive, type NoiseResult,
   type Speed, type SpreadResult, type SupplyResult,
 } from './analysis.js';
@@ -92,9 +92,11 @@ export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
   const clip = clipping(design, front, dc);
   const transfer = transferCurve(design, dc, clip);
   const sp = speed(design, circuit, front, dc);
-  const fLo = front.passesDc ? 1 : Math.max(front.lowCorner / 100, 0.01);
-  const response = frequencyResponse(circuit, fLo, Math.max(sp.smallSignal * 100, 1e3), opts.acPoints ?? 200);
-  const nz = noise(design, circuit, sp);
+  // One sweep gives the noise and, over the default band, the frequency response from the same solves.
+  const nz = noise(design, circuit, sp, opts.acPoints ? Math.max(opts.acPoints | 1, 21) : 201);
+  const response = design.analysis.noiseBand === null
+    ? responseFromSpectrum(nz.spectrum)
+    : frequencyResponse(circuit, defaultBand(sp)[0], defaultBand(sp)[1], opts.acPoints ?? 200);
   const errors = errorBudget(design, stage, front, circuit, dc);
   const sup = supply(design, front, circuit, dc, passband);
   const battery = batterySweep(design, stage, front, dc.out[0]);

@@ -111,6 +111,12 @@ export interface PairProblem {
   /** Optional window on the first arm. */
   aMin?: number;
   aMax?: number;
+  /**
+   * Optional closed form of the same problem, (a + cA)/(b + cB) = k with error m·(ratio/k − 1): the search
+   * then computes both inline instead of calling the two functions (the hot loop of every gain solve).
+   * It must agree with idealB and error.
+   */
+  ratio?: { cA: number; cB: number; k: number; m: number };
 }
 
 export interface PairCandidate {
@@ -145,19 +151,32 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
   let evaluated = 0;
   const aMin = prob.aMin ?? 0, aMax = prob.aMax ?? Infinity;
   let worstKept = Infinity;
-  for (let i = 0; i < tA.size; i++) {
+  // Only the first arms inside the window: the table is sorted, so find its ends by binary search.
+  const iStart = lowerBound(tA.value, aMin);
+  const bv = tB.value, bn = tB.size;
+  let j0 = -1;
+  for (let i = iStart; i < tA.size; i++) {
     const a = tA.value[i]!;
-    if (a < aMin || a > aMax) continue;
-    const bi = prob.idealB(a);
+    if (a > aMax) break;
+    const rf = prob.ratio;
+    const bi = rf ? (a + rf.cA) / rf.k - rf.cB : prob.idealB(a);
     if (!(bi > 0) || !Number.isFinite(bi)) continue;
-    const j0 = lowerBound(tB.value, bi);
+    // The ideal partner moves with a, so walk from the last position (binary search on the first use):
+    // amortised O(1) per arm when b(a) is monotone, and still exact when it is not.
+    if (j0 < 0) j0 = lowerBound(bv, bi);
+    else {
+      while (j0 < bn && bv[j0]! < bi) j0++;
+      while (j0 > 0 && bv[j0 - 1]! >= bi) j0--;
+    }
     for (let j = j0 - 1; j <= j0; j++) {
       if (j < 0 || j >= tB.size) continue;
       evaluated++;
-      const e = prob.error(a, tB.value[j]!);
+      const e = rf ? rf.m * ((a + rf.cA) / (bv[j]! + rf.cB) / rf.k - 1) : prob.error(a, bv[j]!);
       if (!Number.isFinite(e)) continue;
       const ae = Math.abs(e);
       if (ae < bestErr) { bestErr = ae; bestI = i; bestJ = j; }
+      // Every factor of the score is ≥ 1 beyond max(|e|, floor): skip what cannot enter the list.
+      if (ranked.length >= keep && Math.max(ae, prob.floor) >= worstKept) continue;
       const parts = partCount(tA, i) + partCount(tB, j);
       const sc = score(e, parts, a, prob.preferredA, prob.floor);
       if (ranked.length < keep || sc < worstKept) {

@@ -191,6 +191,9 @@ export function solveDivider(design: Design, vref: number, rthTarget: number, ze
     floor: Math.max(vspan * refGain * tolerance / 50, 1e-6),
     aMin: prefTop / 2,
     aMax: prefTop * 2,
+    // Same problem as a ratio, top/bottom = (1−r)/r; its error to first order in the ratio error ε is
+    // −V_span·(G_ref)·r(1−r)·ε volts (the chosen divider's voltage is then computed exactly from its parts).
+    ratio: { cA: (1 - alpha) * rp, cB: alpha * rp, k: (1 - r) / r, m: -vspan * refGain * r * (1 - r) },
   }, 1);
   let top: Arm | null, bottom: Arm | null, setting = alpha;
   if (res.ranked.length) {
@@ -287,8 +290,9 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     const half = gainTrimOhms / 2;
     const aPref = Math.max(rfPref - half, target.resistanceMin);
     gainRes = searchPairs(table, table, ideal.topology === 'non-inverting'
-      ? { idealB: (a) => (a + half) / (g - 1) - rth, error: (a, b) => (1 + (a + half) / (b + rth)) / g - 1, preferredA: aPref, floor, aMin: aPref / 3.2, aMax: aPref * 3.2 }
-      : { idealB: (a) => (a + half) / g - rs, error: (a, b) => (a + half) / (b + rs) / g - 1, preferredA: aPref, floor, aMin: aPref / 3.2, aMax: aPref * 3.2 }, 10);
+      // Non-inverting: G = 1 + (a + half)/(b + rth), so error = (G−1)/G · (ratio/(G−1) − 1).
+      ? { idealB: (a) => (a + half) / (g - 1) - rth, error: (a, b) => (1 + (a + half) / (b + rth)) / g - 1, preferredA: aPref, floor, aMin: aPref / 2.5, aMax: aPref * 2.5, ratio: { cA: half, cB: rth, k: g - 1, m: (g - 1) / g } }
+      : { idealB: (a) => (a + half) / g - rs, error: (a, b) => (a + half) / (b + rs) / g - 1, preferredA: aPref, floor, aMin: aPref / 2.5, aMax: aPref * 2.5, ratio: { cA: half, cB: rs, k: g, m: 1 } }, 10);
     if (!gainRes.ranked.length) break;
     chosen = Math.min(target.alternative, gainRes.ranked.length - 1);
     pick = gainRes.ranked[chosen]!;

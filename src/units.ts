@@ -2,23 +2,31 @@
  * Reading what a person types and writing values the way the trade writes them.
  *
  * All values inside Gainwright are SI: V, A, Ω, Hz, s, T, m, K, F, C (charge, for battery capacity).
- * Parsing leans on mathjs units for the unit algebra; only the trade's shorthands that mathjs does not
- * know (the IEC 60062 letter-and-digit code `4k7`, Ω, µ, √Hz, gauss) are rewritten before it sees them.
+ * The common forms (plain numbers, `4.7k`, the IEC 60062 code `4k7`, `12.5 mV/A` in the field's own unit) are
+ * read here directly; anything else goes to the unit engine, mathjs units (src/units-mathjs.ts), which the
+ * CLI loads at once and the app loads right after its first render so that it does not delay it.
  */
-import { create, unitDependencies, createUnitDependencies } from 'mathjs';
 
-// A private mathjs instance with only the unit machinery: keeps the bundle small and lets us add gauss
-// without touching anyone else's mathjs.
-const math = create({ unitDependencies, createUnitDependencies });
-// 1 G = 1e-4 T (SI Brochure, 9th ed., table 10: non-SI units of the CGS system).
-math.createUnit('gauss', { definition: '1e-4 T', aliases: ['gausses'] });
+/** Converts a normalised expression to a number in the given SI unit, or null when it cannot. */
+export type UnitEngine = (expr: string, target: string) => number | null;
+let engine: UnitEngine | null = null;
+
+/** Installs the unit engine (mathjs units). */
+export function setUnitEngine(e: UnitEngine): void {
+  engine = e;
+}
+
+/** Whether the unit engine is installed. */
+export function unitEngineReady(): boolean {
+  return engine !== null;
+}
 
 /** A physical kind of quantity a field holds, as a mathjs unit expression of its SI unit. */
 export type Dimension =
   | 'ohm' | 'V' | 'A' | 'Hz' | 's' | 'm' | 'T' | 'K' | 'F' | 'C' | 'W' | 'H'
   | 'V/A' | 'V/T' | 'V/s' | 'V/Hz^0.5' | 'A/Hz^0.5' | 'V/K' | '1/K' | '1';
 
-export type ParseResult = { ok: true; value: number } | { ok: false; message: string };
+export type ParseResult = { ok: true; value: number } | { ok: false; message: string; pending?: boolean };
 
 /** Human names for each dimension, used in messages. */
 export const DIMENSION_NAMES: Record<Dimension, string> = {
@@ -122,17 +130,15 @@ export function parseQuantity(text: string, dimension: Dimension): ParseResult {
 
   let expr = normalise(raw);
   if (dimension === 'K') {
-    // mathjs converts degC to K as an absolute temperature, which is what a temperature field means.
+    // A temperature field means an absolute temperature: °C converts to K with the offset.
     expr = expr.replace(/\bC\b/, 'degC');
   }
-  try {
-    const u = math.unit(expr);
-    const target = dimension === 'C' ? 'A s' : dimension;
-    const v = u.toNumber(target);
-    return finite(clean(v), fail);
-  } catch {
-    return fail();
-  }
+  // The field's own unit with an SI prefix on its first symbol: 12.5 mV/A, 47 kohm, 35 nV/Hz^0.5.
+  const own = dimension === 'C' ? null : new RegExp(`^([-+]?(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][-+]?\\d+)?)\\s*([fpnumkMGT]?)${dimension.replace(/[\^./]/g, (c) => `\\${c}`)}$`).exec(expr);
+  if (own) return finite(clean(Number(own[1]) * SI_PREFIX[own[2]!]!), fail);
+  if (!engine) return { ok: false, message: `reading "${raw}" needs the unit tables, which are still loading`, pending: true };
+  const v = engine(expr, dimension === 'C' ? 'A s' : dimension);
+  return v === null ? fail() : finite(clean(v), fail);
 }
 
 function finite(v: number, fail: () => ParseResult): ParseResult {

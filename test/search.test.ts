@@ -60,3 +60,18 @@ describe('searchPairs finds the true optimum', () => {
     expect(r.ranked).toEqual([]);
   });
 });
+
+describe('the closed-form fast path', () => {
+  it('gives the same ranking and optimum as the general functions it stands for', () => {
+    const t = armTable('E96', 1e3, 1e6, ['single', 'series', 'parallel']);
+    const rand = mulberry32(7);
+    for (let n = 0; n < 20; n++) {
+      const g = 1 + 10 ** (rand() * 2), half = rand() * 5000, rth = rand() * 3000;
+      const general: PairProblem = { idealB: (a) => (a + half) / (g - 1) - rth, error: (a, b) => (1 + (a + half) / (b + rth)) / g - 1, preferredA: 1e5, floor: 5e-4, aMin: 4e4, aMax: 2.5e5 };
+      const fast = { ...general, ratio: { cA: half, cB: rth, k: g - 1, m: (g - 1) / g } };
+      const a = searchPairs(t, t, general), b = searchPairs(t, t, fast);
+      expect(b.best!.error).toBeCloseTo(a.best!.error, 12);
+      expect(b.ranked.map((c) => [c.a.ohms, c.b.ohms])).toEqual(a.ranked.map((c) => [c.a.ohms, c.b.ohms]));
+    }
+  });
+});
