@@ -49,7 +49,20 @@ export class ChartController implements ReactiveController {
   constructor(private host: ReactiveControllerHost & { canvas: HTMLCanvasElement | null; data: ChartData | null }) {
     host.addController(this);
   }
+  private pending = false;
   hostUpdated(): void {
+    // The first drawing waits for the next frame, so the verdict paints before the charts are built;
+    // later updates redraw at once.
+    if (!this.chart) {
+      if (!this.pending) {
+        this.pending = true;
+        requestAnimationFrame(() => { this.pending = false; this.draw(); });
+      }
+      return;
+    }
+    this.draw();
+  }
+  private draw(): void {
     const { canvas, data } = this.host;
     if (!canvas || !data) return;
     const cfg = chartConfig(data);

@@ -132,14 +132,22 @@ export class GwApp extends LitElement {
   private _adopt(design: Design, notice: string | null, save = true): void {
     this._design = design;
     this._messages = {};
-    this._recompute();
+    this._recompute(0);
+    clearTimeout(this._spreadTimer);
+    this._spreadTimer = window.setTimeout(() => this._recompute(), 50);
     if (notice) this._notice = { text: notice, bad: false };
     if (save) this._autosave();
   }
 
-  private _recompute(): void {
+  private _spreadTimer = 0;
+
+  /**
+   * Recomputes the report. The Monte Carlo spread is left to a moment later, so the verdict of the first
+   * render (and of a freshly opened design) does not wait for it.
+   */
+  private _recompute(trials = EDIT_TRIALS): void {
     performance.mark('gw-analyse-start');
-    const report = analyse(this._design, { spreadTrials: EDIT_TRIALS });
+    const report = analyse(this._design, { spreadTrials: trials });
     this._derived = { report, charts: allCharts(report), drawing: schematic(report), rows: bomRows(report), figures: keyFigures(report) };
     performance.mark('gw-analyse-end');
     performance.measure('gw-analyse', 'gw-analyse-start', 'gw-analyse-end');

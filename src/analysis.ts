@@ -5,7 +5,7 @@
  */
 import type { Design } from './design.js';
 import { buildCircuit, type StageCircuit } from './circuit.js';
-import { adjointAt, solveDc, stamp, luFactor, luSolve, rhs, transferFrom, workspace, type Element } from './mna.js';
+import { adjointAt, solveDc, stampReal, luFactorReal, luSolveReal, rhs, transferFrom, workspace, type Element } from './mna.js';
 import { integratePower, logGrid, noiseSpectrum, peakToPeak, type NoiseSpectrum } from './noise.js';
 import { atSensorSupply, type SensorFront, type SensorLimitKind } from './sensors.js';
 import type { SolvedStage } from './solver.js';
@@ -485,11 +485,17 @@ export function spread(design: Design, front: SensorFront, sc: StageCircuit, dc:
   const sigIdx = sc.signalIndex;
   const sig = c.elements[sigIdx]!;
   const sig0 = sig.dc0 ?? 0, sig1 = sig.dc1 ?? 0;
-  const A = { n: c.size, re: new Float64Array(c.size * c.size), im: new Float64Array(c.size * c.size) };
-  const zeroIm = new Float64Array(c.size);
+  const n = c.size;
+  const A = new Float64Array(n * n);
+  const piv = new Int32Array(n);
+  const scratch = new Float64Array(n);
   const scales = new Float64Array(trials), zeros = new Float64Array(trials);
   const o = sc.nodes.out - 1;
   const passband = !front.passesDc;
+  // Right-hand sides: only the signal source's entries change between trials, so patch them in place.
+  const base0 = rhs(c, (e) => e.dc0 ?? 0), base1 = rhs(c, (e) => e.dc1 ?? 0);
+  const b0 = new Float64Array(n), b1 = new Float64Array(n);
+  const sigRow = sig.kind === 'V' ? c.branch[sigIdx]! : -1;
   let pass = 0;
   const s0 = dc.out[1], z0 = dc.out[0];
   for (let t = 0; t < trials; t++) {
@@ -497,29 +503,26 @@ export function spread(design: Design, front: SensorFront, sc: StageCircuit, dc:
       const tol = tols[i]!;
       if (tol) c.elements[i]!.value = nominal[i]! * (1 + tol * (2 * rand() - 1));
     }
-    if (sig.kind === 'V') {
-      sig.dc0 = sig0 + front.quiescentTolerance * (2 * rand() - 1);
-      sig.dc1 = sig1 * (1 + front.sensitivityTolerance * (2 * rand() - 1));
-    } else {
-      sig.dc1 = sig1 * (1 + front.sensitivityTolerance * (2 * rand() - 1));
-    }
-    stamp(c, 0, A, false, false);
-    let piv = luFactor(A);
-    if (!piv) { scales[t] = NaN; zeros[t] = NaN; continue; }
-    const b0 = rhs(c, (e) => e.dc0 ?? 0); zeroIm.fill(0); luSolve(A, piv, b0, zeroIm);
+    b0.set(base0); b1.set(base1);
+    const kq = sig.kind === 'V' ? front.quiescentTolerance * (2 * rand() - 1) : 0;
+    const ks = 1 + front.sensitivityTolerance * (2 * rand() - 1);
+    if (sigRow >= 0) { b0[sigRow]! += kq; b1[sigRow] = base1[sigRow]! * ks; }
+    else for (let i = 0; i < n; i++) b1[i] = base1[i]! * ks; // a current source: its whole column scales
+    stampReal(c, A, false);
+    if (!luFactorReal(A, n, piv)) { scales[t] = NaN; zeros[t] = NaN; continue; }
+    luSolveReal(A, n, piv, b0, scratch);
     if (passband) {
       // An AC-coupled sensor's scale is its passband value (inductors open): a second factorisation.
-      stamp(c, 0, A, false, true);
-      piv = luFactor(A);
-      if (!piv) { scales[t] = NaN; zeros[t] = NaN; continue; }
+      stampReal(c, A, true);
+      if (!luFactorReal(A, n, piv)) { scales[t] = NaN; zeros[t] = NaN; continue; }
     }
-    const b1 = rhs(c, (e) => e.dc1 ?? 0); zeroIm.fill(0); luSolve(A, piv, b1, zeroIm);
+    luSolveReal(A, n, piv, b1, scratch);
     scales[t] = b1[o]!; zeros[t] = b0[o]!;
     if (Math.abs(b1[o]! / s0 - 1) <= design.analysis.scaleLimit && Math.abs(b0[o]! - z0) <= design.analysis.zeroLimit) pass++;
   }
   // Restore the nominal circuit.
   c.elements.forEach((e, i) => { e.value = nominal[i]!; });
-  sig.dc0 = sig0; sig.dc1 = sig1;
+  void sig0; void sig1;
   const mean = (a: Float64Array) => a.reduce((s, v) => s + v, 0) / a.length;
   const std = (a: Float64Array, m: number) => Math.sqrt(a.reduce((s, v) => s + (v - m) ** 2, 0) / (a.length - 1));
   const sm = mean(scales), zm = mean(zeros);

@@ -198,21 +198,94 @@ export interface DcSolution {
   columns: Float64Array[];
 }
 
+/** Stamps the DC (ω = 0) matrix into a real n×n array; inductors are shorts, or open with `openInductors`. */
+export function stampReal(c: Circuit, A: Float64Array, openInductors = false): void {
+  const n = c.size;
+  A.fill(0);
+  const els = c.elements;
+  for (let i = 0; i < els.length; i++) {
+    const e = els[i]!;
+    const a = e.a - 1, b = e.b - 1, k = c.branch[i]!;
+    switch (e.kind) {
+      case 'R':
+        if (e.value === 0) {
+          if (a >= 0) { A[a * n + k]! += 1; A[k * n + a]! += 1; }
+          if (b >= 0) { A[b * n + k]! -= 1; A[k * n + b]! -= 1; }
+        } else {
+          const g = 1 / e.value;
+          if (a >= 0) A[a * n + a]! += g;
+          if (b >= 0) A[b * n + b]! += g;
+          if (a >= 0 && b >= 0) { A[a * n + b]! -= g; A[b * n + a]! -= g; }
+        }
+        break;
+      case 'L':
+        if (a >= 0) A[a * n + k]! += 1;
+        if (b >= 0) A[b * n + k]! -= 1;
+        if (openInductors) A[k * n + k]! += 1;
+        else { if (a >= 0) A[k * n + a]! += 1; if (b >= 0) A[k * n + b]! -= 1; }
+        break;
+      case 'V':
+      case 'E':
+        if (a >= 0) { A[a * n + k]! += 1; A[k * n + a]! += 1; }
+        if (b >= 0) { A[b * n + k]! -= 1; A[k * n + b]! -= 1; }
+        if (e.kind === 'E') {
+          const cp = (e.cp ?? 0) - 1, cn = (e.cn ?? 0) - 1;
+          if (cp >= 0) A[k * n + cp]! -= e.value;
+          if (cn >= 0) A[k * n + cn]! += e.value;
+        }
+        break;
+      default:
+        break; // C is open at DC; I only enters the right-hand side
+    }
+  }
+}
+
+/** In-place real LU with partial pivoting into `piv`; false for a singular matrix. */
+export function luFactorReal(A: Float64Array, n: number, piv: Int32Array): boolean {
+  for (let i = 0; i < n; i++) piv[i] = i;
+  for (let k = 0; k < n; k++) {
+    let p = k, best = 0;
+    for (let i = k; i < n; i++) { const m = Math.abs(A[i * n + k]!); if (m > best) { best = m; p = i; } }
+    if (best === 0 || !Number.isFinite(best)) return false;
+    if (p !== k) {
+      for (let j = 0; j < n; j++) { const t = A[k * n + j]!; A[k * n + j] = A[p * n + j]!; A[p * n + j] = t; }
+      const t = piv[k]!; piv[k] = piv[p]!; piv[p] = t;
+    }
+    const d = A[k * n + k]!;
+    for (let i = k + 1; i < n; i++) {
+      const l = A[i * n + k]!;
+      if (l === 0) continue;
+      const f = l / d;
+      A[i * n + k] = f;
+      for (let j = k + 1; j < n; j++) { const u = A[k * n + j]!; if (u !== 0) A[i * n + j]! -= f * u; }
+    }
+  }
+  return true;
+}
+
+/** Solves with a real LU: b is overwritten by x; `scratch` has length n. */
+export function luSolveReal(A: Float64Array, n: number, piv: Int32Array, b: Float64Array, scratch: Float64Array): void {
+  for (let i = 0; i < n; i++) scratch[i] = b[piv[i]!]!;
+  for (let i = 0; i < n; i++) { let s = scratch[i]!; for (let j = 0; j < i; j++) s -= A[i * n + j]! * scratch[j]!; scratch[i] = s; }
+  for (let i = n - 1; i >= 0; i--) { let s = scratch[i]!; for (let j = i + 1; j < n; j++) s -= A[i * n + j]! * scratch[j]!; scratch[i] = s / A[i * n + i]!; }
+  b.set(scratch);
+}
+
 /**
- * DC solve for several right-hand sides with one factorisation. `passband` leaves inductors open so that
- * an AC-coupled sensor (a current transformer) shows its passband scale.
+ * DC solve for several right-hand sides with one real factorisation. `passband` leaves inductors open so
+ * that an AC-coupled sensor (a current transformer) shows its passband scale.
  */
 export function solveDc(c: Circuit, picks: Array<(e: Element) => number>, passband = false): DcSolution | null {
-  const A = cx(c.size, c.size * c.size);
-  stamp(c, 0, A, false, passband);
-  const piv = luFactor(A);
-  if (!piv) return null;
-  const zero = new Float64Array(c.size);
+  const n = c.size;
+  const A = new Float64Array(n * n);
+  stampReal(c, A, passband);
+  const piv = new Int32Array(n);
+  if (!luFactorReal(A, n, piv)) return null;
+  const scratch = new Float64Array(n);
   return {
     columns: picks.map((p) => {
       const b = rhs(c, p);
-      zero.fill(0);
-      luSolve(A, piv, b, zero);
+      luSolveReal(A, n, piv, b, scratch);
       return b;
     }),
   };

@@ -170,7 +170,9 @@ export function solveDivider(design: Design, vref: number, rthTarget: number, ze
     return { ref: { kind: 'rail', railBottom: lo, railTop: hi, topRail, top: null, bottom: null, trim: null, voltage: v, thevenin: 0 }, warnings };
   }
   const { series, resistanceMin, resistanceMax, arrangements, tolerance } = design.target;
-  const table = armTable(series, resistanceMin, resistanceMax, arrangements);
+  // With a zero trimmer in the divider its own accuracy is trimmed out: single parts do, and are quicker
+  // to fit. Without one, two-part arms land the reference closer.
+  const table = armTable(series, resistanceMin, resistanceMax, wantTrim && arrangements.includes('single') ? ['single'] : arrangements);
   const rc = Math.min(Math.max(r, 0.02), 0.98);
   let sigma = rthTarget / (rc * (1 - rc));
   sigma = Math.min(Math.max(sigma, resistanceMin * 2), resistanceMax * 2);

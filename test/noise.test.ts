@@ -58,3 +58,25 @@ describe('output noise of a non-inverting stage (Motchenbacher & Connelly §3.4 
     expect(rms / 42.63e-6).toBeCloseTo(1, 2);
   });
 });
+
+describe('output noise of an inverting stage (same §3.4 form: noise gain 1 + Rf/Rin, resistors as Rf ∥ Rin)', () => {
+  // Motchenbacher & Connelly §3.4 applied to the inverting stage with its + input grounded:
+  // e_no² = (1+Rf/Rin)²·[e_n² + 4kT·(Rf‖Rin) + i_n²·(Rf‖Rin)²]; with Rg → Rin this is the non-inverting
+  // expression at Rs = 0, since both stages have the same noise gain (ECEN 457 eq. 2).
+  it('the circuit solver reproduces it for Rin 1 k, Rf 9 k', () => {
+    const el: Element[] = [
+      { kind: 'V', name: 'VS', a: 1, b: 0, value: 0 },
+      { kind: 'R', name: 'RIN', a: 1, b: 3, value: 1000 },
+      { kind: 'V', name: 'VEN', a: 0, b: 2, value: 0, noise: 10e-9 },
+      { kind: 'I', name: 'INP', a: 2, b: 0, value: 0, noise: 1e-12 },
+      { kind: 'I', name: 'INN', a: 3, b: 0, value: 0, noise: 1e-12 },
+      { kind: 'E', name: 'EOA', a: 4, b: 0, value: 1e6, cp: 2, cn: 3, pole: 1 },
+      { kind: 'R', name: 'ROUT', a: 4, b: 5, value: 1e-3, noisy: false },
+      { kind: 'R', name: 'RF', a: 5, b: 3, value: 9000 },
+    ];
+    const c = compile(['0', 'src', 'inp', 'inn', 'int', 'out'], el);
+    const low = noiseSpectrum(c, 5, Float64Array.of(10), 300).total[0]!;
+    expect(low / nonInvertingNoise({ en: 10e-9, in: 1e-12, rf: 9000, rg: 1000, rs: 0, kelvin: 300 })).toBeCloseTo(1, 3);
+    expect(low / 107.57e-9).toBeCloseTo(1, 3);
+  });
+});

@@ -1,0 +1,183 @@
+#!/usr/bin/env node
+// `npm run bench`: performance figures (not a test). Each group measures its baseline in the same run, so the
+// ratios hold on any machine even when absolute times are noisy. Needs `npm run build:cli` (done by
+// npm install) and, for group 3, a built app (`npx vite build`) and /usr/bin/chromium.
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { gzipSync } from 'node:zlib';
+
+const root = new URL('..', import.meta.url).pathname;
+const b = (p) => import(join(root, 'build', p));
+const { armTable, searchPairs, searchPairsExhaustive } = await b('search.js');
+const { mulberry32 } = await b('random.js');
+const { demoDesign, DEMOS } = await b('demos.js');
+const { analyse } = await b('report.js');
+const A = await b('analysis.js');
+const { sensorFront } = await b('sensors.js');
+const { chooseTopology } = await b('topology.js');
+const { solveStage } = await b('solver.js');
+const { buildCircuit } = await b('circuit.js');
+const { stamp, luFactor, luSolve, workspace } = await b('mna.js');
+
+const median = (xs) => { const s = [...xs].sort((a, b) => a - b); return s[s.length >> 1]; };
+const ms = (x) => `${x.toFixed(x < 1 ? 3 : 1)} ms`;
+const time = (f, n) => { for (let i = 0; i < Math.min(5, n); i++) f(); const t = []; for (let i = 0; i < n; i++) { const t0 = performance.now(); f(); t.push(performance.now() - t0); } return median(t); };
+const line = (label, value, note = '') => console.log(`  ${label.padEnd(58)} ${String(value).padStart(14)}  ${note}`);
+
+console.log(`Gainwright bench, ${new Date().toISOString()}, node ${process.version}, ${process.arch}`);
+
+// 1. Resistor search -------------------------------------------------------------------------------------
+console.log('\n1. Resistor search');
+{
+  const all = ['single', 'series', 'parallel'];
+  let t0 = performance.now();
+  const e96 = armTable('E96', 1e3, 1e6, all);
+  line('E96 arm table build (once, then cached)', ms(performance.now() - t0), `${e96.size} arms`);
+  const rand = mulberry32(6);
+  const per = [];
+  let none = 0;
+  for (let n = 0; n < 1000; n++) {
+    const k = 10 ** (rand() * 4); // 1 … 10 000
+    const prob = { idealB: (a) => a / k, error: (a, b) => a / b / k - 1, preferredA: 1e5, floor: 5e-4, ratio: { cA: 0, cB: 0, k, m: 1 } };
+    t0 = performance.now();
+    const r = searchPairs(e96, e96, prob, 10);
+    per.push(performance.now() - t0);
+    if (!r.best) none++;
+  }
+  line('E96 two-part arms, 1 k–1 M, 1000 targets in 1…10 000: median', ms(median(per)), `budget 20 ms; ${none} targets beyond the window's reach`);
+  line('  95th percentile', ms([...per].sort((a, b) => a - b)[950]));
+  const e24 = armTable('E24', 1e3, 1e6, all);
+  const fast = [], slow = [];
+  let same = 0;
+  const r2 = mulberry32(9);
+  for (let n = 0; n < 12; n++) {
+    const k = 10 ** (r2() * 3);
+    const prob = { idealB: (a) => a / k, error: (a, b) => a / b / k - 1, preferredA: 1e5, floor: 0 };
+    t0 = performance.now(); const f = searchPairs(e24, e24, prob, 10); fast.push(performance.now() - t0);
+    t0 = performance.now(); const s = searchPairsExhaustive(e24, e24, prob); slow.push(performance.now() - t0);
+    if (Math.abs(f.best.error) === s.bestError) same++;
+  }
+  line(`E24 two-part arms (${e24.size} arms): fast search median`, ms(median(fast)));
+  line('  exhaustive search of all arm pairs (baseline) median', ms(median(slow)));
+  line('  speed-up (budget ≥ 100×)', `${(median(slow) / median(fast)).toFixed(0)}×`, `same best error in ${same}/12 targets`);
+}
+
+// 2. Full analysis ---------------------------------------------------------------------------------------
+console.log('\n2. Full analysis (demo "bench-clamp")');
+{
+  const d = demoDesign('bench-clamp');
+  const front = sensorFront(d.sensor, d);
+  const ideal = chooseTopology(d, front).chosen;
+  const stage = solveStage(d, front, ideal);
+  const sc = buildCircuit(d, stage, front);
+  const dc = A.dcLinear(sc, false);
+  const sp = A.speed(d, sc, front, dc);
+  const parts = {
+    'stage solve (divider, gain network, trimmers)': () => solveStage(d, front, ideal),
+    'circuit build + DC transfer (200 points)': () => { const c = buildCircuit(d, stage, front); const x = A.dcLinear(c, false); A.transferCurve(d, x, A.clipping(d, front, x)); },
+    'speed (bandwidth bisection)': () => A.speed(d, sc, front, dc),
+    'AC + noise sweep (201 frequencies, one adjoint solve each)': () => A.noise(d, sc, sp),
+    'error budget': () => A.errorBudget(d, stage, front, sc, dc),
+    'battery sweep (9 steps)': () => A.batterySweep(d, stage, front, dc.out[0]),
+    'instrument drive': () => A.instrumentDrive(d, stage, front, sp.smallSignal),
+  };
+  for (const [k, f] of Object.entries(parts)) line(`  ${k}`, ms(time(f, 100)));
+  const whole = time(() => analyse(d, { spreadTrials: 0 }), 100);
+  line('analyse(): everything but the Monte Carlo, median', ms(whole), 'budget 5 ms');
+  line('  of which after the stage solve', ms(whole - time(() => solveStage(d, front, ideal), 100)));
+  line('Monte Carlo, 10 000 trials', ms(time(() => A.spread(d, front, sc, dc, 10000), 5)), 'budget 150 ms');
+  // Baseline: the same complex solve done with mathjs matrices.
+  const math = await import('mathjs');
+  const n = sc.circuit.size;
+  const ws = workspace(sc.circuit);
+  const ours = time(() => { stamp(sc.circuit, 2 * Math.PI * 1e3, ws.A, true); const p = luFactor(ws.A); ws.yr.fill(0); ws.yi.fill(0); ws.yr[sc.nodes.out - 1] = 1; luSolve(ws.A, p, ws.yr, ws.yi); }, 2000);
+  stamp(sc.circuit, 2 * Math.PI * 1e3, ws.A, true);
+  const rows = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => math.complex(ws.A.re[i * n + j], ws.A.im[i * n + j])));
+  const rhs = Array.from({ length: n }, (_, i) => [i === sc.nodes.out - 1 ? 1 : 0]);
+  const theirs = time(() => math.lusolve(math.matrix(rows), rhs), 50);
+  line(`one ${n}×${n} complex solve, our typed-array LU`, ms(ours));
+  line('  the same with mathjs lusolve (baseline)', ms(theirs), `${(theirs / ours).toFixed(0)}× slower`);
+}
+
+// 3. The app ---------------------------------------------------------------------------------------------
+console.log('\n3. The app');
+{
+  const dist = join(root, 'dist', 'assets');
+  if (!existsSync(dist)) {
+    console.log('  (skipped: run `npx vite build` first)');
+  } else {
+    const js = readdirSync(dist).filter((f) => f.endsWith('.js'));
+    let total = 0, initial = 0;
+    const html = readFileSync(join(root, 'dist', 'index.html'), 'utf8');
+    for (const f of js) {
+      const gz = gzipSync(readFileSync(join(dist, f))).length;
+      total += gz;
+      if (html.includes(f)) initial += gz;
+      line(`  ${f}`, `${(gz / 1024).toFixed(1)} KB gzip`, html.includes(f) ? 'loaded at start' : 'loaded after first render');
+    }
+    line('JavaScript at first load', `${(initial / 1024).toFixed(1)} KB gzip`, 'budget 150 KB');
+    line('JavaScript in total', `${(total / 1024).toFixed(1)} KB gzip`, 'budget 150 KB');
+    if (existsSync('/usr/bin/chromium')) {
+      const { chromium } = await import('playwright-core');
+      const { preview } = await import('vite');
+      const server = await preview({ root, preview: { port: 0, host: '127.0.0.1' }, logLevel: 'silent' });
+      const url = `http://127.0.0.1:${server.httpServer.address().port}/`;
+      writeFileSync(join(root, 'dist', 'bench-blank.html'), '<!doctype html><title>blank</title><p>blank</p>');
+      const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'] });
+      const first = [], blank = [], edits = [];
+      for (let i = 0; i < 7; i++) {
+        const ctx = await browser.newContext();
+        const page = await ctx.newPage();
+        await page.goto(`${url}bench-blank.html`);
+        blank.push(await page.evaluate(() => performance.getEntriesByType('navigation')[0].loadEventEnd));
+        await page.goto(url);
+        await page.waitForFunction(() => performance.getEntriesByName('gw-first-render').length > 0);
+        first.push(await page.evaluate(() => performance.getEntriesByName('gw-first-render')[0].startTime));
+        if (i === 0) {
+          for (let k = 0; k < 10; k++) {
+            const f = page.locator('input[data-path="sensor.hallSensitivity"]');
+            await f.fill(`${25 + k} mV/mT`);
+            await f.press('Enter');
+            await page.waitForFunction((n) => performance.getEntriesByName('gw-edit').length > n, k);
+          }
+          edits.push(...(await page.evaluate(() => performance.getEntriesByName('gw-edit').map((e) => e.duration))));
+        }
+        await ctx.close();
+      }
+      await browser.close();
+      await new Promise((r) => server.httpServer.close(r));
+      line('first render of the demo verdict after navigation, median of 7', ms(median(first)), 'budget 300 ms');
+      line('  a blank page from the same server (baseline)', ms(median(blank)), `${(median(first) / median(blank)).toFixed(1)}×`);
+      line('edit of the sensitivity → verdict and transfer plot, median of 10', ms(median(edits)), 'budget 50 ms');
+    } else {
+      console.log('  (browser figures skipped: install chromium)');
+    }
+  }
+}
+
+// 4. Scale -----------------------------------------------------------------------------------------------
+console.log('\n4. Batch reports from the CLI');
+{
+  const make = (count) => {
+    const dir = mkdtempSync(join(tmpdir(), `gw-batch-${count}-`));
+    const rand = mulberry32(count);
+    for (let i = 0; i < count; i++) {
+      const doc = structuredClone(DEMOS[i % DEMOS.length].document);
+      doc.target.scale *= 0.8 + 0.4 * rand();
+      doc.title = `batch ${i}`;
+      writeFileSync(join(dir, `d${String(i).padStart(4, '0')}.json`), JSON.stringify(doc));
+    }
+    return dir;
+  };
+  const run = (args) => { const t0 = performance.now(); const r = spawnSync('node', [join(root, 'bin', 'gainwright.mjs'), ...args], { encoding: 'utf8', maxBuffer: 1 << 30 }); return { ms: performance.now() - t0, lines: r.stdout.trim().split('\n').length, status: r.status }; };
+  const startup = median([0, 1, 2].map(() => { const t0 = performance.now(); spawnSync('node', [join(root, 'bin', 'gainwright.mjs'), '--help']); return performance.now() - t0; }));
+  line('CLI start-up alone (baseline)', ms(startup));
+  const r100 = run(['report', make(100), '--json']);
+  const r1000 = run(['report', make(1000), '--json']);
+  line('report DIR --json, 100 designs', ms(r100.ms), `${r100.lines} lines, exit ${r100.status}`);
+  line('report DIR --json, 1000 designs', ms(r1000.ms), `${r1000.lines} lines, exit ${r1000.status}; budget 10 s`);
+  line('per design, 100 vs 1000 (start-up taken off)', `${((r100.ms - startup) / 100).toFixed(2)} / ${((r1000.ms - startup) / 1000).toFixed(2)} ms`);
+}
+void statSync;
