@@ -213,7 +213,8 @@ export class GwApp extends LitElement {
   };
 
   private _onSet = (e: CustomEvent<SetDetail>): void => {
-    const { path, value } = e.detail;
+    const { path } = e.detail;
+    const value = path === 'target.arrangements' && typeof e.detail.value === 'string' ? e.detail.value.split(',') : e.detail.value;
     if (path in GROUP_DEFAULTS) {
       this._apply(setPath(this._design, path, value ? GROUP_DEFAULTS[path] : null), path);
       return;

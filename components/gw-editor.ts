@@ -14,7 +14,7 @@ const SECTIONS: Array<[Section, string]> = [
   ['amplifier', '3 · Amplifier: op-amp figures'],
   ['output', '4 · Output and instrument'],
   ['supply', '5 · Supply'],
-  ['environment', '6 · Temperature'],
+  ['environment', '6 · Temperature and analysis'],
 ];
 
 /**
@@ -54,7 +54,7 @@ export class GwEditor extends LitElement {
     if (f.kind === 'select') {
       return html`<label class="row"><span>${f.label}</span>
         <select data-path=${path} @change=${(e: Event) => this._set(path, (e.target as HTMLSelectElement).value)}>
-          ${f.options!.map(([v, l]) => html`<option value=${v} ?selected=${value === v}>${l}</option>`)}
+          ${f.options!.map(([v, l]) => html`<option value=${v} ?selected=${(Array.isArray(value) ? value.join(',') : value) === v}>${l}</option>`)}
         </select></label>`;
     }
     if (f.kind === 'bool') {

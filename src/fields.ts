@@ -41,6 +41,8 @@ export const SENSOR_TYPES: Array<[SensorType, string]> = [
 
 export const FIELDS: readonly FieldDef[] = [
   { path: 'title', label: 'Title', section: 'sensor', kind: 'text' },
+  { path: 'notes', label: 'Notes', section: 'sensor', kind: 'text' },
+  { path: 'sensor.measurand', label: 'Measurand unit', section: 'sensor', kind: 'text', hint: 'A, mT, V …' },
   S('sensor.sensitivity', 'Sensitivity', 'V/A', 'V/A', VOUT, 'volts per measurand unit, e.g. 12.5 mV/A'),
   S('sensor.hallSensitivity', 'Hall sensitivity', 'V/T', 'V/T', HALL, 'e.g. 25 mV/mT or 2.5 mV/G'),
   S('sensor.quiescent', 'Quiescent output (zero)', 'V', 'V', [...VOUT, ...HALL], 'output at zero measurand'),
@@ -69,7 +71,11 @@ export const FIELDS: readonly FieldDef[] = [
   S('sensor.sensitivityTolerance', 'Sensitivity tolerance (±)', '1', '%'),
   S('sensor.quiescentTolerance', 'Zero tolerance (±)', 'V', 'V', [...VOUT, ...HALL]),
   S('sensor.supplyCurrent', 'Sensor supply current', 'A', 'A', [...VOUT, ...HALL]),
+  S('sensor.outputDrive', 'Sensor output drive (0 = not stated)', 'A', 'A', [...VOUT, ...HALL]),
+  S('sensor.sensitivityDrift', 'Sensitivity drift', '1/K', 'ppm/K'),
+  S('sensor.quiescentDrift', 'Zero drift', 'V/K', 'V/K', [...VOUT, ...HALL]),
 
+  { path: 'opamp.name', label: 'Part or archetype name', section: 'amplifier', kind: 'text' },
   N('amplifier', 'opamp.gbw', 'Gain-bandwidth (GBW)', 'Hz', 'Hz'),
   N('amplifier', 'opamp.slewRate', 'Slew rate', 'V/s', 'V/s'),
   N('amplifier', 'opamp.openLoopGainDb', 'Open-loop gain (dB)', '1', 'dB'),
@@ -93,6 +99,7 @@ export const FIELDS: readonly FieldDef[] = [
   { path: 'target.signal', label: 'Signal', section: 'target', kind: 'select', options: [['dc', 'DC (range is peak values)'], ['ac-rms', 'AC (range is rms)']] },
   { path: 'target.topology', label: 'Stage', section: 'target', kind: 'select', options: [['auto', 'Choose for me'], ['non-inverting', 'Non-inverting'], ['inverting', 'Inverting']] },
   { path: 'target.series', label: 'Resistor series', section: 'target', kind: 'select', options: ['E12', 'E24', 'E48', 'E96', 'E192'].map((s) => [s, s]) },
+  { path: 'target.arrangements', label: 'Parts per arm', section: 'target', kind: 'select', options: [['single,series,parallel', 'one, or two in series or parallel'], ['single,series', 'one, or two in series'], ['single,parallel', 'one, or two in parallel'], ['single', 'one only']] },
   N('target', 'target.tolerance', 'Resistor tolerance (±)', '1', '%'),
   N('target', 'target.tempco', 'Resistor tempco', '1/K', 'ppm/K'),
   N('target', 'target.resistanceMin', 'Smallest resistor', 'ohm', 'Ω'),
@@ -112,6 +119,7 @@ export const FIELDS: readonly FieldDef[] = [
   { path: 'supply.regulated', label: 'Regulated rail', section: 'supply', kind: 'bool', group: 'supply.regulated' },
   N('supply', 'supply.regulated.voltage', 'Regulated voltage', 'V', 'V', undefined, 'supply.regulated'),
   N('supply', 'supply.regulated.tolerance', 'Regulator tolerance (±)', '1', '%', undefined, 'supply.regulated'),
+  N('supply', 'supply.regulated.quiescentCurrent', 'Regulator quiescent current', 'A', 'A', undefined, 'supply.regulated'),
   { path: 'supply.sensorRail', label: 'Sensor fed from', section: 'supply', kind: 'select', options: [['positive', 'Positive rail'], ['regulated', 'Regulated rail']] },
   { path: 'supply.referenceRail', label: 'Reference divider from', section: 'supply', kind: 'select', options: [['positive', 'Positive rail'], ['regulated', 'Regulated rail']] },
   { path: 'supply.battery', label: 'Battery', section: 'supply', kind: 'bool', group: 'supply.battery' },
@@ -122,6 +130,13 @@ export const FIELDS: readonly FieldDef[] = [
   N('environment', 'environment.temperature', 'Design temperature', 'K', '°C'),
   N('environment', 'environment.temperatureMin', 'Lowest temperature', 'K', '°C'),
   N('environment', 'environment.temperatureMax', 'Highest temperature', 'K', '°C'),
+  N('environment', 'analysis.spreadTrials', 'Spread: Monte Carlo trials', '1', ''),
+  N('environment', 'analysis.spreadSeed', 'Spread: random seed', '1', ''),
+  N('environment', 'analysis.scaleLimit', 'Spread: scale limit (±)', '1', '%'),
+  N('environment', 'analysis.zeroLimit', 'Spread: zero limit (±)', 'V', 'V'),
+  { path: 'analysis.noiseBand', label: 'Own noise band', section: 'environment', kind: 'bool', group: 'analysis.noiseBand' },
+  N('environment', 'analysis.noiseBand.0', 'Noise band from', 'Hz', 'Hz', undefined, 'analysis.noiseBand'),
+  N('environment', 'analysis.noiseBand.1', 'Noise band to', 'Hz', 'Hz', undefined, 'analysis.noiseBand'),
 ];
 
 /** Default values for optional groups switched on in the editor. */
@@ -129,6 +144,7 @@ export const GROUP_DEFAULTS: Record<string, unknown> = {
   'output.filter': { resistance: 100, capacitance: 0 },
   'supply.regulated': { voltage: 5, tolerance: 0.02, quiescentCurrent: 0 },
   'supply.battery': { fresh: 9.6, endOfLife: 6, capacity: 2034 },
+  'analysis.noiseBand': [1, 1e5],
 };
 
 export function getPath(obj: unknown, path: string): unknown {
