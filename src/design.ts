@@ -16,7 +16,8 @@ export type TopologyChoice = Topology | 'auto';
 export type Arrangement = 'single' | 'series' | 'parallel';
 export type Rail = 'positive' | 'regulated';
 
-interface SensorCommon {
+/** Fields every sensor model has; the sensor front (src/sensors.ts) carries them on. */
+export interface SensorCommon {
   /** What is measured, as a unit symbol: "A", "mT", "V", "K". */
   measurand: string;
   /** Output resistance of the sensor, Ω. */

@@ -3,7 +3,7 @@
  * current transformer and its burden, a shunt, or any voltage-output sensor) into one common description,
  * `SensorFront`, that the rest of Gainwright consumes without knowing which model made it.
  */
-import type { Design, SensorSpec } from './design.js';
+import type { Design, SensorCommon, SensorSpec } from './design.js';
 import { MU0 } from './constants.js';
 import type { Warning } from './warnings.js';
 
@@ -24,31 +24,20 @@ export interface SensorFigure {
   unit: string;
 }
 
-export interface SensorFront {
-  measurand: string;
+export interface SensorFront extends SensorCommon {
   /** Output volts per measurand unit at the sensor's nominal supply. */
   sensitivity: number;
   /** Output at zero measurand, V. */
   quiescent: number;
   outputMin: number;
   outputMax: number;
-  sourceResistance: number;
   /** Whether the source resistance is a real resistor whose thermal noise adds (burden, shunt). */
   sourceNoisy: boolean;
-  noiseDensity: number;
-  /** Upper −3 dB frequency, Hz (single pole). */
-  bandwidth: number;
   /** Lower −3 dB frequency, Hz; 0 for a sensor that passes DC. */
   lowCorner: number;
   passesDc: boolean;
   /** Sensor supply at which sensitivity and quiescent were given, if they scale with it. */
   ratiometricSupply: number | null;
-  sensitivityTolerance: number;
-  quiescentTolerance: number;
-  sensitivityDrift: number;
-  quiescentDrift: number;
-  supplyCurrent: number;
-  outputDrive: number;
   limits: SensorLimit[];
   figures: SensorFigure[];
   warnings: Warning[];

@@ -1,22 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { analyse, reportJson } from '../src/report.js';
-import { validateDesign, type Design } from '../src/design.js';
 import { DEMOS } from '../src/demos.js';
+import { designFrom, nonFinitePaths } from './helpers.js';
 
-function design(id: string, patch: (d: any) => void = () => {}): Design {
-  const doc = structuredClone(DEMOS.find((d) => d.id === id)!.document) as any;
-  patch(doc);
-  const v = validateDesign(doc);
-  if (!v.ok) throw new Error(JSON.stringify(v.problems));
-  return v.design;
-}
+const design = designFrom;
 
-function allFinite(x: unknown, path = ''): string[] {
-  if (typeof x === 'number') return Number.isFinite(x) ? [] : [path];
-  if (Array.isArray(x)) return x.flatMap((v, i) => allFinite(v, `${path}[${i}]`));
-  if (x && typeof x === 'object') return Object.entries(x).flatMap(([k, v]) => allFinite(v, `${path}.${k}`));
-  return [];
-}
+const allFinite = nonFinitePaths;
 
 describe('transfer and clipping', () => {
   // Demo scenario of our own: 9 V single supply, op-amp output stops 1.5 V below the + rail. With 100 mV/A

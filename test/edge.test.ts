@@ -3,14 +3,9 @@ import { describe, expect, it } from 'vitest';
 import { analyse, reportJson } from '../src/report.js';
 import { validateDesign, type Design } from '../src/design.js';
 import { DEMOS } from '../src/demos.js';
+import { designFrom } from './helpers.js';
 
-function design(patch: (d: any) => void): Design {
-  const doc = structuredClone(DEMOS.find((d) => d.id === 'generic-sensor')!.document) as any;
-  patch(doc);
-  const v = validateDesign(doc);
-  if (!v.ok) throw new Error(JSON.stringify(v.problems));
-  return v.design;
-}
+const design = (patch: (d: any) => void): Design => designFrom('generic-sensor', patch);
 const finite = (x: unknown): boolean => typeof x === 'number' ? Number.isFinite(x) : Array.isArray(x) ? x.every(finite) : x && typeof x === 'object' ? Object.values(x).every(finite) : true;
 
 describe('edge designs', () => {

@@ -1,16 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { gapFieldPerAmp, sensorFront } from '../src/sensors.js';
 import { MU0 } from '../src/constants.js';
-import { validateDesign, type Design } from '../src/design.js';
-import { DEMOS } from '../src/demos.js';
+import { designFrom } from './helpers.js';
 
-function design(id: string, patch: (d: any) => void = () => {}): Design {
-  const doc = structuredClone(DEMOS.find((d) => d.id === id)!.document) as any;
-  patch(doc);
-  const v = validateDesign(doc);
-  if (!v.ok) throw new Error(JSON.stringify(v.problems));
-  return v.design;
-}
+const design = designFrom;
 
 describe('magnetic circuit with an air gap (Ampère\'s law; Umans, Fitzgerald & Kingsley 7th ed. §1.1)', () => {
   it('pins μ0 to CODATA 2022 (1.25663706127e-6 N/A²)', () => {

@@ -2,17 +2,11 @@ import { describe, expect, it } from 'vitest';
 import { networkGain, solveStage, standardTrimmer, COVERAGE } from '../src/solver.js';
 import { chooseTopology } from '../src/topology.js';
 import { sensorFront } from '../src/sensors.js';
-import { validateDesign, type Design } from '../src/design.js';
-import { DEMOS } from '../src/demos.js';
+import type { Design } from '../src/design.js';
+import { designFrom } from './helpers.js';
 import { isMember } from '../src/eseries.js';
 
-function design(id: string, patch: (d: any) => void = () => {}): Design {
-  const doc = structuredClone(DEMOS.find((d) => d.id === id)!.document) as any;
-  patch(doc);
-  const v = validateDesign(doc);
-  if (!v.ok) throw new Error(JSON.stringify(v.problems));
-  return v.design;
-}
+const design = designFrom;
 const solve = (d: Design) => {
   const f = sensorFront(d.sensor, d);
   return solveStage(d, f, chooseTopology(d, f).chosen!);

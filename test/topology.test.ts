@@ -1,16 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { chooseTopology, idealStage, invertingOutput, nonInvertingOutput } from '../src/topology.js';
 import { sensorFront } from '../src/sensors.js';
-import { validateDesign, type Design } from '../src/design.js';
-import { DEMOS } from '../src/demos.js';
+import type { Design } from '../src/design.js';
+import { designFrom } from './helpers.js';
 
-function design(patch: (d: any) => void = () => {}): Design {
-  const doc = structuredClone(DEMOS.find((d) => d.id === 'generic-sensor')!.document) as any;
-  patch(doc);
-  const v = validateDesign(doc);
-  if (!v.ok) throw new Error(JSON.stringify(v.problems));
-  return v.design;
-}
+const design = (patch: (d: any) => void = () => {}): Design => designFrom('generic-sensor', patch);
 
 describe('closed forms', () => {
   // Non-inverting with the reference at the foot of the ground leg: superposition of G·Vs and −(G−1)·Vref
