@@ -54,8 +54,12 @@ export class GwApp extends LitElement {
     .safety-banner { background: #fff4e0; border-bottom: 2px solid var(--gw-caution); padding: 0.45rem 1rem; font-size: 0.88rem; }
     .notice { background: #e8f0fb; border-bottom: 1px solid #9db4d6; padding: 0.45rem 1rem; font-size: 0.9rem; }
     .notice.bad { background: #fdeaea; border-color: #d9a0a0; }
-    main { display: grid; grid-template-columns: minmax(300px, 430px) 1fr; gap: 1rem; padding: 1rem; }
-    @media (max-width: 860px) { main { grid-template-columns: minmax(0, 1fr); padding: 0.5rem; } .title-input { width: 100%; } }
+    main { display: grid; grid-template-columns: minmax(300px, 430px) 1fr; grid-template-areas: 'editor verdict' 'editor results'; align-items: start; gap: 0 1rem; padding: 1rem; }
+    .area-editor { grid-area: editor; }
+    .area-verdict { grid-area: verdict; }
+    .area-results { grid-area: results; }
+    /* On a narrow screen the verdict comes first, then the editor, then the rest. */
+    @media (max-width: 860px) { main { grid-template-columns: minmax(0, 1fr); grid-template-areas: 'verdict' 'editor' 'results'; padding: 0.5rem; } .title-input { width: 100%; } }
     .panel { background: var(--gw-paper); border: 1px solid var(--gw-line); border-radius: 6px; padding: 0.7rem 0.9rem; margin-bottom: 1rem; }
     .charts { display: grid; grid-template-columns: repeat(auto-fit, minmax(min(320px, 100%), 1fr)); gap: 0.8rem; }
     .scroll { overflow-x: auto; }
@@ -322,13 +326,15 @@ export class GwApp extends LitElement {
         <button aria-label="Dismiss" @click=${() => { this._notice = null; }}>×</button></div>` : nothing}
       ${this._shareUrl ? html`<div class="notice no-print"><label>Share link <input class="share" readonly .value=${this._shareUrl} @focus=${(e: Event) => (e.target as HTMLInputElement).select()} /></label></div>` : nothing}
       <main>
-        <section aria-label="Design">
+        <section class="area-verdict" aria-label="Verdict">
+          <div class="panel" id="verdict"><h2>Verdict</h2><gw-verdicts .verdicts=${r?.verdicts ?? []}></gw-verdicts></div>
+        </section>
+        <section class="area-editor" aria-label="Design">
           <gw-editor .design=${this._design} .messages=${this._messages}
             @gw-field-input=${this._onFieldInput} @gw-set=${this._onSet}
             @gw-sensor-type=${this._onSensorType} @gw-opamp-archetype=${this._onArchetype}></gw-editor>
         </section>
-        <section aria-label="Results">
-          <div class="panel" id="verdict"><h2>Verdict</h2><gw-verdicts .verdicts=${r?.verdicts ?? []}></gw-verdicts></div>
+        <section class="area-results" aria-label="Results">
           <div class="panel"><h2>Schematic</h2><gw-schematic .drawing=${d?.drawing ?? null}></gw-schematic></div>
           <div class="panel"><h2>Plots</h2><div class="charts">${(d?.charts ?? []).map((c) => html`<gw-chart data-chart=${c.id} .data=${c}></gw-chart>`)}</div></div>
           <div class="panel scroll"><h2>Parts list</h2><gw-parts .rows=${d?.rows ?? []} .alternatives=${r?.stage?.alternatives ?? []} .chosen=${r?.stage?.chosen ?? 0} @gw-set=${this._onSet}></gw-parts></div>
