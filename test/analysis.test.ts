@@ -174,3 +174,17 @@ describe('a shunt design reaches the full report', () => {
     expect(r.dc!.out[1]).toBeCloseTo(0.5, 3);
   });
 });
+
+describe('verdict thresholds (our own: noise p-p within 1 % of the range end passes, error after calibration within 1 %)', () => {
+  it('a noisy sensor turns the noise line to caution or fail', () => {
+    const quiet = analyse(design('generic-sensor'), { spreadTrials: 0 });
+    const noisy = analyse(design('generic-sensor', (x) => { x.sensor.noiseDensity = 20e-6; }), { spreadTrials: 0 });
+    const line = (r: typeof quiet) => r.verdicts.find((v) => v.title.startsWith('Noise'))!;
+    expect(line(quiet).level).toBe('pass');
+    expect(line(noisy).level).not.toBe('pass');
+  });
+  it('large drift after calibration is flagged', () => {
+    const r = analyse(design('generic-sensor', (x) => { x.opamp.offsetDrift = 1e-3; }), { spreadTrials: 0 });
+    expect(r.verdicts.find((v) => v.title.startsWith('Error'))!.level).toBe('fail');
+  });
+});
