@@ -188,3 +188,15 @@ describe('verdict thresholds (our own: noise p-p within 1 % of the range end pas
     expect(r.verdicts.find((v) => v.title.startsWith('Error'))!.level).toBe('fail');
   });
 });
+
+describe('bias current at the output (Sivakumar, Linear Integrated Circuits, ch. 5 form)', () => {
+  // With the + input driven from a stiff source, the − input's bias current flows through the feedback
+  // resistance only: output error I_b·R_f (the form of Sivakumar ex. 5.1, where I_os·R_2 = 150 nA × 500 kΩ = 75 mV).
+  it('is I_b × R_f, in measurand units divided by the scale', () => {
+    const r = analyse(design('generic-sensor', (x) => { x.sensor.sourceResistance = 0; x.opamp.offsetVoltage = 0; x.opamp.biasCurrent = 150e-9; }), { spreadTrials: 0 });
+    const net = r.stage!.network;
+    const rf = net.feedback!.ohms + net.gainTrim!.ohms * net.gainTrim!.setting;
+    const term = r.errors!.terms.find((t) => t.name === 'op-amp bias current')!;
+    expect(term.value * Math.abs(r.dc!.out[1]) / (150e-9 * rf)).toBeCloseTo(1, 3);
+  });
+});
