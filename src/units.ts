@@ -198,9 +198,9 @@ export function rkmCode(ohms: number, sig = 2): string {
   return `${w}${letter}${frac}`;
 }
 
-/** IEC 60062 tolerance letters. F ±1 % and K ±10 % are published examples; the rest as commonly tabulated. */
+/** IEC 60062 tolerance letters. F ±1 % and K ±10 % are published examples; the others are from memory. */
 export const TOLERANCE_LETTERS: Array<[number, string]> = [
-  [0.0005, 'A'], [0.001, 'B'], [0.0025, 'C'], [0.005, 'D'], [0.01, 'F'], [0.02, 'G'], [0.05, 'J'],
+  [0.0005, 'A'], [0.001, 'B'], [0.0025, 'C'], [0.005, 'D'], [0.01, 'F'], [0.02, 'G'], [0.05, 'J'], // F, K published; the rest from memory
   [0.1, 'K'], [0.2, 'M'],
 ];
 

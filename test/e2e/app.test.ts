@@ -215,4 +215,27 @@ describe('the app in Chromium', () => {
     expect(ms).toBeLessThan(250);
     await page.context().close();
   });
+
+  it('edge designs show guidance and never NaN or Infinity: a buffer, then a target no stage can reach', async () => {
+    const { page, errors } = await watchedPage(h);
+    await page.goto(h.url);
+    await page.selectOption('select[aria-label="Load a demo"]', 'generic-sensor');
+    await expect.poll(() => partsText(page)).toMatch(/R1/);
+    await typeInto(page, 'target.zero', '2.5 V');
+    await typeInto(page, 'target.scale', '12.5 mV/A');
+    await expect.poll(() => verdictText(page)).toMatch(/Scale 12\.5 mV\/A/);
+    const all = () => page.evaluate(() => {
+      const text: string[] = [];
+      const walk = (root: Document | ShadowRoot) => { for (const el of root.querySelectorAll('*')) { if (el.shadowRoot) walk(el.shadowRoot); } text.push((root as Document).body ? (root as Document).body.innerText : (root as ShadowRoot).textContent ?? ''); };
+      walk(document);
+      return text.join('\n');
+    });
+    expect(await all()).not.toMatch(/NaN|Infinity/);
+    await typeInto(page, 'target.scale', '5 mV/A');
+    await expect.poll(() => verdictText(page)).toMatch(/No design/);
+    expect(await page.locator('gw-app').locator('li[data-code="guidance"]').first().innerText()).toMatch(/reverse the conductor/i);
+    expect(await all()).not.toMatch(/NaN|Infinity/);
+    expect(errors).toEqual([]);
+    await page.context().close();
+  });
 });
