@@ -224,7 +224,8 @@ function crossing(sc: StageCircuit, level: number, f1: number, f2: number, ws: R
     const m = Math.sqrt(a * b);
     const [re, im] = transferAt(sc, m, ws);
     if (Math.hypot(re, im) > level) a = m; else b = m;
-    if (b / a < 1 + 1e-9) break;
+    // Either direction: a may sit above b (the low corner of an AC-coupled chain is searched downwards).
+    if (Math.abs(Math.log(b / a)) < 1e-9) break;
   }
   return Math.sqrt(a * b);
 }
@@ -244,10 +245,16 @@ export function speed(design: Design, sc: StageCircuit, front: SensorFront, dc: 
     fRef = 1e-3;
     passband = Math.hypot(...transferAt(sc, fRef, ws));
   } else {
-    fRef = Math.max(front.lowCorner * 100, 10);
-    passband = Math.hypot(...transferAt(sc, fRef, ws));
+    // An AC-coupled chain: its passband scale is the peak of |H|, found on a coarse log grid between the
+    // sensor's own corner and far above; both corners are then bisected from that peak.
+    const f0 = Math.max(front.lowCorner, 1e-3), f1 = fHi;
+    fRef = f0; passband = 0;
+    for (let i = 0; i <= 80; i++) {
+      const f = f0 * (f1 / f0) ** (i / 80);
+      const m = Math.hypot(...transferAt(sc, f, ws));
+      if (m > passband) { passband = m; fRef = f; }
+    }
     lowCorner = crossing(sc, passband / Math.SQRT2, fRef, front.lowCorner / 1000 || 1e-3, ws);
-    // crossing() assumes |H| falls from the first to the second argument, true going down from the passband.
   }
   const level = passband / Math.SQRT2;
   let bw = crossing(sc, level, fRef, fHi, ws);

@@ -16,6 +16,7 @@ import type { Warning } from './warnings.js';
 import { formatEng } from './units.js';
 import { calibrationSteps, type CalibrationStep } from './calibration.js';
 import { solveDc } from './mna.js';
+import { transferAt } from './analysis.js';
 
 export interface Verdict {
   level: 'pass' | 'caution' | 'fail';
@@ -140,6 +141,21 @@ function findings(r: Report): Warning[] {
   }
   if (d.target.bandwidth > 0 && sp.fullPower < d.target.bandwidth) {
     w.push({ code: 'slew-limited', level: 'caution', message: `Full-scale signals are slew-limited above ${f3(sp.fullPower, 'Hz')} (SR/(2π·Vpeak)); the wanted range and ${f3(d.target.bandwidth, 'Hz')} cannot both be had.` });
+  }
+  // An AC-coupled sensor at mains frequency (50 Hz, the lower of the two in use; common practice): how far
+  // below its passband scale it reads there, from the circuit itself.
+  if (!r.front.passesDc && r.circuit && r.speed) {
+    const at = Math.hypot(...transferAt(r.circuit, 50));
+    const short = 1 - at / Math.abs(r.speed.passband);
+    const [hr, hi] = transferAt(r.circuit, 50);
+    const [pr, pi] = transferAt(r.circuit, Math.sqrt(r.speed.lowCorner * r.speed.smallSignal));
+    let lead = ((Math.atan2(hi, hr) - Math.atan2(pi, pr)) * 180) / Math.PI;
+    while (lead > 180) lead -= 360;
+    while (lead < -180) lead += 360;
+    w.push({
+      code: 'ac-low-frequency', level: short > 0.01 ? 'caution' : 'info',
+      message: `At 50 Hz the reading is ${(short * 100).toFixed(2)} % below the passband scale and leads by ${lead.toFixed(1)}° (low corner ${f3(r.speed.lowCorner, 'Hz')}); below about ${f3(r.speed.lowCorner * 7, 'Hz')} it reads more than 1 % low.`,
+    });
   }
   // What the amplifier's input network draws from the sensor's output (through its source resistance).
   const sc = r.circuit;

@@ -200,3 +200,17 @@ describe('bias current at the output (Sivakumar, Linear Integrated Circuits, ch.
     expect(term.value * Math.abs(r.dc!.out[1]) / (150e-9 * rf)).toBeCloseTo(1, 3);
   });
 });
+
+describe('current transformer at mains frequency', () => {
+  // A single high-pass corner f_c reads 1/√(1 + (f_c/f)²) of the passband at f (first-order high-pass,
+  // any circuits text): a 9.55 Hz corner reads 1.8 % low at 50 Hz.
+  it('reports how far below the passband it reads at 50 Hz', () => {
+    const r = analyse(design('appliance-ct', (x) => { x.sensor.burden = 100; x.sensor.secondaryTurns = 1000; x.sensor.inductanceFactor = 2e-6; x.sensor.windingResistance = 20; x.target.scale = -0.1; x.target.range = [-5, 5]; x.output = { filter: null, load: { resistance: 1e6, capacitance: 0 } }; }), { spreadTrials: 0 });
+    const w = r.warnings.find((x) => x.code === 'ac-low-frequency')!;
+    const fc = r.speed!.lowCorner;
+    const expected = 1 - 1 / Math.sqrt(1 + (fc / 50) ** 2);
+    const shown = Number(/reading is ([\d.]+) %/.exec(w.message)![1]) / 100;
+    expect(shown).toBeCloseTo(expected, 3);
+    expect(w.level).toBe(expected > 0.01 ? 'caution' : 'info');
+  });
+});

@@ -146,6 +146,21 @@ describe.skipIf(!hasNgspice)('cross-check against ngspice', () => {
     }
     record('bandwidth (relative)', name, Math.abs(corner / sp.smallSignal - 1));
     expect(Math.abs(corner / sp.smallSignal - 1)).toBeLessThan(0.02);
+    if (!r.front.passesDc) {
+      // The low corner of an AC-coupled chain, going down from the peak.
+      const peakAt = ac.rows.findIndex((row) => row[1] === ref);
+      let low = NaN;
+      for (let i = peakAt; i > 0; i--) {
+        if (ac.rows[i - 1]![1]! < ref / Math.SQRT2) {
+          const [f0, m0] = ac.rows[i - 1]!, [f1, m1] = ac.rows[i]!;
+          const w = (Math.log(ref / Math.SQRT2) - Math.log(m0!)) / (Math.log(m1!) - Math.log(m0!));
+          low = Math.exp(Math.log(f0!) + w * (Math.log(f1!) - Math.log(f0!)));
+          break;
+        }
+      }
+      record('low corner (relative)', name, Math.abs(low / sp.lowCorner - 1));
+      expect(Math.abs(low / sp.lowCorner - 1)).toBeLessThan(0.02);
+    }
     // Noise: density at 1 kHz and integrated rms over the report's band.
     const ns = readTable(join(dir, 'gainwright-noise.txt'));
     if (nz.band[0] <= 1000 && nz.band[1] >= 1000) {
