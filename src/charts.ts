@@ -110,7 +110,7 @@ export function spreadChart(r: Report): ChartData | null {
   const { edges, counts } = r.spread.histogram;
   return {
     id: 'spread', title: `Scale spread over ${r.spread.trials} builds (before trim)`, bars: true,
-    x: { label: 'Scale error (%)' }, y: { label: 'Builds' },
+    x: { label: 'Scale error (%)' }, y: { label: 'Builds (count)' },
     series: [{ label: 'Builds', role: 'main', points: Array.from(counts, (c, i) => ({ x: ((edges[i]! + edges[i + 1]!) / 2) * 100, y: c })) }],
   };
 }
