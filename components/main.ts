@@ -1,2 +1,3 @@
-// Browser entry point: defines the elements; index.html places <gw-app>.
+// Browser entry point: the page's own few rules, then the elements; index.html places <gw-app>.
+import './page.css';
 import './gw-app.js';
