@@ -3,7 +3,7 @@
  * The app, the CLI and the tests all read this one object.
  */
 import type { Design, Topology } from './design.js';
-import { sensorFront, type SensorFront } from './sensors.js';
+import { sensorFrontAtRail, type SensorFront } from './sensors.js';
 import { chooseTopology, peakRange, type TopologyChoiceResult } from './topology.js';
 import { solveStage, type Part, type SolvedStage } from './solver.js';
 import { buildCircuit, type StageCircuit } from './circuit.js';
@@ -57,7 +57,7 @@ export interface AnalyseOptions {
 
 /** Analyses a (validated) design. Never throws for a valid design: what cannot be computed is in `absent`. */
 export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
-  const front = sensorFront(design.sensor, design);
+  const front = sensorFrontAtRail(design.sensor, design);
   const choice = chooseTopology(design, front);
   const warnings: Warning[] = [...front.warnings];
   const absent: Record<string, string> = {};

@@ -55,6 +55,16 @@ export function gapFieldPerAmp(turns: number, gap: number, pathLength: number, p
   return (MU0 * turns) / (gap + pathLength / permeability);
 }
 
+/** The voltage of the rail that feeds the sensor, V. */
+export function sensorRailVoltage(design: Pick<Design, 'supply'>): number {
+  return design.supply.sensorRail === 'regulated' && design.supply.regulated ? design.supply.regulated.voltage : design.supply.positive;
+}
+
+/** The front at the rail that actually feeds the sensor (a ratiometric sensor scales with it). */
+export function sensorFrontAtRail(spec: SensorSpec, design: Pick<Design, 'target' | 'supply'>): SensorFront {
+  return atSensorSupply(sensorFront(spec, design), sensorRailVoltage(design));
+}
+
 /** Turns a sensor spec and the rail that feeds it into the common front description. */
 export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 'supply'>): SensorFront {
   const range = design.target.range;
@@ -202,7 +212,8 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
 export function atSensorSupply(front: SensorFront, sensorSupply: number): SensorFront {
   if (!front.ratiometricSupply) return front;
   const k = sensorSupply / front.ratiometricSupply;
-  return { ...front, sensitivity: front.sensitivity * k, quiescent: front.quiescent * k, outputMax: Math.min(front.outputMax, sensorSupply) };
+  // The result is stated at its new supply, so scaling it again stays relative to that.
+  return { ...front, sensitivity: front.sensitivity * k, quiescent: front.quiescent * k, outputMax: Math.min(front.outputMax, sensorSupply), ratiometricSupply: sensorSupply };
 }
 
 function fmt(x: number): string {

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { gapFieldPerAmp, sensorFront } from '../src/sensors.js';
+import { atSensorSupply, gapFieldPerAmp, sensorFront } from '../src/sensors.js';
+import { analyse } from '../src/report.js';
 import { MU0 } from '../src/constants.js';
 import { designFrom } from './helpers.js';
 
@@ -84,5 +85,17 @@ describe('shunt (Ohm\'s law V = I·R, power I²·R)', () => {
     const codes = sensorFront(d.sensor, d).warnings.map((w) => w.code);
     expect(codes).toContain('shunt-power');
     expect(codes).toContain('low-side-only');
+  });
+});
+
+describe('ratiometric sensors', () => {
+  it('a sensor specified at 5 V but fed from a 9 V rail has 9/5 of its zero and sensitivity (ratiometric)', () => {
+    const d = design('generic-sensor', (x) => { x.sensor.ratiometricSupply = 5; x.sensor.outputMax = 8.5; x.target.scale = 0.1; x.target.zero = 4.5; });
+    const r = analyse(d, { spreadTrials: 0 });
+    expect(r.front.quiescent).toBeCloseTo(2.5 * 9 / 5, 12);
+    expect(r.front.sensitivity).toBeCloseTo(0.0125 * 9 / 5, 12);
+    // The battery sweep scales again from the rail it is fed at, not twice.
+    const swept = atSensorSupply(r.front, 9);
+    expect(swept.quiescent).toBeCloseTo(r.front.quiescent, 12);
   });
 });

@@ -238,4 +238,30 @@ describe('the app in Chromium', () => {
     expect(errors).toEqual([]);
     await page.context().close();
   });
+
+  it('every control has an accessible name and can be reached with the keyboard', async () => {
+    const { page } = await watchedPage(h);
+    await page.goto(h.url);
+    await expect.poll(() => partsText(page)).toMatch(/R1/);
+    const unnamed = await page.evaluate(() => {
+      const out: string[] = [];
+      const walk = (root: Document | ShadowRoot) => {
+        for (const el of root.querySelectorAll('input, select, button, textarea')) {
+          const c = el as HTMLInputElement;
+          if (c.type === 'file' || c.hidden) continue;
+          const named = (c.labels && c.labels.length > 0) || c.getAttribute('aria-label') || c.getAttribute('aria-labelledby') || (el.tagName === 'BUTTON' && el.textContent!.trim());
+          if (!named) out.push(`${el.tagName} ${c.getAttribute('data-path') ?? c.name ?? ''}`);
+          if (c.tabIndex < 0) out.push(`not focusable: ${el.tagName}`);
+        }
+        for (const el of root.querySelectorAll('*')) if (el.shadowRoot) walk(el.shadowRoot);
+      };
+      walk(document);
+      return out;
+    });
+    expect(unnamed).toEqual([]);
+    // Tab from the top reaches the title field and then the demo picker.
+    await page.keyboard.press('Tab');
+    expect(await page.evaluate(() => document.activeElement?.shadowRoot?.activeElement?.getAttribute('aria-label'))).toBe('Design title');
+    await page.context().close();
+  });
 });
