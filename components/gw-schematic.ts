@@ -22,13 +22,14 @@ export class GwSchematic extends LitElement {
     switch (p.t) {
       case 'wire': return svg`<polyline class="w" points=${p.pts.map(([x, y]) => `${x},${y}`).join(' ')} />`;
       case 'dot': return svg`<circle cx=${p.x} cy=${p.y} r="3" fill="#1d2430" />`;
+      case 'hop': return svg`<path class="w" d=${`M ${p.x} ${p.y - 6} A 6 6 0 0 0 ${p.x} ${p.y + 6}`} />`;
       case 'res': {
         const [w, h] = p.vertical ? [14, 50] : [50, 14];
-        const arrow = p.trimmer ? svg`<line class="w" x1=${p.x - 22} y1=${p.y + 18} x2=${p.x + 22} y2=${p.y - 18} /><polygon points=${`${p.x + 22},${p.y - 18} ${p.x + 13},${p.y - 15} ${p.x + 18},${p.y - 9}`} fill="#1d2430" />` : nothing;
+        const arrow = p.trimmer ? svg`<line class="w" x1=${p.x - 18} y1=${p.y + 13} x2=${p.x + 18} y2=${p.y - 13} /><polygon points=${`${p.x + 18},${p.y - 13} ${p.x + 9},${p.y - 11} ${p.x + 14},${p.y - 4}`} fill="#1d2430" />` : nothing;
         const lead = p.vertical
           ? svg`<line class="w" x1=${p.x} y1=${p.y - 35} x2=${p.x} y2=${p.y - 25} /><line class="w" x1=${p.x} y1=${p.y + 25} x2=${p.x} y2=${p.y + 35} />`
           : svg`<line class="w" x1=${p.x - 50} y1=${p.y} x2=${p.x - 25} y2=${p.y} /><line class="w" x1=${p.x + 25} y1=${p.y} x2=${p.x + 50} y2=${p.y} />`;
-        const tx = p.vertical ? p.x + 14 : p.x - 25;
+        const tx = p.vertical ? p.x + (p.trimmer ? 24 : 14) : p.x - 25;
         const ty = p.vertical ? p.y - 3 : p.y - 12;
         return svg`${lead}<rect class="b" x=${p.x - w / 2} y=${p.y - h / 2} width=${w} height=${h} />${arrow}
           <text class="ref" x=${tx} y=${ty}>${p.ref}</text><text class="val" x=${tx} y=${ty + (p.vertical ? 13 : 34)}>${p.value}</text>`;

@@ -16,6 +16,8 @@ export type Prim =
   | { t: 'source'; x: number; y: number; label: string }
   | { t: 'terminal'; x: number; y: number; label: string }
   | { t: 'dot'; x: number; y: number }
+  /** A vertical wire hopping over a horizontal one at (x, y): the two do not connect. */
+  | { t: 'hop'; x: number; y: number }
   | { t: 'text'; x: number; y: number; text: string };
 
 export interface Schematic {
@@ -66,11 +68,16 @@ export function schematic(r: Report): Schematic | null {
     const leg = arm(parts, 'ground-leg');
     if (leg) {
       P.push({ t: 'dot', x: 250, y: 150 });
-      W([250, 150], [210, 150], [210, 185]);
+      // Down to the ground leg, hopping over the + input's wire.
+      W([250, 150], [210, 150], [210, 184]);
+      P.push({ t: 'hop', x: 210, y: 190 });
+      W([210, 196], [210, 200]);
       P.push({ t: 'res', x: 210, y: 235, vertical: true, ...leg, trimmer: false });
       W([210, 270], [210, 325]);
     } else if (s.network.reference.kind !== 'none') {
-      W([250, 150], [210, 150], [210, 325]);
+      W([250, 150], [210, 150], [210, 184]);
+      P.push({ t: 'hop', x: 210, y: 190 });
+      W([210, 196], [210, 325]);
     }
   } else {
     const rin = arm(parts, 'input');
