@@ -79,3 +79,19 @@ describe('validateDesign', () => {
     expect(validateDesign([1, 2]).ok).toBe(false);
   });
 });
+
+describe('contradictions inside a file', () => {
+  it('a non-inverting stage asked to attenuate is refused at target.topology', () => {
+    const d = issueExample() as Record<string, any>;
+    d.target.topology = 'non-inverting';
+    d.target.scale = 0.005; // 0.4 × the 12.5 mV/A sensor
+    const v = validateDesign(d);
+    expect(v.ok).toBe(false);
+    if (!v.ok) expect(formatProblems(v.problems)).toMatch(/^target\.topology: is "non-inverting", which cannot attenuate, but the target needs a gain of 0\.400/m);
+  });
+  it('with "auto" the same target is not a file error (the report gives guidance instead)', () => {
+    const d = issueExample() as Record<string, any>;
+    d.target.scale = 0.005;
+    expect(validateDesign(d).ok).toBe(true);
+  });
+});

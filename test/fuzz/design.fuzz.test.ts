@@ -9,6 +9,7 @@ import { validateDesign } from '../../src/design.js';
 import { analyse, reportJson } from '../../src/report.js';
 import { main } from '../../src/cli.js';
 import { DEMOS } from '../../src/demos.js';
+import { parseQuantity } from '../../src/units.js';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -126,6 +127,7 @@ const invalidArb = fc.oneof(
     (d: any) => { d.sensor.sensitivity = 0; },
     (d: any) => { d.target.resistanceMin = 1e6; d.target.resistanceMax = 1e3; },
     (d: any) => { d.version = 99; },
+    (d: any) => { d.target.topology = 'non-inverting'; d.target.scale = 0.005; },
     (d: any) => { d.format = 'some-other-format'; },
   ).map((f) => { const d = base(); f(d); return d; }),
 );
@@ -166,5 +168,21 @@ describe('random invalid documents', () => {
       checked++;
     }
     expect(checked).toBeGreaterThan(100);
+  });
+});
+
+describe('typed text', () => {
+  const DIMS = ['ohm', 'V', 'A', 'Hz', 's', 'm', 'T', 'K', 'F', 'C', 'W', 'H', 'V/A', 'V/T', 'V/s', 'V/Hz^0.5', 'A/Hz^0.5', 'V/K', '1/K', '1'] as const;
+  const texty = fc.oneof(
+    fc.string({ maxLength: 30 }),
+    fc.tuple(fc.double({ noNaN: false }), fc.constantFrom('', ' k', 'k', ' mV/A', ' Ω', 'R', ' nV/√Hz', ' G', ' °C', ' mAh', ' %', ' ppm/K', 'e400', ' V/µs')).map(([x, u]) => `${x}${u}`),
+    fc.constantFrom('4k7', '4K7K', 'R', 'KK', '1e308 MΩ', '-0', '1/0', 'Infinity V', '∞', '1,5 V', '0x10', '  ', '\u0000'),
+  );
+  it(`parseQuantity never throws and gives a finite number or a message (${RUNS} cases)`, () => {
+    fc.assert(fc.property(texty, fc.constantFrom(...DIMS), (text, dim) => {
+      const r = parseQuantity(text, dim);
+      if (r.ok) expect(Number.isFinite(r.value)).toBe(true);
+      else expect(r.message.length).toBeGreaterThan(5);
+    }), { numRuns: RUNS, seed: SEED });
   });
 });
