@@ -272,41 +272,61 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   const refGain = ideal.topology === 'non-inverting' ? g - 1 : 1 + g;
   // Gain trimmer in series with the feedback arm: d(scale)/scale = dRf/Rf · (G−1)/G (non-inv) or dRf/Rf (inv).
   const rfSens = ideal.topology === 'non-inverting' ? (g - 1) / g : 1;
+  // What a rheostat at mid can be relied on to move either way, as a fraction of its value: half its travel,
+  // less its own ±20 % (which both shrinks the travel and shifts the mid point).
+  const usable = 0.5 - TRIMMER_TOLERANCE;
   let gainTrimOhms = 0;
-  if (target.trim.gain) gainTrimOhms = standardTrimmer((2 * COVERAGE * sStack * rfPref) / rfSens);
+  if (target.trim.gain) gainTrimOhms = standardTrimmer((COVERAGE * sStack * rfPref) / (rfSens * usable));
   const gainHalfSpanFrac = gainTrimOhms ? (gainTrimOhms / 2 / rfPref) * rfSens : 0;
   const zNeed = zeroStack(design, front, ideal, gainHalfSpanFrac);
 
   const legPref = ideal.topology === 'non-inverting' ? rfPref / (g - 1) : rfPref / g;
   // The divider's Thevenin is half the ground leg: its current stays small, and the gain trim absorbs its tolerance.
   const rthTarget = ideal.topology === 'non-inverting' ? legPref * 0.5 : par(legPref, rfPref);
-  let vref = ideal.reference;
-  let div = solveDivider(design, vref, rthTarget, zNeed / refGain, refGain);
-
   const rs = ideal.topology === 'inverting' ? front.sourceResistance : 0;
-  let gainRes: PairResult | null = null;
-  let chosen = 0;
-  let pick: PairCandidate | null = null;
-  for (let iter = 0; iter < 3; iter++) {
-    const rth = ideal.topology === 'non-inverting' && div.ref.kind === 'divider' ? div.ref.thevenin : 0;
-    const half = gainTrimOhms / 2;
-    const aPref = Math.max(rfPref - half, target.resistanceMin);
-    gainRes = searchPairs(table, table, ideal.topology === 'non-inverting'
-      // Non-inverting: G = 1 + (a + half)/(b + rth), so error = (G−1)/G · (ratio/(G−1) − 1).
-      ? { idealB: (a) => (a + half) / (g - 1) - rth, error: (a, b) => (1 + (a + half) / (b + rth)) / g - 1, preferredA: aPref, floor, aMin: aPref / 2.5, aMax: aPref * 2.5, ratio: { cA: half, cB: rth, k: g - 1, m: (g - 1) / g } }
-      : { idealB: (a) => (a + half) / g - rs, error: (a, b) => (a + half) / (b + rs) / g - 1, preferredA: aPref, floor, aMin: aPref / 2.5, aMax: aPref * 2.5, ratio: { cA: half, cB: rs, k: g, m: 1 } }, 10);
-    if (!gainRes.ranked.length) break;
-    chosen = Math.min(target.alternative, gainRes.ranked.length - 1);
-    pick = gainRes.ranked[chosen]!;
-    // Re-aim the reference at the real gain so the zero lands where asked, then re-solve once.
-    const gReal = g * (1 + pick.error);
-    const vrefNew = ideal.topology === 'non-inverting' ? (gReal * front.quiescent - ideal.pinZero) / (gReal - 1) : (ideal.pinZero + gReal * front.quiescent) / (1 + gReal);
-    if (Math.abs(vrefNew - vref) < 1e-7 * (railHi - railLo)) break;
-    vref = vrefNew;
-    const next = solveDivider(design, vref, rthTarget, zNeed / refGain, refGain);
-    if (next.ref.kind === 'divider' && div.ref.kind === 'divider' && Math.abs(next.ref.thevenin - div.ref.thevenin) < 1e-9 * div.ref.thevenin) { div = next; break; }
-    div = next;
+
+  /** Divider, then the gain network around its Thevenin, re-aimed once or twice at the real gain. */
+  const solveWith = (trimOhms: number) => {
+    let vref = ideal.reference;
+    let div = solveDivider(design, vref, rthTarget, zNeed / refGain, refGain);
+    let gainRes: PairResult | null = null;
+    let chosen = 0;
+    let pick: PairCandidate | null = null;
+    for (let iter = 0; iter < 3; iter++) {
+      const rth = ideal.topology === 'non-inverting' && div.ref.kind === 'divider' ? div.ref.thevenin : 0;
+      const half = trimOhms / 2;
+      const aPref = Math.max(rfPref - half, target.resistanceMin);
+      gainRes = searchPairs(table, table, ideal.topology === 'non-inverting'
+        // Non-inverting: G = 1 + (a + half)/(b + rth), so error = (G−1)/G · (ratio/(G−1) − 1).
+        ? { idealB: (a) => (a + half) / (g - 1) - rth, error: (a, b) => (1 + (a + half) / (b + rth)) / g - 1, preferredA: aPref, floor, aMin: aPref / 2.5, aMax: aPref * 2.5, ratio: { cA: half, cB: rth, k: g - 1, m: (g - 1) / g } }
+        : { idealB: (a) => (a + half) / g - rs, error: (a, b) => (a + half) / (b + rs) / g - 1, preferredA: aPref, floor, aMin: aPref / 2.5, aMax: aPref * 2.5, ratio: { cA: half, cB: rs, k: g, m: 1 } }, 10);
+      if (!gainRes.ranked.length) break;
+      chosen = Math.min(target.alternative, gainRes.ranked.length - 1);
+      pick = gainRes.ranked[chosen]!;
+      // Re-aim the reference at the real gain so the zero lands where asked, then re-solve once.
+      const gReal = g * (1 + pick.error);
+      const vrefNew = ideal.topology === 'non-inverting' ? (gReal * front.quiescent - ideal.pinZero) / (gReal - 1) : (ideal.pinZero + gReal * front.quiescent) / (1 + gReal);
+      if (Math.abs(vrefNew - vref) < 1e-7 * (railHi - railLo)) break;
+      vref = vrefNew;
+      const next = solveDivider(design, vref, rthTarget, zNeed / refGain, refGain);
+      if (next.ref.kind === 'divider' && div.ref.kind === 'divider' && Math.abs(next.ref.thevenin - div.ref.thevenin) < 1e-9 * div.ref.thevenin) { div = next; break; }
+      div = next;
+    }
+    return { div, gainRes, chosen, pick };
+  };
+
+  let sol = solveWith(gainTrimOhms);
+  // The feedback arm found may sit away from the preferred value: if the trimmer then falls short, take the
+  // next standard value (at most twice).
+  for (let attempt = 0; attempt < 2 && gainTrimOhms && sol.pick; attempt++) {
+    const rfTot = sol.pick.a.ohms + gainTrimOhms / 2;
+    if ((usable * gainTrimOhms / rfTot) * rfSens >= COVERAGE * sStack * 0.999) break;
+    const bigger = TRIMMER_VALUES.find((v) => v > gainTrimOhms);
+    if (!bigger) break;
+    gainTrimOhms = bigger;
+    sol = solveWith(gainTrimOhms);
   }
+  const { div, gainRes, chosen, pick } = sol;
   warnings.push(...div.warnings);
   if (!gainRes || !pick) {
     warnings.push({ code: 'gain-unrealisable', level: 'fail', message: `No pair of ${target.series} arms within ${formatEng(target.resistanceMin, 'Ω')}…${formatEng(target.resistanceMax, 'Ω')} gives a gain of ${g.toPrecision(4)}; widen the resistance window.` });
@@ -316,7 +336,8 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   let gainTrim: Trimmer | null = null;
   if (gainTrimOhms) {
     const rfTot = pick.a.ohms + gainTrimOhms / 2;
-    const halfSpan = (gainTrimOhms / 2 / rfTot) * rfSens;
+    // The half-span it guarantees, its own tolerance included.
+    const halfSpan = (usable * gainTrimOhms / rfTot) * rfSens;
     gainTrim = { ohms: gainTrimOhms, setting: 0.5, need: sStack, halfSpan, step: (gainTrimOhms / rfTot) * rfSens * SETTABILITY };
     if (halfSpan < COVERAGE * sStack * 0.999) warnings.push({ code: 'gain-trim-short', level: 'caution', message: `The gain trimmer covers ±${(halfSpan * 100).toFixed(2)} %, less than ${COVERAGE} × the ±${(sStack * 100).toFixed(2)} % worst-case stack.` });
   }
