@@ -183,41 +183,54 @@ export function solveDivider(design: Design, vref: number, rthTarget: number, ze
     rp = standardTrimmer((2 * COVERAGE * need * sigma) / vspan);
     if (rp > sigma) sigma = rp * 2;
   }
-  // (Rb + α·Rp) / (Rt + Rp + Rb) = r with α = 1/2.
+  // (Rb + α·Rp) / (Rt + Rp + Rb) = r with α = 1/2. If the parts found leave the trimmer short of its
+  // coverage, the next standard trimmer is tried (at most twice).
   const alpha = 0.5;
-  const prefTop = Math.max(sigma * (1 - r) - rp * (1 - alpha), resistanceMin);
-  const res: PairResult = searchPairs(table, table, {
-    idealB: (a) => (r * (a + rp) - alpha * rp) / (1 - r),
-    error: (a, b) => ((b + alpha * rp) / (a + rp + b) - r) * vspan * refGain, // volts at the output
-    preferredA: prefTop,
-    floor: Math.max(vspan * refGain * tolerance / 50, 1e-6),
-    aMin: prefTop / 2,
-    aMax: prefTop * 2,
-    // Same problem as a ratio, top/bottom = (1−r)/r; its error to first order in the ratio error ε is
-    // −V_span·(G_ref)·r(1−r)·ε volts (the chosen divider's voltage is then computed exactly from its parts).
-    ratio: { cA: (1 - alpha) * rp, cB: alpha * rp, k: (1 - r) / r, m: -vspan * refGain * r * (1 - r) },
-  }, 1);
-  let top: Arm | null, bottom: Arm | null, setting = alpha;
-  if (res.ranked.length) {
-    top = res.ranked[0]!.a;
-    bottom = res.ranked[0]!.b;
-  } else if (wantTrim && rp > 0) {
-    // Reference too close to the bottom rail for a centred trimmer: drop the bottom arm and set the wiper off-centre.
-    const t = trimTopOnly(table, r, rp, prefTop);
-    top = t.top; bottom = null; setting = t.setting;
-    warnings.push({ code: 'zero-trim-off-centre', level: 'caution', message: `The reference sits close to the rail, so the zero trimmer starts at ${(setting * 100).toFixed(0)} % of its travel rather than mid.` });
-  } else {
-    top = null; bottom = null;
+  let top: Arm | null = null, bottom: Arm | null = null, setting = alpha;
+  let voltage = NaN, thevenin = 0;
+  const offCentre: Warning[] = [];
+  for (let attempt = 0; attempt < 3; attempt++) {
+    offCentre.length = 0;
+    setting = alpha;
+    const prefTop = Math.max(sigma * (1 - r) - rp * (1 - alpha), resistanceMin);
+    const res: PairResult = searchPairs(table, table, {
+      idealB: (a) => (r * (a + rp) - alpha * rp) / (1 - r),
+      error: (a, b) => ((b + alpha * rp) / (a + rp + b) - r) * vspan * refGain, // volts at the output
+      preferredA: prefTop,
+      floor: Math.max(vspan * refGain * tolerance / 50, 1e-6),
+      aMin: prefTop / 2,
+      aMax: prefTop * 2,
+      // Same problem as a ratio, top/bottom = (1−r)/r; its error to first order in the ratio error ε is
+      // −V_span·(G_ref)·r(1−r)·ε volts (the chosen divider's voltage is then computed exactly from its parts).
+      ratio: { cA: (1 - alpha) * rp, cB: alpha * rp, k: (1 - r) / r, m: -vspan * refGain * r * (1 - r) },
+    }, 1);
+    if (res.ranked.length) {
+      top = res.ranked[0]!.a;
+      bottom = res.ranked[0]!.b;
+    } else if (wantTrim && rp > 0) {
+      // Reference too close to the bottom rail for a centred trimmer: drop the bottom arm and set the wiper off-centre.
+      const t = trimTopOnly(table, r, rp, prefTop);
+      top = t.top; bottom = null; setting = t.setting;
+      offCentre.push({ code: 'zero-trim-off-centre', level: 'caution', message: `The reference sits close to the rail, so the zero trimmer starts at ${(setting * 100).toFixed(0)} % of its travel rather than mid.` });
+    } else {
+      top = null; bottom = null;
+    }
+    const rt = top?.ohms ?? 0, rb = bottom?.ohms ?? 0;
+    const upper = rt + (1 - setting) * rp;
+    const lower = rb + setting * rp;
+    voltage = lo + vspan * (lower / (upper + lower));
+    thevenin = par(upper, lower);
+    trim = null;
+    if (wantTrim && rp > 0) {
+      const halfSpanV = Math.min(setting, 1 - setting) * rp / (rt + rp + rb) * vspan * refGain;
+      trim = { ohms: rp, setting, need: zeroNeedAtRef * refGain, halfSpan: halfSpanV, step: (rp / (rt + rp + rb)) * vspan * refGain * SETTABILITY };
+      const bigger = TRIMMER_VALUES.find((v) => v > rp);
+      if (halfSpanV >= COVERAGE * trim.need * 0.999 || !bigger || !top) break;
+      rp = bigger;
+      if (rp > sigma) sigma = rp * 2;
+    } else break;
   }
-  const rt = top?.ohms ?? 0, rb = bottom?.ohms ?? 0;
-  const upper = rt + (1 - setting) * rp;
-  const lower = rb + setting * rp;
-  const voltage = lo + vspan * (lower / (upper + lower));
-  const thevenin = par(upper, lower);
-  if (trim === null && wantTrim && rp > 0) {
-    const halfSpanV = Math.min(setting, 1 - setting) * rp / (rt + rp + rb) * vspan * refGain;
-    trim = { ohms: rp, setting, need: zeroNeedAtRef * refGain, halfSpan: halfSpanV, step: (rp / (rt + rp + rb)) * vspan * refGain * SETTABILITY };
-  }
+  warnings.push(...offCentre);
   if (!top) {
     warnings.push({ code: 'reference-unrealisable', level: 'fail', message: `No divider from ${design.target.series} parts in the window gives ${vref.toPrecision(4)} V.` });
   }
