@@ -105,10 +105,14 @@ export class GwApp extends LitElement {
     super.disconnectedCallback();
   }
 
+  private _clearFragment(): void {
+    if (location.hash.startsWith('#d=')) history.replaceState(null, '', location.pathname + location.search);
+  }
+
   private _onHash = (): void => {
     const fromLink = designFromFragment(location.hash);
     if (!fromLink) return;
-    if (fromLink.ok) this._adopt(fromLink.design, 'Opened the design from the link.');
+    if (fromLink.ok) { this._adopt(fromLink.design, 'Opened the design from the link.'); this._clearFragment(); }
     else this._notice = { text: `The link does not carry a usable design, so the current one stays: ${formatProblems(fromLink.problems)}`, bad: true };
   };
 
@@ -119,7 +123,9 @@ export class GwApp extends LitElement {
     try { stored = localStorage.getItem(AUTOSAVE_KEY); } catch { stored = null; }
     const saved = restoreAutosave(stored);
     if (fromLink?.ok) {
-      this._adopt(fromLink.design, 'Opened the design from the link.', false);
+      // Keep it in the browser and drop the fragment, so a reload after later edits keeps the edits.
+      this._adopt(fromLink.design, 'Opened the design from the link.', true);
+      this._clearFragment();
       return;
     }
     if (saved.kind === 'ok') this._adopt(saved.design, null, false);
@@ -173,6 +179,9 @@ export class GwApp extends LitElement {
     for (const k of Object.keys(messages)) if (!k.startsWith('(')) delete messages[k];
     this._messages = messages;
     this._design = v.design;
+    // The design no longer matches a share link in the address bar.
+    this._clearFragment();
+    this._shareUrl = '';
     performance.mark('gw-edit-start');
     this._recompute();
     this._autosave();

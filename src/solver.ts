@@ -290,18 +290,25 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   const usable = 0.5 - TRIMMER_TOLERANCE;
   let gainTrimOhms = 0;
   if (target.trim.gain) gainTrimOhms = standardTrimmer((COVERAGE * sStack * rfPref) / (rfSens * usable));
-  const gainHalfSpanFrac = gainTrimOhms ? (gainTrimOhms / 2 / rfPref) * rfSens : 0;
-  const zNeed = zeroStack(design, front, ideal, gainHalfSpanFrac);
+  // Calibration moves the span trim only as far as the scale is actually off (at most the stack), and the
+  // zero moves with it in proportion.
+  const zNeed = zeroStack(design, front, ideal, target.trim.gain ? sStack : 0);
 
   const legPref = ideal.topology === 'non-inverting' ? rfPref / (g - 1) : rfPref / g;
   // The divider's Thevenin is half the ground leg: its current stays small, and the gain trim absorbs its tolerance.
-  const rthTarget = ideal.topology === 'non-inverting' ? legPref * 0.5 : par(legPref, rfPref);
+  let rthTarget = ideal.topology === 'non-inverting' ? legPref * 0.5 : par(legPref, rfPref);
   const rs = ideal.topology === 'inverting' ? front.sourceResistance : 0;
 
   /** Divider, then the gain network around its Thevenin, re-aimed once or twice at the real gain. */
   const solveWith = (trimOhms: number) => {
     let vref = ideal.reference;
     let div = solveDivider(design, vref, rthTarget, zNeed / refGain, refGain);
+    // A divider whose Thevenin would fill the whole ground leg (a large zero trimmer makes it grow) leaves no
+    // room for Rg: scale it down until it fits.
+    for (let k = 0; k < 6 && ideal.topology === 'non-inverting' && div.ref.kind === 'divider' && div.ref.thevenin > 0.8 * legPref; k++) {
+      rthTarget *= 0.5;
+      div = solveDivider(design, vref, rthTarget, zNeed / refGain, refGain);
+    }
     let gainRes: PairResult | null = null;
     let chosen = 0;
     let pick: PairCandidate | null = null;

@@ -102,3 +102,14 @@ describe('trimmer coverage over many targets', () => {
     expect(checked).toBeGreaterThan(30);
   });
 });
+
+describe('a large zero trimmer does not crowd out the ground leg', () => {
+  it('bench clamp at 50 mV/A (gain 2.4, big trimmers) still solves, with R_th below the leg', () => {
+    const d = design('bench-clamp', (x) => { x.target.scale = 0.05; });
+    const f = sensorFront(d.sensor, d);
+    const s = solveStage(d, f, chooseTopology(d, f).chosen!);
+    expect(s.warnings.map((w) => w.code)).not.toContain('gain-unrealisable');
+    expect(s.network.leg!.ohms).toBeGreaterThan(0);
+    expect(Math.abs(s.scaleError)).toBeLessThan(0.005);
+  });
+});

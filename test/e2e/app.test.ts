@@ -117,6 +117,11 @@ describe('the app in Chromium', () => {
     await other.page.goto(link);
     await expect.poll(() => partsText(other.page)).toBe(parts);
     expect(await field(other.page, 'target.zero').inputValue()).toBe('3.5 V');
+    // An edit after opening the link survives a reload (the link does not win over the newer design).
+    await typeInto(other.page, 'target.zero', '3.2 V');
+    await expect.poll(() => verdictText(other.page)).toMatch(/zero 3\.20 V/);
+    await other.page.reload();
+    await expect.poll(() => field(other.page, 'target.zero').inputValue()).toBe('3.2 V');
     await page.context().close();
     await other.page.context().close();
   });

@@ -186,3 +186,37 @@ describe('typed text', () => {
     }), { numRuns: RUNS, seed: SEED });
   });
 });
+
+describe('reachable targets are solved', () => {
+  // Any target a topology can reach with a gain of 1.05…100 in a 1 k–1 M window gets parts, with both
+  // trimmers covering their stacks (docs/method.md), from every demo's sensor.
+  const target = fc.record({
+    demo: fc.constantFrom('bench-clamp', 'generic-sensor', 'appliance-ct'),
+    gain: fc.double({ min: 1.05, max: 100, noNaN: true }),
+    sign: fc.constantFrom(1, -1),
+    zeroFrac: fc.double({ min: 0.2, max: 0.8, noNaN: true }),
+  });
+  it(`solves every reachable target (${Math.min(RUNS, 400)} cases)`, () => {
+    let solved = 0;
+    fc.assert(fc.property(target, (t) => {
+      const doc = structuredClone(DEMOS.find((d) => d.id === t.demo)!.document) as any;
+      const v0 = validateDesign(doc);
+      if (!v0.ok) throw new Error('demo invalid');
+      const r0 = analyse(v0.design, { spreadTrials: 0 });
+      doc.target.scale = t.sign * t.gain * Math.abs(r0.front.sensitivity);
+      doc.target.zero = doc.supply.positive * t.zeroFrac;
+      doc.target.range = [-0.1, 0.1];
+      const v = validateDesign(doc);
+      if (!v.ok) return;
+      const r = analyse(v.design, { spreadTrials: 0 });
+      if (!r.choice.chosen) return; // unreachable on these rails: guidance, checked elsewhere
+      const codes = r.warnings.map((w) => w.code);
+      expect(codes, JSON.stringify(t)).not.toContain('gain-unrealisable');
+      expect(codes).not.toContain('reference-unrealisable');
+      expect(codes).not.toContain('gain-trim-short');
+      expect(Math.abs(r.stage!.scaleError)).toBeLessThan(0.01);
+      solved++;
+    }), { numRuns: Math.min(RUNS, 400), seed: SEED });
+    expect(solved).toBeGreaterThan(100);
+  });
+});
