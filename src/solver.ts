@@ -10,7 +10,7 @@
  */
 import type { Design, Topology } from './design.js';
 import { TRIMMER_VALUES, usualTolerance, significantFigures, type SeriesName } from './eseries.js';
-import { armTable, searchPairs, type Arm, type PairCandidate, type PairResult } from './search.js';
+import { armAt, armTable, lowerBound, searchPairs, type Arm, type PairCandidate, type PairResult } from './search.js';
 import type { SensorFront } from './sensors.js';
 import { referenceRails, type IdealStage } from './topology.js';
 import { formatEng, rkmCode } from './units.js';
@@ -157,7 +157,27 @@ interface DividerSolve {
   warnings: Warning[];
 }
 
-/** Solves the reference divider for an open-circuit voltage `vref` and a Thevenin near `rthTarget`. */
+/** The arm nearest `ohms` (log distance) from a table, or null below half the window's smallest part. */
+function nearestArm(table: ReturnType<typeof armTable>, ohms: number, min: number): Arm | null {
+  if (!(ohms > 0) || ohms < min / 2) return null;
+  const j = lowerBound(table.value, ohms);
+  let best = -1, bestD = Infinity;
+  for (const k of [j - 1, j]) {
+    if (k < 0 || k >= table.size) continue;
+    const d = Math.abs(Math.log(table.value[k]! / ohms));
+    if (d < bestD) { bestD = d; best = k; }
+  }
+  return best < 0 ? null : armAt(table, best);
+}
+
+/**
+ * Solves the reference divider for an open-circuit voltage `vref` and a Thevenin near `rthTarget`.
+ *
+ * With a zero trimmer: the potentiometer's travel is placed across [r − h, r + h] of the rail span (h the
+ * coverage it needs, clipped at the rails), fixed single parts above and below it, and the wiper setting is
+ * solved so that the divider gives `vref` exactly; the parts list says where to set it. Without one: two
+ * fixed arms, found by the exact pair search.
+ */
 export function solveDivider(design: Design, vref: number, rthTarget: number, zeroNeedAtRef: number, refGain: number): DividerSolve {
   const [lo, hi] = referenceRails(design);
   const topRail = design.supply.referenceRail === 'regulated' && design.supply.regulated ? 'regulated' : 'positive';
@@ -170,83 +190,67 @@ export function solveDivider(design: Design, vref: number, rthTarget: number, ze
     return { ref: { kind: 'rail', railBottom: lo, railTop: hi, topRail, top: null, bottom: null, trim: null, voltage: v, thevenin: 0 }, warnings };
   }
   const { series, resistanceMin, resistanceMax, arrangements, tolerance } = design.target;
-  // With a zero trimmer in the divider its own accuracy is trimmed out: single parts do, and are quicker
-  // to fit. Without one, two-part arms land the reference closer.
-  const table = armTable(series, resistanceMin, resistanceMax, wantTrim && arrangements.includes('single') ? ['single'] : arrangements);
   const rc = Math.min(Math.max(r, 0.02), 0.98);
-  let sigma = rthTarget / (rc * (1 - rc));
-  sigma = Math.min(Math.max(sigma, resistanceMin * 2), resistanceMax * 2);
-  let rp = 0;
-  let trim: Trimmer | null = null;
-  if (wantTrim) {
-    const need = zeroNeedAtRef; // volts at the reference
-    rp = standardTrimmer((2 * COVERAGE * need * sigma) / vspan);
-    if (rp > sigma) sigma = rp * 2;
-  }
-  // (Rb + α·Rp) / (Rt + Rp + Rb) = r with α = 1/2. If the parts found leave the trimmer short of its
-  // coverage, the next standard trimmer is tried (at most twice).
-  const alpha = 0.5;
-  let top: Arm | null = null, bottom: Arm | null = null, setting = alpha;
-  let voltage = NaN, thevenin = 0;
-  const offCentre: Warning[] = [];
-  for (let attempt = 0; attempt < 3; attempt++) {
-    offCentre.length = 0;
-    setting = alpha;
-    const prefTop = Math.max(sigma * (1 - r) - rp * (1 - alpha), resistanceMin);
+  const sigma = Math.min(Math.max(rthTarget / (rc * (1 - rc)), resistanceMin * 2), resistanceMax * 2);
+
+  if (!wantTrim) {
+    const table = armTable(series, resistanceMin, resistanceMax, arrangements);
+    const prefTop = Math.max(sigma * (1 - r), resistanceMin);
     const res: PairResult = searchPairs(table, table, {
-      idealB: (a) => (r * (a + rp) - alpha * rp) / (1 - r),
-      error: (a, b) => ((b + alpha * rp) / (a + rp + b) - r) * vspan * refGain, // volts at the output
+      idealB: (a) => (r * a) / (1 - r),
+      error: (a, b) => (b / (a + b) - r) * vspan * refGain, // volts at the output
       preferredA: prefTop,
       floor: Math.max(vspan * refGain * tolerance / 50, 1e-6),
       aMin: prefTop / 2,
       aMax: prefTop * 2,
-      // Same problem as a ratio, top/bottom = (1−r)/r; its error to first order in the ratio error ε is
-      // −V_span·(G_ref)·r(1−r)·ε volts (the chosen divider's voltage is then computed exactly from its parts).
-      ratio: { cA: (1 - alpha) * rp, cB: alpha * rp, k: (1 - r) / r, m: -vspan * refGain * r * (1 - r) },
+      // The same problem as a ratio, top/bottom = (1−r)/r; to first order in the ratio error ε its error is
+      // −V_span·G_ref·r(1−r)·ε volts (the divider's voltage is then computed exactly from its parts).
+      ratio: { cA: 0, cB: 0, k: (1 - r) / r, m: -vspan * refGain * r * (1 - r) },
     }, 1);
-    if (res.ranked.length) {
-      top = res.ranked[0]!.a;
-      bottom = res.ranked[0]!.b;
-    } else if (wantTrim && rp > 0) {
-      // Reference too close to the bottom rail for a centred trimmer: drop the bottom arm and set the wiper off-centre.
-      const t = trimTopOnly(table, r, rp, prefTop);
-      top = t.top; bottom = null; setting = t.setting;
-      offCentre.push({ code: 'zero-trim-off-centre', level: 'caution', message: `The reference sits close to the rail, so the zero trimmer starts at ${(setting * 100).toFixed(0)} % of its travel rather than mid.` });
-    } else {
-      top = null; bottom = null;
+    if (!res.ranked.length) {
+      warnings.push({ code: 'reference-unrealisable', level: 'fail', message: `No divider from ${series} parts in the window gives ${vref.toPrecision(4)} V.` });
+      return { ref: { kind: 'divider', railBottom: lo, railTop: hi, topRail, top: null, bottom: null, trim: null, voltage: NaN, thevenin: 0 }, warnings };
     }
+    const top = res.ranked[0]!.a, bottom = res.ranked[0]!.b;
+    return { ref: { kind: 'divider', railBottom: lo, railTop: hi, topRail, top, bottom, trim: null, voltage: lo + vspan * (bottom.ohms / (top.ohms + bottom.ohms)), thevenin: par(top.ohms, bottom.ohms) }, warnings };
+  }
+
+  // With a zero trimmer: its travel spans [r − h, r + h] (with a fifth more for part rounding), clipped at the rails.
+  // Single parts above and below the trimmer first; if their rounding pushes the wiper too far off mid for
+  // the coverage, two-part arms (which land within a few 0.01 %) instead.
+  const singles = armTable(series, resistanceMin, resistanceMax, arrangements.includes('single') ? ['single'] : arrangements);
+  const full = armTable(series, resistanceMin, resistanceMax, arrangements);
+  let table = singles;
+  const h = (COVERAGE * Math.max(zeroNeedAtRef, 1e-6)) / vspan;
+  let lowFrac = Math.max(0, r - 1.2 * h), highFrac = Math.min(1, r + 1.2 * h);
+  if (highFrac - lowFrac < 1e-6) { lowFrac = Math.max(0, r - 1e-3); highFrac = Math.min(1, r + 1e-3); }
+  let rp = standardTrimmer((highFrac - lowFrac) * sigma);
+  let trim: Trimmer | null = null, top: Arm | null = null, bottom: Arm | null = null, setting = 0.5, voltage = NaN, thevenin = 0;
+  for (let attempt = 0; attempt < 5; attempt++) {
+    const total = rp / (highFrac - lowFrac);
+    top = nearestArm(table, (1 - highFrac) * total, resistanceMin);
+    bottom = nearestArm(table, lowFrac * total, resistanceMin);
     const rt = top?.ohms ?? 0, rb = bottom?.ohms ?? 0;
-    const upper = rt + (1 - setting) * rp;
-    const lower = rb + setting * rp;
+    const sum = rt + rp + rb;
+    // Wiper position (from the bottom) that gives exactly the wanted ratio.
+    setting = (r * sum - rb) / rp;
+    const ok = setting >= 0.02 && setting <= 0.98;
+    setting = Math.min(Math.max(setting, 0.02), 0.98);
+    const upper = rt + (1 - setting) * rp, lower = rb + setting * rp;
     voltage = lo + vspan * (lower / (upper + lower));
     thevenin = par(upper, lower);
-    trim = null;
-    if (wantTrim && rp > 0) {
-      const halfSpanV = Math.min(setting, 1 - setting) * rp / (rt + rp + rb) * vspan * refGain;
-      trim = { ohms: rp, setting, need: zeroNeedAtRef * refGain, halfSpan: halfSpanV, step: (rp / (rt + rp + rb)) * vspan * refGain * SETTABILITY };
-      const bigger = TRIMMER_VALUES.find((v) => v > rp);
-      if (halfSpanV >= COVERAGE * trim.need * 0.999 || !bigger || !top) break;
-      rp = bigger;
-      if (rp > sigma) sigma = rp * 2;
-    } else break;
+    const reach = Math.min(setting, 1 - setting) * (rp / sum) * vspan * refGain;
+    trim = { ohms: rp, setting, need: zeroNeedAtRef * refGain, halfSpan: reach, step: (rp / sum) * vspan * refGain * SETTABILITY };
+    if (ok && reach >= COVERAGE * trim.need * 0.999) break;
+    if (table === singles && full !== singles) { table = full; continue; }
+    const bigger = TRIMMER_VALUES.find((v) => v > rp);
+    if (!bigger) break;
+    rp = bigger;
   }
-  warnings.push(...offCentre);
-  if (!top) {
-    warnings.push({ code: 'reference-unrealisable', level: 'fail', message: `No divider from ${design.target.series} parts in the window gives ${vref.toPrecision(4)} V.` });
+  if (Math.abs(setting - 0.5) > 0.3) {
+    warnings.push({ code: 'zero-trim-off-centre', level: 'info', message: `The reference sits near a rail, so the zero trimmer starts at ${(setting * 100).toFixed(0)} % of its travel.` });
   }
   return { ref: { kind: 'divider', railBottom: lo, railTop: hi, topRail, top, bottom, trim, voltage, thevenin }, warnings };
-}
-
-function trimTopOnly(table: ReturnType<typeof armTable>, r: number, rp: number, prefTop: number): { top: Arm; setting: number } {
-  // α·Rp / (Rt + Rp) = r → Rt = α·Rp/r − Rp; pick α = 0.5 if possible else the nearest workable.
-  let bestI = 0, bestD = Infinity;
-  for (let i = 0; i < table.size; i++) {
-    const d = Math.abs(Math.log(table.value[i]! / prefTop));
-    if (d < bestD) { bestD = d; bestI = i; }
-  }
-  const rt = table.value[bestI]!;
-  const setting = Math.min(Math.max((r * (rt + rp)) / rp, 0.02), 0.98);
-  return { top: { ohms: rt, parts: [table.p1[bestI]!, ...(table.p2[bestI]! ? [table.p2[bestI]!] : [])], arrangement: table.kind[bestI] === 0 ? 'single' : table.kind[bestI] === 1 ? 'series' : 'parallel' }, setting };
 }
 
 /** Ideal-op-amp gain and reference of a realised network. */
@@ -359,7 +363,10 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     // The half-span it guarantees, its own tolerance included.
     const halfSpan = (usable * gainTrimOhms / rfTot) * rfSens;
     gainTrim = { ohms: gainTrimOhms, setting: 0.5, need: sStack, halfSpan, step: (gainTrimOhms / rfTot) * rfSens * SETTABILITY };
-    if (halfSpan < COVERAGE * sStack * 0.999) warnings.push({ code: 'gain-trim-short', level: 'caution', message: `The gain trimmer covers ±${(halfSpan * 100).toFixed(2)} %, less than ${COVERAGE} × the ±${(sStack * 100).toFixed(2)} % worst-case stack.` });
+    if (halfSpan < COVERAGE * sStack * 0.999) {
+      const why = ideal.topology === 'non-inverting' && g < 1.5 ? ` Near unity gain the span trim has little leverage ((G−1)/G = ${rfSens.toFixed(2)}): pick a sensor setup with less spread, or more gain and a smaller sensitivity (fewer turns, a longer gap).` : '';
+      warnings.push({ code: 'gain-trim-short', level: 'caution', message: `The gain trimmer covers ±${(halfSpan * 100).toFixed(2)} %, less than ${COVERAGE} × the ±${(sStack * 100).toFixed(2)} % worst-case stack.${why}` });
+    }
   }
   const network: StageNetwork = { topology: ideal.topology, feedback: pick.a, gainTrim, leg: pick.b, reference: div.ref };
   const real = networkGain(network, front.sourceResistance);

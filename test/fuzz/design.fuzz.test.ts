@@ -213,8 +213,15 @@ describe('reachable targets are solved', () => {
       const codes = r.warnings.map((w) => w.code);
       expect(codes, JSON.stringify(t)).not.toContain('gain-unrealisable');
       expect(codes).not.toContain('reference-unrealisable');
-      expect(codes).not.toContain('gain-trim-short');
+      // Near unity a span trimmer has little leverage ((G−1)/G per unit of Rf): a stage below G = 1.5 may
+      // honestly report that its trimmer cannot cover the stack.
+      if (r.stage!.ideal.topology === 'inverting' || r.stage!.ideal.gain >= 1.5) expect(codes).not.toContain('gain-trim-short');
       expect(Math.abs(r.stage!.scaleError)).toBeLessThan(0.01);
+      // The circuit solver (finite open-loop gain, real load) agrees with the solver's closed form.
+      expect(Math.abs(r.dc!.out[1] / r.stage!.ideal.deliveredScale - 1)).toBeLessThan(0.01);
+      // Before trimming the zero lands within a quarter of the zero trimmer's reach (or 5 % of the supply without one).
+      const zt = r.stage!.network.reference.trim;
+      expect(Math.abs(r.dc!.out[0] - doc.target.zero)).toBeLessThan(zt ? 0.25 * zt.halfSpan + 1e-3 : 0.05 * doc.supply.positive);
       solved++;
     }), { numRuns: Math.min(RUNS, 400), seed: SEED });
     expect(solved).toBeGreaterThan(100);
