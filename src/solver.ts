@@ -293,7 +293,10 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   // less its own ±20 % (which both shrinks the travel and shifts the mid point).
   const usable = 0.5 - TRIMMER_TOLERANCE;
   let gainTrimOhms = 0;
-  if (target.trim.gain) gainTrimOhms = standardTrimmer((COVERAGE * sStack * rfPref) / (rfSens * usable));
+  // A trimmer larger than the feedback resistance itself would dominate it (and its ±20 %): cap it there and
+  // say so when that falls short, rather than build a network that is mostly trimmer.
+  const trimCap = TRIMMER_VALUES.filter((v) => v <= rfPref).pop() ?? TRIMMER_VALUES[0]!;
+  if (target.trim.gain) gainTrimOhms = Math.min(standardTrimmer((COVERAGE * sStack * rfPref) / (rfSens * usable)), trimCap);
   // Calibration moves the span trim only as far as the scale is actually off (at most the stack), and the
   // zero moves with it in proportion.
   const zNeed = zeroStack(design, front, ideal, target.trim.gain ? sStack : 0);
@@ -346,7 +349,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     const rfTot = sol.pick.a.ohms + gainTrimOhms / 2;
     if ((usable * gainTrimOhms / rfTot) * rfSens >= COVERAGE * sStack * 0.999) break;
     const bigger = TRIMMER_VALUES.find((v) => v > gainTrimOhms);
-    if (!bigger) break;
+    if (!bigger || bigger > trimCap) break;
     gainTrimOhms = bigger;
     sol = solveWith(gainTrimOhms);
   }

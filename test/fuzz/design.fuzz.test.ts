@@ -10,6 +10,7 @@ import { analyse, reportJson } from '../../src/report.js';
 import { main } from '../../src/cli.js';
 import { DEMOS } from '../../src/demos.js';
 import { parseQuantity } from '../../src/units.js';
+import { COVERAGE, scaleStack, TRIMMER_TOLERANCE } from '../../src/solver.js';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -196,7 +197,7 @@ describe('reachable targets are solved', () => {
     sign: fc.constantFrom(1, -1),
     zeroFrac: fc.double({ min: 0.2, max: 0.8, noNaN: true }),
   });
-  it(`solves every reachable target (${Math.min(RUNS, 400)} cases)`, () => {
+  it(`solves every reachable target (${Math.max(400, Math.floor(RUNS / 10))} cases)`, () => {
     let solved = 0;
     fc.assert(fc.property(target, (t) => {
       const doc = structuredClone(DEMOS.find((d) => d.id === t.demo)!.document) as any;
@@ -213,9 +214,12 @@ describe('reachable targets are solved', () => {
       const codes = r.warnings.map((w) => w.code);
       expect(codes, JSON.stringify(t)).not.toContain('gain-unrealisable');
       expect(codes).not.toContain('reference-unrealisable');
-      // Near unity a span trimmer has little leverage ((G−1)/G per unit of Rf): a stage below G = 1.5 may
-      // honestly report that its trimmer cannot cover the stack.
-      if (r.stage!.ideal.topology === 'inverting' || r.stage!.ideal.gain >= 1.5) expect(codes).not.toContain('gain-trim-short');
+      // Near unity a span trimmer has little leverage ((G−1)/G per unit of Rf): where covering the stack would
+      // take a trimmer of most of Rf's own size (capped there), the stage honestly reports it falls short.
+      const st = r.stage!;
+      const leverage = st.ideal.topology === 'non-inverting' ? (st.ideal.gain - 1) / st.ideal.gain : 1;
+      const trimOverRf = (COVERAGE * scaleStack(v.design, r.front, st.ideal)) / (leverage * (0.5 - TRIMMER_TOLERANCE));
+      if (trimOverRf < 0.5) expect(codes).not.toContain('gain-trim-short');
       expect(Math.abs(r.stage!.scaleError)).toBeLessThan(0.01);
       // The circuit solver (finite open-loop gain, real load) agrees with the solver's closed form.
       expect(Math.abs(r.dc!.out[1] / r.stage!.ideal.deliveredScale - 1)).toBeLessThan(0.01);
@@ -223,7 +227,7 @@ describe('reachable targets are solved', () => {
       const zt = r.stage!.network.reference.trim;
       expect(Math.abs(r.dc!.out[0] - doc.target.zero)).toBeLessThan(zt ? 0.25 * zt.halfSpan + 1e-3 : 0.05 * doc.supply.positive);
       solved++;
-    }), { numRuns: Math.min(RUNS, 400), seed: SEED });
+    }), { numRuns: Math.max(400, Math.floor(RUNS / 10)), seed: SEED });
     expect(solved).toBeGreaterThan(100);
   });
 });
