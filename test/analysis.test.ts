@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { analyse, reportJson } from '../src/report.js';
 import { DEMOS } from '../src/demos.js';
-import { designFrom, nonFinitePaths } from './helpers.js';
+import { designFrom, nonFinitePaths, shuntOnSplitSupply } from './helpers.js';
 
 const design = designFrom;
 
@@ -160,12 +160,7 @@ describe('sensor output drive', () => {
 
 describe('a shunt design reaches the full report', () => {
   it('with parts, limits, calibration and the low-side note', () => {
-    const r = analyse(design('generic-sensor', (x) => {
-      x.sensor = { type: 'shunt', measurand: 'A', resistance: 0.01, powerRating: 1 };
-      x.supply = { positive: 5, negative: -5 };
-      x.opamp.inputLow = -0.1; x.opamp.inputHigh = -0.1; x.opamp.outputLow = 0.05; x.opamp.outputHigh = 0.05;
-      x.target = { ...x.target, scale: 0.5, zero: 0, range: [-5, 5] };
-    }), { spreadTrials: 100 });
+    const r = analyse(design('generic-sensor', shuntOnSplitSupply), { spreadTrials: 100 });
     expect(r.stage!.parts.length).toBeGreaterThan(1);
     expect(r.clip!.limits.map((l) => l.cause)).toContain('burden');
     expect(r.calibration.some((c) => c.text.startsWith('Span'))).toBe(true);

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { bomCsv, bomRows, dissipations, powerRating } from '../src/bom.js';
 import { analyse } from '../src/report.js';
-import { designFrom } from './helpers.js';
+import { designFrom, shuntOnSplitSupply } from './helpers.js';
 
 describe('parts list', () => {
   it('power rating keeps dissipation at or under half the rating (50 % derating, common practice)', () => {
@@ -11,12 +11,7 @@ describe('parts list', () => {
     expect(powerRating(0.3)).toBe(1);
   });
   it('a shunt at its range end dissipates I²R (Joule) and is rated for it', () => {
-    const r = analyse(designFrom('generic-sensor', (x) => {
-      x.sensor = { type: 'shunt', measurand: 'A', resistance: 0.01, powerRating: 1 };
-      x.supply = { positive: 5, negative: -5 };
-      x.opamp.inputLow = -0.1; x.opamp.inputHigh = -0.1; x.opamp.outputLow = 0.05; x.opamp.outputHigh = 0.05;
-      x.target = { ...x.target, scale: 0.5, zero: 0, range: [-5, 5] };
-    }), { spreadTrials: 0 });
+    const r = analyse(designFrom('generic-sensor', shuntOnSplitSupply), { spreadTrials: 0 });
     // 5 A through 10 mΩ: 0.25 W (the input network's share of the current is negligible).
     expect(dissipations(r).get('RSH')! / 0.25).toBeCloseTo(1, 3);
   });

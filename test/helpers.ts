@@ -18,3 +18,11 @@ export function nonFinitePaths(x: unknown, path = ''): string[] {
   if (x && typeof x === 'object') return Object.entries(x).flatMap(([k, v]) => nonFinitePaths(v, `${path}.${k}`));
   return [];
 }
+
+/** Our own shunt scenario: a 10 mΩ low-side shunt, ±5 V rails, a rail-to-rail op-amp, 0.5 V/A around 0 V. */
+export const shuntOnSplitSupply = (x: any): void => {
+  x.sensor = { type: 'shunt', measurand: 'A', resistance: 0.01, powerRating: 1 };
+  x.supply = { positive: 5, negative: -5 };
+  x.opamp.inputLow = -0.1; x.opamp.inputHigh = -0.1; x.opamp.outputLow = 0.05; x.opamp.outputHigh = 0.05;
+  x.target = { ...x.target, scale: 0.5, zero: 0, range: [-5, 5] };
+};

@@ -37,6 +37,18 @@ function interp(t: Table, x: number, c = 1, logx = false): number {
   return r[r.length - 1]![c]!;
 }
 
+/** Frequency where |H| (column 1, log-interpolated) crosses `level`, walking rows from `from` by `step` (±1). */
+function crossingIn(t: Table, from: number, step: 1 | -1, level: number): number {
+  for (let i = from; i + step >= 0 && i + step < t.rows.length; i += step) {
+    const [fa, ma] = t.rows[i]!, [fb, mb] = t.rows[i + step]!;
+    if (mb! < level) {
+      const w = (Math.log(level) - Math.log(ma!)) / (Math.log(mb!) - Math.log(ma!));
+      return Math.exp(Math.log(fa!) + w * (Math.log(fb!) - Math.log(fa!)));
+    }
+  }
+  return NaN;
+}
+
 const worst: Record<string, { value: number; design: string }> = {};
 function record(figure: string, design: string, value: number) {
   if (!worst[figure] || value > worst[figure]!.value) worst[figure] = { value, design };
@@ -134,30 +146,13 @@ describe.skipIf(!hasNgspice)('cross-check against ngspice', () => {
     record('AC gain (relative)', name, Math.abs(theirs / mine - 1));
     expect(Math.abs(theirs / mine - 1)).toBeLessThan(1e-3);
     const ref = r.front.passesDc ? ac.rows[0]![1]! : Math.max(...ac.rows.map((row) => row[1]!));
-    let corner = NaN;
-    const start = ac.rows.findIndex((row) => row[0]! >= fRef);
-    for (let i = Math.max(start, 1); i < ac.rows.length; i++) {
-      if (ac.rows[i]![1]! < ref / Math.SQRT2) {
-        const [f0, m0] = ac.rows[i - 1]!, [f1, m1] = ac.rows[i]!;
-        const w = (Math.log(ref / Math.SQRT2) - Math.log(m0!)) / (Math.log(m1!) - Math.log(m0!));
-        corner = Math.exp(Math.log(f0!) + w * (Math.log(f1!) - Math.log(f0!)));
-        break;
-      }
-    }
+    const start = Math.max(ac.rows.findIndex((row) => row[0]! >= fRef) - 1, 0);
+    const corner = crossingIn(ac, start, 1, ref / Math.SQRT2);
     record('bandwidth (relative)', name, Math.abs(corner / sp.smallSignal - 1));
     expect(Math.abs(corner / sp.smallSignal - 1)).toBeLessThan(0.02);
     if (!r.front.passesDc) {
       // The low corner of an AC-coupled chain, going down from the peak.
-      const peakAt = ac.rows.findIndex((row) => row[1] === ref);
-      let low = NaN;
-      for (let i = peakAt; i > 0; i--) {
-        if (ac.rows[i - 1]![1]! < ref / Math.SQRT2) {
-          const [f0, m0] = ac.rows[i - 1]!, [f1, m1] = ac.rows[i]!;
-          const w = (Math.log(ref / Math.SQRT2) - Math.log(m0!)) / (Math.log(m1!) - Math.log(m0!));
-          low = Math.exp(Math.log(f0!) + w * (Math.log(f1!) - Math.log(f0!)));
-          break;
-        }
-      }
+      const low = crossingIn(ac, ac.rows.findIndex((row) => row[1] === ref), -1, ref / Math.SQRT2);
       record('low corner (relative)', name, Math.abs(low / sp.lowCorner - 1));
       expect(Math.abs(low / sp.lowCorner - 1)).toBeLessThan(0.02);
     }
