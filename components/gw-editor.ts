@@ -66,7 +66,7 @@ export class GwEditor extends LitElement {
       return html`<gw-field path=${path} label=${f.label} .value=${String(value ?? '')} .message=${this.messages[path] ?? ''}></gw-field>`;
     }
     const label = path.startsWith('target.range') ? `${f.label} (${this.design.sensor.measurand}${this.design.target.signal === 'ac-rms' ? ' rms' : ''})` : f.label;
-    return html`<gw-field path=${path} label=${label} .value=${displayValue(f, value)} .message=${this.messages[path] ?? ''} .hint=${f.hint ?? ''}></gw-field>`;
+    return html`<gw-field path=${path} label=${label} .value=${displayValue(f, value, this.design)} .message=${this.messages[path] ?? ''} .hint=${f.hint ?? ''}></gw-field>`;
   }
 
   override render() {

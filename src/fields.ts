@@ -42,7 +42,7 @@ export const SENSOR_TYPES: Array<[SensorType, string]> = [
 export const FIELDS: readonly FieldDef[] = [
   { path: 'title', label: 'Title', section: 'sensor', kind: 'text' },
   { path: 'notes', label: 'Notes', section: 'sensor', kind: 'text' },
-  { path: 'sensor.measurand', label: 'Measurand unit', section: 'sensor', kind: 'text', hint: 'A, mT, V …' },
+  { path: 'sensor.measurand', label: 'Measurand unit', section: 'sensor', kind: 'text', hint: 'A, mT, V …', sensors: ['voltage-output'] },
   S('sensor.sensitivity', 'Sensitivity', 'V/A', 'V/A', VOUT, 'volts per measurand unit, e.g. 12.5 mV/A'),
   S('sensor.hallSensitivity', 'Hall sensitivity', 'V/T', 'V/T', HALL, 'e.g. 25 mV/mT or 2.5 mV/G'),
   S('sensor.quiescent', 'Quiescent output (zero)', 'V', 'V', [...VOUT, ...HALL], 'output at zero measurand'),
@@ -169,10 +169,11 @@ export function fieldsFor(design: Design): FieldDef[] {
 }
 
 /** How a value is written in its field: 0.0125 V/A → "12.5 mV/A", 298.15 K → "25 °C", 2034 C → "565 mAh". */
-export function displayValue(f: FieldDef, value: unknown): string {
+export function displayValue(f: FieldDef, value: unknown, design?: Design): string {
   if (value === undefined || value === null) return '';
   if (typeof value !== 'number') return String(value);
-  const measurandUnit = f.unit;
+  // Per-measurand units follow the design's measurand: 100 mV/A, or 25 mV/mT for a field sensor.
+  const measurandUnit = f.unit === 'V/A' && design ? `V/${design.sensor.measurand}` : f.unit;
   switch (f.unit) {
     case '°C': return `${+(value - 273.15).toFixed(2)} °C`;
     case 'mAh': return `${+(value / 3.6).toPrecision(4)} mAh`;

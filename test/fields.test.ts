@@ -51,3 +51,12 @@ describe('fields', () => {
     expect(fieldsFor(b).some((x) => x.path === 'supply.battery.fresh')).toBe(true);
   });
 });
+
+describe('per-measurand units', () => {
+  it('a scale is written per the design\'s measurand and reads back', () => {
+    const d = setPath(setPath(demoDesign('generic-sensor'), 'sensor.measurand', 'mT'), 'target.scale', 0.025);
+    const text = displayValue(f('target.scale'), 0.025, d);
+    expect(text).toBe('25 mV/mT');
+    expect(parseField(f('target.scale'), text, d)).toEqual({ ok: true, value: 0.025 });
+  });
+});
