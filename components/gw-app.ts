@@ -73,11 +73,16 @@ export class GwApp extends LitElement {
       header, main, .notice, .no-print { display: none !important; }
       :host { background: #fff; }
       .safety-banner { display: none; }
-      .sheet { display: block; padding: 0; font-size: 10.5pt; }
-      .sheet h2 { font-size: 12pt; margin-top: 0.6rem; }
-      .sheet gw-schematic { max-width: 16cm; }
-      .sheet table { font-size: 9.5pt; }
+      /* One or two A4 pages: small type, two columns where the content allows. */
+      .sheet { display: block; padding: 0; --gw-font-size: 8.5pt; --gw-cell-pad: 0.05rem 0.25rem; font-size: 8.5pt; line-height: 1.3; }
+      .sheet h1 { font-size: 13pt; margin: 0 0 0.2rem; }
+      .sheet h2 { font-size: 10pt; margin: 0.4rem 0 0.2rem; }
+      .sheet p, .sheet ul, .sheet ol { margin: 0.1rem 0; }
+      .sheet .grid { display: grid; grid-template-columns: 1fr 1fr; gap: 0 0.6cm; }
+      .sheet .wide { grid-column: 1 / -1; }
+      .sheet gw-schematic { display: block; max-width: 9.5cm; }
       .sheet section { break-inside: avoid; }
+      .sheet .safety { border: 1px solid #000; padding: 0.1rem 0.3rem 0.1rem 1.2rem; }
     }
   `];
 
@@ -298,14 +303,18 @@ export class GwApp extends LitElement {
     const d = this._derived;
     if (!d) return nothing;
     const r = d.report;
+    const half = Math.ceil(d.figures.length / 2);
     return html`<div class="sheet" aria-hidden="true">
       <h1>${this._design.title}</h1>
       <p>${this._design.notes}</p>
-      <section><h2>Safety</h2><ul class="safety">${this._cautions().map((c) => html`<li>${c}</li>`)}</ul></section>
-      <section><h2>Schematic</h2><gw-schematic .drawing=${d.drawing}></gw-schematic></section>
-      <section><h2>Parts list</h2><gw-parts compact .rows=${d.rows}></gw-parts></section>
-      <section><h2>Calibration</h2><ol class="cal">${r.calibration.map((c) => html`<li>${c.text}</li>`)}</ol></section>
-      <section><h2>Key figures</h2><gw-figures caption="Key figures" .rows=${d.figures}></gw-figures></section>
+      <div class="grid">
+        <section><h2>Schematic</h2><gw-schematic .drawing=${d.drawing}></gw-schematic></section>
+        <section><h2>Safety</h2><ul class="safety">${this._cautions().map((c) => html`<li>${c}</li>`)}</ul></section>
+        <section class="wide"><h2>Parts list</h2><gw-parts compact .rows=${d.rows}></gw-parts></section>
+        <section class="wide"><h2>Calibration</h2><ol class="cal">${r.calibration.map((c) => html`<li>${c.text}</li>`)}</ol></section>
+        <section><h2>Key figures</h2><gw-figures caption="Key figures" .rows=${d.figures.slice(0, half)}></gw-figures></section>
+        <section><h2>&nbsp;</h2><gw-figures caption="Key figures, continued" .rows=${d.figures.slice(half)}></gw-figures></section>
+      </div>
       <p><small>Made with Gainwright from the design's own figures; check them against your parts before building.</small></p>
     </div>`;
   }

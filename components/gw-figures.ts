@@ -7,7 +7,7 @@ export interface FigureRow { label: string; value: string; note?: string }
 /** A table of labelled figures, already written as text by the app from the report. */
 @customElement('gw-figures')
 export class GwFigures extends LitElement {
-  static override styles = [base, css`td.v { white-space: nowrap; font-variant-numeric: tabular-nums; } td.n { color: var(--gw-muted); font-size: 0.85rem; }`];
+  static override styles = [base, css`td.v { white-space: nowrap; font-variant-numeric: tabular-nums; } td.n { color: var(--gw-muted); font-size: 0.9em; }`];
 
   /** Rows to show. */
   @property({ attribute: false }) rows: FigureRow[] = [];

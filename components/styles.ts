@@ -14,13 +14,15 @@ export const base = css`
     --gw-fail: #a11d1d;
     --gw-focus: #1f5fbf;
     color: var(--gw-ink);
-    font: 15px/1.45 system-ui, -apple-system, 'Segoe UI', sans-serif;
+    font-family: system-ui, -apple-system, 'Segoe UI', sans-serif;
+    font-size: var(--gw-font-size, 15px);
+    line-height: 1.45;
   }
   *:focus-visible { outline: 3px solid var(--gw-focus); outline-offset: 2px; }
   h2 { font-size: 1.05rem; margin: 0 0 0.5rem; }
   h3 { font-size: 0.95rem; margin: 0.8rem 0 0.3rem; }
   table { border-collapse: collapse; width: 100%; }
-  th, td { text-align: left; padding: 0.25rem 0.4rem; border-bottom: 1px solid var(--gw-line); vertical-align: top; }
+  th, td { text-align: left; padding: var(--gw-cell-pad, 0.25rem 0.4rem); border-bottom: 1px solid var(--gw-line); vertical-align: top; }
   th { font-weight: 600; color: var(--gw-muted); font-size: 0.85rem; }
   button, select, input { font: inherit; }
   button {

@@ -269,4 +269,19 @@ describe('the app in Chromium', () => {
     expect(await page.evaluate(() => document.activeElement?.shadowRoot?.activeElement?.getAttribute('aria-label'))).toBe('Design title');
     await page.context().close();
   });
+
+  it('the build sheet prints on at most two A4 pages for every demo', async () => {
+    const { page } = await watchedPage(h);
+    await page.goto(h.url);
+    for (const demo of ['bench-clamp', 'appliance-ct', 'generic-sensor']) {
+      await page.selectOption('select[aria-label="Load a demo"]', demo);
+      await expect.poll(() => partsText(page)).toMatch(/R1/);
+      await page.waitForTimeout(300);
+      const pdf = (await page.pdf({ format: 'A4' })).toString('latin1');
+      const pages = (pdf.match(/\/Type\s*\/Page[^s]/g) ?? []).length;
+      expect(pages, demo).toBeGreaterThanOrEqual(1);
+      expect(pages, demo).toBeLessThanOrEqual(2);
+    }
+    await page.context().close();
+  });
 });
