@@ -3,7 +3,7 @@
 // ratios hold on any machine even when absolute times are noisy. Needs `npm run build:cli` (done by
 // npm install) and, for group 3, a built app (`npx vite build`) and /usr/bin/chromium.
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { gzipSync } from 'node:zlib';
@@ -180,4 +180,3 @@ console.log('\n4. Batch reports from the CLI');
   line('report DIR --json, 1000 designs', ms(r1000.ms), `${r1000.lines} lines, exit ${r1000.status}; budget 10 s`);
   line('per design, 100 vs 1000 (start-up taken off)', `${((r100.ms - startup) / 100).toFixed(2)} / ${((r1000.ms - startup) / 1000).toFixed(2)} ms`);
 }
-void statSync;

@@ -138,7 +138,7 @@ export function clipping(design: Design, front: SensorFront, dc: DcPoint, positi
 }
 
 /** Output at the load for a measurand value, with every clip applied (the plotted transfer curve). */
-export function transferCurve(design: Design, dc: DcPoint, clip: ClipResult, points = 200): { x: Float64Array; y: Float64Array; clipped: Uint8Array } {
+export function transferCurve(dc: DcPoint, clip: ClipResult, points = 200): { x: Float64Array; y: Float64Array; clipped: Uint8Array } {
   const [a, b] = clip.rangePeak;
   const w = b - a;
   const x0 = a - 0.5 * w, x1 = b + 0.5 * w;
@@ -150,7 +150,6 @@ export function transferCurve(design: Design, dc: DcPoint, clip: ClipResult, poi
     y[i] = dc.out[0] + dc.out[1] * xc;
     clipped[i] = xi < clip.measurandLow || xi > clip.measurandHigh ? 1 : 0;
   }
-  void design;
   return { x, y, clipped };
 }
 
@@ -355,7 +354,7 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
   if (front.sensitivityDrift) terms.push({ name: 'sensor sensitivity drift', value: Math.abs(xEnd * front.sensitivityDrift * dT), removedBy: 'none' });
   // Resistors: each part alone at +tolerance; zero and scale shifts from the circuit.
   const base0 = dc.out[0], base1 = dc.out[1];
-  let driftSq = 0, driftSum = 0;
+  let driftSum = 0;
   for (const p of stage.parts) {
     if (p.kind === 'capacitor') continue;
     const names = sc.circuit.elements.filter((e) => e.kind === 'R' && (e.name === p.ref || e.name === `${p.ref}A` || e.name === `${p.ref}B`)).map((e) => e.name);
@@ -372,7 +371,7 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
     if (design.target.tempco && p.kind === 'resistor') {
       const d = shift(Math.abs(design.target.tempco) * dT);
       const v = toUnits(d.dz + d.ds * xEnd);
-      driftSq += v * v; driftSum += v;
+      driftSum += v;
     }
   }
   if (driftSum > 0) terms.push({ name: `resistor tempco (${(design.target.tempco * 1e6).toFixed(0)} ppm/K over ±${dT.toFixed(0)} K)`, value: driftSum, removedBy: 'none' });
@@ -388,7 +387,6 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
   if (stage.network.gainTrim) after.push(Math.abs(xEnd) * stage.network.gainTrim.step);
   const wc = terms.reduce((s, t) => s + t.value, 0);
   const rss = Math.sqrt(terms.reduce((s, t) => s + t.value ** 2, 0));
-  void driftSq;
   return {
     terms, worstCase: wc, rss, afterTrim: after.reduce((s, v) => s + v, 0), afterTrimRss: Math.sqrt(after.reduce((s, v) => s + v * v, 0)), at: xEnd,
   };
@@ -491,7 +489,6 @@ export function spread(design: Design, front: SensorFront, sc: StageCircuit, dc:
   const tols = c.elements.map(tolOf);
   const sigIdx = sc.signalIndex;
   const sig = c.elements[sigIdx]!;
-  const sig0 = sig.dc0 ?? 0, sig1 = sig.dc1 ?? 0;
   const n = c.size;
   const A = new Float64Array(n * n);
   const piv = new Int32Array(n);
@@ -529,7 +526,6 @@ export function spread(design: Design, front: SensorFront, sc: StageCircuit, dc:
   }
   // Restore the nominal circuit.
   c.elements.forEach((e, i) => { e.value = nominal[i]!; });
-  void sig0; void sig1;
   const mean = (a: Float64Array) => a.reduce((s, v) => s + v, 0) / a.length;
   const std = (a: Float64Array, m: number) => Math.sqrt(a.reduce((s, v) => s + (v - m) ** 2, 0) / (a.length - 1));
   const sm = mean(scales), zm = mean(zeros);

@@ -91,7 +91,7 @@ export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
     return r;
   }
   const clip = clipping(design, front, dc);
-  const transfer = transferCurve(design, dc, clip);
+  const transfer = transferCurve(dc, clip);
   const sp = speed(design, circuit, front, dc);
   // One sweep gives the noise and, over the default band, the frequency response from the same solves.
   const nz = noise(design, circuit, sp, opts.acPoints ? Math.max(opts.acPoints | 1, 21) : 201);

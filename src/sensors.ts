@@ -139,7 +139,6 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
       if (Math.abs(dGap) > 0.05) {
         front.warnings.push({ code: 'gap-critical', level: 'caution', message: `Sensitivity changes by ${(dGap * 100).toFixed(1)} % for each 0.1 mm of gap: a hand-cut gap will need the span trimmer.` });
       }
-      void range; void peak;
       return front;
     }
     case 'current-transformer': {

@@ -44,11 +44,10 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
   lines.push('*');
   lines.push(`.temp ${fmt(tempC)}`);
   let aux = 0;
-  const noiseGen = (label: string, density: number): string => {
+  const noiseGen = (label: string): string => {
     // Node driven only by a 1 kΩ resistor's thermal noise: sqrt(4kTR) V/sqrt(Hz), scaled by the caller.
     const n = `nz_${label}`;
     lines.push(`RNZ_${label} ${n} 0 ${rn}`);
-    void density;
     return n;
   };
   c.elements.forEach((e) => {
@@ -66,7 +65,7 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
       case 'V': {
         if (e.noise && e.noise > 0) {
           const mid = `${a}_nz${aux++}`;
-          const nz = noiseGen(e.name, e.noise);
+          const nz = noiseGen(e.name);
           lines.push(`${spiceName('V', e.name)} ${mid} ${b} DC ${fmt(e.dc0 ?? 0)} AC ${fmt(e.ac ?? 0)}`);
           lines.push(`${spiceName('E', `${e.name}_N`)} ${a} ${mid} ${nz} 0 ${fmt(e.noise / enRef)}`);
         } else {
@@ -76,7 +75,7 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
       }
       case 'I': {
         if (e.noise && e.noise > 0) {
-          const nz = noiseGen(e.name, e.noise);
+          const nz = noiseGen(e.name);
           lines.push(`${spiceName('G', `${e.name}_N`)} ${a} ${b} ${nz} 0 ${fmt(e.noise / enRef)}`);
         }
         if ((e.dc0 ?? 0) !== 0 || (e.ac ?? 0) !== 0 || (e.dc1 ?? 0) !== 0) lines.push(`${spiceName('I', e.name)} ${a} ${b} DC ${fmt(e.dc0 ?? 0)} AC ${fmt(e.ac ?? 0)}`);
