@@ -76,7 +76,7 @@ console.log('\n2. Full analysis (demo "bench-clamp")');
   const sp = A.speed(d, sc, front, dc);
   const parts = {
     'stage solve (divider, gain network, trimmers)': () => solveStage(d, front, ideal),
-    'circuit build + DC transfer (200 points)': () => { const c = buildCircuit(d, stage, front); const x = A.dcLinear(c, false); A.transferCurve(d, x, A.clipping(d, front, x)); },
+    'circuit build + DC transfer (200 points)': () => { const c = buildCircuit(d, stage, front); const x = A.dcLinear(c, false); A.transferCurve(x, A.clipping(d, front, x)); },
     'speed (bandwidth bisection)': () => A.speed(d, sc, front, dc),
     'AC + noise sweep (201 frequencies, one adjoint solve each)': () => A.noise(d, sc, sp),
     'error budget': () => A.errorBudget(d, stage, front, sc, dc),
