@@ -1,12 +1,12 @@
 import type { ReactiveController, ReactiveControllerHost } from 'lit';
 import {
-  Chart, LineController, LineElement, PointElement, BarController, BarElement, LinearScale, LogarithmicScale, CategoryScale,
+  Chart, LineController, LineElement, PointElement, BarController, BarElement, LinearScale, LogarithmicScale,
   Legend, Title, Tooltip, type ChartConfiguration,
 } from 'chart.js';
 import type { ChartData, Series } from '../src/charts.js';
 
 // Only what the five plots use, so the rest of Chart.js is left out of the bundle.
-Chart.register(LineController, LineElement, PointElement, BarController, BarElement, LinearScale, LogarithmicScale, CategoryScale, Legend, Title, Tooltip);
+Chart.register(LineController, LineElement, PointElement, BarController, BarElement, LinearScale, LogarithmicScale, Legend, Title, Tooltip);
 
 const SOURCE_COLOURS = ['#2f7d6d', '#b5651d', '#6a4c93', '#8c8c2a', '#c0392b', '#3d6fa8'];
 
