@@ -97,4 +97,38 @@ describe('MNA against closed forms', () => {
     const el: Element[] = [{ kind: 'C', name: 'C', a: 1, b: 0, value: 1e-9 }];
     expect(solveDc(compile(['0', 'n'], el), [() => 0])).toBeNull();
   });
+
+  // NEETS Module 8 (NAVEDTRA 14180), figs. 3-17 to 3-19: with GBW 1 MHz a gain of 100 holds to 10 kHz.
+  it('a gain-100 stage on a 1 MHz GBW part is −3 dB at 10 kHz', () => {
+    const a0 = 1e5, gbw = 1e6;
+    const c = compile(names, nonInverting(a0, 99e3, 1e3, gbw / a0));
+    const ws = workspace(c);
+    const mag = (f: number) => { adjointAt(c, 2 * Math.PI * f, 5, ws); return Math.hypot(...transferFrom(c, 0, ws)); };
+    expect(mag(10e3) / mag(1)).toBeCloseTo(Math.SQRT1_2, 2);
+  });
+});
+
+describe('output offset (Sivakumar, Linear Integrated Circuits, ex. 5.1 and 5.2)', () => {
+  // Offset voltage in series with the + input, R1 to ground from the − input, R2 feedback; an offset has no
+  // set sign, so magnitudes are compared.
+  function offsetStage(r1: number, r2: number, vos: number, ib: number): number {
+    const el: Element[] = [
+      { kind: 'V', name: 'VOS', a: 0, b: 1, value: 0, dc0: vos },
+      { kind: 'I', name: 'IBN', a: 2, b: 0, value: 0, dc0: ib },
+      { kind: 'E', name: 'EOA', a: 3, b: 0, value: 1e7, cp: 1, cn: 2 },
+      { kind: 'R', name: 'ROUT', a: 3, b: 4, value: 1e-3 },
+      { kind: 'R', name: 'R2', a: 4, b: 2, value: r2 },
+      { kind: 'R', name: 'R1', a: 2, b: 0, value: r1 },
+    ];
+    return solveDc(compile(['0', 'inp', 'inn', 'int', 'out'], el), [(e) => e.dc0 ?? 0])!.columns[0]![3]!;
+  }
+  it('ex. 5.1: V_os 4 mV with R1 5 kΩ, R2 500 kΩ gives 404 mV; 150 nA into R2 gives 75 mV', () => {
+    expect(Math.abs(offsetStage(5e3, 500e3, 4e-3, 0))).toBeCloseTo(0.404, 4);
+    // The − input's current flows out of the pin through R2: the output moves by I·R2 (sign by direction).
+    expect(Math.abs(offsetStage(5e3, 500e3, 0, 150e-9))).toBeCloseTo(0.075, 5);
+  });
+  it('ex. 5.2: 2 mV with 10 kΩ and 250 kΩ gives 52 mV; 20 nA gives 5 mV', () => {
+    expect(Math.abs(offsetStage(10e3, 250e3, 2e-3, 0))).toBeCloseTo(0.052, 5);
+    expect(Math.abs(offsetStage(10e3, 250e3, 0, 20e-9))).toBeCloseTo(0.005, 6);
+  });
 });
