@@ -319,25 +319,46 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     let gainRes: PairResult | null = null;
     let chosen = 0;
     let pick: PairCandidate | null = null;
-    for (let iter = 0; iter < 3; iter++) {
-      const rth = ideal.topology === 'non-inverting' && div.ref.kind === 'divider' ? div.ref.thevenin : 0;
+    const rthOf = (d: DividerSolve) => (ideal.topology === 'non-inverting' && d.ref.kind === 'divider' ? d.ref.thevenin : 0);
+    const search = (rth: number): PairResult => {
       const half = trimOhms / 2;
       const aPref = Math.max(rfPref - half, target.resistanceMin);
-      gainRes = searchPairs(table, table, ideal.topology === 'non-inverting'
+      // Keep the feedback arm small enough for the trimmer to cover the stack: usable·R_trim/(a + half)·leverage.
+      // If that window cannot land the gain within a tenth of the tolerance, search the whole window instead.
+      const aCover = trimOhms ? (usable * trimOhms * rfSens) / (COVERAGE * sStack) - half : Infinity;
+      if (aCover > aPref / 2.5 && aCover < aPref * 2.5) {
+        const r = searchWindow(rth, half, aPref, aCover);
+        if (r.best && Math.abs(r.best.error) <= target.tolerance / 10) return r;
+      }
+      return searchWindow(rth, half, aPref, aPref * 2.5);
+    };
+    const searchWindow = (rth: number, half: number, aPref: number, aMax: number): PairResult => {
+      return searchPairs(table, table, ideal.topology === 'non-inverting'
         // Non-inverting: G = 1 + (a + half)/(b + rth), so error = (G−1)/G · (ratio/(G−1) − 1).
-        ? { idealB: (a) => (a + half) / (g - 1) - rth, error: (a, b) => (1 + (a + half) / (b + rth)) / g - 1, preferredA: aPref, floor, aMin: aPref / 2.5, aMax: aPref * 2.5, ratio: { cA: half, cB: rth, k: g - 1, m: (g - 1) / g } }
-        : { idealB: (a) => (a + half) / g - rs, error: (a, b) => (a + half) / (b + rs) / g - 1, preferredA: aPref, floor, aMin: aPref / 2.5, aMax: aPref * 2.5, ratio: { cA: half, cB: rs, k: g, m: 1 } }, 10);
+        ? { idealB: (a) => (a + half) / (g - 1) - rth, error: (a, b) => (1 + (a + half) / (b + rth)) / g - 1, preferredA: aPref, floor, aMin: aPref / 2.5, aMax, ratio: { cA: half, cB: rth, k: g - 1, m: (g - 1) / g } }
+        : { idealB: (a) => (a + half) / g - rs, error: (a, b) => (a + half) / (b + rs) / g - 1, preferredA: aPref, floor, aMin: aPref / 2.5, aMax, ratio: { cA: half, cB: rs, k: g, m: 1 } }, 10);
+    };
+    // Gain network around the divider's Thevenin; the reference re-aimed at the real gain; repeated while the
+    // re-aimed divider's Thevenin moves by more than 1e-4 of the leg (which would move the gain as much).
+    let rthUsed = rthOf(div);
+    for (let iter = 0; iter < 4; iter++) {
+      gainRes = search(rthUsed);
       if (!gainRes.ranked.length) break;
       chosen = Math.min(target.alternative, gainRes.ranked.length - 1);
       pick = gainRes.ranked[chosen]!;
-      // Re-aim the reference at the real gain so the zero lands where asked, then re-solve once.
       const gReal = g * (1 + pick.error);
       const vrefNew = ideal.topology === 'non-inverting' ? (gReal * front.quiescent - ideal.pinZero) / (gReal - 1) : (ideal.pinZero + gReal * front.quiescent) / (1 + gReal);
       if (Math.abs(vrefNew - vref) < 1e-7 * (railHi - railLo)) break;
       vref = vrefNew;
-      const next = solveDivider(design, vref, rthTarget, zNeed / refGain, refGain);
-      if (next.ref.kind === 'divider' && div.ref.kind === 'divider' && Math.abs(next.ref.thevenin - div.ref.thevenin) < 1e-9 * div.ref.thevenin) { div = next; break; }
-      div = next;
+      div = solveDivider(design, vref, rthTarget, zNeed / refGain, refGain);
+      const rthNew = rthOf(div);
+      if (Math.abs(rthNew - rthUsed) < 1e-4 * legPref) break;
+      rthUsed = rthNew;
+    }
+    // The pick must belong to the divider built: if the loop ended on a moved Thevenin, search once more.
+    if (pick && Math.abs(rthOf(div) - rthUsed) >= 1e-4 * legPref) {
+      gainRes = search(rthOf(div));
+      if (gainRes.ranked.length) { chosen = Math.min(target.alternative, gainRes.ranked.length - 1); pick = gainRes.ranked[chosen]!; }
     }
     return { div, gainRes, chosen, pick };
   };
