@@ -250,6 +250,9 @@ export function solveDivider(design: Design, vref: number, rthTarget: number, ze
   if (Math.abs(setting - 0.5) > 0.3) {
     warnings.push({ code: 'zero-trim-off-centre', level: 'info', message: `The reference sits near a rail, so the zero trimmer starts at ${(setting * 100).toFixed(0)} % of its travel.` });
   }
+  if (trim && (trim.halfSpan < COVERAGE * trim.need * 0.999 || Math.abs(voltage - vref) * refGain > 0.25 * trim.halfSpan)) {
+    warnings.push({ code: 'zero-trim-short', level: 'caution', message: `The zero trimmer reaches ±${formatEng(trim.halfSpan, 'V')} at the output, short of ${COVERAGE} × the ±${formatEng(trim.need, 'V')} worst-case stack, or cannot centre on the wanted zero: the reference ${vref.toPrecision(3)} V sits too near a rail for this gain (reference leverage ${refGain.toPrecision(2)}).` });
+  }
   return { ref: { kind: 'divider', railBottom: lo, railTop: hi, topRail, top, bottom, trim, voltage, thevenin }, warnings };
 }
 

@@ -225,8 +225,9 @@ describe('reachable targets are solved', () => {
       expect(Math.abs(r.dc!.out[1] / r.stage!.ideal.deliveredScale - 1)).toBeLessThan(0.01);
       // Before trimming the zero lands within a quarter of the zero trimmer's reach, plus 0.2 % of the supply for
       // a wiper that had to stop short of its end (or within 5 % of the supply without a trimmer).
+      // A zero trimmer that cannot centre (a reference pinned near a rail) must say so instead.
       const zt = r.stage!.network.reference.trim;
-      expect(Math.abs(r.dc!.out[0] - doc.target.zero)).toBeLessThan(zt ? 0.25 * zt.halfSpan + 0.002 * doc.supply.positive : 0.05 * doc.supply.positive);
+      if (!codes.includes('zero-trim-short')) expect(Math.abs(r.dc!.out[0] - doc.target.zero)).toBeLessThan(zt ? 0.25 * zt.halfSpan + 0.002 * doc.supply.positive : 0.05 * doc.supply.positive);
       solved++;
     }), { numRuns: Math.max(400, Math.floor(RUNS / 10)), seed: SEED });
     expect(solved).toBeGreaterThan(100);
