@@ -214,7 +214,7 @@ export class GwApp extends LitElement {
       this._apply(setPath(this._design, path, text), path);
       return;
     }
-    if (text.trim() === '' && path === 'sensor.ratiometricSupply') {
+    if (text.trim() === '' && def.clearable) {
       this._apply(setPath(this._design, path, undefined), path);
       return;
     }
@@ -231,8 +231,7 @@ export class GwApp extends LitElement {
   };
 
   private _onSet = (e: CustomEvent<SetDetail>): void => {
-    const { path } = e.detail;
-    const value = path === 'target.arrangements' && typeof e.detail.value === 'string' ? e.detail.value.split(',') : e.detail.value;
+    const { path, value } = e.detail;
     if (path in GROUP_DEFAULTS) {
       this._apply(setPath(this._design, path, value ? GROUP_DEFAULTS[path] : null), path);
       return;

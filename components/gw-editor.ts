@@ -41,8 +41,6 @@ export class GwEditor extends LitElement {
   @property({ attribute: false }) design!: Design;
   /** Messages by field path for values that could not be used. */
   @property({ attribute: false }) messages: Record<string, string> = {};
-  /** Raw texts by path for fields whose message is showing (kept so nothing typed is lost). */
-  @property({ attribute: false }) drafts: Record<string, string> = {};
 
   private _set(path: string, value: unknown): void {
     this.dispatchEvent(new CustomEvent<SetDetail>('gw-set', { detail: { path, value }, bubbles: true, composed: true }));
@@ -53,8 +51,8 @@ export class GwEditor extends LitElement {
     const value = getPath(this.design, path);
     if (f.kind === 'select') {
       return html`<label class="row"><span>${f.label}</span>
-        <select data-path=${path} @change=${(e: Event) => this._set(path, (e.target as HTMLSelectElement).value)}>
-          ${f.options!.map(([v, l]) => html`<option value=${v} ?selected=${(Array.isArray(value) ? value.join(',') : value) === v}>${l}</option>`)}
+        <select data-path=${path} @change=${(e: Event) => this._set(path, f.options![Number((e.target as HTMLSelectElement).value)]![0])}>
+          ${f.options!.map(([v, l], i) => html`<option value=${i} ?selected=${JSON.stringify(value) === JSON.stringify(v)}>${l}</option>`)}
         </select></label>`;
     }
     if (f.kind === 'bool') {

@@ -1,8 +1,7 @@
 import { LitElement, html, css } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
+import type { FigureRow } from '../src/figures.js';
 import { base } from './styles.js';
-
-export interface FigureRow { label: string; value: string; note?: string }
 
 /** A table of labelled figures, already written as text by the app from the report. */
 @customElement('gw-figures')

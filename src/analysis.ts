@@ -5,7 +5,7 @@
  */
 import type { Design } from './design.js';
 import { buildCircuit, type StageCircuit } from './circuit.js';
-import { adjointAt, solveDc, stampReal, luFactorReal, luSolveReal, rhs, transferFrom, workspace, type Element } from './mna.js';
+import { adjointAt, signalTransfer, solveDc, stampReal, luFactorReal, luSolveReal, rhs, workspace, type Element } from './mna.js';
 import { integratePower, logGrid, noiseSpectrum, peakToPeak, type NoiseSpectrum } from './noise.js';
 import { atSensorSupply, type SensorFront, type SensorLimitKind } from './sensors.js';
 import type { SolvedStage } from './solver.js';
@@ -25,7 +25,13 @@ export interface DcPoint {
   /** Op-amp output current (out of the pin), A. */
   iOut: [number, number];
   source: [number, number];
+  /** The whole solution, by unknown: c0 at zero measurand, c1 per unit of measurand. */
+  c0: Float64Array;
+  c1: Float64Array;
 }
+
+/** Voltage of any node as [at zero measurand, per unit of measurand] from a DC point. */
+export const nodeLinear = (dc: DcPoint, node: number): [number, number] => lin(dc.c0, dc.c1, node);
 
 const lin = (c0: Float64Array, c1: Float64Array, node: number): [number, number] => (node > 0 ? [c0[node - 1]!, c1[node - 1]!] : [0, 0]);
 
@@ -47,7 +53,7 @@ export function dcLinear(sc: StageCircuit, passband: boolean): DcPoint | null {
   // Branch current of the gain block flows from its + terminal into the source: the pin current is its negative.
   return {
     out: lin(c0, c1, n.out), pin: lin(c0, c1, n.pin), internal: lin(c0, c1, n.internal), inP: lin(c0, c1, n.inP), inN: lin(c0, c1, n.inN),
-    iOut: [-c0[k]!, -c1[k]!], source: n.source > 0 ? lin(c0, c1, n.source) : [0, 0],
+    iOut: [-c0[k]!, -c1[k]!], source: n.source > 0 ? lin(c0, c1, n.source) : [0, 0], c0, c1,
   };
 }
 
@@ -163,44 +169,35 @@ export interface FrequencyResponse {
 /** Signal transfer from the measurand to the output at one frequency. */
 export function transferAt(sc: StageCircuit, f: number, ws = workspace(sc.circuit)): [number, number] {
   if (!adjointAt(sc.circuit, 2 * Math.PI * f, sc.nodes.out, ws)) return [NaN, NaN];
-  let re = 0, im = 0;
-  sc.circuit.elements.forEach((e: Element, i: number) => {
-    if ((e.kind === 'V' || e.kind === 'I') && e.ac) {
-      const [hr, hi] = transferFrom(sc.circuit, i, ws);
-      re += e.ac * hr; im += e.ac * hi;
-    }
-  });
-  return [re, im];
+  return signalTransfer(sc.circuit, ws);
 }
 
-/** The frequency response read from a noise sweep's signal transfer (same adjoint solves, no extra work). */
-export function responseFromSpectrum(s: NoiseSpectrum): FrequencyResponse {
-  const n = s.freqs.length;
+/** Magnitude and phase from complex transfers; the phase unwrapped so it runs on smoothly past ±180°. */
+function responseOf(freqs: Float64Array, re: Float64Array, im: Float64Array): FrequencyResponse {
+  const n = freqs.length;
   const magnitude = new Float64Array(n), phase = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    magnitude[i] = Math.hypot(s.signalRe[i]!, s.signalIm[i]!);
-    let ph = (Math.atan2(s.signalIm[i]!, s.signalRe[i]!) * 180) / Math.PI;
-    if (i > 0) { while (ph - phase[i - 1]! > 180) ph -= 360; while (ph - phase[i - 1]! < -180) ph += 360; }
-    phase[i] = ph;
-  }
-  return { freqs: s.freqs, magnitude, phase };
-}
-
-export function frequencyResponse(sc: StageCircuit, f1: number, f2: number, points = 200): FrequencyResponse {
-  const freqs = new Float64Array(points);
-  const magnitude = new Float64Array(points), phase = new Float64Array(points);
-  const ws = workspace(sc.circuit);
-  for (let i = 0; i < points; i++) {
-    const f = f1 * (f2 / f1) ** (i / (points - 1));
-    freqs[i] = f;
-    const [re, im] = transferAt(sc, f, ws);
-    magnitude[i] = Math.hypot(re, im);
-    let ph = (Math.atan2(im, re) * 180) / Math.PI;
-    // Unwrap, so the phase runs on smoothly past ±180°.
+    magnitude[i] = Math.hypot(re[i]!, im[i]!);
+    let ph = (Math.atan2(im[i]!, re[i]!) * 180) / Math.PI;
     if (i > 0) { while (ph - phase[i - 1]! > 180) ph -= 360; while (ph - phase[i - 1]! < -180) ph += 360; }
     phase[i] = ph;
   }
   return { freqs, magnitude, phase };
+}
+
+/** The frequency response read from a noise sweep's signal transfer (same adjoint solves, no extra work). */
+export function responseFromSpectrum(s: NoiseSpectrum): FrequencyResponse {
+  return responseOf(s.freqs, s.signalRe, s.signalIm);
+}
+
+export function frequencyResponse(sc: StageCircuit, f1: number, f2: number, points = 200): FrequencyResponse {
+  const freqs = new Float64Array(points), re = new Float64Array(points), im = new Float64Array(points);
+  const ws = workspace(sc.circuit);
+  for (let i = 0; i < points; i++) {
+    freqs[i] = f1 * (f2 / f1) ** (i / (points - 1));
+    [re[i], im[i]] = transferAt(sc, freqs[i]!, ws);
+  }
+  return responseOf(freqs, re, im);
 }
 
 export interface Speed {
@@ -400,22 +397,17 @@ export interface SupplyResult {
   batteryLife: number | null;
 }
 
-export function supply(design: Design, front: SensorFront, sc: StageCircuit, dc: DcPoint, passband: boolean): SupplyResult {
-  const sol = solveDc(sc.circuit, [(e) => e.dc0 ?? 0], passband);
+export function supply(design: Design, front: SensorFront, sc: StageCircuit, dc: DcPoint): SupplyResult {
   const parts: Array<{ name: string; current: number }> = [{ name: 'op-amp quiescent', current: design.opamp.supplyCurrent }];
   if (front.supplyCurrent) parts.push({ name: 'sensor', current: front.supplyCurrent });
-  if (sol) {
-    const col = sol.columns[0]!;
-    const kPos = sc.circuit.branch[sc.rails.positive]!;
-    // Current drawn from the positive rail source by the passive networks (divider, feedback to rail).
-    const fromPos = col[kPos]!; // flows into the source's + node from the circuit: positive means the circuit returns current
-    const railNets = -fromPos;
-    if (Math.abs(railNets) > 1e-12) parts.push({ name: 'reference divider and networks on the positive rail', current: Math.max(railNets, 0) });
-    if (sc.rails.regulated >= 0) {
-      const kReg = sc.circuit.branch[sc.rails.regulated]!;
-      const r = -col[kReg]!;
-      if (r > 1e-12) parts.push({ name: 'networks on the regulated rail', current: r });
-    }
+  // Rail currents at zero measurand are branch currents of the DC operating point already solved.
+  const col = dc.c0;
+  // A rail source's branch current flows into its + node from the circuit: the current it supplies is its negative.
+  const railNets = -col[sc.circuit.branch[sc.rails.positive]!]!;
+  if (Math.abs(railNets) > 1e-12) parts.push({ name: 'reference divider and networks on the positive rail', current: Math.max(railNets, 0) });
+  if (sc.rails.regulated >= 0) {
+    const r = -col[sc.circuit.branch[sc.rails.regulated]!]!;
+    if (r > 1e-12) parts.push({ name: 'networks on the regulated rail', current: r });
   }
   const iout = dc.iOut[0];
   if (iout > 0) parts.push({ name: 'op-amp output current into the load at zero', current: iout });

@@ -2,7 +2,6 @@
  * The build-ready parts list: every part with designator, value, IEC 60062 code, series and tolerance, power
  * rating, quantity and role, plus the op-amp and its decoupling; and its CSV export.
  */
-import { solveDc } from './mna.js';
 import { ROLE_NAMES } from './solver.js';
 import { SAFETY_CAUTIONS, type Report } from './report.js';
 import { peakRange } from './topology.js';
@@ -33,10 +32,8 @@ export function powerRating(watts: number): number {
 export function dissipations(r: Report): Map<string, number> {
   const out = new Map<string, number>();
   const sc = r.circuit;
-  if (!sc) return out;
-  const sol = solveDc(sc.circuit, [(e) => e.dc0 ?? 0, (e) => e.dc1 ?? 0], !r.front.passesDc);
-  if (!sol) return out;
-  const [c0, c1] = sol.columns as [Float64Array, Float64Array];
+  if (!sc || !r.dc) return out;
+  const { c0, c1 } = r.dc;
   const v = (col: Float64Array, n: number) => (n > 0 ? col[n - 1]! : 0);
   const [a, b] = peakRange(r.design);
   const lo = Math.max(a, r.clip?.measurandLow ?? a), hi = Math.min(b, r.clip?.measurandHigh ?? b);

@@ -5,7 +5,7 @@
  */
 import { check, type Problem, type Spec } from './validate.js';
 import type { SeriesName } from './eseries.js';
-import { sensorFront } from './sensors.js';
+import { sensorFrontAtRail } from './sensors.js';
 import { loadFactor } from './topology.js';
 
 export const DESIGN_FORMAT = 'gainwright-design';
@@ -471,7 +471,7 @@ function crossCheck(d: Design, problems: Problem[]): void {
   if (s.type === 'hall-gap-core' && s.core.gap >= s.core.pathLength) p('sensor.core.gap', 'must be shorter than sensor.core.pathLength');
   if (d.target.topology === 'non-inverting' && !problems.length) {
     // A non-inverting stage cannot attenuate: asking for one below unity is a contradiction in the file.
-    const front = sensorFront(d.sensor, d);
+    const front = sensorFrontAtRail(d.sensor, d);
     const gain = Math.abs(d.target.scale / loadFactor(d) / front.sensitivity);
     if (Number.isFinite(gain) && gain < 1 - 1e-6) p('target.topology', `is "non-inverting", which cannot attenuate, but the target needs a gain of ${gain.toPrecision(3)}: choose "inverting" or "auto"`);
   }

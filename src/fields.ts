@@ -15,8 +15,10 @@ export interface FieldDef {
   dimension?: Dimension;
   /** The unit the value is displayed in (SI symbol; °C and mAh are special). */
   unit?: string;
-  /** Select fields: the allowed values with their labels. */
-  options?: Array<[string, string]>;
+  /** Select fields: the allowed values (any JSON value) with their labels. */
+  options?: Array<[unknown, string]>;
+  /** Number fields: an empty entry removes the value (an optional field). */
+  clearable?: boolean;
   kind?: 'number' | 'select' | 'bool' | 'text';
   /** Only for these sensor types. */
   sensors?: SensorType[];
@@ -49,7 +51,7 @@ export const FIELDS: readonly FieldDef[] = [
   S('sensor.quiescent', 'Burden low end tied to', 'V', 'V', CT),
   S('sensor.outputMin', 'Sensor output min', 'V', 'V', [...VOUT, ...HALL]),
   S('sensor.outputMax', 'Sensor output max', 'V', 'V', [...VOUT, ...HALL]),
-  S('sensor.ratiometricSupply', 'Ratiometric at supply', 'V', 'V', [...VOUT, ...HALL], 'leave empty if not ratiometric'),
+  { ...S('sensor.ratiometricSupply', 'Ratiometric at supply', 'V', 'V', [...VOUT, ...HALL], 'leave empty if not ratiometric'), clearable: true },
   S('sensor.linearField', 'Linear field range (±)', 'T', 'T', HALL),
   S('sensor.turns', 'Turns of the measured wire', '1', '', HALL),
   S('sensor.core.pathLength', 'Core mean path length', 'm', 'm', HALL),
@@ -99,7 +101,7 @@ export const FIELDS: readonly FieldDef[] = [
   { path: 'target.signal', label: 'Signal', section: 'target', kind: 'select', options: [['dc', 'DC (range is peak values)'], ['ac-rms', 'AC (range is rms)']] },
   { path: 'target.topology', label: 'Stage', section: 'target', kind: 'select', options: [['auto', 'Choose for me'], ['non-inverting', 'Non-inverting'], ['inverting', 'Inverting']] },
   { path: 'target.series', label: 'Resistor series', section: 'target', kind: 'select', options: ['E12', 'E24', 'E48', 'E96', 'E192'].map((s) => [s, s]) },
-  { path: 'target.arrangements', label: 'Parts per arm', section: 'target', kind: 'select', options: [['single,series,parallel', 'one, or two in series or parallel'], ['single,series', 'one, or two in series'], ['single,parallel', 'one, or two in parallel'], ['single', 'one only']] },
+  { path: 'target.arrangements', label: 'Parts per arm', section: 'target', kind: 'select', options: [[['single', 'series', 'parallel'], 'one, or two in series or parallel'], [['single', 'series'], 'one, or two in series'], [['single', 'parallel'], 'one, or two in parallel'], [['single'], 'one only']] },
   N('target', 'target.tolerance', 'Resistor tolerance (±)', '1', '%'),
   N('target', 'target.tempco', 'Resistor tempco', '1/K', 'ppm/K'),
   N('target', 'target.resistanceMin', 'Smallest resistor', 'ohm', 'Ω'),
@@ -168,17 +170,27 @@ export function fieldsFor(design: Design): FieldDef[] {
   return FIELDS.filter((f) => (!f.sensors || f.sensors.includes(design.sensor.type)) && (!f.group || f.kind === 'bool' || getPath(design, f.group) !== null && getPath(design, f.group) !== undefined));
 }
 
+/**
+ * Display units that are not an SI prefix away from the stored SI value: how a bare number typed in them
+ * becomes SI, and how an SI value is written in them.
+ */
+const SCALED_UNITS: Record<string, { toSi: (x: number) => number; show: (si: number) => string }> = {
+  '°C': { toSi: (x) => x + 273.15, show: (v) => `${+(v - 273.15).toFixed(2)} °C` },
+  mAh: { toSi: (x) => x * 3.6, show: (v) => `${+(v / 3.6).toPrecision(4)} mAh` },
+  '%': { toSi: (x) => x / 100, show: (v) => `${+(v * 100).toPrecision(4)} %` },
+  'ppm/K': { toSi: (x) => x * 1e-6, show: (v) => `${+(v * 1e6).toPrecision(4)} ppm/K` },
+};
+const BARE_NUMBER = /^\s*[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?\s*$/;
+
 /** How a value is written in its field: 0.0125 V/A → "12.5 mV/A", 298.15 K → "25 °C", 2034 C → "565 mAh". */
 export function displayValue(f: FieldDef, value: unknown, design?: Design): string {
   if (value === undefined || value === null) return '';
   if (typeof value !== 'number') return String(value);
   // Per-measurand units follow the design's measurand: 100 mV/A, or 25 mV/mT for a field sensor.
   const measurandUnit = f.unit === 'V/A' && design ? `V/${design.sensor.measurand}` : f.unit;
+  const scaled = f.unit ? SCALED_UNITS[f.unit] : undefined;
+  if (scaled) return scaled.show(value);
   switch (f.unit) {
-    case '°C': return `${+(value - 273.15).toFixed(2)} °C`;
-    case 'mAh': return `${+(value / 3.6).toPrecision(4)} mAh`;
-    case '%': return `${+(value * 100).toPrecision(4)} %`;
-    case 'ppm/K': return `${+(value * 1e6).toPrecision(4)} ppm/K`;
     case 'dB': return `${+value.toPrecision(4)}`;
     case '': return `${+value.toPrecision(6)}`;
     default: return formatEng(value, measurandUnit ?? '', 4).replace(/(\.\d*?)0+(\s|$)/, '$1$2').replace(/\.(\s|$)/, '$1');
@@ -198,10 +210,8 @@ export function parseField(f: FieldDef, text: string, design?: Design): ParseRes
     }
     dim = '1';
   }
-  if (f.unit === 'mAh' && /^\s*[-+]?[\d.]+(e[-+]?\d+)?\s*$/i.test(text)) return { ok: true, value: Number(text) * 3.6 };
-  if (f.unit === '°C' && /^\s*[-+]?[\d.]+\s*$/.test(text)) return { ok: true, value: Number(text) + 273.15 };
-  // A bare number in a percent or ppm field means percent or ppm.
-  if (f.unit === '%' && /^\s*[-+]?[\d.]+\s*$/.test(text)) return { ok: true, value: Number(text) / 100 };
-  if (f.unit === 'ppm/K' && /^\s*[-+]?[\d.]+\s*$/.test(text)) return { ok: true, value: Number(text) * 1e-6 };
+  // A bare number in a °C, mAh, % or ppm/K field is in that unit.
+  const scaled = f.unit ? SCALED_UNITS[f.unit] : undefined;
+  if (scaled && BARE_NUMBER.test(text)) return { ok: true, value: scaled.toSi(Number(text)) };
   return parseQuantity(text, dim);
 }

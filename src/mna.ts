@@ -60,19 +60,17 @@ export interface Cx {
 
 const cx = (n: number, len: number): Cx => ({ n, re: new Float64Array(len), im: new Float64Array(len) });
 
+/** Receives one matrix entry: row, column (−1 = ground, skipped) and its real and imaginary parts. */
+type StampSink = (row: number, col: number, re: number, im: number) => void;
+
 /**
- * Stamps the circuit at angular frequency ω (0 for DC) into A (n×n). With `transpose` the transpose is
- * stamped instead, for the adjoint solve. Inductors are left open at ω > 0 when `openInductors`.
+ * The MNA rules, once: calls `add` for every entry the circuit puts into the matrix at angular frequency ω.
+ * Inductors are left open (I = 0) with `openInductors`. At ω = 0 every imaginary part is zero.
  */
-export function stamp(c: Circuit, omega: number, A: Cx, transpose = false, openInductors = false): void {
-  const n = c.size;
-  A.re.fill(0); A.im.fill(0);
-  const add = (r: number, col: number, vr: number, vi: number) => {
-    if (r < 0 || col < 0) return;
-    const idx = transpose ? col * n + r : r * n + col;
-    A.re[idx]! += vr; A.im[idx]! += vi;
-  };
-  c.elements.forEach((e, i) => {
+function eachStamp(c: Circuit, omega: number, openInductors: boolean, add: StampSink): void {
+  const els = c.elements;
+  for (let i = 0; i < els.length; i++) {
+    const e = els[i]!;
     const a = e.a - 1, b = e.b - 1, k = c.branch[i]!;
     switch (e.kind) {
       case 'R':
@@ -85,6 +83,7 @@ export function stamp(c: Circuit, omega: number, A: Cx, transpose = false, openI
         break;
       case 'C': {
         const y = omega * e.value;
+        if (y === 0) break;
         add(a, a, 0, y); add(b, b, 0, y); add(a, b, 0, -y); add(b, a, 0, -y);
         break;
       }
@@ -93,7 +92,8 @@ export function stamp(c: Circuit, omega: number, A: Cx, transpose = false, openI
         if (openInductors) {
           add(k, k, 1, 0); // I = 0
         } else {
-          add(k, a, 1, 0); add(k, b, -1, 0); add(k, k, 0, -omega * e.value);
+          add(k, a, 1, 0); add(k, b, -1, 0);
+          if (omega !== 0) add(k, k, 0, -omega * e.value);
         }
         break;
       case 'V':
@@ -114,6 +114,20 @@ export function stamp(c: Circuit, omega: number, A: Cx, transpose = false, openI
       case 'I':
         break;
     }
+  }
+}
+
+/**
+ * Stamps the circuit at angular frequency ω into the complex A (n×n). With `transpose` the transpose is
+ * stamped instead, for the adjoint solve. Inductors are left open when `openInductors`.
+ */
+export function stamp(c: Circuit, omega: number, A: Cx, transpose = false, openInductors = false): void {
+  const n = c.size;
+  A.re.fill(0); A.im.fill(0);
+  eachStamp(c, omega, openInductors, (r, col, vr, vi) => {
+    if (r < 0 || col < 0) return;
+    const idx = transpose ? col * n + r : r * n + col;
+    A.re[idx]! += vr; A.im[idx]! += vi;
   });
 }
 
@@ -202,42 +216,9 @@ export interface DcSolution {
 export function stampReal(c: Circuit, A: Float64Array, openInductors = false): void {
   const n = c.size;
   A.fill(0);
-  const els = c.elements;
-  for (let i = 0; i < els.length; i++) {
-    const e = els[i]!;
-    const a = e.a - 1, b = e.b - 1, k = c.branch[i]!;
-    switch (e.kind) {
-      case 'R':
-        if (e.value === 0) {
-          if (a >= 0) { A[a * n + k]! += 1; A[k * n + a]! += 1; }
-          if (b >= 0) { A[b * n + k]! -= 1; A[k * n + b]! -= 1; }
-        } else {
-          const g = 1 / e.value;
-          if (a >= 0) A[a * n + a]! += g;
-          if (b >= 0) A[b * n + b]! += g;
-          if (a >= 0 && b >= 0) { A[a * n + b]! -= g; A[b * n + a]! -= g; }
-        }
-        break;
-      case 'L':
-        if (a >= 0) A[a * n + k]! += 1;
-        if (b >= 0) A[b * n + k]! -= 1;
-        if (openInductors) A[k * n + k]! += 1;
-        else { if (a >= 0) A[k * n + a]! += 1; if (b >= 0) A[k * n + b]! -= 1; }
-        break;
-      case 'V':
-      case 'E':
-        if (a >= 0) { A[a * n + k]! += 1; A[k * n + a]! += 1; }
-        if (b >= 0) { A[b * n + k]! -= 1; A[k * n + b]! -= 1; }
-        if (e.kind === 'E') {
-          const cp = (e.cp ?? 0) - 1, cn = (e.cn ?? 0) - 1;
-          if (cp >= 0) A[k * n + cp]! -= e.value;
-          if (cn >= 0) A[k * n + cn]! += e.value;
-        }
-        break;
-      default:
-        break; // C is open at DC; I only enters the right-hand side
-    }
-  }
+  eachStamp(c, 0, openInductors, (r, col, vr) => {
+    if (r >= 0 && col >= 0) A[r * n + col]! += vr;
+  });
 }
 
 /** In-place real LU with partial pivoting into `piv`; false for a singular matrix. */
@@ -314,6 +295,19 @@ export function adjointAt(c: Circuit, omega: number, outNode: number, ws: Worksp
   ws.yr[outNode - 1] = 1;
   luSolve(ws.A, piv, ws.yr, ws.yi);
   return true;
+}
+
+/** Transfer (re, im) from the measurand to the output: every driven source's AC amplitude, after adjointAt. */
+export function signalTransfer(c: Circuit, ws: Workspace): [number, number] {
+  let re = 0, im = 0;
+  for (let i = 0; i < c.elements.length; i++) {
+    const e = c.elements[i]!;
+    if ((e.kind === 'V' || e.kind === 'I') && e.ac) {
+      const [hr, hi] = transferFrom(c, i, ws);
+      re += e.ac * hr; im += e.ac * hi;
+    }
+  }
+  return [re, im];
 }
 
 /** Transfer (re, im) to the output from element i's unit source, after adjointAt. */

@@ -3,7 +3,7 @@
  * per frequency.
  */
 import { BOLTZMANN } from './constants.js';
-import { adjointAt, transferFrom, workspace, type Circuit } from './mna.js';
+import { adjointAt, signalTransfer, transferFrom, workspace, type Circuit } from './mna.js';
 
 /**
  * Johnson–Nyquist thermal noise voltage density of a resistor, V/√Hz: e = √(4kTR)
@@ -66,15 +66,9 @@ export function noiseSpectrum(c: Circuit, out: number, freqs: Float64Array, kelv
   const shares = noisy.map((s) => ({ name: s.name, density: new Float64Array(freqs.length) }));
   const total = new Float64Array(freqs.length);
   const signalRe = new Float64Array(freqs.length), signalIm = new Float64Array(freqs.length);
-  const driven: number[] = [];
-  c.elements.forEach((e, i) => { if ((e.kind === 'V' || e.kind === 'I') && e.ac) driven.push(i); });
   for (let k = 0; k < freqs.length; k++) {
     if (!adjointAt(c, 2 * Math.PI * freqs[k]!, out, ws)) continue;
-    for (const i of driven) {
-      const [hr, hi] = transferFrom(c, i, ws);
-      const g = c.elements[i]!.ac!;
-      signalRe[k]! += g * hr; signalIm[k]! += g * hi;
-    }
+    [signalRe[k], signalIm[k]] = signalTransfer(c, ws);
     let sum = 0;
     for (let s = 0; s < noisy.length; s++) {
       const [hr, hi] = transferFrom(c, noisy[s]!.i, ws);

@@ -8,15 +8,13 @@ import { chooseTopology, peakRange, type TopologyChoiceResult } from './topology
 import { solveStage, type Part, type SolvedStage } from './solver.js';
 import { buildCircuit, type StageCircuit } from './circuit.js';
 import {
-  batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, noise, speed, spread, supply, transferCurve,
+  batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, noise, speed, spread, supply, transferAt, transferCurve,
   type BatteryStep, type ClipResult, type DcPoint, type ErrorBudget, type FrequencyResponse, type InstrumentDrive, type NoiseResult,
   type Speed, type SpreadResult, type SupplyResult,
 } from './analysis.js';
 import type { Warning } from './warnings.js';
 import { formatEng } from './units.js';
 import { calibrationSteps, type CalibrationStep } from './calibration.js';
-import { solveDc } from './mna.js';
-import { transferAt } from './analysis.js';
 
 export interface Verdict {
   level: 'pass' | 'caution' | 'fail';
@@ -99,7 +97,7 @@ export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
     ? responseFromSpectrum(nz.spectrum)
     : frequencyResponse(circuit, defaultBand(sp)[0], defaultBand(sp)[1], opts.acPoints ?? 200);
   const errors = errorBudget(design, stage, front, circuit, dc);
-  const sup = supply(design, front, circuit, dc, passband);
+  const sup = supply(design, front, circuit, dc);
   const battery = batterySweep(design, stage, front, dc.out[0]);
   const trials = opts.spreadTrials ?? design.analysis.spreadTrials;
   const spr = trials > 0 ? spread(design, front, circuit, dc, trials) : null;
@@ -145,9 +143,8 @@ function findings(r: Report): Warning[] {
   // An AC-coupled sensor at mains frequency (50 Hz, the lower of the two in use; common practice): how far
   // below its passband scale it reads there, from the circuit itself.
   if (!r.front.passesDc && r.circuit && r.speed) {
-    const at = Math.hypot(...transferAt(r.circuit, 50));
-    const short = 1 - at / Math.abs(r.speed.passband);
     const [hr, hi] = transferAt(r.circuit, 50);
+    const short = 1 - Math.hypot(hr, hi) / Math.abs(r.speed.passband);
     const [pr, pi] = transferAt(r.circuit, Math.sqrt(r.speed.lowCorner * r.speed.smallSignal));
     let lead = ((Math.atan2(hi, hr) - Math.atan2(pi, pr)) * 180) / Math.PI;
     while (lead > 180) lead -= 360;
@@ -186,11 +183,9 @@ function findings(r: Report): Warning[] {
 /** Largest current the sensor output delivers over the range, A (null when the circuit has no source resistor). */
 export function sensorDraw(r: Report): number | null {
   const sc = r.circuit;
-  if (!sc || !r.clip) return null;
+  if (!sc || !r.clip || !r.dc) return null;
   // The sensor output node and the amplifier input node: the current in between is what the sensor drives.
-  const sol = solveDc(sc.circuit, [(e) => e.dc0 ?? 0, (e) => e.dc1 ?? 0], !r.front.passesDc);
-  if (!sol) return null;
-  const [c0, c1] = sol.columns as [Float64Array, Float64Array];
+  const { c0, c1 } = r.dc;
   const rsIdx = sc.circuit.elements.findIndex((e) => e.name === 'RS' && e.kind === 'R');
   const [a, b] = r.clip.rangePeak;
   let worst = 0;
@@ -234,7 +229,8 @@ export function verdictsOf(r: Report): Verdict[] {
   const se = r.stage.scaleError;
   v.push({ level: Math.abs(se) < d.target.tolerance ? 'pass' : 'caution', title: `Scale ${f3(r.dc!.out[1], `V/${m}`)} before trim`, detail: `${(se * 100).toFixed(3)} % from the target with the trimmers at mid; zero ${f3(r.dc!.out[0], 'V')}.` });
   const bwOk = !(d.target.bandwidth > 0) || r.speed.smallSignal >= d.target.bandwidth;
-  v.push({ level: bwOk ? 'pass' : 'fail', title: `Bandwidth ${f3(r.speed.smallSignal, 'Hz')}`, detail: `Rise time ${f3(r.speed.riseTime, 's')}; full-power bandwidth ${f3(r.speed.fullPower, 'Hz')}.` });
+  const bwShort = bwOk ? '' : `${r.warnings.find((w) => w.code === 'bandwidth-short')?.message ?? ''} `;
+  v.push({ level: bwOk ? 'pass' : 'fail', title: `Bandwidth ${f3(r.speed.smallSignal, 'Hz')}`, detail: `${bwShort}Rise time ${f3(r.speed.riseTime, 's')}; full-power bandwidth ${f3(r.speed.fullPower, 'Hz')}.` });
   // Our own thresholds, against the range end: noise peak-to-peak within 1 % passes, within 5 % is a
   // caution; DC error after calibration within 1 % passes, within 3 % is a caution.
   const end = Math.max(Math.abs(a), Math.abs(b)) || 1;
@@ -251,14 +247,13 @@ export function verdictsOf(r: Report): Verdict[] {
   const titles: Record<string, string> = {
     'battery-clips': 'Clips as the battery runs down', 'battery-zero-shift': 'Zero moves with the battery', 'capacitive-load': 'Capacitive load on the op-amp output',
     'slew-limited': 'Slew-limited at full scale', 'gap-critical': 'Gap is critical', 'burden-power': 'Burden overloaded', 'shunt-power': 'Shunt overloaded',
-    'ct-no-dc': 'A current transformer passes no DC', 'bandwidth-short': 'Bandwidth too low',
+    'ct-no-dc': 'A current transformer passes no DC',
     'gain-trim-short': 'Span trimmer cannot cover the spread', 'zero-trim-short': 'Zero trimmer cannot cover the spread',
     'sensor-drive': 'Sensor cannot drive the input', 'ac-low-frequency': 'Reads low at 50 Hz',
   };
   for (const w of r.warnings.filter((x) => (x.level === 'fail' || x.level === 'caution') && !x.code.startsWith('clips-in-range') && x.code !== 'bandwidth-short')) {
     v.push({ level: w.level === 'fail' ? 'fail' : 'caution', title: titles[w.code] ?? w.code, detail: w.message });
   }
-  if (d.target.bandwidth > 0 && !bwOk) v[3]!.detail = `${r.warnings.find((w) => w.code === 'bandwidth-short')?.message ?? ''} ${v[3]!.detail}`;
   // Worst first.
   const rank = { fail: 0, caution: 1, pass: 2 } as const;
   v.sort((a, b) => rank[a.level] - rank[b.level]);

@@ -99,11 +99,18 @@ export function lowerBound(values: Float64Array, x: number): number {
   return lo;
 }
 
+/** The closed form (a + cA)/(b + cB) = k, with signed error m·(ratio/k − 1). */
+export interface RatioForm { cA: number; cB: number; k: number; m: number }
+
+/**
+ * A problem is given either as two functions or as a ratio form (which every problem in Gainwright is);
+ * the search computes a ratio form inline, without a call per candidate (the hot loop of every solve).
+ */
 export interface PairProblem {
   /** The ideal second arm for a given first arm; NaN or ≤ 0 when none fits. */
-  idealB: (a: number) => number;
-  /** Signed relative error of the realised quantity for arms a and b. */
-  error: (a: number, b: number) => number;
+  idealB?: (a: number) => number;
+  /** Signed error of the realised quantity for arms a and b. */
+  error?: (a: number, b: number) => number;
   /** Preferred value of the first arm, for ranking among near-equal errors. */
   preferredA: number;
   /** Errors below this count as equal (resolution that matters, e.g. tolerance / 20). */
@@ -111,12 +118,16 @@ export interface PairProblem {
   /** Optional window on the first arm. */
   aMin?: number;
   aMax?: number;
-  /**
-   * Optional closed form of the same problem, (a + cA)/(b + cB) = k with error m·(ratio/k − 1): the search
-   * then computes both inline instead of calling the two functions (the hot loop of every gain solve).
-   * It must agree with idealB and error.
-   */
-  ratio?: { cA: number; cB: number; k: number; m: number };
+  /** The problem as a ratio form; takes the place of idealB and error. */
+  ratio?: RatioForm;
+}
+
+/** The problem's ideal-partner and error functions, from its ratio form when it has one. */
+export function problemFunctions(prob: PairProblem): { idealB: (a: number) => number; error: (a: number, b: number) => number } {
+  const r = prob.ratio;
+  if (r) return { idealB: (a) => (a + r.cA) / r.k - r.cB, error: (a, b) => r.m * ((a + r.cA) / (b + r.cB) / r.k - 1) };
+  if (!prob.idealB || !prob.error) throw new Error('a pair problem needs a ratio form or both functions');
+  return { idealB: prob.idealB, error: prob.error };
 }
 
 export interface PairCandidate {
@@ -151,6 +162,7 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
   let evaluated = 0;
   const aMin = prob.aMin ?? 0, aMax = prob.aMax ?? Infinity;
   let worstKept = Infinity;
+  const fns = problemFunctions(prob);
   // Only the first arms inside the window: the table is sorted, so find its ends by binary search.
   const iStart = lowerBound(tA.value, aMin);
   const bv = tB.value, bn = tB.size;
@@ -159,7 +171,7 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
     const a = tA.value[i]!;
     if (a > aMax) break;
     const rf = prob.ratio;
-    const bi = rf ? (a + rf.cA) / rf.k - rf.cB : prob.idealB(a);
+    const bi = rf ? (a + rf.cA) / rf.k - rf.cB : fns.idealB(a);
     if (!(bi > 0) || !Number.isFinite(bi)) continue;
     // The ideal partner moves with a, so walk from the last position (binary search on the first use):
     // amortised O(1) per arm when b(a) is monotone, and still exact when it is not.
@@ -171,7 +183,7 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
     for (let j = j0 - 1; j <= j0; j++) {
       if (j < 0 || j >= tB.size) continue;
       evaluated++;
-      const e = rf ? rf.m * ((a + rf.cA) / (bv[j]! + rf.cB) / rf.k - 1) : prob.error(a, bv[j]!);
+      const e = rf ? rf.m * ((a + rf.cA) / (bv[j]! + rf.cB) / rf.k - 1) : fns.error(a, bv[j]!);
       if (!Number.isFinite(e)) continue;
       const ae = Math.abs(e);
       if (ae < bestErr) { bestErr = ae; bestI = i; bestJ = j; }
@@ -186,7 +198,7 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
     }
   }
   const best = bestI >= 0
-    ? { a: armAt(tA, bestI), b: armAt(tB, bestJ), error: prob.error(tA.value[bestI]!, tB.value[bestJ]!), parts: partCount(tA, bestI) + partCount(tB, bestJ), score: NaN }
+    ? { a: armAt(tA, bestI), b: armAt(tB, bestJ), error: fns.error(tA.value[bestI]!, tB.value[bestJ]!), parts: partCount(tA, bestI) + partCount(tB, bestJ), score: NaN }
     : null;
   return { ranked, best, evaluated };
 }
@@ -196,14 +208,15 @@ export function searchPairsExhaustive(tA: ArmTable, tB: ArmTable, prob: PairProb
   let best = Infinity;
   let evaluated = 0;
   const aMin = prob.aMin ?? 0, aMax = prob.aMax ?? Infinity;
+  const fns = problemFunctions(prob);
   for (let i = 0; i < tA.size; i++) {
     const a = tA.value[i]!;
     if (a < aMin || a > aMax) continue;
-    const bi = prob.idealB(a);
+    const bi = fns.idealB(a);
     if (!(bi > 0) || !Number.isFinite(bi)) continue;
     for (let j = 0; j < tB.size; j++) {
       evaluated++;
-      const e = Math.abs(prob.error(a, tB.value[j]!));
+      const e = Math.abs(fns.error(a, tB.value[j]!));
       if (e < best) best = e;
     }
   }

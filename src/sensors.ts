@@ -69,9 +69,7 @@ export function sensorFrontAtRail(spec: SensorSpec, design: Pick<Design, 'target
 export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 'supply'>): SensorFront {
   const range = design.target.range;
   const peak = design.target.signal === 'ac-rms' ? Math.SQRT2 : 1;
-  const sensorRail = design.supply.sensorRail === 'regulated' && design.supply.regulated
-    ? design.supply.regulated.voltage
-    : design.supply.positive;
+  const sensorRail = sensorRailVoltage(design);
   const base = {
     measurand: spec.measurand,
     sourceResistance: spec.sourceResistance,

@@ -12,7 +12,7 @@ import type { Design, Topology } from './design.js';
 import { TRIMMER_VALUES, usualTolerance, significantFigures, type SeriesName } from './eseries.js';
 import { armAt, armTable, lowerBound, searchPairs, type Arm, type PairCandidate, type PairResult } from './search.js';
 import type { SensorFront } from './sensors.js';
-import { referenceRails, type IdealStage } from './topology.js';
+import { referenceFor, referenceRails, type IdealStage } from './topology.js';
 import { formatEng, rkmCode } from './units.js';
 import type { Warning } from './warnings.js';
 
@@ -174,9 +174,9 @@ function nearestArm(table: ReturnType<typeof armTable>, ohms: number, min: numbe
  * Solves the reference divider for an open-circuit voltage `vref` and a Thevenin near `rthTarget`.
  *
  * With a zero trimmer: the potentiometer's travel is placed across [r − h, r + h] of the rail span (h the
- * coverage it needs, clipped at the rails), fixed single parts above and below it, and the wiper setting is
- * solved so that the divider gives `vref` exactly; the parts list says where to set it. Without one: two
- * fixed arms, found by the exact pair search.
+ * coverage it needs, clipped at the rails), fixed parts above and below it, and the wiper setting is solved
+ * so that the divider gives `vref` exactly; the parts list says where to set it. Without one: two fixed
+ * arms from the pair search.
  */
 export function solveDivider(design: Design, vref: number, rthTarget: number, zeroNeedAtRef: number, refGain: number): DividerSolve {
   const [lo, hi] = referenceRails(design);
@@ -197,14 +197,12 @@ export function solveDivider(design: Design, vref: number, rthTarget: number, ze
     const table = armTable(series, resistanceMin, resistanceMax, arrangements);
     const prefTop = Math.max(sigma * (1 - r), resistanceMin);
     const res: PairResult = searchPairs(table, table, {
-      idealB: (a) => (r * a) / (1 - r),
-      error: (a, b) => (b / (a + b) - r) * vspan * refGain, // volts at the output
       preferredA: prefTop,
       floor: Math.max(vspan * refGain * tolerance / 50, 1e-6),
       aMin: prefTop / 2,
       aMax: prefTop * 2,
-      // The same problem as a ratio, top/bottom = (1−r)/r; to first order in the ratio error ε its error is
-      // −V_span·G_ref·r(1−r)·ε volts (the divider's voltage is then computed exactly from its parts).
+      // top/bottom = (1−r)/r, ranked on the zero error it makes at the output, to first order in the ratio
+      // error ε: −V_span·G_ref·r(1−r)·ε volts (the divider's voltage is then computed exactly from its parts).
       ratio: { cA: 0, cB: 0, k: (1 - r) / r, m: -vspan * refGain * r * (1 - r) },
     }, 1);
     if (!res.ranked.length) {
@@ -300,24 +298,27 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   // say so when that falls short, rather than build a network that is mostly trimmer.
   const trimCap = TRIMMER_VALUES.filter((v) => v <= rfPref).pop() ?? TRIMMER_VALUES[0]!;
   if (target.trim.gain) gainTrimOhms = Math.min(standardTrimmer((COVERAGE * sStack * rfPref) / (rfSens * usable)), trimCap);
+  /** The scale a rheostat of `trimOhms` in series with a fixed arm `a` is sure to move either way (fraction). */
+  const gainHalfSpan = (trimOhms: number, a: number) => ((usable * trimOhms) / (a + trimOhms / 2)) * rfSens;
   // Calibration moves the span trim only as far as the scale is actually off (at most the stack), and the
   // zero moves with it in proportion.
   const zNeed = zeroStack(design, front, ideal, target.trim.gain ? sStack : 0);
 
   const legPref = ideal.topology === 'non-inverting' ? rfPref / (g - 1) : rfPref / g;
   // The divider's Thevenin is half the ground leg: its current stays small, and the gain trim absorbs its tolerance.
-  let rthTarget = ideal.topology === 'non-inverting' ? legPref * 0.5 : par(legPref, rfPref);
+  const rthTarget = ideal.topology === 'non-inverting' ? legPref * 0.5 : par(legPref, rfPref);
   const rs = ideal.topology === 'inverting' ? front.sourceResistance : 0;
 
   /** Divider, then the gain network around its Thevenin, re-aimed once or twice at the real gain. */
   const solveWith = (trimOhms: number) => {
     let vref = ideal.reference;
-    let div = solveDivider(design, vref, rthTarget, zNeed / refGain, refGain);
+    let rthGoal = rthTarget;
+    let div = solveDivider(design, vref, rthGoal, zNeed / refGain, refGain);
     // A divider whose Thevenin would fill the whole ground leg (a large zero trimmer makes it grow) leaves no
     // room for Rg: scale it down until it fits.
     for (let k = 0; k < 6 && ideal.topology === 'non-inverting' && div.ref.kind === 'divider' && div.ref.thevenin > 0.8 * legPref; k++) {
-      rthTarget *= 0.5;
-      div = solveDivider(design, vref, rthTarget, zNeed / refGain, refGain);
+      rthGoal *= 0.5;
+      div = solveDivider(design, vref, rthGoal, zNeed / refGain, refGain);
     }
     let gainRes: PairResult | null = null;
     let chosen = 0;
@@ -326,7 +327,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     const search = (rth: number): PairResult => {
       const half = trimOhms / 2;
       const aPref = Math.max(rfPref - half, target.resistanceMin);
-      // Keep the feedback arm small enough for the trimmer to cover the stack: usable·R_trim/(a + half)·leverage.
+      // Keep the feedback arm small enough for the trimmer to cover the stack (gainHalfSpan solved for a).
       // If that window cannot land the gain within a tenth of the tolerance, search the whole window instead.
       const aCover = trimOhms ? (usable * trimOhms * rfSens) / (COVERAGE * sStack) - half : Infinity;
       if (aCover > aPref / 2.5 && aCover < aPref * 2.5) {
@@ -336,24 +337,24 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
       return searchWindow(rth, half, aPref, aPref * 2.5);
     };
     const searchWindow = (rth: number, half: number, aPref: number, aMax: number): PairResult => {
-      return searchPairs(table, table, ideal.topology === 'non-inverting'
-        // Non-inverting: G = 1 + (a + half)/(b + rth), so error = (G−1)/G · (ratio/(G−1) − 1).
-        ? { idealB: (a) => (a + half) / (g - 1) - rth, error: (a, b) => (1 + (a + half) / (b + rth)) / g - 1, preferredA: aPref, floor, aMin: aPref / 2.5, aMax, ratio: { cA: half, cB: rth, k: g - 1, m: (g - 1) / g } }
-        : { idealB: (a) => (a + half) / g - rs, error: (a, b) => (a + half) / (b + rs) / g - 1, preferredA: aPref, floor, aMin: aPref / 2.5, aMax, ratio: { cA: half, cB: rs, k: g, m: 1 } }, 10);
+      // Non-inverting: G = 1 + (a + half)/(b + rth), so the gain error is (G−1)/G · (ratio/(G−1) − 1);
+      // inverting: G = (a + half)/(b + Rs).
+      const ratio = ideal.topology === 'non-inverting' ? { cA: half, cB: rth, k: g - 1, m: (g - 1) / g } : { cA: half, cB: rs, k: g, m: 1 };
+      return searchPairs(table, table, { preferredA: aPref, floor, aMin: aPref / 2.5, aMax, ratio }, 10);
     };
     // Gain network around the divider's Thevenin; the reference re-aimed at the real gain; repeated while the
     // re-aimed divider's Thevenin moves by more than 1e-4 of the leg (which would move the gain as much).
+    // The alternative the design asks for, or the last one when there are fewer.
+    const take = (res: PairResult): PairCandidate => { chosen = Math.min(target.alternative, res.ranked.length - 1); return res.ranked[chosen]!; };
     let rthUsed = rthOf(div);
     for (let iter = 0; iter < 4; iter++) {
       gainRes = search(rthUsed);
       if (!gainRes.ranked.length) break;
-      chosen = Math.min(target.alternative, gainRes.ranked.length - 1);
-      pick = gainRes.ranked[chosen]!;
-      const gReal = g * (1 + pick.error);
-      const vrefNew = ideal.topology === 'non-inverting' ? (gReal * front.quiescent - ideal.pinZero) / (gReal - 1) : (ideal.pinZero + gReal * front.quiescent) / (1 + gReal);
+      pick = take(gainRes);
+      const vrefNew = referenceFor(ideal.topology, g * (1 + pick.error), front.quiescent, ideal.pinZero);
       if (Math.abs(vrefNew - vref) < 1e-7 * (railHi - railLo)) break;
       vref = vrefNew;
-      div = solveDivider(design, vref, rthTarget, zNeed / refGain, refGain);
+      div = solveDivider(design, vref, rthGoal, zNeed / refGain, refGain);
       const rthNew = rthOf(div);
       if (Math.abs(rthNew - rthUsed) < 1e-4 * legPref) break;
       rthUsed = rthNew;
@@ -361,7 +362,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     // The pick must belong to the divider built: if the loop ended on a moved Thevenin, search once more.
     if (pick && Math.abs(rthOf(div) - rthUsed) >= 1e-4 * legPref) {
       gainRes = search(rthOf(div));
-      if (gainRes.ranked.length) { chosen = Math.min(target.alternative, gainRes.ranked.length - 1); pick = gainRes.ranked[chosen]!; }
+      if (gainRes.ranked.length) pick = take(gainRes);
     }
     return { div, gainRes, chosen, pick };
   };
@@ -370,8 +371,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   // The feedback arm found may sit away from the preferred value: if the trimmer then falls short, take the
   // next standard value (at most twice).
   for (let attempt = 0; attempt < 2 && gainTrimOhms && sol.pick; attempt++) {
-    const rfTot = sol.pick.a.ohms + gainTrimOhms / 2;
-    if ((usable * gainTrimOhms / rfTot) * rfSens >= COVERAGE * sStack * 0.999) break;
+    if (gainHalfSpan(gainTrimOhms, sol.pick.a.ohms) >= COVERAGE * sStack * 0.999) break;
     const bigger = TRIMMER_VALUES.find((v) => v > gainTrimOhms);
     if (!bigger || bigger > trimCap) break;
     gainTrimOhms = bigger;
@@ -388,7 +388,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   if (gainTrimOhms) {
     const rfTot = pick.a.ohms + gainTrimOhms / 2;
     // The half-span it guarantees, its own tolerance included.
-    const halfSpan = (usable * gainTrimOhms / rfTot) * rfSens;
+    const halfSpan = gainHalfSpan(gainTrimOhms, pick.a.ohms);
     gainTrim = { ohms: gainTrimOhms, setting: 0.5, need: sStack, halfSpan, step: (gainTrimOhms / rfTot) * rfSens * SETTABILITY };
     if (halfSpan < COVERAGE * sStack * 0.999) {
       const why = ideal.topology === 'non-inverting' && g < 1.5 ? ` Near unity gain the span trim has little leverage ((G−1)/G = ${rfSens.toFixed(2)}): pick a sensor setup with less spread, or more gain and a smaller sensitivity (fewer turns, a longer gap).` : '';

@@ -9,7 +9,6 @@
  */
 import { BOLTZMANN } from './constants.js';
 import type { Report } from './report.js';
-import { solveDc } from './mna.js';
 
 const fmt = (x: number) => (Number.isFinite(x) ? Number(x.toPrecision(9)).toString() : '0');
 const node = (names: string[], i: number) => (i === 0 ? '0' : names[i]!.replace(/[^A-Za-z0-9_]/g, '_'));
@@ -140,9 +139,8 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
 /** `.nodeset` of every node at zero measurand, from the report's own DC solution. */
 function nodesetLine(r: Report): string | null {
   const sc = r.circuit!;
-  const sol = solveDc(sc.circuit, [(e) => e.dc0 ?? 0], !r.front.passesDc);
-  if (!sol) return null;
-  const col = sol.columns[0]!;
+  if (!r.dc) return null;
+  const col = r.dc.c0;
   const names = sc.circuit.nodeNames;
   const parts: string[] = [];
   for (let i = 1; i < names.length; i++) parts.push(`V(${node(names, i)})=${fmt(col[i - 1]!)}`);

@@ -18,7 +18,5 @@ export function sensorTemplate(design: Design, type: SensorType): Record<string,
     : structuredClone(demo.sensor);
   const target = { ...design.target };
   if (type === 'current-transformer') target.signal = 'ac-rms';
-  const supply = { ...design.supply };
-  if (supply.sensorRail === 'regulated' && !supply.regulated) supply.sensorRail = 'positive';
-  return { ...design, sensor, target, supply } as unknown as Record<string, unknown>;
+  return { ...design, sensor, target } as unknown as Record<string, unknown>;
 }

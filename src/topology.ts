@@ -41,6 +41,14 @@ export function invertingOutput(gain: number, vs: number, vp: number): number {
   return (1 + gain) * vp - gain * vs;
 }
 
+/**
+ * The reference that puts the zero where wanted, from the two closed forms above solved for it:
+ * non-inverting Vref = (G·Vq − zero)/(G − 1), inverting Vp = (zero + G·Vq)/(1 + G).
+ */
+export function referenceFor(topology: Topology, gain: number, quiescent: number, zero: number): number {
+  return topology === 'non-inverting' ? (gain * quiescent - zero) / (gain - 1) : (zero + gain * quiescent) / (1 + gain);
+}
+
 /** The part of the op-amp output voltage that reaches the load through an output series resistor. */
 export function loadFactor(design: Pick<Design, 'output'>): number {
   const rl = design.output.load.resistance;
@@ -99,7 +107,7 @@ export function idealStage(topology: Topology, design: Design, front: SensorFron
         reasons.push(`a unity-gain buffer keeps the sensor's ${vq} V zero and cannot move it to ${pinZero.toPrecision(4)} V`);
       }
     } else {
-      reference = (g * vq - pinZero) / (g - 1);
+      reference = referenceFor('non-inverting', g, vq, pinZero);
       if (reference < railLo - 1e-9 || reference > railHi + 1e-9) {
         feasible = false;
         reasons.push(`the reference would have to be ${reference.toPrecision(3)} V, outside the ${railLo}…${railHi} V it can be taken from`);
@@ -119,7 +127,7 @@ export function idealStage(topology: Topology, design: Design, front: SensorFron
     return { topology, gain: g, noiseGain: g, reference, needsReference: !unity, pinScale, pinZero, deliveredScale: delivered, feasible, reasons };
   }
   const g = -pinScale / sens;
-  const vp = (pinZero + g * vq) / (1 + g);
+  const vp = referenceFor('inverting', g, vq, pinZero);
   let feasible = true;
   if (vp < railLo - 1e-9 || vp > railHi + 1e-9) {
     feasible = false;
