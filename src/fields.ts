@@ -203,7 +203,9 @@ export function parseField(f: FieldDef, text: string, design?: Design): ParseRes
   let dim = f.dimension;
   // Sensitivity and scale are per measurand unit; for a measurand other than amperes take plain V per unit.
   if ((dim === 'V/A') && design && design.sensor.measurand !== 'A') {
-    const m = /^\s*([-+]?[\d.eE+-]+)\s*(m|µ|u)?V\s*\/\s*\S+\s*$/.exec(text);
+    // The unit after the slash must be the measurand itself: "25 mV/A" is not a reading for a mT sensor.
+    const unit = design.sensor.measurand.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+    const m = new RegExp(`^\\s*([-+]?[\\d.eE+-]+)\\s*(m|µ|u)?V\\s*\\/\\s*${unit}\\s*$`).exec(text);
     if (m) {
       const k = m[2] === 'm' ? 1e-3 : m[2] ? 1e-6 : 1;
       return Number.isFinite(Number(m[1])) ? { ok: true, value: Number(m[1]) * k } : { ok: false, message: `cannot read "${text}"` };

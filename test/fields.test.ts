@@ -60,3 +60,11 @@ describe('per-measurand units', () => {
     expect(parseField(f('target.scale'), text, d)).toEqual({ ok: true, value: 0.025 });
   });
 });
+
+describe('per-measurand units are checked', () => {
+  it('a scale typed per another unit than the measurand is refused, not silently taken', () => {
+    const d = setPath(demoDesign('generic-sensor'), 'sensor.measurand', 'mT');
+    expect(parseField(f('target.scale'), '25 mV/mT', d)).toEqual({ ok: true, value: 0.025 });
+    expect(parseField(f('target.scale'), '25 mV/A', d).ok).toBe(false);
+  });
+});
