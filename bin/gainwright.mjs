@@ -4,7 +4,7 @@
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 
-const entry = new URL('../build/cli.js', import.meta.url);
+const entry = new URL('../build/cli/cli.js', import.meta.url);
 if (!existsSync(fileURLToPath(entry))) {
   process.stderr.write('gainwright: the CLI is not built yet; run `npm run build:cli` (npm install does it for you).\n');
   process.exit(2);

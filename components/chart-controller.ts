@@ -3,7 +3,7 @@ import {
   Chart, LineController, LineElement, PointElement, BarController, BarElement, LinearScale, LogarithmicScale,
   Legend, Title, Tooltip, type ChartConfiguration,
 } from 'chart.js';
-import type { ChartData, Series } from '../src/charts.js';
+import type { ChartData, Series } from '../src/index.js';
 
 // Only what the five plots use, so the rest of Chart.js is left out of the bundle.
 Chart.register(LineController, LineElement, PointElement, BarController, BarElement, LinearScale, LogarithmicScale, Legend, Title, Tooltip);

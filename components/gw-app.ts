@@ -1,17 +1,17 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, state, query } from 'lit/decorators.js';
-import { validateDesign, parseDesignText, formatProblems, MAX_DESIGN_BYTES, type Design, type Problem } from '../src/design.js';
-import { analyse, SAFETY_CAUTIONS, type Report } from '../src/report.js';
-import { DEMOS, demoDesign } from '../src/demos.js';
-import { FIELDS, GROUP_DEFAULTS, parseField, setPath } from '../src/fields.js';
-import { archetype } from '../src/opamps.js';
-import { allCharts, type ChartData } from '../src/charts.js';
-import { schematic, type Schematic } from '../src/schematic.js';
-import { bomCsv, bomRows, type BomRow } from '../src/bom.js';
-import { keyFigures, type FigureRow } from '../src/figures.js';
-import { AUTOSAVE_KEY, autosaveEntry, designFromFragment, fileName, restoreAutosave, serialiseDesign, shareFragment } from '../src/persist.js';
-import { sensorTemplate } from '../src/templates.js';
-import type { SensorType } from '../src/design.js';
+import { validateDesign, parseDesignText, formatProblems, MAX_DESIGN_BYTES, type Design, type Problem } from '../src/index.js';
+import { analyse, SAFETY_CAUTIONS, type Report } from '../src/index.js';
+import { DEMOS, demoDesign } from '../src/index.js';
+import { FIELDS, GROUP_DEFAULTS, parseField, setPath } from '../src/index.js';
+import { archetype } from '../src/index.js';
+import { allCharts, type ChartData } from '../src/index.js';
+import { schematic, type Schematic } from '../src/index.js';
+import { bomCsv, bomRows, type BomRow } from '../src/index.js';
+import { keyFigures, type FigureRow } from '../src/index.js';
+import { AUTOSAVE_KEY, autosaveEntry, designFromFragment, fileName, restoreAutosave, serialiseDesign, shareFragment } from '../src/index.js';
+import { sensorTemplate } from '../src/index.js';
+import type { SensorType } from '../src/index.js';
 import { base } from './styles.js';
 import type { FieldInputDetail } from './gw-field.js';
 import type { SetDetail } from './gw-editor.js';
@@ -24,7 +24,7 @@ import './gw-figures.js';
 
 /** The unit engine (mathjs units) loads after the first render so that it does not delay it. */
 let unitsLoading: Promise<unknown> | null = null;
-const loadUnits = () => (unitsLoading ??= import('../src/units-mathjs.js'));
+const loadUnits = () => (unitsLoading ??= import('../src/model/units-mathjs.js'));
 
 /** Monte Carlo trials run on each edit: enough for a stable histogram, quick enough to keep typing smooth. */
 const EDIT_TRIALS = 400;

@@ -1,10 +1,10 @@
 import { LitElement, html, css } from 'lit';
 import { customElement, property, query } from 'lit/decorators.js';
-import type { ChartData } from '../src/charts.js';
+import type { ChartData } from '../src/index.js';
 import { ChartController } from './chart-controller.js';
 
 /**
- * One plot. The data come ready-made from the core (src/charts.ts); this element only draws them.
+ * One plot. The data come ready-made from the core (src/present/charts.ts); this element only draws them.
  * @cssproperty --gw-chart-height - plot height (default 260px).
  */
 @customElement('gw-chart')

@@ -1,8 +1,8 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import type { Design } from '../src/design.js';
-import { displayValue, fieldsFor, getPath, SENSOR_TYPES, type FieldDef, type Section } from '../src/fields.js';
-import { OPAMP_ARCHETYPES } from '../src/opamps.js';
+import type { Design } from '../src/index.js';
+import { displayValue, fieldsFor, getPath, SENSOR_TYPES, type FieldDef, type Section } from '../src/index.js';
+import { OPAMP_ARCHETYPES } from '../src/index.js';
 import { base } from './styles.js';
 import './gw-field.js';
 

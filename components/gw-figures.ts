@@ -1,6 +1,6 @@
 import { LitElement, html, css } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import type { FigureRow } from '../src/figures.js';
+import type { FigureRow } from '../src/index.js';
 import { base } from './styles.js';
 
 /** A table of labelled figures, already written as text by the app from the report. */

@@ -1,8 +1,8 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import type { BomRow } from '../src/bom.js';
-import type { PairCandidate } from '../src/search.js';
-import { formatEng } from '../src/units.js';
+import type { BomRow } from '../src/index.js';
+import type { PairCandidate } from '../src/index.js';
+import { formatEng } from '../src/index.js';
 import { base } from './styles.js';
 
 /**
@@ -16,7 +16,7 @@ export class GwParts extends LitElement {
     .alts label { display: block; padding: 0.15rem 0; font-size: 0.88rem; }
   `];
 
-  /** Parts list rows (from src/bom.ts). */
+  /** Parts list rows (from src/present/bom.ts). */
   @property({ attribute: false }) rows: BomRow[] = [];
   /** Ranked gain-network alternatives. */
   @property({ attribute: false }) alternatives: PairCandidate[] = [];

@@ -1,6 +1,6 @@
 import { LitElement, css, svg, html, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import type { Prim, Schematic } from '../src/schematic.js';
+import type { Prim, Schematic } from '../src/index.js';
 
 /** Draws the stage's schematic primitives as SVG; text goes in as text nodes, never as markup. */
 @customElement('gw-schematic')
@@ -15,7 +15,7 @@ export class GwSchematic extends LitElement {
     .lbl { fill: #566072; }
   `;
 
-  /** The drawing, from src/schematic.ts. */
+  /** The drawing, from src/present/schematic.ts. */
   @property({ attribute: false }) drawing: Schematic | null = null;
 
   private _prim(p: Prim) {

@@ -1,6 +1,6 @@
 import { LitElement, html, css } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import type { Verdict } from '../src/report.js';
+import type { Verdict } from '../src/index.js';
 import { base } from './styles.js';
 
 const WORD = { pass: 'Pass', caution: 'Caution', fail: 'Fail' } as const;

@@ -10,16 +10,16 @@ import { gzipSync } from 'node:zlib';
 
 const root = new URL('..', import.meta.url).pathname;
 const b = (p) => import(join(root, 'build', p));
-const { armTable, searchPairs, searchPairsExhaustive } = await b('search.js');
-const { mulberry32 } = await b('random.js');
-const { demoDesign, DEMOS } = await b('demos.js');
-const { analyse } = await b('report.js');
-const A = await b('analysis.js');
-const { sensorFront } = await b('sensors.js');
-const { chooseTopology } = await b('topology.js');
-const { solveStage } = await b('solver.js');
-const { buildCircuit } = await b('circuit.js');
-const { stamp, luFactor, luSolve, workspace } = await b('mna.js');
+const { armTable, searchPairs, searchPairsExhaustive } = await b('solve/search.js');
+const { mulberry32 } = await b('model/random.js');
+const { demoDesign, DEMOS } = await b('model/demos.js');
+const { analyse } = await b('analysis/report.js');
+const A = await b('analysis/analysis.js');
+const { sensorFront } = await b('physics/sensors.js');
+const { chooseTopology } = await b('physics/topology.js');
+const { solveStage } = await b('solve/solver.js');
+const { buildCircuit } = await b('circuit/build.js');
+const { stamp, luFactor, luSolve, workspace } = await b('circuit/mna.js');
 
 const median = (xs) => { const s = [...xs].sort((a, b) => a - b); return s[s.length >> 1]; };
 const ms = (x) => `${x.toFixed(x < 1 ? 3 : 1)} ms`;

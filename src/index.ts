@@ -2,25 +2,36 @@
  * Gainwright's calculation core: the one public entry. Pure TypeScript, no DOM; SI units throughout.
  * Import `./units-mathjs.js` once as well to read unit expressions beyond the common forms.
  */
-export { validateDesign, parseDesignText, serialiseDesign, formatProblems, migrate, DESIGN_FORMAT, DESIGN_VERSION, MAX_DESIGN_BYTES } from './design.js';
-export type { Design, SensorSpec, SensorType, Supply, OpAmpSpec, Target, Output, Environment, AnalysisOptions, Topology, TopologyChoice, Arrangement, Problem } from './design.js';
-export { analyse, reportJson, verdictsOf, SAFETY_CAUTIONS } from './report.js';
-export type { Report, Verdict, AnalyseOptions } from './report.js';
-export { textReport } from './text-report.js';
-export { spiceNetlist } from './spice.js';
-export { bomRows, bomCsv, powerRating } from './bom.js';
-export { calibrationSteps } from './calibration.js';
-export { allCharts } from './charts.js';
-export { schematic } from './schematic.js';
-export { keyFigures } from './figures.js';
-export { parseQuantity, formatEng, rkmCode, parseRkm, colourBands, toleranceLetter, setUnitEngine, unitEngineReady } from './units.js';
-export { nearest, neighbours, isMember, usualTolerance, valuesInRange, mantissas, SERIES_NAMES, TRIMMER_VALUES } from './eseries.js';
-export type { SeriesName } from './eseries.js';
-export { sensorFront, sensorFrontAtRail, gapFieldPerAmp } from './sensors.js';
-export { chooseTopology, idealStage, nonInvertingOutput, invertingOutput } from './topology.js';
-export { solveStage, standardTrimmer } from './solver.js';
-export { armTable, searchPairs, searchPairsExhaustive } from './search.js';
-export { thermalNoise, enbwSinglePole, nonInvertingNoise, peakToPeak } from './noise.js';
-export { DEMOS, demoDesign } from './demos.js';
-export { OPAMP_ARCHETYPES, archetype } from './opamps.js';
-export { BOLTZMANN, ELEMENTARY_CHARGE, MU0 } from './constants.js';
+export { validateDesign, parseDesignText, serialiseDesign, formatProblems, migrate, DESIGN_FORMAT, DESIGN_VERSION, MAX_DESIGN_BYTES } from './model/design.js';
+export type { Design, SensorSpec, SensorType, Supply, OpAmpSpec, Target, Output, Environment, AnalysisOptions, Topology, TopologyChoice, Arrangement, Problem } from './model/design.js';
+export { analyse, reportJson, verdictsOf, SAFETY_CAUTIONS } from './analysis/report.js';
+export type { Report, Verdict, AnalyseOptions } from './analysis/report.js';
+export { textReport } from './present/text-report.js';
+export { spiceNetlist } from './present/spice.js';
+export { bomRows, bomCsv, powerRating } from './present/bom.js';
+export { calibrationSteps } from './present/calibration.js';
+export { allCharts } from './present/charts.js';
+export { schematic } from './present/schematic.js';
+export { keyFigures } from './present/figures.js';
+export { parseQuantity, formatEng, rkmCode, parseRkm, colourBands, toleranceLetter, setUnitEngine, unitEngineReady } from './model/units.js';
+export { nearest, neighbours, isMember, usualTolerance, valuesInRange, mantissas, SERIES_NAMES, TRIMMER_VALUES } from './model/eseries.js';
+export type { SeriesName } from './model/eseries.js';
+export { sensorFront, sensorFrontAtRail, gapFieldPerAmp } from './physics/sensors.js';
+export { chooseTopology, idealStage, nonInvertingOutput, invertingOutput } from './physics/topology.js';
+export { solveStage, standardTrimmer } from './solve/solver.js';
+export { armTable, searchPairs, searchPairsExhaustive } from './solve/search.js';
+export { thermalNoise, enbwSinglePole, nonInvertingNoise, peakToPeak } from './physics/noise.js';
+export { DEMOS, demoDesign } from './model/demos.js';
+export { OPAMP_ARCHETYPES, archetype } from './model/opamps.js';
+export { BOLTZMANN, ELEMENTARY_CHARGE, MU0 } from './model/constants.js';
+
+// What the app's elements use besides the above (they import the core only through this file).
+export type { BomRow } from './present/bom.js';
+export type { PairCandidate } from './solve/search.js';
+export type { Prim, Schematic } from './present/schematic.js';
+export type { ChartData, Series } from './present/charts.js';
+export type { FigureRow } from './present/figures.js';
+export { FIELDS, GROUP_DEFAULTS, parseField, setPath, displayValue, fieldsFor, getPath, SENSOR_TYPES } from './present/fields.js';
+export type { FieldDef, Section } from './present/fields.js';
+export { AUTOSAVE_KEY, autosaveEntry, designFromFragment, fileName, restoreAutosave, shareFragment } from './model/persist.js';
+export { sensorTemplate } from './model/templates.js';

@@ -1,6 +1,6 @@
 /** Shared test helpers: demo designs (scenarios of our own) with a patch applied, validated. */
-import { validateDesign, type Design } from '../src/design.js';
-import { DEMOS } from '../src/demos.js';
+import { validateDesign, type Design } from '../src/model/design.js';
+import { DEMOS } from '../src/model/demos.js';
 
 /** The demo `id` with `patch` applied to a copy of its document, validated (throws on a broken patch). */
 export function designFrom(id: string, patch: (d: any) => void = () => {}): Design {

@@ -1,7 +1,7 @@
 /** Designs for the simulator cross-check: scenarios of our own invention, patched from the demos. */
-import { validateDesign, type Design } from '../../src/design.js';
-import { DEMOS } from '../../src/demos.js';
-import { OPAMP_ARCHETYPES } from '../../src/opamps.js';
+import { validateDesign, type Design } from '../../src/model/design.js';
+import { DEMOS } from '../../src/model/demos.js';
+import { OPAMP_ARCHETYPES } from '../../src/model/opamps.js';
 
 const arche = (id: string) => ({ ...OPAMP_ARCHETYPES.find((a) => a.id === id)!.spec });
 

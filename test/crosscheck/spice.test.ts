@@ -9,9 +9,9 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, writeFileSync, existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { analyse, type Report } from '../../src/report.js';
-import { spiceNetlist } from '../../src/spice.js';
-import { transferAt } from '../../src/analysis.js';
+import { analyse, type Report } from '../../src/analysis/report.js';
+import { spiceNetlist } from '../../src/present/spice.js';
+import { transferAt } from '../../src/analysis/analysis.js';
 import { CROSSCHECK_DESIGNS } from './designs.js';
 
 const hasNgspice = spawnSync('sh', ['-c', 'command -v ngspice'], { stdio: 'ignore' }).status === 0;

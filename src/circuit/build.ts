@@ -1,0 +1,196 @@
+/**
+ * Builds the designed stage as a circuit: the sensor as a source with its resistance (and bandwidth), the
+ * gain and reference networks part by part (trimmers as two halves at their setting), the op-amp
+ * macromodel (input offset and noise source, finite open-loop gain with one dominant pole at GBW/A_ol,
+ * output resistance), the optional output RC, and the instrument's input as the load.
+ */
+import type { Design } from '../model/design.js';
+import { compile, type Circuit, type Element } from './mna.js';
+import type { SensorFront } from '../physics/sensors.js';
+import type { Arm } from '../solve/search.js';
+import type { Part, SolvedStage } from '../solve/solver.js';
+
+export interface StageCircuit {
+  circuit: Circuit;
+  /** Node indices of interest. */
+  nodes: { sensor: number; inP: number; inN: number; internal: number; pin: number; out: number; ref: number; source: number };
+  /** Element index of the op-amp's gain block (its branch current is the output current, negated). */
+  opampIndex: number;
+  /** Element index of the sensor's signal source. */
+  signalIndex: number;
+  /** Rails as element indices, for battery sweeps. */
+  rails: { positive: number; negative: number; regulated: number };
+}
+
+export interface CircuitOptions {
+  /** Override the positive rail (battery sweep), V. */
+  positive?: number;
+  /** Resistor values by element name, for Monte Carlo and sensitivity runs. */
+  scale?: Record<string, number>;
+  /** Sensor front to use (ratiometric sensors at another supply). */
+  front?: SensorFront;
+}
+
+/** Small node-name registry with wires merging nodes (union-find). */
+class NodeMap {
+  private parent = new Map<string, string>();
+  find(n: string): string {
+    let p = this.parent.get(n) ?? n;
+    if (p !== n) { p = this.find(p); this.parent.set(n, p); }
+    return p;
+  }
+  wire(a: string, b: string): void {
+    const ra = this.find(a), rb = this.find(b);
+    if (ra === rb) return;
+    // Ground always wins so that node 0 stays ground.
+    if (rb === '0') this.parent.set(ra, rb); else this.parent.set(rb, ra);
+  }
+}
+
+export function buildCircuit(design: Design, stage: SolvedStage, front: SensorFront, opts: CircuitOptions = {}): StageCircuit {
+  const f = opts.front ?? front;
+  const nm = new NodeMap();
+  const pending: Array<Omit<Element, 'a' | 'b'> & { na: string; nb: string; cpn?: string; cnn?: string }> = [];
+  const el = (e: Omit<Element, 'a' | 'b'> & { na: string; nb: string; cpn?: string; cnn?: string }) => pending.push(e);
+  const scaleOf = (name: string) => opts.scale?.[name] ?? 1;
+  const R = (name: string, na: string, nb: string, ohms: number, noisy = true) => {
+    if (ohms === 0) { nm.wire(na, nb); return; }
+    el({ kind: 'R', name, na, nb, value: ohms * scaleOf(name), noisy });
+  };
+
+  const positive = opts.positive ?? design.supply.positive;
+  const negative = design.supply.negative;
+  el({ kind: 'V', name: 'VPOS', na: 'vpos', nb: '0', value: 0, dc0: positive, dc1: 0, ac: 0 });
+  if (negative !== 0) el({ kind: 'V', name: 'VNEG', na: 'vneg', nb: '0', value: 0, dc0: negative, dc1: 0, ac: 0 });
+  else nm.wire('vneg', '0');
+  const reg = design.supply.regulated;
+  if (reg) el({ kind: 'V', name: 'VREG', na: 'vreg', nb: 'vneg', value: 0, dc0: reg.voltage, dc1: 0, ac: 0 });
+
+  // Sensor.
+  const spec = design.sensor;
+  if (spec.type === 'current-transformer') {
+    el({ kind: 'V', name: 'VQ', na: 'sq', nb: '0', value: 0, dc0: f.quiescent, dc1: 0, ac: 0 });
+    const ratio = spec.primaryTurns / spec.secondaryTurns;
+    el({ kind: 'I', name: 'ISIG', na: 'sq', nb: 'sm', value: 0, dc0: 0, dc1: ratio, ac: ratio });
+    el({ kind: 'L', name: 'LM', na: 'sm', nb: 'sq', value: spec.inductanceFactor * spec.secondaryTurns ** 2 });
+    R('RW', 'sm', 'sens', spec.windingResistance);
+    R('RB', 'sens', 'sq', spec.burden);
+  } else if (spec.type === 'shunt') {
+    el({ kind: 'I', name: 'ISIG', na: '0', nb: 'sens', value: 0, dc0: 0, dc1: 1, ac: 1 });
+    R('RSH', 'sens', '0', spec.resistance);
+  } else {
+    el({ kind: 'V', name: 'VSIG', na: 'src', nb: '0', value: 0, dc0: f.quiescent, dc1: f.sensitivity, ac: f.sensitivity, noise: f.noiseDensity });
+    let node = 'src';
+    if (f.bandwidth < 1e8) {
+      // Sensor bandwidth as a noiseless RC followed by a unity buffer, so the source resistance stays as given.
+      R('RSP', 'src', 'sp', 1000, false);
+      el({ kind: 'C', name: 'CSP', na: 'sp', nb: '0', value: 1 / (2 * Math.PI * 1000 * f.bandwidth) });
+      el({ kind: 'E', name: 'ESP', na: 'sb', nb: '0', value: 1, cpn: 'sp', cnn: '0' });
+      node = 'sb';
+    }
+    R('RS', node, 'sens', f.sourceResistance, f.sourceNoisy);
+  }
+
+  // Op-amp macromodel: VOS (offset, voltage noise) in series with the + input, bias and current noise at both inputs.
+  const oa = design.opamp;
+  const a0 = 10 ** (oa.openLoopGainDb / 20);
+  el({ kind: 'V', name: 'VOS', na: 'inp', nb: 'inpi', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { vos: oa.offsetVoltage }, noise: oa.voltageNoise });
+  el({ kind: 'I', name: 'IBP', na: 'inpi', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibp: oa.biasCurrent }, noise: oa.currentNoise });
+  el({ kind: 'I', name: 'IBN', na: 'inn', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibn: oa.biasCurrent }, noise: oa.currentNoise });
+  el({ kind: 'E', name: 'EOA', na: 'int', nb: '0', value: a0, pole: oa.gbw / a0, cpn: 'inpi', cnn: 'inn' });
+  R('ROUT', 'int', 'pin', Math.max(oa.outputResistance, 1e-3), false);
+
+  // Networks.
+  const net = stage.network;
+  const parts = stage.parts;
+  const partsFor = (role: Part['role']) => parts.filter((p) => p.role === role);
+  const arm = (a: Arm | null, role: Part['role'], from: string, to: string) => {
+    if (!a) { nm.wire(from, to); return; }
+    const ps = partsFor(role);
+    if (a.arrangement === 'series' && ps.length === 2) {
+      R(ps[0]!.ref, from, `${ps[0]!.ref}_${ps[1]!.ref}`, ps[0]!.ohms);
+      R(ps[1]!.ref, `${ps[0]!.ref}_${ps[1]!.ref}`, to, ps[1]!.ohms);
+    } else {
+      for (const p of ps) R(p.ref, from, to, p.ohms);
+    }
+  };
+  const trimRheostat = (role: Part['role'], from: string, to: string) => {
+    const t = partsFor(role)[0];
+    if (!t) { nm.wire(from, to); return; }
+    const s = t.setting ?? 0.5;
+    R(t.ref, from, to, t.ohms * s);
+  };
+
+  if (net.topology === 'non-inverting') {
+    nm.wire('sens', 'inp');
+    if (!net.feedback && !net.leg && net.reference.kind === 'none') {
+      nm.wire('pin', 'inn');
+    } else {
+      arm(net.feedback, 'feedback', 'pin', 'fbt');
+      trimRheostat('gain-trim', 'fbt', 'inn');
+      arm(net.leg, 'ground-leg', 'inn', 'ref');
+    }
+  } else {
+    arm(net.leg, 'input', 'sens', 'inn');
+    arm(net.feedback, 'feedback', 'pin', 'fbt');
+    trimRheostat('gain-trim', 'fbt', 'inn');
+    nm.wire('inp', 'ref');
+  }
+  const ref = net.reference;
+  const railNode = (v: 'top' | 'bottom') => v === 'bottom' ? 'vneg' : ref.topRail === 'regulated' ? 'vreg' : 'vpos';
+  if (ref.kind === 'rail') {
+    nm.wire('ref', Math.abs(ref.voltage - ref.railBottom) < Math.abs(ref.voltage - ref.railTop) ? railNode('bottom') : railNode('top'));
+  } else if (ref.kind === 'divider') {
+    arm(ref.top, 'reference-top', railNode('top'), 'rpt');
+    const t = partsFor('zero-trim')[0];
+    if (t) {
+      const s = t.setting ?? 0.5;
+      R(`${t.ref}A`, 'rpt', 'ref', t.ohms * (1 - s));
+      R(`${t.ref}B`, 'ref', 'rpb', t.ohms * s);
+    } else {
+      nm.wire('rpt', 'ref'); nm.wire('ref', 'rpb');
+    }
+    arm(ref.bottom, 'reference-bottom', 'rpb', railNode('bottom'));
+  }
+
+  // Output: optional series R and C, then the instrument load.
+  const filt = design.output.filter;
+  if (filt) {
+    const rPart = partsFor('output-series')[0];
+    R(rPart?.ref ?? 'RFIL', 'pin', 'out', filt.resistance);
+    if (filt.capacitance > 0) el({ kind: 'C', name: 'C1', na: 'out', nb: '0', value: filt.capacitance });
+  } else {
+    nm.wire('pin', 'out');
+  }
+  R('RLOAD', 'out', '0', design.output.load.resistance);
+  if (design.output.load.capacitance > 0) el({ kind: 'C', name: 'CLOAD', na: 'out', nb: '0', value: design.output.load.capacitance });
+
+  // Resolve node names to indices.
+  const names = ['0'];
+  const index = new Map<string, number>([['0', 0]]);
+  const idx = (n: string) => {
+    const r = nm.find(n);
+    let i = index.get(r);
+    if (i === undefined) { i = names.length; names.push(r); index.set(r, i); }
+    return i;
+  };
+  const elements: Element[] = pending.map((p) => {
+    const { na, nb, cpn, cnn, ...rest } = p;
+    const e: Element = { ...rest, a: idx(na), b: idx(nb) };
+    if (cpn !== undefined) e.cp = idx(cpn);
+    if (cnn !== undefined) e.cn = idx(cnn);
+    return e;
+  }).filter((e) => !(e.kind === 'R' && e.a === e.b));
+  const circuit = compile(names, elements);
+  const find = (name: string) => elements.findIndex((e) => e.name === name);
+  return {
+    circuit,
+    nodes: {
+      sensor: idx('sens'), inP: idx('inpi'), inN: idx('inn'), internal: idx('int'), pin: idx('pin'), out: idx('out'), ref: idx('ref'),
+      source: idx('src'),
+    },
+    opampIndex: find('EOA'),
+    signalIndex: elements.findIndex((e) => e.name === 'VSIG' || e.name === 'ISIG'),
+    rails: { positive: find('VPOS'), negative: find('VNEG'), regulated: find('VREG') },
+  };
+}

@@ -1,0 +1,54 @@
+/**
+ * Noise of a whole circuit: the output density of every noisy element by one adjoint solve per frequency
+ * (the adjoint network method: one solve gives the transfer from every source to the output; Vlach &
+ * Singhal, Computer Methods for Circuit Analysis and Design, 1983, ch. on sensitivity and noise).
+ */
+import { BOLTZMANN } from '../model/constants.js';
+import { adjointAt, signalTransfer, transferFrom, workspace, type Circuit } from './mna.js';
+
+export interface NoiseSourceShare {
+  name: string;
+  /** Output noise density of this source alone, V/√Hz, at each frequency. */
+  density: Float64Array;
+}
+
+export interface NoiseSpectrum {
+  freqs: Float64Array;
+  /** Total output density, V/√Hz. */
+  total: Float64Array;
+  sources: NoiseSourceShare[];
+  /** The signal transfer (measurand to output) at the same frequencies, from the same adjoint solves. */
+  signalRe: Float64Array;
+  signalIm: Float64Array;
+}
+
+/**
+ * Output noise density at node `out` of every noisy element: resistors (4kT/R as a parallel current),
+ * voltage sources with a density (op-amp e_n, sensor noise) and current sources with a density (op-amp i_n).
+ * Sources are uncorrelated and add in power.
+ */
+export function noiseSpectrum(c: Circuit, out: number, freqs: Float64Array, kelvin: number): NoiseSpectrum {
+  const ws = workspace(c);
+  const noisy: Array<{ i: number; name: string; psd: number }> = [];
+  c.elements.forEach((e, i) => {
+    if (e.kind === 'R' && e.value > 0 && e.noisy !== false) noisy.push({ i, name: e.name, psd: (4 * BOLTZMANN * kelvin) / e.value });
+    else if ((e.kind === 'V' || e.kind === 'I') && e.noise && e.noise > 0) noisy.push({ i, name: e.name, psd: e.noise ** 2 });
+  });
+  const shares = noisy.map((s) => ({ name: s.name, density: new Float64Array(freqs.length) }));
+  const total = new Float64Array(freqs.length);
+  const signalRe = new Float64Array(freqs.length), signalIm = new Float64Array(freqs.length);
+  for (let k = 0; k < freqs.length; k++) {
+    if (!adjointAt(c, 2 * Math.PI * freqs[k]!, out, ws)) continue;
+    [signalRe[k], signalIm[k]] = signalTransfer(c, ws);
+    let sum = 0;
+    for (let s = 0; s < noisy.length; s++) {
+      const [hr, hi] = transferFrom(c, noisy[s]!.i, ws);
+      const p = noisy[s]!.psd * (hr * hr + hi * hi);
+      shares[s]!.density[k] = Math.sqrt(p);
+      sum += p;
+    }
+    total[k] = Math.sqrt(sum);
+  }
+  return { freqs, total, sources: shares, signalRe, signalIm };
+}
+

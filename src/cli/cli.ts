@@ -1,0 +1,101 @@
+/**
+ * The command line twin of the app. Node-only (reads files); the calculation is all in the core.
+ *
+ *   gainwright report FILE [--json] [--spice]   solve one design
+ *   gainwright report DIR --json                 one JSON line per design file in DIR
+ *   gainwright new [DEMO]                        print a demo design to start from
+ *
+ * Exit codes: 0 done, 1 the design was solved but fails a check (with --strict), 2 bad input.
+ */
+import { readFileSync, readdirSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import '../model/units-mathjs.js';
+import { formatProblems, MAX_DESIGN_BYTES, parseDesignText } from '../model/design.js';
+import { analyse, reportJson } from '../analysis/report.js';
+import { textReport } from '../present/text-report.js';
+import { spiceNetlist } from '../present/spice.js';
+import { DEMOS } from '../model/demos.js';
+
+export interface Io {
+  out: (s: string) => void;
+  err: (s: string) => void;
+}
+
+const nodeIo: Io = { out: (s) => process.stdout.write(s), err: (s) => process.stderr.write(s) };
+
+const USAGE = `usage:
+  gainwright report FILE [--json] [--spice] [--no-spread]
+  gainwright report DIR --json           one JSON line per *.json design in DIR
+  gainwright new [${DEMOS.map((d) => d.id).join('|')}]
+`;
+
+function readDesign(path: string): { ok: true; text: string } | { ok: false; message: string } {
+  try {
+    const st = statSync(path);
+    if (st.size > MAX_DESIGN_BYTES) return { ok: false, message: `${path}: is larger than 1 MB; a design file is a few kB` };
+    return { ok: true, text: readFileSync(path, 'utf8') };
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    return { ok: false, message: `${path}: ${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder' : `cannot be read (${code ?? 'error'})`}` };
+  }
+}
+
+export async function main(argv: string[], io: Io = nodeIo): Promise<number> {
+  try {
+    return run(argv, io);
+  } catch (e) {
+    // A bug must still not print a stack trace at a user.
+    io.err(`gainwright: internal error: ${(e as Error).message}\n`);
+    return 3;
+  }
+}
+
+function run(argv: string[], io: Io): number {
+  const [cmd, ...rest] = argv;
+  const flags = new Set(rest.filter((a) => a.startsWith('--')));
+  const args = rest.filter((a) => !a.startsWith('--'));
+  const known = new Set(['--json', '--spice', '--no-spread', '--help']);
+  for (const fl of flags) if (!known.has(fl)) { io.err(`gainwright: unknown option ${fl}\n${USAGE}`); return 2; }
+  if (!cmd || cmd === '--help' || cmd === 'help') { io.out(USAGE); return cmd ? 0 : 2; }
+  if (cmd === 'new') {
+    const demo = DEMOS.find((d) => d.id === (args[0] ?? DEMOS[0]!.id));
+    if (!demo) { io.err(`gainwright: no demo called "${args[0]}"; choose one of ${DEMOS.map((d) => d.id).join(', ')}\n`); return 2; }
+    io.out(JSON.stringify(demo.document, null, 2) + '\n');
+    return 0;
+  }
+  if (cmd !== 'report') { io.err(`gainwright: unknown command "${cmd}"\n${USAGE}`); return 2; }
+  if (args.length !== 1) { io.err(`gainwright: report takes one design file or folder\n${USAGE}`); return 2; }
+  const path = args[0]!;
+  let isDir = false;
+  try { isDir = statSync(path).isDirectory(); } catch { /* reported by readDesign */ }
+  const spreadTrials = flags.has('--no-spread') ? 0 : undefined;
+  if (isDir) {
+    if (!flags.has('--json')) { io.err('gainwright: a folder is reported with --json (one line per design)\n'); return 2; }
+    let files: string[];
+    try { files = readdirSync(path).filter((f) => f.endsWith('.json')).sort(); } catch { io.err(`gainwright: ${path}: cannot be listed\n`); return 2; }
+    let bad = 0;
+    for (const f of files) {
+      const p = join(path, f);
+      const read = readDesign(p);
+      if (!read.ok) { io.out(JSON.stringify({ file: f, ok: false, problems: [read.message] }) + '\n'); bad++; continue; }
+      const v = parseDesignText(read.text);
+      if (!v.ok) { io.out(JSON.stringify({ file: f, ok: false, problems: v.problems.map((q) => `${q.path}: ${q.message}`) }) + '\n'); bad++; continue; }
+      const r = analyse(v.design, { spreadTrials: spreadTrials ?? 0, acPoints: 50 });
+      io.out(JSON.stringify({ file: f, ok: true, ...reportJson(r) }) + '\n');
+    }
+    return bad ? 2 : 0;
+  }
+  const read = readDesign(path);
+  if (!read.ok) { io.err(`gainwright: ${read.message}\n`); return 2; }
+  const v = parseDesignText(read.text);
+  if (!v.ok) { io.err(`gainwright: ${path} is not a valid design:\n${formatProblems(v.problems).replace(/^/gm, '  ')}\n`); return 2; }
+  const r = analyse(v.design, { spreadTrials });
+  if (flags.has('--spice')) {
+    const net = spiceNetlist(r);
+    if (!net) { io.err(`gainwright: no circuit to export: ${r.warnings.filter((w) => w.level === 'fail').map((w) => w.message).join(' ')}\n`); return 1; }
+    io.out(net);
+    return 0;
+  }
+  io.out(flags.has('--json') ? JSON.stringify(reportJson(r), null, 2) + '\n' : textReport(r));
+  return 0;
+}

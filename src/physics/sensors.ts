@@ -1,0 +1,218 @@
+/**
+ * Sensor front models. Each model turns the parts a person holds (a Hall sensor in a gapped core, a
+ * current transformer and its burden, a shunt, or any voltage-output sensor) into one common description,
+ * `SensorFront`, that the rest of Gainwright consumes without knowing which model made it.
+ */
+import type { Design, SensorCommon, SensorSpec } from '../model/design.js';
+import { MU0 } from '../model/constants.js';
+import type { Warning } from '../model/findings.js';
+
+export type SensorLimitKind = 'sensor' | 'core' | 'burden';
+
+/** A measurand interval beyond which the sensor itself stops being linear. */
+export interface SensorLimit {
+  kind: SensorLimitKind;
+  low: number;
+  high: number;
+  why: string;
+}
+
+export interface SensorFigure {
+  key: string;
+  label: string;
+  value: number;
+  unit: string;
+}
+
+export interface SensorFront extends SensorCommon {
+  /** Output volts per measurand unit at the sensor's nominal supply. */
+  sensitivity: number;
+  /** Output at zero measurand, V. */
+  quiescent: number;
+  outputMin: number;
+  outputMax: number;
+  /** Whether the source resistance is a real resistor whose thermal noise adds (burden, shunt). */
+  sourceNoisy: boolean;
+  /** Lower −3 dB frequency, Hz; 0 for a sensor that passes DC. */
+  lowCorner: number;
+  passesDc: boolean;
+  /** Sensor supply at which sensitivity and quiescent were given, if they scale with it. */
+  ratiometricSupply: number | null;
+  limits: SensorLimit[];
+  figures: SensorFigure[];
+  warnings: Warning[];
+  cautions: string[];
+}
+
+/**
+ * Flux density in the air gap per ampere of measured current, T/A, for a core of relative permeability
+ * μr and mean path l_e with a gap g and N turns, fringing neglected (Ampère's law around the magnetic
+ * circuit; e.g. Umans, Fitzgerald & Kingsley's Electric Machinery, 7th ed., §1.1):
+ *   B = μ0·N·I / (g + l_e/μr)
+ * `gapFieldPerAmp(1, 1e-3, 0.05, 2000)` → 1.2260e-3 T/A (derived).
+ */
+export function gapFieldPerAmp(turns: number, gap: number, pathLength: number, permeability: number): number {
+  return (MU0 * turns) / (gap + pathLength / permeability);
+}
+
+/** The voltage of the rail that feeds the sensor, V. */
+export function sensorRailVoltage(design: Pick<Design, 'supply'>): number {
+  return design.supply.sensorRail === 'regulated' && design.supply.regulated ? design.supply.regulated.voltage : design.supply.positive;
+}
+
+/** The front at the rail that actually feeds the sensor (a ratiometric sensor scales with it). */
+export function sensorFrontAtRail(spec: SensorSpec, design: Pick<Design, 'target' | 'supply'>): SensorFront {
+  return atSensorSupply(sensorFront(spec, design), sensorRailVoltage(design));
+}
+
+/** Turns a sensor spec and the rail that feeds it into the common front description. */
+export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 'supply'>): SensorFront {
+  const range = design.target.range;
+  const peak = design.target.signal === 'ac-rms' ? Math.SQRT2 : 1;
+  const sensorRail = sensorRailVoltage(design);
+  const base = {
+    measurand: spec.measurand,
+    sourceResistance: spec.sourceResistance,
+    noiseDensity: spec.noiseDensity,
+    bandwidth: spec.bandwidth,
+    sensitivityTolerance: spec.sensitivityTolerance,
+    quiescentTolerance: spec.quiescentTolerance,
+    sensitivityDrift: spec.sensitivityDrift,
+    quiescentDrift: spec.quiescentDrift,
+    supplyCurrent: spec.supplyCurrent,
+    outputDrive: spec.outputDrive,
+    sourceNoisy: false,
+    lowCorner: 0,
+    passesDc: true,
+    limits: [] as SensorLimit[],
+    figures: [] as SensorFigure[],
+    warnings: [] as Warning[],
+    cautions: [] as string[],
+  };
+  switch (spec.type) {
+    case 'voltage-output': {
+      return {
+        ...base,
+        sensitivity: spec.sensitivity,
+        quiescent: spec.quiescent,
+        outputMin: spec.outputMin ?? design.supply.negative,
+        outputMax: spec.outputMax ?? sensorRail,
+        ratiometricSupply: spec.ratiometricSupply ?? null,
+      };
+    }
+    case 'hall-gap-core': {
+      const { pathLength, permeability, gap, saturation, fringing } = spec.core;
+      const bPerAmp = gapFieldPerAmp(spec.turns, gap, pathLength, permeability) * fringing;
+      const coreBPerAmp = gapFieldPerAmp(spec.turns, gap, pathLength, permeability);
+      const sensitivity = spec.hallSensitivity * bPerAmp;
+      const coreLimit = saturation / coreBPerAmp;
+      const linLimit = spec.linearField / bPerAmp;
+      const dGap = gapFieldPerAmp(spec.turns, gap + 1e-4, pathLength, permeability) / gapFieldPerAmp(spec.turns, gap, pathLength, permeability) - 1;
+      const earth = 50e-6 / bPerAmp; // about 50 µT (common practice)
+      const front: SensorFront = {
+        ...base,
+        sensitivity,
+        quiescent: spec.quiescent,
+        outputMin: spec.outputMin ?? design.supply.negative,
+        outputMax: spec.outputMax ?? sensorRail,
+        ratiometricSupply: spec.ratiometricSupply ?? null,
+        limits: [
+          { kind: 'core', low: -coreLimit, high: coreLimit, why: `the core saturates at ${saturation} T` },
+          { kind: 'sensor', low: -linLimit, high: linLimit, why: `the Hall sensor is linear only to ±${spec.linearField} T` },
+        ],
+        figures: [
+          { key: 'fieldPerAmp', label: 'Gap field per ampere', value: bPerAmp, unit: 'T/A' },
+          { key: 'sensitivity', label: 'Sensitivity', value: sensitivity, unit: `V/${spec.measurand}` },
+          { key: 'coreSaturation', label: 'Core saturates at', value: coreLimit, unit: spec.measurand },
+          { key: 'hallLinear', label: 'Hall sensor leaves its linear range at', value: linLimit, unit: spec.measurand },
+          { key: 'gapSensitivity', label: 'Sensitivity change per +0.1 mm of gap', value: dGap, unit: '' },
+          { key: 'earthField', label: "Earth's field (about 50 µT) reads as", value: earth, unit: spec.measurand },
+        ],
+        warnings: [
+          { code: 'fringing-neglected', level: 'info', message: `The gap field uses B = μ0·N·I/(g + l/μr) with fringing neglected (correction factor ${fringing}); calibrate against a known current.` },
+          { code: 'remanence', level: 'info', message: 'An overload can leave the core magnetised and shift the zero: re-zero after any overload.' },
+          { code: 'earth-field', level: 'info', message: `The Earth's field alone reads as about ${fmt(earth)} ${spec.measurand}: zero the probe where it will be used.` },
+        ],
+      };
+      if (Math.abs(dGap) > 0.05) {
+        front.warnings.push({ code: 'gap-critical', level: 'caution', message: `Sensitivity changes by ${(dGap * 100).toFixed(1)} % for each 0.1 mm of gap: a hand-cut gap will need the span trimmer.` });
+      }
+      return front;
+    }
+    case 'current-transformer': {
+      const lm = spec.inductanceFactor * spec.secondaryTurns ** 2;
+      const sensitivity = (spec.primaryTurns * spec.burden) / spec.secondaryTurns;
+      const corner = (spec.burden + spec.windingResistance) / (2 * Math.PI * lm);
+      // Burden power at the largest rms current of the range: (I·Np/Ns)²·R_b.
+      const iMax = Math.max(Math.abs(range[0]), Math.abs(range[1]));
+      const irms = design.target.signal === 'ac-rms' ? iMax : iMax / Math.SQRT2;
+      const pBurden = ((irms * spec.primaryTurns) / spec.secondaryTurns) ** 2 * spec.burden;
+      const iBurden = Math.sqrt(spec.burdenPower / spec.burden) * spec.secondaryTurns / spec.primaryTurns; // rms
+      const front: SensorFront = {
+        ...base,
+        sensitivity,
+        quiescent: spec.quiescent,
+        outputMin: -Infinity,
+        outputMax: Infinity,
+        sourceResistance: spec.burden,
+        sourceNoisy: true,
+        lowCorner: corner,
+        passesDc: false,
+        ratiometricSupply: null,
+        limits: [{ kind: 'burden', low: -iBurden * Math.SQRT2, high: iBurden * Math.SQRT2, why: `the burden reaches its ${spec.burdenPower} W rating` }],
+        figures: [
+          { key: 'sensitivity', label: 'Sensitivity', value: sensitivity, unit: `V/${spec.measurand}` },
+          { key: 'magnetisingInductance', label: 'Magnetising inductance', value: lm, unit: 'H' },
+          { key: 'lowCorner', label: 'Low-frequency corner', value: corner, unit: 'Hz' },
+          { key: 'burdenPower', label: 'Burden power at the top of the range', value: pBurden, unit: 'W' },
+        ],
+        cautions: ['Never leave a current transformer secondary open while the primary carries current: the open secondary can rise to a dangerous voltage. Keep the burden soldered in place.'],
+      };
+      if (pBurden > spec.burdenPower) {
+        front.warnings.push({ code: 'burden-power', level: 'fail', message: `The burden dissipates ${fmt(pBurden)} W at the top of the range, above its ${spec.burdenPower} W rating.` });
+      }
+      if (design.target.signal === 'dc') {
+        front.warnings.push({ code: 'ct-no-dc', level: 'fail', message: 'A current transformer passes no DC: set target.signal to "ac-rms", or use a Hall sensor or a shunt for DC.' });
+      }
+      return front;
+    }
+    case 'shunt': {
+      const iMax = Math.max(Math.abs(range[0]), Math.abs(range[1])) * peak;
+      const p = iMax ** 2 * spec.resistance;
+      const iRated = Math.sqrt(spec.powerRating / spec.resistance);
+      const front: SensorFront = {
+        ...base,
+        sensitivity: spec.resistance,
+        quiescent: 0,
+        outputMin: -Infinity,
+        outputMax: Infinity,
+        sourceResistance: spec.resistance + spec.sourceResistance,
+        sourceNoisy: true,
+        ratiometricSupply: null,
+        limits: [{ kind: 'burden', low: -iRated, high: iRated, why: `the shunt reaches its ${spec.powerRating} W rating` }],
+        figures: [
+          { key: 'sensitivity', label: 'Sensitivity', value: spec.resistance, unit: `V/${spec.measurand}` },
+          { key: 'burdenVoltage', label: 'Burden voltage added to the measured circuit at the range end', value: iMax * spec.resistance, unit: 'V' },
+          { key: 'shuntPower', label: 'Shunt power at the range end', value: p, unit: 'W' },
+        ],
+        warnings: [{ code: 'low-side-only', level: 'info', message: 'The shunt must sit in the low side, on the amplifier ground; a high-side shunt needs a difference stage, which this design does not cover.' }],
+      };
+      if (p > spec.powerRating) {
+        front.warnings.push({ code: 'shunt-power', level: 'fail', message: `The shunt dissipates ${fmt(p)} W at the range end, above its ${spec.powerRating} W rating.` });
+      }
+      return front;
+    }
+  }
+}
+
+/** The front as seen at another sensor supply, for a ratiometric sensor (quiescent and gain scale). */
+export function atSensorSupply(front: SensorFront, sensorSupply: number): SensorFront {
+  if (!front.ratiometricSupply) return front;
+  const k = sensorSupply / front.ratiometricSupply;
+  // The result is stated at its new supply, so scaling it again stays relative to that.
+  return { ...front, sensitivity: front.sensitivity * k, quiescent: front.quiescent * k, outputMax: Math.min(front.outputMax, sensorSupply), ratiometricSupply: sensorSupply };
+}
+
+function fmt(x: number): string {
+  return Number.isFinite(x) ? Number(x.toPrecision(3)).toString() : '—';
+}

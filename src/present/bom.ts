@@ -1,0 +1,103 @@
+/**
+ * The build-ready parts list: every part with designator, value, IEC 60062 code, series and tolerance, power
+ * rating, quantity and role, plus the op-amp and its decoupling; and its CSV export.
+ */
+import { ROLE_NAMES } from '../solve/solver.js';
+import { SAFETY_CAUTIONS, type Report } from '../analysis/report.js';
+import { peakRange } from '../physics/topology.js';
+import { formatEng } from '../model/units.js';
+
+export interface BomRow {
+  ref: string;
+  value: string;
+  code: string;
+  spec: string;
+  /** Worst dissipation over the range, W (resistors). */
+  dissipation: number | null;
+  /** Rating to buy, W (resistors), with 50 % derating (common practice). */
+  rating: number | null;
+  quantity: number;
+  role: string;
+}
+
+/** Standard resistor power ratings, W (common practice: 1/8, 1/4, 1/2, 1 W through-hole). */
+export const POWER_RATINGS = [0.125, 0.25, 0.5, 1, 2];
+
+/** The smallest rating that keeps dissipation at or under half of it (50 % derating, common practice). */
+export function powerRating(watts: number): number {
+  return POWER_RATINGS.find((r) => watts <= r / 2) ?? POWER_RATINGS[POWER_RATINGS.length - 1]!;
+}
+
+/** Worst-case dissipation of each circuit resistor over the range ends and zero, W, by element name. */
+export function dissipations(r: Report): Map<string, number> {
+  const out = new Map<string, number>();
+  const sc = r.circuit;
+  if (!sc || !r.dc) return out;
+  const { c0, c1 } = r.dc;
+  const v = (col: Float64Array, n: number) => (n > 0 ? col[n - 1]! : 0);
+  const [a, b] = peakRange(r.design);
+  const lo = Math.max(a, r.clip?.measurandLow ?? a), hi = Math.min(b, r.clip?.measurandHigh ?? b);
+  for (const e of sc.circuit.elements) {
+    if (e.kind !== 'R' || e.value <= 0) continue;
+    let worst = 0;
+    for (const x of [lo, 0, hi]) {
+      const dv = v(c0, e.a) - v(c0, e.b) + (v(c1, e.a) - v(c1, e.b)) * x;
+      worst = Math.max(worst, (dv * dv) / e.value);
+    }
+    out.set(e.name, worst);
+  }
+  return out;
+}
+
+export function bomRows(r: Report): BomRow[] {
+  const rows: BomRow[] = [];
+  const s = r.stage;
+  const diss = dissipations(r);
+  if (s) {
+    for (const p of s.parts) {
+      const pw = p.kind === 'capacitor' ? null : p.kind === 'trimmer' ? Math.max(diss.get(`${p.ref}A`) ?? 0, diss.get(`${p.ref}B`) ?? 0, diss.get(p.ref) ?? 0) : diss.get(p.ref) ?? 0;
+      rows.push({
+        ref: p.ref,
+        value: p.label.replace(/ \((series|parallel)\)$/, ''),
+        code: p.code,
+        spec: p.kind === 'trimmer' ? `trimmer ±${p.tolerance * 100} %, single-turn cermet` : p.kind === 'capacitor' ? 'ceramic C0G/NP0 ±10 %' : `${p.series} ±${+(p.tolerance * 100).toFixed(2)} % metal film`,
+        dissipation: pw,
+        rating: pw === null ? null : powerRating(pw),
+        quantity: 1,
+        role: ROLE_NAMES[p.role] + (p.label.includes('(series)') ? ' (in series with its pair)' : p.label.includes('(parallel)') ? ' (in parallel with its pair)' : ''),
+      });
+    }
+  }
+  const sensorName: Record<string, string> = {
+    'hall-gap-core': `linear Hall sensor in a ${formatEng(r.design.sensor.type === 'hall-gap-core' ? r.design.sensor.core.gap : 0, 'm')} core gap`,
+    'current-transformer': 'current transformer (burden listed separately if not fitted)',
+    shunt: `shunt ${formatEng(r.design.sensor.type === 'shunt' ? r.design.sensor.resistance : 0, 'Ω')}`,
+    'voltage-output': 'voltage-output sensor',
+  };
+  rows.push({ ref: 'S1', value: sensorName[r.design.sensor.type] ?? 'sensor', code: '', spec: `${formatEng(r.front.sensitivity, `V/${r.design.sensor.measurand}`)} as designed`, dissipation: null, rating: null, quantity: 1, role: 'sensor' });
+  if (r.design.supply.regulated) {
+    rows.push({ ref: 'U2', value: `${formatEng(r.design.supply.regulated.voltage, 'V')} regulator`, code: '', spec: `low-dropout, ±${r.design.supply.regulated.tolerance * 100} %, with its input and output capacitors`, dissipation: null, rating: null, quantity: 1, role: 'regulated rail for the sensor and/or reference' });
+  }
+  rows.push({ ref: 'U1', value: r.design.opamp.name || 'op-amp', code: '', spec: `GBW ${formatEng(r.design.opamp.gbw, 'Hz')}, SR ${formatEng(r.design.opamp.slewRate, 'V/s')}`, dissipation: null, rating: null, quantity: 1, role: 'amplifier' });
+  rows.push({ ref: 'C9', value: '100 nF', code: '104', spec: 'ceramic X7R, 50 V', dissipation: null, rating: null, quantity: 1, role: 'supply decoupling at U1 (common practice)' });
+  return rows;
+}
+
+const csvCell = (s: string | number | null) => {
+  const t = s === null ? '' : String(s);
+  // Quote every cell; neutralise leading = + - @ so that a spreadsheet never runs a cell as a formula.
+  const safe = /^[=+\-@]/.test(t) ? `'${t}` : t;
+  return `"${safe.replace(/"/g, '""')}"`;
+};
+
+/** The parts list as CSV (RFC 4180 quoting), with the safety cautions as trailing comment rows. */
+export function bomCsv(r: Report): string {
+  const head = ['Designator', 'Value', 'Code (IEC 60062)', 'Specification', 'Dissipation (W)', 'Rating (W)', 'Quantity', 'Role'];
+  const lines = [head.map(csvCell).join(',')];
+  for (const row of bomRows(r)) {
+    lines.push([row.ref, row.value, row.code, row.spec, row.dissipation === null ? '' : Number(row.dissipation.toPrecision(3)), row.rating ?? '', row.quantity, row.role].map(csvCell).join(','));
+  }
+  lines.push('');
+  for (const c of [...SAFETY_CAUTIONS, ...r.front.cautions]) lines.push(csvCell(`CAUTION: ${c}`));
+  return lines.join('\r\n') + '\r\n';
+}

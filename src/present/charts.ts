@@ -1,0 +1,120 @@
+/**
+ * Chart datasets built from a report as plain data (no Chart.js import), so that they are tested without a
+ * DOM. The app's chart element hands them to Chart.js as they are.
+ */
+import type { Report } from '../analysis/report.js';
+
+export interface Series {
+  label: string;
+  points: Array<{ x: number; y: number }>;
+  /** Semantic role the chart element maps to a colour and line style. */
+  role: 'main' | 'clipped' | 'limit' | 'range' | 'secondary' | 'source';
+  axis?: 'y' | 'y2';
+}
+
+export interface ChartData {
+  id: 'transfer' | 'response' | 'noise' | 'battery' | 'spread';
+  title: string;
+  x: { label: string; log?: boolean };
+  y: { label: string; log?: boolean };
+  y2?: { label: string };
+  series: Series[];
+  /** Bar chart (histogram) instead of lines. */
+  bars?: boolean;
+}
+
+const pts = (x: ArrayLike<number>, y: ArrayLike<number>) => Array.from({ length: x.length }, (_, i) => ({ x: x[i]!, y: y[i]! })).filter((p) => Number.isFinite(p.x) && Number.isFinite(p.y));
+
+export function transferChart(r: Report): ChartData | null {
+  if (!r.transfer || !r.clip) return null;
+  const m = r.design.sensor.measurand;
+  const t = r.transfer;
+  const lin: Array<{ x: number; y: number }> = [], clip: Array<{ x: number; y: number }> = [];
+  for (let i = 0; i < t.x.length; i++) (t.clipped[i] ? clip : lin).push({ x: t.x[i]!, y: t.y[i]! });
+  const x0 = t.x[0]!, x1 = t.x[t.x.length - 1]!;
+  const { positive, negative } = r.design.supply;
+  const [a, b] = r.clip.rangePeak;
+  const yLo = Math.min(negative, ...t.y), yHi = Math.max(positive, ...t.y);
+  return {
+    id: 'transfer', title: 'Transfer: output against measurand',
+    x: { label: `Measurand (${m})` }, y: { label: 'Output (V)' },
+    series: [
+      { label: 'Output (linear)', role: 'main', points: lin },
+      { label: 'Output (saturated)', role: 'clipped', points: clip },
+      { label: 'Positive rail', role: 'limit', points: [{ x: x0, y: positive }, { x: x1, y: positive }] },
+      { label: 'Negative rail', role: 'limit', points: [{ x: x0, y: negative }, { x: x1, y: negative }] },
+      { label: 'Wanted range', role: 'range', points: [{ x: a, y: yLo }, { x: a, y: yHi }, { x: NaN, y: NaN }, { x: b, y: yHi }, { x: b, y: yLo }].filter((p) => Number.isFinite(p.x)) },
+    ],
+  };
+}
+
+export function responseChart(r: Report): ChartData | null {
+  if (!r.response) return null;
+  const { freqs, magnitude, phase } = r.response;
+  const ref = r.speed?.passband || magnitude[0]!;
+  const db = Array.from(magnitude, (v) => 20 * Math.log10(v / ref));
+  return {
+    id: 'response', title: 'Frequency response (relative to the passband scale)',
+    x: { label: 'Frequency (Hz)', log: true }, y: { label: 'Magnitude (dB)' }, y2: { label: 'Phase (°)' },
+    series: [
+      { label: 'Magnitude', role: 'main', points: pts(freqs, db) },
+      { label: 'Phase', role: 'secondary', points: pts(freqs, phase), axis: 'y2' },
+    ],
+  };
+}
+
+export function noiseChart(r: Report, sources = 5): ChartData | null {
+  if (!r.noise) return null;
+  const s = r.noise.spectrum;
+  const scale = 1e9;
+  const top = r.noise.shares.slice(0, sources).map((x) => x.name);
+  return {
+    id: 'noise', title: 'Output noise density by source',
+    x: { label: 'Frequency (Hz)', log: true }, y: { label: 'Noise density (nV/√Hz)', log: true },
+    series: [
+      { label: 'Total', role: 'main', points: pts(s.freqs, Array.from(s.total, (v) => v * scale)).filter((p) => p.y > 0) },
+      ...s.sources.filter((x) => top.includes(x.name)).map((x) => ({ label: noiseLabel(x.name), role: 'source' as const, points: pts(s.freqs, Array.from(x.density, (v) => v * scale)).filter((p) => p.y > 0) })),
+    ],
+  };
+}
+
+/** Plain names for the circuit's noise sources. */
+export function noiseLabel(name: string): string {
+  if (name === 'VOS') return 'op-amp voltage noise';
+  if (name === 'IBP') return 'op-amp current noise (+)';
+  if (name === 'IBN') return 'op-amp current noise (−)';
+  if (name === 'VSIG') return 'sensor';
+  if (name === 'RS') return 'sensor output resistance';
+  if (name === 'RB') return 'burden';
+  if (name === 'RSH') return 'shunt';
+  if (name === 'RLOAD') return 'instrument input';
+  return `${name} thermal`;
+}
+
+export function batteryChart(r: Report): ChartData | null {
+  if (!r.battery.length) return null;
+  const b = r.battery;
+  return {
+    id: 'battery', title: 'Battery sweep: headroom and zero shift',
+    x: { label: 'Battery voltage (V)' }, y: { label: 'Headroom (V)' }, y2: { label: 'Zero shift (mV)' },
+    series: [
+      { label: 'Headroom, low side', role: 'main', points: b.map((s) => ({ x: s.voltage, y: s.headroomLow })) },
+      { label: 'Headroom, high side', role: 'source', points: b.map((s) => ({ x: s.voltage, y: s.headroomHigh })) },
+      { label: 'Zero shift', role: 'secondary', axis: 'y2', points: b.map((s) => ({ x: s.voltage, y: s.zeroShift * 1e3 })) },
+    ].map((s) => ({ ...s, points: s.points.filter((p) => Number.isFinite(p.y)) })) as Series[],
+  };
+}
+
+export function spreadChart(r: Report): ChartData | null {
+  if (!r.spread) return null;
+  const { edges, counts } = r.spread.histogram;
+  return {
+    id: 'spread', title: `Scale spread over ${r.spread.trials} builds (before trim)`, bars: true,
+    x: { label: 'Scale error (%)' }, y: { label: 'Builds (count)' },
+    series: [{ label: 'Builds', role: 'main', points: Array.from(counts, (c, i) => ({ x: ((edges[i]! + edges[i + 1]!) / 2) * 100, y: c })) }],
+  };
+}
+
+export function allCharts(r: Report): ChartData[] {
+  return [transferChart(r), responseChart(r), noiseChart(r), batteryChart(r), spreadChart(r)].filter((c): c is ChartData => c !== null);
+}

@@ -1,0 +1,219 @@
+/**
+ * What the editor shows for each design field: where it lives in the design, its label in the trade's
+ * words, the dimension a typed value is read as, and how its current value is written back for a person.
+ */
+import type { Design, SensorType } from '../model/design.js';
+import { formatEng, parseQuantity, type Dimension, type ParseResult } from '../model/units.js';
+
+export type Section = 'sensor' | 'amplifier' | 'target' | 'output' | 'supply' | 'environment';
+
+export interface FieldDef {
+  path: string;
+  label: string;
+  section: Section;
+  /** Numeric fields: the dimension typed text is read as. */
+  dimension?: Dimension;
+  /** The unit the value is displayed in (SI symbol; °C and mAh are special). */
+  unit?: string;
+  /** Select fields: the allowed values (any JSON value) with their labels. */
+  options?: Array<[unknown, string]>;
+  /** Number fields: an empty entry removes the value (an optional field). */
+  clearable?: boolean;
+  kind?: 'number' | 'select' | 'bool' | 'text';
+  /** Only for these sensor types. */
+  sensors?: SensorType[];
+  /** Shown only when this optional group is on. */
+  group?: string;
+  hint?: string;
+}
+
+const S = (path: string, label: string, dimension: Dimension, unit: string, sensors?: SensorType[], hint?: string): FieldDef => ({ path, label, section: 'sensor', dimension, unit, sensors, hint, kind: 'number' });
+const N = (section: Section, path: string, label: string, dimension: Dimension, unit: string, hint?: string, group?: string): FieldDef => ({ path, label, section, dimension, unit, hint, group, kind: 'number' });
+const HALL: SensorType[] = ['hall-gap-core'];
+const VOUT: SensorType[] = ['voltage-output'];
+const CT: SensorType[] = ['current-transformer'];
+const SH: SensorType[] = ['shunt'];
+
+export const SENSOR_TYPES: Array<[SensorType, string]> = [
+  ['hall-gap-core', 'Hall sensor in a gapped core'],
+  ['current-transformer', 'Current transformer with burden'],
+  ['shunt', 'Low-side shunt'],
+  ['voltage-output', 'Any voltage-output sensor'],
+];
+
+export const FIELDS: readonly FieldDef[] = [
+  { path: 'title', label: 'Title', section: 'sensor', kind: 'text' },
+  { path: 'notes', label: 'Notes', section: 'sensor', kind: 'text' },
+  { path: 'sensor.measurand', label: 'Measurand unit', section: 'sensor', kind: 'text', hint: 'A, mT, V …', sensors: ['voltage-output'] },
+  S('sensor.sensitivity', 'Sensitivity', 'V/A', 'V/A', VOUT, 'volts per measurand unit, e.g. 12.5 mV/A'),
+  S('sensor.hallSensitivity', 'Hall sensitivity', 'V/T', 'V/T', HALL, 'e.g. 25 mV/mT or 2.5 mV/G'),
+  S('sensor.quiescent', 'Quiescent output (zero)', 'V', 'V', [...VOUT, ...HALL], 'output at zero measurand'),
+  S('sensor.quiescent', 'Burden low end tied to', 'V', 'V', CT),
+  S('sensor.outputMin', 'Sensor output min', 'V', 'V', [...VOUT, ...HALL]),
+  S('sensor.outputMax', 'Sensor output max', 'V', 'V', [...VOUT, ...HALL]),
+  { ...S('sensor.ratiometricSupply', 'Ratiometric at supply', 'V', 'V', [...VOUT, ...HALL], 'leave empty if not ratiometric'), clearable: true },
+  S('sensor.linearField', 'Linear field range (±)', 'T', 'T', HALL),
+  S('sensor.turns', 'Turns of the measured wire', '1', '', HALL),
+  S('sensor.core.pathLength', 'Core mean path length', 'm', 'm', HALL),
+  S('sensor.core.permeability', 'Core relative permeability', '1', '', HALL),
+  S('sensor.core.gap', 'Air gap', 'm', 'm', HALL),
+  S('sensor.core.saturation', 'Core saturation flux density', 'T', 'T', HALL),
+  S('sensor.core.fringing', 'Fringing correction factor', '1', '', HALL, '1 = formula as is'),
+  S('sensor.secondaryTurns', 'Secondary turns', '1', '', CT),
+  S('sensor.primaryTurns', 'Primary passes', '1', '', CT),
+  S('sensor.burden', 'Burden resistor', 'ohm', 'Ω', CT),
+  S('sensor.burdenPower', 'Burden power rating', 'W', 'W', CT),
+  S('sensor.inductanceFactor', 'Core inductance factor A_L', 'H', 'H', CT, 'henries per turn²'),
+  S('sensor.windingResistance', 'Winding resistance', 'ohm', 'Ω', CT),
+  S('sensor.resistance', 'Shunt resistance', 'ohm', 'Ω', SH),
+  S('sensor.powerRating', 'Shunt power rating', 'W', 'W', SH),
+  S('sensor.sourceResistance', 'Output resistance', 'ohm', 'Ω', [...VOUT, ...HALL]),
+  S('sensor.noiseDensity', 'Output noise density', 'V/Hz^0.5', 'V/√Hz'),
+  S('sensor.bandwidth', 'Sensor bandwidth', 'Hz', 'Hz'),
+  S('sensor.sensitivityTolerance', 'Sensitivity tolerance (±)', '1', '%'),
+  S('sensor.quiescentTolerance', 'Zero tolerance (±)', 'V', 'V', [...VOUT, ...HALL]),
+  S('sensor.supplyCurrent', 'Sensor supply current', 'A', 'A', [...VOUT, ...HALL]),
+  S('sensor.outputDrive', 'Sensor output drive (0 = not stated)', 'A', 'A', [...VOUT, ...HALL]),
+  S('sensor.sensitivityDrift', 'Sensitivity drift', '1/K', 'ppm/K'),
+  S('sensor.quiescentDrift', 'Zero drift', 'V/K', 'V/K', [...VOUT, ...HALL]),
+
+  { path: 'opamp.name', label: 'Part or archetype name', section: 'amplifier', kind: 'text' },
+  N('amplifier', 'opamp.gbw', 'Gain-bandwidth (GBW)', 'Hz', 'Hz'),
+  N('amplifier', 'opamp.slewRate', 'Slew rate', 'V/s', 'V/s'),
+  N('amplifier', 'opamp.openLoopGainDb', 'Open-loop gain (dB)', '1', 'dB'),
+  N('amplifier', 'opamp.inputLow', 'Input range: above − rail', 'V', 'V', 'negative if it goes beyond the rail'),
+  N('amplifier', 'opamp.inputHigh', 'Input range: below + rail', 'V', 'V'),
+  N('amplifier', 'opamp.outputLow', 'Output swing: above − rail', 'V', 'V'),
+  N('amplifier', 'opamp.outputHigh', 'Output swing: below + rail', 'V', 'V'),
+  N('amplifier', 'opamp.voltageNoise', 'Voltage noise', 'V/Hz^0.5', 'V/√Hz'),
+  N('amplifier', 'opamp.currentNoise', 'Current noise', 'A/Hz^0.5', 'A/√Hz'),
+  N('amplifier', 'opamp.offsetVoltage', 'Offset voltage (max)', 'V', 'V'),
+  N('amplifier', 'opamp.offsetDrift', 'Offset drift', 'V/K', 'V/K'),
+  N('amplifier', 'opamp.biasCurrent', 'Bias current', 'A', 'A'),
+  N('amplifier', 'opamp.supplyCurrent', 'Supply current', 'A', 'A'),
+  N('amplifier', 'opamp.outputResistance', 'Open-loop output resistance', 'ohm', 'Ω'),
+  N('amplifier', 'opamp.outputCurrent', 'Output current limit', 'A', 'A'),
+
+  N('target', 'target.scale', 'Wanted scale', 'V/A', 'V/A', 'sign = polarity'),
+  N('target', 'target.zero', 'Output at zero', 'V', 'V'),
+  N('target', 'target.range.0', 'Range from', '1', ''),
+  N('target', 'target.range.1', 'Range to', '1', ''),
+  { path: 'target.signal', label: 'Signal', section: 'target', kind: 'select', options: [['dc', 'DC (range is peak values)'], ['ac-rms', 'AC (range is rms)']] },
+  { path: 'target.topology', label: 'Stage', section: 'target', kind: 'select', options: [['auto', 'Choose for me'], ['non-inverting', 'Non-inverting'], ['inverting', 'Inverting']] },
+  { path: 'target.series', label: 'Resistor series', section: 'target', kind: 'select', options: ['E12', 'E24', 'E48', 'E96', 'E192'].map((s) => [s, s]) },
+  { path: 'target.arrangements', label: 'Parts per arm', section: 'target', kind: 'select', options: [[['single', 'series', 'parallel'], 'one, or two in series or parallel'], [['single', 'series'], 'one, or two in series'], [['single', 'parallel'], 'one, or two in parallel'], [['single'], 'one only']] },
+  N('target', 'target.tolerance', 'Resistor tolerance (±)', '1', '%'),
+  N('target', 'target.tempco', 'Resistor tempco', '1/K', 'ppm/K'),
+  N('target', 'target.resistanceMin', 'Smallest resistor', 'ohm', 'Ω'),
+  N('target', 'target.resistanceMax', 'Largest resistor', 'ohm', 'Ω'),
+  N('target', 'target.bandwidth', 'Bandwidth needed', 'Hz', 'Hz', '0 = none stated'),
+  { path: 'target.trim.gain', label: 'Fit a span trimmer', section: 'target', kind: 'bool' },
+  { path: 'target.trim.zero', label: 'Fit a zero trimmer', section: 'target', kind: 'bool' },
+
+  { path: 'output.filter', label: 'Output resistor / RC filter', section: 'output', kind: 'bool', group: 'output.filter' },
+  N('output', 'output.filter.resistance', 'Series resistor', 'ohm', 'Ω', undefined, 'output.filter'),
+  N('output', 'output.filter.capacitance', 'Filter capacitor (0 = none)', 'F', 'F', undefined, 'output.filter'),
+  N('output', 'output.load.resistance', 'Instrument input resistance', 'ohm', 'Ω', '1 MΩ for a scope; 50 Ω for its 50 Ω input'),
+  N('output', 'output.load.capacitance', 'Instrument + cable capacitance', 'F', 'F', 'about 15 pF plus ~100 pF per metre of coax (common practice)'),
+
+  N('supply', 'supply.positive', 'Positive rail', 'V', 'V'),
+  N('supply', 'supply.negative', 'Negative rail', 'V', 'V', '0 for a single supply'),
+  { path: 'supply.regulated', label: 'Regulated rail', section: 'supply', kind: 'bool', group: 'supply.regulated' },
+  N('supply', 'supply.regulated.voltage', 'Regulated voltage', 'V', 'V', undefined, 'supply.regulated'),
+  N('supply', 'supply.regulated.tolerance', 'Regulator tolerance (±)', '1', '%', undefined, 'supply.regulated'),
+  N('supply', 'supply.regulated.quiescentCurrent', 'Regulator quiescent current', 'A', 'A', undefined, 'supply.regulated'),
+  { path: 'supply.sensorRail', label: 'Sensor fed from', section: 'supply', kind: 'select', options: [['positive', 'Positive rail'], ['regulated', 'Regulated rail']] },
+  { path: 'supply.referenceRail', label: 'Reference divider from', section: 'supply', kind: 'select', options: [['positive', 'Positive rail'], ['regulated', 'Regulated rail']] },
+  { path: 'supply.battery', label: 'Battery', section: 'supply', kind: 'bool', group: 'supply.battery' },
+  N('supply', 'supply.battery.fresh', 'Fresh voltage', 'V', 'V', undefined, 'supply.battery'),
+  N('supply', 'supply.battery.endOfLife', 'End-of-life voltage', 'V', 'V', undefined, 'supply.battery'),
+  N('supply', 'supply.battery.capacity', 'Capacity', 'C', 'mAh', undefined, 'supply.battery'),
+
+  N('environment', 'environment.temperature', 'Design temperature', 'K', '°C'),
+  N('environment', 'environment.temperatureMin', 'Lowest temperature', 'K', '°C'),
+  N('environment', 'environment.temperatureMax', 'Highest temperature', 'K', '°C'),
+  N('environment', 'analysis.spreadTrials', 'Spread: Monte Carlo trials', '1', ''),
+  N('environment', 'analysis.spreadSeed', 'Spread: random seed', '1', ''),
+  N('environment', 'analysis.scaleLimit', 'Spread: scale limit (±)', '1', '%'),
+  N('environment', 'analysis.zeroLimit', 'Spread: zero limit (±)', 'V', 'V'),
+  { path: 'analysis.noiseBand', label: 'Own noise band', section: 'environment', kind: 'bool', group: 'analysis.noiseBand' },
+  N('environment', 'analysis.noiseBand.0', 'Noise band from', 'Hz', 'Hz', undefined, 'analysis.noiseBand'),
+  N('environment', 'analysis.noiseBand.1', 'Noise band to', 'Hz', 'Hz', undefined, 'analysis.noiseBand'),
+];
+
+/** Default values for optional groups switched on in the editor. */
+export const GROUP_DEFAULTS: Record<string, unknown> = {
+  'output.filter': { resistance: 100, capacitance: 0 },
+  'supply.regulated': { voltage: 5, tolerance: 0.02, quiescentCurrent: 0 },
+  'supply.battery': { fresh: 9.6, endOfLife: 6, capacity: 2034 },
+  'analysis.noiseBand': [1, 1e5],
+};
+
+export function getPath(obj: unknown, path: string): unknown {
+  return path.split('.').reduce<unknown>((o, k) => (o === null || o === undefined ? undefined : (o as Record<string, unknown>)[k]), obj);
+}
+
+/** Immutable set: returns a copy of `obj` with `path` set (arrays by numeric key). `undefined` deletes. */
+export function setPath<T>(obj: T, path: string, value: unknown): T {
+  const [k, ...rest] = path.split('.');
+  const src = (obj ?? {}) as Record<string, unknown>;
+  const copy: Record<string, unknown> | unknown[] = Array.isArray(src) ? [...src] : { ...src };
+  const cur = (src as Record<string, unknown>)[k!];
+  const next = rest.length ? setPath(cur, rest.join('.'), value) : value;
+  if (next === undefined && !Array.isArray(copy)) delete (copy as Record<string, unknown>)[k!];
+  else (copy as Record<string, unknown>)[k!] = next;
+  return copy as T;
+}
+
+/** The fields that apply to this design (its sensor type and the optional groups that are on). */
+export function fieldsFor(design: Design): FieldDef[] {
+  return FIELDS.filter((f) => (!f.sensors || f.sensors.includes(design.sensor.type)) && (!f.group || f.kind === 'bool' || getPath(design, f.group) !== null && getPath(design, f.group) !== undefined));
+}
+
+/**
+ * Display units that are not an SI prefix away from the stored SI value: how a bare number typed in them
+ * becomes SI, and how an SI value is written in them.
+ */
+const SCALED_UNITS: Record<string, { toSi: (x: number) => number; show: (si: number) => string }> = {
+  '°C': { toSi: (x) => x + 273.15, show: (v) => `${+(v - 273.15).toFixed(2)} °C` },
+  mAh: { toSi: (x) => x * 3.6, show: (v) => `${+(v / 3.6).toPrecision(4)} mAh` },
+  '%': { toSi: (x) => x / 100, show: (v) => `${+(v * 100).toPrecision(4)} %` },
+  'ppm/K': { toSi: (x) => x * 1e-6, show: (v) => `${+(v * 1e6).toPrecision(4)} ppm/K` },
+};
+const BARE_NUMBER = /^\s*[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?\s*$/;
+
+/** How a value is written in its field: 0.0125 V/A → "12.5 mV/A", 298.15 K → "25 °C", 2034 C → "565 mAh". */
+export function displayValue(f: FieldDef, value: unknown, design?: Design): string {
+  if (value === undefined || value === null) return '';
+  if (typeof value !== 'number') return String(value);
+  // Per-measurand units follow the design's measurand: 100 mV/A, or 25 mV/mT for a field sensor.
+  const measurandUnit = f.unit === 'V/A' && design ? `V/${design.sensor.measurand}` : f.unit;
+  const scaled = f.unit ? SCALED_UNITS[f.unit] : undefined;
+  if (scaled) return scaled.show(value);
+  switch (f.unit) {
+    case 'dB': return `${+value.toPrecision(4)}`;
+    case '': return `${+value.toPrecision(6)}`;
+    default: return formatEng(value, measurandUnit ?? '', 4).replace(/(\.\d*?)0+(\s|$)/, '$1$2').replace(/\.(\s|$)/, '$1');
+  }
+}
+
+/** Reads what a person typed into a field, in SI. */
+export function parseField(f: FieldDef, text: string, design?: Design): ParseResult {
+  if (!f.dimension) return { ok: false, message: 'not a number field' };
+  let dim = f.dimension;
+  // Sensitivity and scale are per measurand unit; for a measurand other than amperes take plain V per unit.
+  if ((dim === 'V/A') && design && design.sensor.measurand !== 'A') {
+    // The unit after the slash must be the measurand itself: "25 mV/A" is not a reading for a mT sensor.
+    const unit = design.sensor.measurand.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+    const m = new RegExp(`^\\s*([-+]?[\\d.eE+-]+)\\s*(m|µ|u)?V\\s*\\/\\s*${unit}\\s*$`).exec(text);
+    if (m) {
+      const k = m[2] === 'm' ? 1e-3 : m[2] ? 1e-6 : 1;
+      return Number.isFinite(Number(m[1])) ? { ok: true, value: Number(m[1]) * k } : { ok: false, message: `cannot read "${text}"` };
+    }
+    dim = '1';
+  }
+  // A bare number in a °C, mAh, % or ppm/K field is in that unit.
+  const scaled = f.unit ? SCALED_UNITS[f.unit] : undefined;
+  if (scaled && BARE_NUMBER.test(text)) return { ok: true, value: scaled.toSi(Number(text)) };
+  return parseQuantity(text, dim);
+}

@@ -1,0 +1,50 @@
+/** The report's key figures as labelled text rows, for the app and the printed build sheet. */
+import type { Report } from '../analysis/report.js';
+import { noiseLabel } from './charts.js';
+import { formatEng } from '../model/units.js';
+
+export interface FigureRow { label: string; value: string; note?: string }
+
+const f = (x: number | null | undefined, u = '', d = 3) => (x === null || x === undefined ? '—' : formatEng(x, u, d));
+
+export function keyFigures(r: Report): FigureRow[] {
+  const m = r.design.sensor.measurand;
+  const rows: FigureRow[] = [];
+  const s = r.stage;
+  if (!s || !r.dc) return [{ label: 'Design', value: 'not solved', note: r.absent.all ?? '' }];
+  rows.push({ label: 'Topology', value: s.ideal.topology, note: r.choice.why.replace(/^[^:]+: /, '') });
+  rows.push({ label: 'Gain / noise gain', value: `${s.gain.toFixed(4)} / ${(s.ideal.topology === 'non-inverting' ? s.gain : 1 + s.gain).toFixed(4)}` });
+  rows.push({ label: 'Scale at the instrument', value: f(r.dc.out[1], `V/${m}`, 5), note: `${(s.scaleError * 100).toFixed(4)} % before trim` });
+  rows.push({ label: 'Zero', value: f(r.dc.out[0], 'V', 5) });
+  if (Number.isFinite(s.reference)) rows.push({ label: 'Reference', value: f(s.reference, 'V', 4) });
+  for (const fig of r.front.figures) rows.push({ label: fig.label, value: fig.unit === '' ? `${(fig.value * 100).toFixed(2)} %` : f(fig.value, fig.unit) });
+  if (r.clip) {
+    rows.push({ label: 'Linear range', value: `${f(r.clip.measurandLow, m)} … ${f(r.clip.measurandHigh, m)}`, note: `first to saturate: ${r.clip.firstLow ?? '—'} / ${r.clip.firstHigh ?? '—'}` });
+    rows.push({ label: 'Output clips at', value: `${f(r.clip.outputLow, 'V')} / ${f(r.clip.outputHigh, 'V')}` });
+    rows.push({ label: 'Headroom low / high', value: `${f(r.clip.headroom.low, 'V')} / ${f(r.clip.headroom.high, 'V')}`, note: `${r.clip.headroom.lowPercent.toFixed(1)} % / ${r.clip.headroom.highPercent.toFixed(1)} % of the span${r.design.target.signal === 'ac-rms' ? ', at the sine peak' : ''}` });
+  }
+  if (r.speed) {
+    rows.push({ label: 'Bandwidth (−3 dB)', value: f(r.speed.smallSignal, 'Hz'), note: `${r.speed.lowCorner ? `low corner ${f(r.speed.lowCorner, 'Hz')}; ` : ''}phase ${r.speed.phaseAtCorner.toFixed(1)}° at the corner` });
+    rows.push({ label: 'Rise time', value: f(r.speed.riseTime, 's') });
+    rows.push({ label: 'Full-power bandwidth', value: f(r.speed.fullPower, 'Hz'), note: `at ${f(r.speed.peakSwing, 'V')} peak` });
+  }
+  if (r.noise) {
+    rows.push({ label: 'Noise at 1 kHz', value: f(r.noise.densityAt1kHz, 'V/√Hz'), note: `${f(r.noise.referredDensityAt1kHz, `${m}/√Hz`)} referred` });
+    rows.push({ label: 'Noise rms', value: f(r.noise.rms, 'V'), note: `${f(r.noise.referredRms, m)} rms over ${f(r.noise.band[0], 'Hz')}…${f(r.noise.band[1], 'Hz')}; ${f(r.noise.peakToPeak, 'V')} p-p` });
+    rows.push({ label: 'Largest noise source', value: noiseLabel(r.noise.shares[0]?.name ?? ''), note: `${((r.noise.shares[0]?.fraction ?? 0) * 100).toFixed(0)} % of the power` });
+  }
+  if (r.errors) {
+    rows.push({ label: 'DC error, worst case', value: `±${f(r.errors.worstCase, m)}`, note: `RSS ±${f(r.errors.rss, m)} at ${f(r.errors.at, m)}` });
+    rows.push({ label: 'DC error after calibration', value: `±${f(r.errors.afterTrim, m)}`, note: 'drift and trim resolution remain' });
+  }
+  if (r.supply) {
+    rows.push({ label: 'Supply current', value: f(r.supply.current, 'A') });
+    if (r.supply.batteryLife !== null) rows.push({ label: 'Battery life', value: `${r.supply.batteryLife.toFixed(1)} h` });
+  }
+  if (r.spread) rows.push({ label: 'Spread (1σ, before trim)', value: `${f(r.spread.scaleStd, `V/${m}`)} / ${f(r.spread.zeroStd, 'V')}`, note: `${(r.spread.yield * 100).toFixed(1)} % of builds within limits untrimmed` });
+  if (r.drive) {
+    rows.push({ label: 'Scale at 1 MΩ / 50 Ω', value: `${f(r.drive.scaleAt1M, `V/${m}`, 4)} / ${f(r.drive.scaleAt50, `V/${m}`, 4)}`, note: r.drive.drives50 ? '' : 'cannot drive 50 Ω over the range' });
+    if (r.drive.probeRatio) rows.push({ label: 'Instrument probe ratio', value: `${r.drive.probeRatio}×`, note: `reads ${m} directly` });
+  }
+  return rows;
+}

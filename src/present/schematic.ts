@@ -1,0 +1,136 @@
+/**
+ * The schematic of a solved stage as drawing primitives (wires, resistors, the op-amp …) on a 640 × 340
+ * grid. The app draws them as SVG; designators and values come from the same parts list as the BOM.
+ */
+import type { Report } from '../analysis/report.js';
+import type { Part, PartRole } from '../solve/solver.js';
+import { formatEng } from '../model/units.js';
+
+export type Prim =
+  | { t: 'wire'; pts: Array<[number, number]> }
+  | { t: 'res'; x: number; y: number; vertical: boolean; ref: string; value: string; trimmer: boolean }
+  | { t: 'cap'; x: number; y: number; ref: string; value: string }
+  | { t: 'opamp'; x: number; y: number; invertingOnTop: boolean }
+  | { t: 'ground'; x: number; y: number }
+  | { t: 'rail'; x: number; y: number; label: string }
+  | { t: 'source'; x: number; y: number; label: string }
+  | { t: 'terminal'; x: number; y: number; label: string }
+  | { t: 'dot'; x: number; y: number }
+  /** A vertical wire hopping over a horizontal one at (x, y): the two do not connect. */
+  | { t: 'hop'; x: number; y: number }
+  | { t: 'text'; x: number; y: number; text: string };
+
+export interface Schematic {
+  width: number;
+  height: number;
+  prims: Prim[];
+}
+
+/** One symbol per arm: its designators and values joined as the parts list writes them. */
+function arm(parts: Part[], role: PartRole): { ref: string; value: string } | null {
+  const ps = parts.filter((p) => p.role === role);
+  if (!ps.length) return null;
+  const joint = ps.length > 1 && ps[0]!.label.includes('(parallel)') ? ' ∥ ' : ' + ';
+  return { ref: ps.map((p) => p.ref).join(joint), value: ps.map((p) => formatEng(p.ohms, 'Ω', 3).replace(' ', '')).join(joint) };
+}
+
+export function schematic(r: Report): Schematic | null {
+  const s = r.stage;
+  if (!s) return null;
+  const parts = s.parts;
+  const P: Prim[] = [];
+  const W = (...pts: Array<[number, number]>) => P.push({ t: 'wire', pts });
+  const inv = s.ideal.topology === 'inverting';
+  const railTop = s.network.reference.topRail === 'regulated' ? `+${formatEng(r.design.supply.regulated?.voltage ?? 0, 'V')} reg` : `+${formatEng(r.design.supply.positive, 'V')}`;
+  const negLabel = r.design.supply.negative < 0 ? `${formatEng(r.design.supply.negative, 'V')}` : null;
+  // Op-amp: − input on top at (300,150), + at (300,190), output at (380,170).
+  P.push({ t: 'opamp', x: 340, y: 170, invertingOnTop: true });
+  const sensorLabel = r.design.sensor.type === 'hall-gap-core' ? 'Hall sensor' : r.design.sensor.type === 'current-transformer' ? 'CT + burden' : r.design.sensor.type === 'shunt' ? 'Shunt' : 'Sensor';
+  P.push({ t: 'source', x: 40, y: inv ? 150 : 190, label: sensorLabel });
+  const fb = arm(parts, 'feedback');
+  const gt = parts.find((p) => p.role === 'gain-trim');
+  // Feedback path above the op-amp, from the − input node (250,150) to the output node (420,170).
+  if (fb || gt) {
+    W([250, 150], [250, 80]);
+    if (fb) P.push({ t: 'res', x: gt ? 300 : 335, y: 80, vertical: false, ...fb, trimmer: false });
+    if (gt) P.push({ t: 'res', x: fb ? 375 : 335, y: 80, vertical: false, ref: gt.ref, value: formatEng(gt.ohms, 'Ω', 2), trimmer: true });
+    W([420, 80], [420, 170]);
+    P.push({ t: 'dot', x: 420, y: 170 });
+  } else if (!inv) {
+    W([250, 150], [250, 80], [420, 80], [420, 170]);
+    P.push({ t: 'dot', x: 420, y: 170 });
+  }
+  W([250, 150], [300, 150]);
+  W([380, 170], [420, 170]);
+  if (!inv) {
+    // + input from the sensor; ground leg from the − node down to the reference.
+    W([70, 190], [300, 190]);
+    const leg = arm(parts, 'ground-leg');
+    if (leg) {
+      P.push({ t: 'dot', x: 250, y: 150 });
+      // Down to the ground leg, hopping over the + input's wire.
+      W([250, 150], [210, 150], [210, 184]);
+      P.push({ t: 'hop', x: 210, y: 190 });
+      W([210, 196], [210, 200]);
+      P.push({ t: 'res', x: 210, y: 235, vertical: true, ...leg, trimmer: false });
+      W([210, 270], [210, 325]);
+    } else if (s.network.reference.kind !== 'none') {
+      W([250, 150], [210, 150], [210, 184]);
+      P.push({ t: 'hop', x: 210, y: 190 });
+      W([210, 196], [210, 325]);
+    }
+  } else {
+    const rin = arm(parts, 'input');
+    if (rin) {
+      W([70, 150], [110, 150]);
+      P.push({ t: 'res', x: 160, y: 150, vertical: false, ...rin, trimmer: false });
+      W([210, 150], [250, 150]);
+    } else W([70, 150], [250, 150]);
+    P.push({ t: 'dot', x: 250, y: 150 });
+    W([300, 190], [270, 190], [270, 325], [210, 325]);
+  }
+  // Reference network below, its node at (210,300).
+  const ref = s.network.reference;
+  // Reference network below, its node at (210,325); the divider stands in a column at x = 120.
+  const NODE_Y = 325;
+  if (ref.kind === 'divider') {
+    const top = arm(parts, 'reference-top');
+    const bot = arm(parts, 'reference-bottom');
+    const zt = parts.find((p) => p.role === 'zero-trim');
+    P.push({ t: 'dot', x: 210, y: NODE_Y });
+    P.push({ t: 'rail', x: 120, y: 220, label: railTop });
+    if (top) P.push({ t: 'res', x: 120, y: 255, vertical: true, ...top, trimmer: false });
+    else W([120, 220], [120, 290]);
+    if (zt) {
+      P.push({ t: 'res', x: 120, y: 325, vertical: true, ref: zt.ref, value: formatEng(zt.ohms, 'Ω', 2), trimmer: true });
+      W([127, 325], [210, 325]);
+    } else W([120, 290], [120, 360]), W([120, NODE_Y], [210, NODE_Y]);
+    if (bot) P.push({ t: 'res', x: 120, y: 395, vertical: true, ...bot, trimmer: false });
+    else W([120, 360], [120, 430]);
+    if (negLabel) P.push({ t: 'rail', x: 120, y: 430, label: negLabel }); else P.push({ t: 'ground', x: 120, y: 430 });
+  } else if (ref.kind === 'rail') {
+    if (Math.abs(ref.voltage - ref.railBottom) < Math.abs(ref.voltage - ref.railTop)) {
+      if (negLabel) P.push({ t: 'rail', x: 210, y: NODE_Y, label: negLabel }); else P.push({ t: 'ground', x: 210, y: NODE_Y });
+    } else P.push({ t: 'rail', x: 210, y: NODE_Y, label: railTop });
+  }
+  // Output network.
+  const os = parts.find((p) => p.role === 'output-series');
+  const oc = parts.find((p) => p.role === 'output-capacitor');
+  if (os) {
+    P.push({ t: 'res', x: 475, y: 170, vertical: false, ref: os.ref, value: formatEng(os.ohms, 'Ω', 3), trimmer: false });
+    W([420, 170], [425, 170]);
+    W([525, 170], [600, 170]);
+    if (oc) {
+      P.push({ t: 'dot', x: 560, y: 170 });
+      W([560, 170], [560, 215]);
+      P.push({ t: 'cap', x: 560, y: 230, ref: oc.ref, value: oc.label });
+      W([560, 245], [560, 260]);
+      P.push({ t: 'ground', x: 560, y: 260 });
+    }
+  } else {
+    W([420, 170], [600, 170]);
+  }
+  P.push({ t: 'terminal', x: 610, y: 170, label: 'To instrument' });
+  P.push({ t: 'text', x: 330, y: 240, text: `U1 ${inv ? 'inverting' : 'non-inverting'}` });
+  return { width: 660, height: 450, prims: P };
+}

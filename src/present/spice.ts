@@ -1,0 +1,157 @@
+/**
+ * SPICE netlist export (Berkeley SPICE 3 syntax) of the designed circuit, element for element as the
+ * report analyses it, so a user can check the design in any simulator.
+ *
+ * The op-amp is a generic behavioural model: a transconductance into an RC sets the open-loop gain A0 and
+ * the dominant pole GBW/A0, a unity buffer and the output resistance follow. Its noise generators are the
+ * thermal noise of 1 kΩ resistors scaled by noiseless controlled sources; resistors that are not physical
+ * parts (the model's own) carry `noisy=0`.
+ */
+import { BOLTZMANN } from '../model/constants.js';
+import type { Report } from '../analysis/report.js';
+
+const fmt = (x: number) => (Number.isFinite(x) ? Number(x.toPrecision(9)).toString() : '0');
+const node = (names: string[], i: number) => (i === 0 ? '0' : names[i]!.replace(/[^A-Za-z0-9_]/g, '_'));
+
+export interface SpiceOptions {
+  /** Date written in the header (ISO 8601); defaults to today. */
+  date?: string;
+}
+
+/** The netlist text, or null when the report has no circuit. */
+export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null {
+  const sc = r.circuit;
+  if (!sc || !r.speed) return null;
+  const c = sc.circuit;
+  const names = c.nodeNames;
+  const d = r.design;
+  const T = d.environment.temperature;
+  const tempC = T - 273.15;
+  const rn = 1000;
+  const enRef = Math.sqrt(4 * BOLTZMANN * T * rn);
+  const lines: string[] = [];
+  const date = opts.date ?? new Date().toISOString().slice(0, 10);
+  const title = d.title.replace(/[\r\n]+/g, ' ').slice(0, 120);
+  lines.push(`* Gainwright netlist: ${title}`);
+  lines.push(`* Exported ${date} (ISO 8601). Topology: ${r.stage?.ideal.topology ?? 'none'}.`);
+  lines.push('* Model assumptions: behavioural op-amp with a single pole at GBW/A0, open-loop output resistance, and its');
+  lines.push('* internal output limited to the swing (outputLow above the - rail, outputHigh below the + rail); no slew limit,');
+  lines.push('* no output current limit, offsets and bias currents omitted; trimmers as two resistors at their settings;');
+  lines.push('* sensor as an ideal source with its resistance and bandwidth (its own output limits are not modelled).');
+  lines.push(`* Measurand ${d.sensor.measurand}: the signal source is ${c.elements[sc.signalIndex]?.name ?? '?'}; its value is quiescent + sensitivity x measurand.`);
+  lines.push(`* Output node: ${node(names, sc.nodes.out)}. Temperature ${fmt(tempC)} C.`);
+  lines.push('*');
+  lines.push(`.temp ${fmt(tempC)}`);
+  let aux = 0;
+  const noiseGen = (label: string): string => {
+    // Node driven only by a 1 kΩ resistor's thermal noise: sqrt(4kTR) V/sqrt(Hz), scaled by the caller.
+    const n = `nz_${label}`;
+    lines.push(`RNZ_${label} ${n} 0 ${rn}`);
+    return n;
+  };
+  c.elements.forEach((e) => {
+    const a = node(names, e.a), b = node(names, e.b);
+    switch (e.kind) {
+      case 'R':
+        lines.push(`${spiceName('R', e.name)} ${a} ${b} ${fmt(e.value)}${e.noisy === false ? ' noisy=0' : ''}`);
+        break;
+      case 'C':
+        lines.push(`${spiceName('C', e.name)} ${a} ${b} ${fmt(e.value)}`);
+        break;
+      case 'L':
+        lines.push(`${spiceName('L', e.name)} ${a} ${b} ${fmt(e.value)}`);
+        break;
+      case 'V': {
+        if (e.noise && e.noise > 0) {
+          const mid = `${a}_nz${aux++}`;
+          const nz = noiseGen(e.name);
+          lines.push(`${spiceName('V', e.name)} ${mid} ${b} DC ${fmt(e.dc0 ?? 0)} AC ${fmt(e.ac ?? 0)}`);
+          lines.push(`${spiceName('E', `${e.name}_N`)} ${a} ${mid} ${nz} 0 ${fmt(e.noise / enRef)}`);
+        } else {
+          lines.push(`${spiceName('V', e.name)} ${a} ${b} DC ${fmt(e.dc0 ?? 0)} AC ${fmt(e.ac ?? 0)}`);
+        }
+        break;
+      }
+      case 'I': {
+        if (e.noise && e.noise > 0) {
+          const nz = noiseGen(e.name);
+          lines.push(`${spiceName('G', `${e.name}_N`)} ${a} ${b} ${nz} 0 ${fmt(e.noise / enRef)}`);
+        }
+        if ((e.dc0 ?? 0) !== 0 || (e.ac ?? 0) !== 0 || (e.dc1 ?? 0) !== 0) lines.push(`${spiceName('I', e.name)} ${a} ${b} DC ${fmt(e.dc0 ?? 0)} AC ${fmt(e.ac ?? 0)}`);
+        break;
+      }
+      case 'E': {
+        const cp = node(names, e.cp ?? 0), cn = node(names, e.cn ?? 0);
+        if (e.pole && e.pole > 0) {
+          // A0/(1 + s/ωp): gm = A0 / Rp into Rp ∥ Cp with Rp·Cp = 1/(2π·fp).
+          const rp = 1e6, cp2 = 1 / (2 * Math.PI * e.pole * rp);
+          const p = `${a}_pole`;
+          lines.push(`${spiceName('G', `${e.name}_GM`)} 0 ${p} ${cp} ${cn} ${fmt(e.value / rp)}`);
+          lines.push(`${spiceName('R', `${e.name}_RP`)} ${p} 0 ${fmt(rp)} noisy=0`);
+          lines.push(`${spiceName('C', `${e.name}_CP`)} ${p} 0 ${fmt(cp2)}`);
+          // The internal output clips at the swing limits, as the report's clipping analysis assumes.
+          const lo = d.supply.negative + d.opamp.outputLow;
+          const hi = (r.design.supply.positive) - d.opamp.outputHigh;
+          lines.push(`${spiceName('B', e.name)} ${a} ${b} V=max(${fmt(lo)}, min(${fmt(hi)}, V(${p})))`);
+        } else {
+          lines.push(`${spiceName('E', e.name)} ${a} ${b} ${cp} ${cn} ${fmt(e.value)}`);
+        }
+        break;
+      }
+    }
+  });
+  const sig = c.elements[sc.signalIndex];
+  const band = r.noise?.band ?? [1, Math.max(r.speed.smallSignal * 100, 1e3)];
+  const out = node(names, sc.nodes.out);
+  const sigName = sig ? spiceName(sig.kind, sig.name) : '';
+  // Start Newton at the operating point the report found: the behavioural limiter makes a cold start hard.
+  const op = r.dc ? nodesetLine(r) : null;
+  lines.push('*');
+  if (op) lines.push(op);
+  lines.push('* Analyses (ngspice .control block): results go to gainwright-*.txt as plain columns in the working folder.');
+  lines.push('* For another simulator replace the block with its own .dc/.ac/.noise lines.');
+  lines.push('.control');
+  lines.push('set wr_singlescale');
+  lines.push('set wr_vecnames');
+  lines.push('op');
+  lines.push(`wrdata gainwright-op.txt v(${out})`);
+  if (sig && r.front.passesDc && r.transfer) {
+    // DC sweep of the signal source across the range and half a range beyond each end (the transfer plot's span).
+    const x0 = r.transfer.x[0]!, x1 = r.transfer.x[r.transfer.x.length - 1]!;
+    const v = (x: number) => (sig.dc0 ?? 0) + (sig.dc1 ?? 0) * x;
+    lines.push(`* source value = ${fmt(sig.dc0 ?? 0)} + ${fmt(sig.dc1 ?? 0)} x measurand, from ${fmt(x0)} to ${fmt(x1)} ${d.sensor.measurand}`);
+    lines.push(`dc ${sigName} ${fmt(v(x0))} ${fmt(v(x1))} ${fmt((v(x1) - v(x0)) / 400)}`);
+    lines.push(`wrdata gainwright-dc.txt v(${out})`);
+  }
+  lines.push(`ac dec 40 ${fmt(Math.min(band[0], 1))} ${fmt(Math.max(band[1], r.speed.smallSignal * 10))}`);
+  lines.push(`wrdata gainwright-ac.txt vm(${out}) vp(${out})`);
+  if (sig) {
+    lines.push(`noise v(${out}) ${sigName} dec 40 ${fmt(band[0])} ${fmt(band[1])}`);
+    lines.push('setplot noise1');
+    lines.push('wrdata gainwright-noise.txt onoise_spectrum');
+  }
+  lines.push('quit');
+  lines.push('.endc');
+  lines.push('.end');
+  return lines.join('\n') + '\n';
+}
+
+/** `.nodeset` of every node at zero measurand, from the report's own DC solution. */
+function nodesetLine(r: Report): string | null {
+  const sc = r.circuit!;
+  if (!r.dc) return null;
+  const col = r.dc.c0;
+  const names = sc.circuit.nodeNames;
+  const parts: string[] = [];
+  for (let i = 1; i < names.length; i++) parts.push(`V(${node(names, i)})=${fmt(col[i - 1]!)}`);
+  // The op-amp's pole node sits at the internal output voltage.
+  const e = sc.circuit.elements[sc.opampIndex];
+  if (e) parts.push(`V(${node(names, e.a)}_pole)=${fmt(col[e.a - 1]!)}`);
+  return `.nodeset ${parts.join(' ')}`;
+}
+
+/** SPICE wants the first letter to be the element type. */
+function spiceName(kind: string, name: string): string {
+  const clean = name.replace(/[^A-Za-z0-9_]/g, '_');
+  return clean.toUpperCase().startsWith(kind) ? clean : `${kind}_${clean}`;
+}

@@ -1,0 +1,87 @@
+/** The report as plain text for a terminal: verdicts first, then parts, figures, calibration, cautions. */
+import { ROLE_NAMES } from '../solve/solver.js';
+import { SAFETY_CAUTIONS, type Report } from '../analysis/report.js';
+import { formatEng } from '../model/units.js';
+
+const f = (x: number | null | undefined, u = '', d = 3) => (x === null || x === undefined ? '—' : formatEng(x, u, d));
+const MARK = { pass: 'PASS', caution: 'CAUTION', fail: 'FAIL' } as const;
+
+export function textReport(r: Report): string {
+  const d = r.design;
+  const m = d.sensor.measurand;
+  const out: string[] = [];
+  const h = (s: string) => out.push('', s, '-'.repeat(s.length));
+  out.push(`${d.title}`, '='.repeat(Math.min(d.title.length, 80)));
+  h('Verdict');
+  for (const v of r.verdicts) out.push(`  [${MARK[v.level]}] ${v.title}: ${v.detail}`);
+  const s = r.stage;
+  h('Stage');
+  out.push(`  ${r.choice.why}`);
+  if (s && r.dc) {
+    out.push(`  Gain ${s.gain.toFixed(5)} (noise gain ${(s.ideal.topology === 'non-inverting' ? s.gain : 1 + s.gain).toFixed(5)}), reference ${f(s.reference, 'V', 5)}`);
+    out.push(`  Scale ${f(r.dc.out[1], `V/${m}`, 5)} (target ${f(d.target.scale, `V/${m}`, 5)}, ${(s.scaleError * 100).toFixed(4)} % before trim), zero ${f(r.dc.out[0], 'V', 5)} (target ${f(d.target.zero, 'V', 5)})`);
+    h('Parts');
+    for (const p of s.parts) {
+      out.push(`  ${p.ref.padEnd(5)} ${p.label.padEnd(24)} ${(p.code || '').padEnd(6)} ${p.series === 'trimmer' || p.series === 'capacitor' ? '' : `${p.series} ±${(p.tolerance * 100).toFixed(1)} %`.padEnd(13)} ${ROLE_NAMES[p.role]}${p.setting !== undefined ? ` (set to ${(p.setting * 100).toFixed(0)} %)` : ''}`);
+    }
+    if (s.alternatives.length > 1) {
+      out.push('  Alternatives for the gain network (feedback / leg, error):');
+      s.alternatives.slice(0, 5).forEach((a, i) => out.push(`   ${i === s.chosen ? '*' : ' '}${i}: ${a.a.parts.map((p) => formatEng(p, 'Ω')).join(a.a.arrangement === 'parallel' ? ' ∥ ' : ' + ')} / ${a.b.parts.map((p) => formatEng(p, 'Ω')).join(a.b.arrangement === 'parallel' ? ' ∥ ' : ' + ')}, ${(a.error * 100).toFixed(4)} %`));
+    }
+  }
+  if (r.front.figures.length) {
+    h('Sensor');
+    for (const fig of r.front.figures) out.push(`  ${fig.label}: ${fig.unit === '' ? `${(fig.value * 100).toFixed(2)} %` : f(fig.value, fig.unit)}`);
+  }
+  if (r.clip) {
+    const c = r.clip;
+    h('Range and clipping');
+    out.push(`  Range ${f(c.rangePeak[0], m)} … ${f(c.rangePeak[1], m)}${d.target.signal === 'ac-rms' ? ' (sine peaks of the rms range)' : ''} → output ${f(c.rangeOutput[0], 'V')} … ${f(c.rangeOutput[1], 'V')}`);
+    out.push(`  Linear from ${f(c.measurandLow, m)} (${c.firstLow}) to ${f(c.measurandHigh, m)} (${c.firstHigh}); output clips at ${f(c.outputLow, 'V')} / ${f(c.outputHigh, 'V')}`);
+    out.push(`  Headroom ${f(c.headroom.low, 'V')} (${c.headroom.lowPercent.toFixed(1)} % of span) low, ${f(c.headroom.high, 'V')} (${c.headroom.highPercent.toFixed(1)} %) high; first to saturate: ${c.first}`);
+  }
+  if (r.speed) {
+    h('Speed');
+    out.push(`  Small-signal bandwidth ${f(r.speed.smallSignal, 'Hz')}${r.speed.lowCorner ? `, low corner ${f(r.speed.lowCorner, 'Hz')}` : ''}, phase at the corner ${r.speed.phaseAtCorner.toFixed(1)}°`);
+    out.push(`  Rise time ${f(r.speed.riseTime, 's')}; full-power bandwidth ${f(r.speed.fullPower, 'Hz')} at ${f(r.speed.peakSwing, 'V')} peak`);
+  }
+  if (r.noise) {
+    h('Noise');
+    out.push(`  ${f(r.noise.densityAt1kHz, 'V/√Hz')} at 1 kHz (${f(r.noise.referredDensityAt1kHz, `${m}/√Hz`)}); ${f(r.noise.rms, 'V')} rms over ${f(r.noise.band[0], 'Hz')}…${f(r.noise.band[1], 'Hz')} = ${f(r.noise.referredRms, m)} rms, about ${f(r.noise.peakToPeak, 'V')} p-p`);
+    out.push(`  Largest contributors: ${r.noise.shares.slice(0, 4).map((x) => `${x.name} ${(x.fraction * 100).toFixed(1)} %`).join(', ')}`);
+  }
+  if (r.errors) {
+    h(`DC error budget at ${f(r.errors.at, m)}`);
+    for (const t of r.errors.terms) out.push(`  ${t.name.padEnd(44)} ±${f(t.value, m)}  ${t.removedBy === 'none' ? '(remains after trim)' : `(trimmed: ${t.removedBy})`}`);
+    out.push(`  Worst case ±${f(r.errors.worstCase, m)}, RSS ±${f(r.errors.rss, m)}; after calibration ±${f(r.errors.afterTrim, m)} (RSS ±${f(r.errors.afterTrimRss, m)})`);
+  }
+  if (r.supply) {
+    h('Supply');
+    for (const p of r.supply.parts) out.push(`  ${p.name}: ${f(p.current, 'A')}`);
+    out.push(`  Total ${f(r.supply.current, 'A')}${r.supply.batteryLife !== null ? `; battery life about ${r.supply.batteryLife.toFixed(1)} h` : ''}`);
+  }
+  if (r.battery.length) {
+    out.push('  Battery sweep (V: linear range, headroom low/high, zero shift):');
+    for (const b of r.battery) out.push(`   ${b.voltage.toFixed(2)} V: ${f(b.measurandLow, m)} … ${f(b.measurandHigh, m)}, ${f(b.headroomLow, 'V')} / ${f(b.headroomHigh, 'V')}, ${f(b.zeroShift, 'V')}${b.regulated ? '' : ' (regulator out of regulation)'}`);
+  }
+  if (r.spread) {
+    h(`Tolerance spread (${r.spread.trials} seeded trials)`);
+    out.push(`  Scale ${f(r.spread.scaleMean, `V/${m}`, 4)} ± ${f(r.spread.scaleStd, `V/${m}`)} (1σ); zero ${f(r.spread.zeroMean, 'V', 4)} ± ${f(r.spread.zeroStd, 'V')}; ${(r.spread.yield * 100).toFixed(1)} % within ±${(d.analysis.scaleLimit * 100).toFixed(1)} % and ±${f(d.analysis.zeroLimit, 'V')} before trim`);
+  }
+  if (r.drive) {
+    h('Driving the instrument');
+    out.push(`  Scale at a 1 MΩ input ${f(r.drive.scaleAt1M, `V/${m}`, 4)}, at 50 Ω ${f(r.drive.scaleAt50, `V/${m}`, 4)}${r.drive.drives50 ? '' : ' (the op-amp cannot drive 50 Ω over the range)'}`);
+    if (r.drive.probeRatio) out.push(`  Set the instrument's probe ratio to ${r.drive.probeRatio}× to read ${m} directly`);
+  }
+  if (r.warnings.length) {
+    h('Findings');
+    for (const w of r.warnings) out.push(`  [${w.level}] ${w.message}`);
+  }
+  if (r.calibration.length) {
+    h('Calibration');
+    r.calibration.forEach((c, i) => out.push(`  ${i + 1}. ${c.text}`));
+  }
+  h('Safety');
+  for (const c of [...SAFETY_CAUTIONS, ...r.front.cautions]) out.push(`  ! ${c}`);
+  return out.join('\n') + '\n';
+}

@@ -1,0 +1,59 @@
+/** Edge designs answer with guidance, not failure (robustness issue). */
+import { describe, expect, it } from 'vitest';
+import { analyse, reportJson } from '../../src/analysis/report.js';
+import { validateDesign, type Design } from '../../src/model/design.js';
+import { DEMOS } from '../../src/model/demos.js';
+import { designFrom } from '../helpers.js';
+
+const design = (patch: (d: any) => void): Design => designFrom('generic-sensor', patch);
+const finite = (x: unknown): boolean => typeof x === 'number' ? Number.isFinite(x) : Array.isArray(x) ? x.every(finite) : x && typeof x === 'object' ? Object.values(x).every(finite) : true;
+
+describe('edge designs', () => {
+  it('a wanted gain of exactly 1 gives a buffer', () => {
+    const r = analyse(design((d) => { d.target.scale = 0.0125; d.target.zero = 2.5; }), { spreadTrials: 0 });
+    expect(r.stage!.gain).toBe(1);
+    expect(r.warnings.map((w) => w.code)).toContain('buffer-no-trim');
+    expect(finite(reportJson(r))).toBe(true);
+  });
+  it('a gain below 1 with the sensor\'s polarity explains how to get there', () => {
+    const r = analyse(design((d) => { d.target.scale = 0.005; d.target.zero = 2.5; }), { spreadTrials: 0 });
+    expect(r.stage).toBeNull();
+    expect(r.warnings.find((w) => w.code === 'guidance')!.message).toMatch(/reverse the conductor/i);
+    expect(r.verdicts[0]!.level).toBe('fail');
+    expect(finite(reportJson(r))).toBe(true);
+  });
+  it('a gain below 1 with opposite polarity is met by an attenuating inverting stage', () => {
+    const r = analyse(design((d) => { d.target.scale = -0.005; d.target.zero = 2.5; }), { spreadTrials: 0 });
+    expect(r.stage!.ideal.topology).toBe('inverting');
+    expect(r.stage!.gain).toBeLessThan(1);
+  });
+  it('a ratio outside the resistance window says to widen it', () => {
+    const r = analyse(design((d) => { d.target.scale = 12.5; d.target.range = [-0.2, 0.2]; d.target.resistanceMin = 1e3; d.target.resistanceMax = 2e4; }), { spreadTrials: 0 });
+    expect(r.warnings.find((w) => w.code === 'gain-unrealisable')!.message).toMatch(/widen the resistance window/);
+    expect(finite(reportJson(r))).toBe(true);
+  });
+  it('a single supply with a range that needs negative output shows where it clips and what would fit', () => {
+    const r = analyse(design((d) => { d.target.zero = 0.5; }), { spreadTrials: 0 });
+    const w = r.warnings.find((x) => x.code === 'clips-in-range-low')!;
+    expect(w.message).toMatch(/split supply/);
+    expect(r.clip!.measurandLow).toBeCloseTo((0.05 - 0.5) / 0.1, 0);
+  });
+  it('rails too low for the op-amp are refused with the field named', () => {
+    const v = validateDesign({ ...structuredClone(DEMOS.find((d) => d.id === 'generic-sensor')!.document), supply: { positive: 1.5, negative: 0 } });
+    expect(v.ok).toBe(false);
+    if (!v.ok) expect(v.problems.map((p) => p.path)).toEqual(expect.arrayContaining(['opamp.inputHigh', 'opamp.outputHigh']));
+  });
+  it('an op-amp that cannot reach the bandwidth gets a failure line with the figure', () => {
+    const r = analyse(design((d) => { d.target.bandwidth = 1e6; }), { spreadTrials: 0 });
+    expect(r.verdicts.find((v) => v.title.startsWith('Bandwidth'))!.level).toBe('fail');
+    expect(r.warnings.map((w) => w.code)).toEqual(expect.arrayContaining(['bandwidth-short', 'slew-limited']));
+  });
+  it('old files keep opening: version 1 is read as it is; 0 and newer versions are refused with a reason', () => {
+    const doc = structuredClone(DEMOS[0]!.document);
+    expect(validateDesign(doc).ok).toBe(true);
+    const v0 = validateDesign({ ...doc, version: 0 });
+    expect(!v0.ok && v0.problems[0]!.message).toMatch(/whole number from 1/);
+    const v2 = validateDesign({ ...doc, version: 2 });
+    expect(!v2.ok && v2.problems[0]!.message).toMatch(/newer/);
+  });
+});

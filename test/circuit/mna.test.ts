@@ -1,0 +1,134 @@
+import { describe, expect, it } from 'vitest';
+import { adjointAt, compile, solveDc, transferFrom, workspace, type Element } from '../../src/circuit/mna.js';
+
+// Node 1 = source, 2 = + input, 3 = − input, 4 = op-amp internal, 5 = output.
+function nonInverting(a0: number, rf: number, rg: number, poleHz = 0): Element[] {
+  return [
+    { kind: 'V', name: 'VS', a: 1, b: 0, value: 0, dc0: 0, dc1: 1, ac: 1 },
+    { kind: 'R', name: 'RS', a: 1, b: 2, value: 0 },
+    { kind: 'E', name: 'EOA', a: 4, b: 0, value: a0, cp: 2, cn: 3, pole: poleHz },
+    { kind: 'R', name: 'ROUT', a: 4, b: 5, value: 1e-3 },
+    { kind: 'R', name: 'RF', a: 5, b: 3, value: rf },
+    { kind: 'R', name: 'RG', a: 3, b: 0, value: rg },
+  ];
+}
+const names = ['0', 'src', 'inp', 'inn', 'int', 'out'];
+
+describe('MNA against closed forms', () => {
+  // Black's feedback formula (any control-systems or op-amp text; Texas A&M ECEN 457 notes eq. 1):
+  // closed-loop gain A/(1 + A·β) with β = Rg/(Rf + Rg).
+  it('non-inverting gain with finite open-loop gain is A/(1+Aβ)', () => {
+    const a0 = 1e4, rf = 9000, rg = 1000;
+    const c = compile(names, nonInverting(a0, rf, rg));
+    const sol = solveDc(c, [(e) => e.dc1 ?? 0])!;
+    const beta = rg / (rf + rg);
+    expect(sol.columns[0]![4]! / (a0 / (1 + a0 * beta))).toBeCloseTo(1, 6);
+  });
+  it('inverting gain with finite open-loop gain is −(Rf/Rin)·Aβ/(1+Aβ), β = Rin/(Rin+Rf)', () => {
+    const a0 = 1e3, rf = 47e3, rin = 4.7e3;
+    const el: Element[] = [
+      { kind: 'V', name: 'VS', a: 1, b: 0, value: 0, dc0: 0, dc1: 1, ac: 1 },
+      { kind: 'R', name: 'RIN', a: 1, b: 3, value: rin },
+      { kind: 'E', name: 'EOA', a: 4, b: 0, value: a0, cp: 2, cn: 3 },
+      { kind: 'R', name: 'ROUT', a: 4, b: 5, value: 1e-3 },
+      { kind: 'R', name: 'RF', a: 5, b: 3, value: rf },
+      { kind: 'R', name: 'RP', a: 2, b: 0, value: 1 },
+    ];
+    const c = compile(names, el);
+    const g = solveDc(c, [(e) => e.dc1 ?? 0])!.columns[0]![4]!;
+    const beta = rin / (rin + rf);
+    expect(g / (-(rf / rin) * (a0 * beta) / (1 + a0 * beta))).toBeCloseTo(1, 6);
+  });
+  // Single-pole op-amp: closed-loop corner f_p·(1 + A0·β) ≈ GBW / noise gain (ECEN 457 eq. 2; NEETS Module 8:
+  // GBW 1 MHz gives gain 10 out to 100 kHz).
+  it('closed-loop −3 dB corner of a gain-10 stage on a 1 MHz GBW part is 100 kHz', () => {
+    const a0 = 1e5, gbw = 1e6;
+    const c = compile(names, nonInverting(a0, 9000, 1000, gbw / a0));
+    const ws = workspace(c);
+    const mag = (f: number) => {
+      adjointAt(c, 2 * Math.PI * f, 5, ws);
+      const [re, im] = transferFrom(c, 0, ws);
+      return Math.hypot(re, im);
+    };
+    const g0 = mag(1);
+    const exact = (gbw / a0) * (1 + a0 * 0.1);
+    expect(mag(exact) / g0).toBeCloseTo(Math.SQRT1_2, 4);
+    expect(exact / 100e3).toBeCloseTo(1, 3);
+  });
+  // UC Berkeley EE105 lecture 5: A0 = 1e4 with a pole at 1e3 rad/s has unity gain at 1e7 rad/s (1.59 MHz).
+  it('open-loop single pole crosses unity at A0·ωp (EE105: 1e4 × 1e3 rad/s → 1.59 MHz)', () => {
+    const el: Element[] = [
+      { kind: 'V', name: 'VS', a: 1, b: 0, value: 0, dc0: 0, dc1: 1, ac: 1 },
+      { kind: 'E', name: 'EOA', a: 2, b: 0, value: 1e4, cp: 1, cn: 0, pole: 1e3 / (2 * Math.PI) },
+      { kind: 'R', name: 'RL', a: 2, b: 0, value: 1e3 },
+    ];
+    const c = compile(['0', 'in', 'out'], el);
+    const ws = workspace(c);
+    adjointAt(c, 1e7, 2, ws);
+    const [re, im] = transferFrom(c, 0, ws);
+    expect(Math.hypot(re, im)).toBeCloseTo(1, 3);
+  });
+  // RC low-pass: |H| = 1/√2 at f = 1/(2πRC) (any circuits text).
+  it('RC low-pass is −3 dB at 1/(2πRC) with −45° phase', () => {
+    const r = 1000, cap = 100e-9;
+    const el: Element[] = [
+      { kind: 'V', name: 'VS', a: 1, b: 0, value: 0, ac: 1 },
+      { kind: 'R', name: 'R', a: 1, b: 2, value: r },
+      { kind: 'C', name: 'C', a: 2, b: 0, value: cap },
+    ];
+    const c = compile(['0', 'in', 'out'], el);
+    const ws = workspace(c);
+    adjointAt(c, 1 / (r * cap), 2, ws);
+    const [re, im] = transferFrom(c, 0, ws);
+    expect(Math.hypot(re, im)).toBeCloseTo(Math.SQRT1_2, 9);
+    expect((Math.atan2(im, re) * 180) / Math.PI).toBeCloseTo(-45, 6);
+  });
+  it('a current source into a resistor gives I·R (Ohm\'s law), and an inductor shorts DC', () => {
+    const el: Element[] = [
+      { kind: 'I', name: 'I', a: 0, b: 1, value: 0, dc0: 2e-3 },
+      { kind: 'R', name: 'R', a: 1, b: 0, value: 1500 },
+    ];
+    expect(solveDc(compile(['0', 'n'], el), [(e) => e.dc0 ?? 0])!.columns[0]![0]).toBeCloseTo(3, 12);
+    const el2: Element[] = [...el, { kind: 'L', name: 'L', a: 1, b: 0, value: 1 }];
+    expect(solveDc(compile(['0', 'n'], el2), [(e) => e.dc0 ?? 0])!.columns[0]![0]).toBeCloseTo(0, 12);
+    expect(solveDc(compile(['0', 'n'], el2), [(e) => e.dc0 ?? 0], true)!.columns[0]![0]).toBeCloseTo(3, 12);
+  });
+  it('a floating node makes the matrix singular and the solve says so (null)', () => {
+    const el: Element[] = [{ kind: 'C', name: 'C', a: 1, b: 0, value: 1e-9 }];
+    expect(solveDc(compile(['0', 'n'], el), [() => 0])).toBeNull();
+  });
+
+  // NEETS Module 8 (NAVEDTRA 14180), figs. 3-17 to 3-19: with GBW 1 MHz a gain of 100 holds to 10 kHz.
+  it('a gain-100 stage on a 1 MHz GBW part is −3 dB at 10 kHz', () => {
+    const a0 = 1e5, gbw = 1e6;
+    const c = compile(names, nonInverting(a0, 99e3, 1e3, gbw / a0));
+    const ws = workspace(c);
+    const mag = (f: number) => { adjointAt(c, 2 * Math.PI * f, 5, ws); return Math.hypot(...transferFrom(c, 0, ws)); };
+    expect(mag(10e3) / mag(1)).toBeCloseTo(Math.SQRT1_2, 2);
+  });
+});
+
+describe('output offset (Sivakumar, Linear Integrated Circuits, ex. 5.1 and 5.2)', () => {
+  // Offset voltage in series with the + input, R1 to ground from the − input, R2 feedback; an offset has no
+  // set sign, so magnitudes are compared.
+  function offsetStage(r1: number, r2: number, vos: number, ib: number): number {
+    const el: Element[] = [
+      { kind: 'V', name: 'VOS', a: 0, b: 1, value: 0, dc0: vos },
+      { kind: 'I', name: 'IBN', a: 2, b: 0, value: 0, dc0: ib },
+      { kind: 'E', name: 'EOA', a: 3, b: 0, value: 1e7, cp: 1, cn: 2 },
+      { kind: 'R', name: 'ROUT', a: 3, b: 4, value: 1e-3 },
+      { kind: 'R', name: 'R2', a: 4, b: 2, value: r2 },
+      { kind: 'R', name: 'R1', a: 2, b: 0, value: r1 },
+    ];
+    return solveDc(compile(['0', 'inp', 'inn', 'int', 'out'], el), [(e) => e.dc0 ?? 0])!.columns[0]![3]!;
+  }
+  it('ex. 5.1: V_os 4 mV with R1 5 kΩ, R2 500 kΩ gives 404 mV; 150 nA into R2 gives 75 mV', () => {
+    expect(Math.abs(offsetStage(5e3, 500e3, 4e-3, 0))).toBeCloseTo(0.404, 4);
+    // The − input's current flows out of the pin through R2: the output moves by I·R2 (sign by direction).
+    expect(Math.abs(offsetStage(5e3, 500e3, 0, 150e-9))).toBeCloseTo(0.075, 5);
+  });
+  it('ex. 5.2: 2 mV with 10 kΩ and 250 kΩ gives 52 mV; 20 nA gives 5 mV', () => {
+    expect(Math.abs(offsetStage(10e3, 250e3, 2e-3, 0))).toBeCloseTo(0.052, 5);
+    expect(Math.abs(offsetStage(10e3, 250e3, 0, 20e-9))).toBeCloseTo(0.005, 6);
+  });
+});

@@ -1,0 +1,61 @@
+import { describe, expect, it } from 'vitest';
+import { chooseTopology, idealStage, invertingOutput, nonInvertingOutput } from '../../src/physics/topology.js';
+import { sensorFront } from '../../src/physics/sensors.js';
+import type { Design } from '../../src/model/design.js';
+import { designFrom } from '../helpers.js';
+
+const design = (patch: (d: any) => void = () => {}): Design => designFrom('generic-sensor', patch);
+
+describe('closed forms', () => {
+  // Non-inverting with the reference at the foot of the ground leg: superposition of G·Vs and −(G−1)·Vref
+  // (ECEN 457 notes: non-inverting gain 1+Rf/Rg, inverting gain −Rf/Rg).
+  it('non-inverting: Vout = G·Vs − (G−1)·Vref', () => {
+    expect(nonInvertingOutput(8, 2.5, 2.5)).toBeCloseTo(2.5, 12);
+    expect(nonInvertingOutput(8, 2.5 + 0.0125 * 20, 15.5 / 7)).toBeCloseTo(6.5, 12);
+  });
+  it('inverting: Vout = (1+G)·Vp − G·Vs', () => {
+    expect(invertingOutput(4, 1, 1)).toBeCloseTo(1, 12);
+    expect(invertingOutput(4, 0, 1)).toBeCloseTo(5, 12);
+  });
+});
+
+describe('idealStage and chooseTopology', () => {
+  it('12.5 mV/A to 100 mV/A at 4.5 V: non-inverting, G = 8, Vref = (8·2.5 − 4.5)/7', () => {
+    const d = design();
+    const s = idealStage('non-inverting', d, sensorFront(d.sensor, d));
+    expect(s.feasible).toBe(true);
+    // Load factor 1 MΩ / (1 MΩ + 0): the pin scale equals the target.
+    expect(s.gain).toBeCloseTo(8, 9);
+    expect(s.reference).toBeCloseTo(15.5 / 7, 9);
+    expect(chooseTopology(d, sensorFront(d.sensor, d)).chosen?.topology).toBe('non-inverting');
+  });
+  it('an opposite-polarity target picks the inverting stage and says why', () => {
+    const d = design((x) => { x.target.scale = -0.1; });
+    const c = chooseTopology(d, sensorFront(d.sensor, d));
+    expect(c.chosen?.topology).toBe('inverting');
+    expect(c.considered[0]!.reasons.join(' ')).toMatch(/polarity/);
+    // Vp = (zero + G·Vq)/(1+G) with G = 8.
+    expect(c.chosen!.reference).toBeCloseTo((4.5 + 8 * 2.5) / 9, 9);
+  });
+  it('a gain below 1 with the same polarity fits neither and gives guidance', () => {
+    const d = design((x) => { x.target.scale = 0.005; x.target.zero = 2.5; });
+    const c = chooseTopology(d, sensorFront(d.sensor, d));
+    expect(c.chosen).toBeNull();
+    expect(c.guidance.join(' ')).toMatch(/reverse the conductor/i);
+  });
+  it('inputs that leave the op-amp input range rule out the non-inverting stage', () => {
+    // The sensor swings to 2.5 + 0.0125·400 = 7.5 V … but the input stops at 9 − 3 = 6 V.
+    const d = design((x) => { x.opamp.inputHigh = 3; x.target.range = [-100, 300]; x.target.scale = 0.0125 * 1.2; x.target.zero = 3; x.opamp.outputHigh = 0.1; });
+    const s = idealStage('non-inverting', d, sensorFront(d.sensor, d));
+    expect(s.feasible).toBe(false);
+    expect(s.reasons.join(' ')).toMatch(/input range/);
+  });
+  it('a unity buffer is feasible only when the zero already matches', () => {
+    const d = design((x) => { x.target.scale = 0.0125; x.target.zero = 2.5; });
+    const s = idealStage('non-inverting', d, sensorFront(d.sensor, d));
+    expect(s.feasible).toBe(true);
+    expect(s.needsReference).toBe(false);
+    const d2 = design((x) => { x.target.scale = 0.0125; x.target.zero = 3; });
+    expect(idealStage('non-inverting', d2, sensorFront(d2.sensor, d2)).feasible).toBe(false);
+  });
+});

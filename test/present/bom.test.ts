@@ -1,0 +1,34 @@
+import { describe, expect, it } from 'vitest';
+import { bomCsv, bomRows, dissipations, powerRating } from '../../src/present/bom.js';
+import { analyse } from '../../src/analysis/report.js';
+import { designFrom, shuntOnSplitSupply } from '../helpers.js';
+
+describe('parts list', () => {
+  it('power rating keeps dissipation at or under half the rating (50 % derating, common practice)', () => {
+    expect(powerRating(0.01)).toBe(0.125);
+    expect(powerRating(0.0625)).toBe(0.125);
+    expect(powerRating(0.07)).toBe(0.25);
+    expect(powerRating(0.3)).toBe(1);
+  });
+  it('a shunt at its range end dissipates I²R (Joule) and is rated for it', () => {
+    const r = analyse(designFrom('generic-sensor', shuntOnSplitSupply), { spreadTrials: 0 });
+    // 5 A through 10 mΩ: 0.25 W (the input network's share of the current is negligible).
+    expect(dissipations(r).get('RSH')! / 0.25).toBeCloseTo(1, 3);
+  });
+  it('lists every stage part once with its code, plus the sensor, the op-amp and its decoupling', () => {
+    const r = analyse(designFrom('bench-clamp'), { spreadTrials: 0 });
+    const rows = bomRows(r);
+    for (const p of r.stage!.parts) expect(rows.filter((x) => x.ref === p.ref).length).toBe(1);
+    expect(rows.map((x) => x.ref)).toEqual(expect.arrayContaining(['S1', 'U1', 'U2', 'C9']));
+    for (const row of rows.filter((x) => x.ref.startsWith('R'))) expect(row.rating).toBeGreaterThanOrEqual(0.125);
+  });
+  it('CSV quotes every cell, neutralises formulas and ends with the cautions', () => {
+    const r = analyse(designFrom('generic-sensor', (x) => { x.opamp.name = '=HYPERLINK("x")'; }), { spreadTrials: 0 });
+    const csv = bomCsv(r);
+    const lines = csv.trim().split('\r\n');
+    expect(lines[0]).toBe('"Designator","Value","Code (IEC 60062)","Specification","Dissipation (W)","Rating (W)","Quantity","Role"');
+    expect(csv).toContain(`"'=HYPERLINK(""x"")"`);
+    expect(csv).toMatch(/CAUTION: Clamp only onto insulated conductors/);
+    expect(csv).toMatch(/measurement-category/);
+  });
+});

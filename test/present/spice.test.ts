@@ -1,0 +1,28 @@
+import { describe, expect, it } from 'vitest';
+import { spiceNetlist } from '../../src/present/spice.js';
+import { analyse } from '../../src/analysis/report.js';
+import { designFrom } from '../helpers.js';
+
+describe('SPICE netlist', () => {
+  const r = analyse(designFrom('generic-sensor'), { spreadTrials: 0 });
+  const net = spiceNetlist(r, { date: '2026-12-01' })!;
+  it('starts with the title, an ISO 8601 date and the model assumptions', () => {
+    const head = net.split('\n').slice(0, 8).join('\n');
+    expect(head).toMatch(/^\* Gainwright netlist: Generic 12\.5 mV\/A sensor/);
+    expect(head).toMatch(/2026-12-01 \(ISO 8601\)/);
+    expect(head).toMatch(/Model assumptions/);
+  });
+  it('holds every fixed part at its value and both halves of each trimmer at its setting', () => {
+    for (const p of r.stage!.parts.filter((x) => x.kind === 'resistor')) expect(net).toMatch(new RegExp(`^${p.ref} \\S+ \\S+ ${p.ohms}$`, 'm'));
+    const zt = r.stage!.parts.find((p) => p.role === 'zero-trim')!;
+    const halves = [...net.matchAll(new RegExp(`^${zt.ref}[AB] \\S+ \\S+ (\\S+)`, 'gm'))].map((m) => Number(m[1]));
+    expect(halves.reduce((a, b) => a + b, 0)).toBeCloseTo(zt.ohms, 6);
+    expect(net).toMatch(/^RLOAD \S+ 0 1000000$/m);
+    expect(net).toMatch(/^\.end$/m);
+  });
+  it('a title cannot break out of its comment line', () => {
+    const r2 = analyse({ ...r.design, title: 'x\n.include /etc/passwd' }, { spreadTrials: 0 });
+    const n2 = spiceNetlist(r2)!;
+    expect(n2).not.toMatch(/^\.include/m);
+  });
+});

@@ -1,0 +1,77 @@
+import { describe, expect, it } from 'vitest';
+import { armTable, searchPairs, searchPairsExhaustive, type PairProblem } from '../../src/solve/search.js';
+import { isMember } from '../../src/model/eseries.js';
+import { mulberry32 } from '../../src/model/random.js';
+
+describe('armTable', () => {
+  it('holds singles, series and parallel pairs from the window, deduplicated and sorted', () => {
+    const t = armTable('E12', 1e3, 1e4, ['single', 'series', 'parallel']);
+    // 13 singles; 91 series and 91 parallel pairs before deduplication.
+    expect(t.size).toBeGreaterThan(13);
+    expect(t.size).toBeLessThanOrEqual(13 + 91 + 91);
+    for (let i = 1; i < t.size; i++) expect(t.value[i]!).toBeGreaterThan(t.value[i - 1]!);
+    for (let i = 0; i < t.size; i++) {
+      expect(isMember(t.p1[i]!, 'E12')).toBe(true);
+      if (t.kind[i]) expect(isMember(t.p2[i]!, 'E12')).toBe(true);
+    }
+  });
+  it('with only single parts it is the series itself', () => {
+    expect([...armTable('E6', 1e3, 1e4, ['single']).value]).toEqual([1000, 1500, 2200, 3300, 4700, 6800, 10000]);
+  });
+});
+
+describe('searchPairs finds the true optimum', () => {
+  const ratioProblem = (k: number, offset = 0): PairProblem => ({
+    idealB: (a) => a / k - offset,
+    error: (a, b) => a / (b + offset) / k - 1,
+    preferredA: 1e4, floor: 0,
+  });
+  // Required by the foundation issue: fast search vs exhaustive over E12/E24 two-part arms, many random targets.
+  it.each(['E12', 'E24'] as const)('same best error as an exhaustive search on %s two-part arms over 60 random targets', (series) => {
+    const t = armTable(series, 1e3, 1e5, ['single', 'series', 'parallel']);
+    const rand = mulberry32(42);
+    for (let n = 0; n < 60; n++) {
+      const k = 10 ** (rand() * 3 - 1); // 0.1 … 100
+      const offset = rand() < 0.5 ? 0 : rand() * 2000;
+      const p = ratioProblem(k, offset);
+      const fast = searchPairs(t, t, p);
+      const slow = searchPairsExhaustive(t, t, p);
+      expect(Math.abs(fast.best!.error)).toBe(slow.bestError);
+      expect(fast.evaluated).toBeLessThan(slow.evaluated / 20);
+    }
+  });
+  it('an exact ratio is found with zero error: 10 k / 1 k = 10', () => {
+    const t = armTable('E12', 1e3, 1e5, ['single']);
+    const r = searchPairs(t, t, ratioProblem(10));
+    expect(Math.abs(r.best!.error)).toBe(0);
+  });
+  it('ranks by score and keeps distinct alternatives', () => {
+    const t = armTable('E24', 1e3, 1e6, ['single', 'series', 'parallel']);
+    const r = searchPairs(t, t, { ...ratioProblem(7.3), floor: 5e-4 }, 8);
+    expect(r.ranked.length).toBe(8);
+    for (let i = 1; i < r.ranked.length; i++) expect(r.ranked[i]!.score).toBeGreaterThanOrEqual(r.ranked[i - 1]!.score);
+    const keys = new Set(r.ranked.map((c) => `${c.a.ohms}/${c.b.ohms}`));
+    expect(keys.size).toBe(8);
+  });
+  it('returns nothing when no partner fits', () => {
+    const t = armTable('E12', 1e3, 1e4, ['single']);
+    const r = searchPairs(t, t, { idealB: () => -1, error: () => 0, preferredA: 1e3, floor: 0 });
+    expect(r.best).toBeNull();
+    expect(r.ranked).toEqual([]);
+  });
+});
+
+describe('the closed-form fast path', () => {
+  it('gives the same ranking and optimum as the general functions it stands for', () => {
+    const t = armTable('E96', 1e3, 1e6, ['single', 'series', 'parallel']);
+    const rand = mulberry32(7);
+    for (let n = 0; n < 20; n++) {
+      const g = 1 + 10 ** (rand() * 2), half = rand() * 5000, rth = rand() * 3000;
+      const general: PairProblem = { idealB: (a) => (a + half) / (g - 1) - rth, error: (a, b) => (1 + (a + half) / (b + rth)) / g - 1, preferredA: 1e5, floor: 5e-4, aMin: 4e4, aMax: 2.5e5 };
+      const fast = { ...general, ratio: { cA: half, cB: rth, k: g - 1, m: (g - 1) / g } };
+      const a = searchPairs(t, t, general), b = searchPairs(t, t, fast);
+      expect(b.best!.error).toBeCloseTo(a.best!.error, 12);
+      expect(b.ranked.map((c) => [c.a.ohms, c.b.ohms])).toEqual(a.ranked.map((c) => [c.a.ohms, c.b.ohms]));
+    }
+  });
+});
