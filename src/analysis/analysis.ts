@@ -13,6 +13,7 @@ import type { SolvedStage } from '../solve/solver.js';
 import { peakRange } from '../physics/topology.js';
 import { mulberry32 } from '../model/random.js';
 import { HOUR } from '../model/constants.js';
+import { formatEng } from '../model/units.js';
 
 export type ClipCause = 'opamp-output' | 'opamp-current' | 'opamp-input' | SensorLimitKind;
 
@@ -365,7 +366,7 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
     };
     const t = shift(p.tolerance);
     const removed = p.kind === 'trimmer' ? 'both' : 'both';
-    terms.push({ name: `${p.ref} tolerance (${p.label})`, value: toUnits(t.dz + t.ds * xEnd), removedBy: removed });
+    terms.push({ name: `${p.ref} tolerance (${formatEng(p.ohms, 'Ω', 3)})`, value: toUnits(t.dz + t.ds * xEnd), removedBy: removed });
     if (design.target.tempco && p.kind === 'resistor') {
       const d = shift(Math.abs(design.target.tempco) * dT);
       const v = toUnits(d.dz + d.ds * xEnd);

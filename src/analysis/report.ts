@@ -13,7 +13,8 @@ import {
   type Speed, type SpreadResult, type SupplyResult,
 } from './analysis.js';
 import type { Warning } from '../model/findings.js';
-import { formatEng } from '../model/units.js';
+import { formatEng, rkmCode } from '../model/units.js';
+import { significantFigures } from '../model/eseries.js';
 import { calibrationSteps, type CalibrationStep } from '../present/calibration.js';
 
 export interface Verdict {
@@ -272,7 +273,7 @@ export const SAFETY_CAUTIONS: readonly string[] = [
 export function reportJson(r: Report): Record<string, unknown> {
   const num = (x: number | null | undefined) => (x === null || x === undefined || !Number.isFinite(x) ? null : x);
   const s = r.stage;
-  const part = (p: Part) => ({ ref: p.ref, role: p.role, ohms: p.kind === 'capacitor' ? null : p.ohms, ...(p.farads ? { farads: p.farads } : {}), series: p.series, tolerance: p.tolerance, label: p.label, code: p.code, ...(p.setting !== undefined ? { setting: p.setting } : {}) });
+  const part = (p: Part) => ({ ref: p.ref, role: p.role, ohms: p.kind === 'capacitor' ? null : p.ohms, ...(p.farads ? { farads: p.farads } : {}), series: p.series, tolerance: p.tolerance, arrangement: p.arrangement, code: p.kind === 'capacitor' ? '' : rkmCode(p.ohms, p.series === 'trimmer' || p.series === 'capacitor' ? 2 : significantFigures(p.series)), ...(p.setting !== undefined ? { setting: p.setting } : {}) });
   return {
     format: 'gainwright-report',
     version: 1,

@@ -7,8 +7,7 @@
 import type { Design } from '../model/design.js';
 import { compile, type Circuit, type Element } from './mna.js';
 import type { SensorFront } from '../physics/sensors.js';
-import type { Arm } from '../solve/search.js';
-import type { Part, SolvedStage } from '../solve/solver.js';
+import type { Arm, Part, StageNetwork } from './network.js';
 
 export interface StageCircuit {
   circuit: Circuit;
@@ -47,7 +46,10 @@ class NodeMap {
   }
 }
 
-export function buildCircuit(design: Design, stage: SolvedStage, front: SensorFront, opts: CircuitOptions = {}): StageCircuit {
+/** The parts of a solved stage that the circuit needs: its network and its parts list. */
+export interface StageParts { network: StageNetwork; parts: Part[] }
+
+export function buildCircuit(design: Design, stage: StageParts, front: SensorFront, opts: CircuitOptions = {}): StageCircuit {
   const f = opts.front ?? front;
   const nm = new NodeMap();
   const pending: Array<Omit<Element, 'a' | 'b'> & { na: string; nb: string; cpn?: string; cnn?: string }> = [];

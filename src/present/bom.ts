@@ -2,7 +2,7 @@
  * The build-ready parts list: every part with designator, value, IEC 60062 code, series and tolerance, power
  * rating, quantity and role, plus the op-amp and its decoupling; and its CSV export.
  */
-import { ROLE_NAMES } from '../solve/solver.js';
+import { partCode, partRole, partValue } from './parts.js';
 import { SAFETY_CAUTIONS, type Report } from '../analysis/report.js';
 import { peakRange } from '../physics/topology.js';
 import { formatEng } from '../model/units.js';
@@ -58,13 +58,13 @@ export function bomRows(r: Report): BomRow[] {
       const pw = p.kind === 'capacitor' ? null : p.kind === 'trimmer' ? Math.max(diss.get(`${p.ref}A`) ?? 0, diss.get(`${p.ref}B`) ?? 0, diss.get(p.ref) ?? 0) : diss.get(p.ref) ?? 0;
       rows.push({
         ref: p.ref,
-        value: p.label.replace(/ \((series|parallel)\)$/, ''),
-        code: p.code,
+        value: partValue(p),
+        code: partCode(p),
         spec: p.kind === 'trimmer' ? `trimmer ±${p.tolerance * 100} %, single-turn cermet` : p.kind === 'capacitor' ? 'ceramic C0G/NP0 ±10 %' : `${p.series} ±${+(p.tolerance * 100).toFixed(2)} % metal film`,
         dissipation: pw,
         rating: pw === null ? null : powerRating(pw),
         quantity: 1,
-        role: ROLE_NAMES[p.role] + (p.label.includes('(series)') ? ' (in series with its pair)' : p.label.includes('(parallel)') ? ' (in parallel with its pair)' : ''),
+        role: partRole(p),
       });
     }
   }

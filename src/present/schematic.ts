@@ -3,7 +3,8 @@
  * grid. The app draws them as SVG; designators and values come from the same parts list as the BOM.
  */
 import type { Report } from '../analysis/report.js';
-import type { Part, PartRole } from '../solve/solver.js';
+import type { Part, PartRole } from '../circuit/network.js';
+import { partValue } from './parts.js';
 import { formatEng } from '../model/units.js';
 
 export type Prim =
@@ -30,7 +31,7 @@ export interface Schematic {
 function arm(parts: Part[], role: PartRole): { ref: string; value: string } | null {
   const ps = parts.filter((p) => p.role === role);
   if (!ps.length) return null;
-  const joint = ps.length > 1 && ps[0]!.label.includes('(parallel)') ? ' ∥ ' : ' + ';
+  const joint = ps.length > 1 && ps[0]!.arrangement === 'parallel' ? ' ∥ ' : ' + ';
   return { ref: ps.map((p) => p.ref).join(joint), value: ps.map((p) => formatEng(p.ohms, 'Ω', 3).replace(' ', '')).join(joint) };
 }
 
@@ -123,7 +124,7 @@ export function schematic(r: Report): Schematic | null {
     if (oc) {
       P.push({ t: 'dot', x: 560, y: 170 });
       W([560, 170], [560, 215]);
-      P.push({ t: 'cap', x: 560, y: 230, ref: oc.ref, value: oc.label });
+      P.push({ t: 'cap', x: 560, y: 230, ref: oc.ref, value: partValue(oc) });
       W([560, 245], [560, 260]);
       P.push({ t: 'ground', x: 560, y: 260 });
     }

@@ -1,5 +1,5 @@
 /** The report as plain text for a terminal: verdicts first, then parts, figures, calibration, cautions. */
-import { ROLE_NAMES } from '../solve/solver.js';
+import { partCode, partRole, partValue } from './parts.js';
 import { SAFETY_CAUTIONS, type Report } from '../analysis/report.js';
 import { formatEng } from '../model/units.js';
 
@@ -22,7 +22,7 @@ export function textReport(r: Report): string {
     out.push(`  Scale ${f(r.dc.out[1], `V/${m}`, 5)} (target ${f(d.target.scale, `V/${m}`, 5)}, ${(s.scaleError * 100).toFixed(4)} % before trim), zero ${f(r.dc.out[0], 'V', 5)} (target ${f(d.target.zero, 'V', 5)})`);
     h('Parts');
     for (const p of s.parts) {
-      out.push(`  ${p.ref.padEnd(5)} ${p.label.padEnd(24)} ${(p.code || '').padEnd(6)} ${p.series === 'trimmer' || p.series === 'capacitor' ? '' : `${p.series} ±${(p.tolerance * 100).toFixed(1)} %`.padEnd(13)} ${ROLE_NAMES[p.role]}${p.setting !== undefined ? ` (set to ${(p.setting * 100).toFixed(0)} %)` : ''}`);
+      out.push(`  ${p.ref.padEnd(5)} ${(partValue(p) + (p.arrangement === 'single' ? '' : ` (${p.arrangement})`)).padEnd(24)} ${partCode(p).padEnd(6)} ${p.series === 'trimmer' || p.series === 'capacitor' ? '' : `${p.series} ±${(p.tolerance * 100).toFixed(1)} %`.padEnd(13)} ${partRole(p)}${p.setting !== undefined ? ` (set to ${(p.setting * 100).toFixed(0)} %)` : ''}`);
     }
     if (s.alternatives.length > 1) {
       out.push('  Alternatives for the gain network (feedback / leg, error):');

@@ -22,11 +22,8 @@ export interface ArmTable {
   size: number;
 }
 
-export interface Arm {
-  ohms: number;
-  parts: number[];
-  arrangement: Arrangement;
-}
+import type { Arm } from '../circuit/network.js';
+export type { Arm } from '../circuit/network.js';
 
 const tableCache = new Map<string, ArmTable>();
 

@@ -8,12 +8,14 @@
  * - resolution: the smallest standard trimmer (100 Ω, 200 Ω, 500 Ω, 1 kΩ … 1 MΩ) that gives that
  *   coverage wastes the least resolution; its settable step is SETTABILITY of its full travel.
  */
-import type { Design, Topology } from '../model/design.js';
-import { TRIMMER_VALUES, usualTolerance, significantFigures, type SeriesName } from '../model/eseries.js';
-import { armAt, armTable, lowerBound, searchPairs, type Arm, type PairCandidate, type PairResult } from './search.js';
+import type { Design } from '../model/design.js';
+import { TRIMMER_VALUES, usualTolerance } from '../model/eseries.js';
+import { armAt, armTable, lowerBound, searchPairs, type PairCandidate, type PairResult } from './search.js';
+import type { Arm, Part, PartRole, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
+export type { Arm, Part, PartRole, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
 import type { SensorFront } from '../physics/sensors.js';
 import { referenceFor, referenceRails, type IdealStage } from '../physics/topology.js';
-import { formatEng, rkmCode } from '../model/units.js';
+import { formatEng } from '../model/units.js';
 import type { Warning } from '../model/findings.js';
 
 /** Trim half-span must be at least this many times the worst-case stack it absorbs. */
@@ -22,75 +24,6 @@ export const COVERAGE = 1.5;
 export const SETTABILITY = 1 / 200;
 /** End-to-end tolerance of a trimmer (±20 %, common practice). */
 export const TRIMMER_TOLERANCE = 0.2;
-
-export type PartRole =
-  | 'feedback' | 'ground-leg' | 'input' | 'reference-top' | 'reference-bottom'
-  | 'gain-trim' | 'zero-trim' | 'output-series' | 'output-capacitor';
-
-export const ROLE_NAMES: Record<PartRole, string> = {
-  feedback: 'feedback',
-  'ground-leg': 'ground leg',
-  input: 'input',
-  'reference-top': 'reference top',
-  'reference-bottom': 'reference bottom',
-  'gain-trim': 'gain trim',
-  'zero-trim': 'zero trim',
-  'output-series': 'output series / isolation',
-  'output-capacitor': 'output filter capacitor',
-};
-
-export interface Trimmer {
-  ohms: number;
-  /** Wiper position, 0…1 (0.5 = mid). */
-  setting: number;
-  /** What the trim must absorb (fraction of scale for gain, volts at the output for zero). */
-  need: number;
-  /** What it can absorb either side of its setting, same unit. */
-  halfSpan: number;
-  /** Settable step, same unit. */
-  step: number;
-}
-
-export interface ReferenceNetwork {
-  /** none: no reference (buffer); rail: tied straight to a rail; divider: a divider with optional trimmer. */
-  kind: 'none' | 'rail' | 'divider';
-  /** Rails it hangs between, V. */
-  railBottom: number;
-  railTop: number;
-  /** Which rail is the top: the battery/positive rail or the regulated one. */
-  topRail: 'positive' | 'regulated';
-  top: Arm | null;
-  bottom: Arm | null;
-  trim: Trimmer | null;
-  /** Open-circuit voltage with the trimmer at its setting, V. */
-  voltage: number;
-  /** Thevenin resistance with the trimmer at its setting, Ω. */
-  thevenin: number;
-}
-
-export interface StageNetwork {
-  topology: Topology;
-  /** Fixed feedback arm (null = a wire, for a unity buffer) and its series gain trimmer. */
-  feedback: Arm | null;
-  gainTrim: Trimmer | null;
-  /** Ground leg (non-inverting, may be null when the divider's Thevenin is the whole leg or for a buffer) or input resistor (inverting). */
-  leg: Arm | null;
-  reference: ReferenceNetwork;
-}
-
-export interface Part {
-  ref: string;
-  role: PartRole;
-  kind: 'resistor' | 'trimmer' | 'capacitor';
-  ohms: number;
-  farads?: number;
-  series: SeriesName | 'trimmer' | 'capacitor';
-  tolerance: number;
-  label: string;
-  code: string;
-  /** Trimmer wiper setting (0…1). */
-  setting?: number;
-}
 
 export interface SolvedStage {
   ideal: IdealStage;
@@ -405,18 +338,15 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
 export function partsOf(net: StageNetwork, design: Design): Part[] {
   const { series, tolerance } = design.target;
   const tol = tolerance ?? usualTolerance(series);
-  const sig = significantFigures(series);
   const parts: Part[] = [];
   let r = 0, rv = 0;
   const addArm = (arm: Arm | null, role: PartRole) => {
     if (!arm) return;
-    for (const ohms of arm.parts) {
-      parts.push({ ref: `R${++r}`, role, kind: 'resistor', ohms, series, tolerance: tol, label: `${formatEng(ohms, 'Ω', sig)}${arm.parts.length > 1 ? ` (${arm.arrangement})` : ''}`, code: rkmCode(ohms, sig) });
-    }
+    for (const ohms of arm.parts) parts.push({ ref: `R${++r}`, role, kind: 'resistor', ohms, series, tolerance: tol, arrangement: arm.arrangement });
   };
   const addTrim = (t: Trimmer | null, role: PartRole) => {
     if (!t) return;
-    parts.push({ ref: `RV${++rv}`, role, kind: 'trimmer', ohms: t.ohms, series: 'trimmer', tolerance: TRIMMER_TOLERANCE, label: formatEng(t.ohms, 'Ω', 2) + ' trimmer', code: rkmCode(t.ohms, 2), setting: t.setting });
+    parts.push({ ref: `RV${++rv}`, role, kind: 'trimmer', ohms: t.ohms, series: 'trimmer', tolerance: TRIMMER_TOLERANCE, arrangement: 'single', setting: t.setting });
   };
   addArm(net.feedback, 'feedback');
   addTrim(net.gainTrim, 'gain-trim');
@@ -428,8 +358,8 @@ export function partsOf(net: StageNetwork, design: Design): Part[] {
   }
   const f = design.output.filter;
   if (f) {
-    parts.push({ ref: `R${++r}`, role: 'output-series', kind: 'resistor', ohms: f.resistance, series, tolerance: tol, label: formatEng(f.resistance, 'Ω', sig), code: rkmCode(f.resistance, sig) });
-    if (f.capacitance > 0) parts.push({ ref: 'C1', role: 'output-capacitor', kind: 'capacitor', ohms: 0, farads: f.capacitance, series: 'capacitor', tolerance: 0.1, label: formatEng(f.capacitance, 'F', 2), code: '' });
+    parts.push({ ref: `R${++r}`, role: 'output-series', kind: 'resistor', ohms: f.resistance, series, tolerance: tol, arrangement: 'single' });
+    if (f.capacitance > 0) parts.push({ ref: 'C1', role: 'output-capacitor', kind: 'capacitor', ohms: 0, farads: f.capacitance, series: 'capacitor', tolerance: 0.1, arrangement: 'single' });
   }
   return parts;
 }

@@ -19,7 +19,7 @@ describe('buildCircuit', () => {
     // Divider current ≈ V+ / (Rtop + Rbottom) when the feedback network's share is small.
     const top = r.stage!.parts.filter((p) => p.role === 'reference-top');
     const bot = r.stage!.parts.filter((p) => p.role === 'reference-bottom');
-    const arm = (ps: typeof top) => (ps.length === 2 && ps[0]!.label.includes('parallel') ? (ps[0]!.ohms * ps[1]!.ohms) / (ps[0]!.ohms + ps[1]!.ohms) : ps.reduce((s, p) => s + p.ohms, 0));
+    const arm = (ps: typeof top) => (ps.length === 2 && ps[0]!.arrangement === 'parallel' ? (ps[0]!.ohms * ps[1]!.ohms) / (ps[0]!.ohms + ps[1]!.ohms) : ps.reduce((s, p) => s + p.ohms, 0));
     const i = 9 / (arm(top) + arm(bot));
     expect(part.current / i).toBeGreaterThan(0.8);
     expect(part.current / i).toBeLessThan(1.2);

@@ -33,7 +33,7 @@ describe('gainwright report', () => {
     for (const p of j.parts.filter((x: any) => x.series === 'E96')) expect(isMember(p.ohms, 'E96')).toBe(true);
     expect(j.parts.filter((x: any) => x.series === 'E96').length).toBeGreaterThan(2);
     expect(Math.abs(j.scaleError)).toBeLessThan(0.005);
-    for (const k of ['ref', 'role', 'ohms', 'series', 'tolerance', 'label', 'code']) expect(j.parts[0]).toHaveProperty(k);
+    for (const k of ['ref', 'role', 'ohms', 'series', 'tolerance', 'arrangement', 'code']) expect(j.parts[0]).toHaveProperty(k);
     for (const k of ['clip', 'headroom', 'bandwidth', 'noise', 'errors', 'supply', 'spread', 'gain', 'noiseGain', 'zero', 'reference', 'warnings']) expect(j).toHaveProperty(k);
     expect(j.clip.measurandHigh).toBeCloseTo(30, 0);
   });
