@@ -18,7 +18,8 @@ export { nearest, neighbours, isMember, usualTolerance, valuesInRange, mantissas
 export type { SeriesName } from './model/eseries.js';
 export { sensorFront, sensorFrontAtRail, gapFieldPerAmp } from './physics/sensors.js';
 export { chooseTopology, idealStage, nonInvertingOutput, invertingOutput } from './physics/topology.js';
-export { solveStage, standardTrimmer } from './solve/solver.js';
+export { solveStage } from './solve/stage.js';
+export { standardTrimmer } from './solve/trimmers.js';
 export { armTable, searchPairs, searchPairsExhaustive } from './solve/search.js';
 export { thermalNoise, enbwSinglePole, nonInvertingNoise, peakToPeak } from './physics/noise.js';
 export { DEMOS, demoDesign } from './model/demos.js';

@@ -9,7 +9,7 @@ import { adjointAt, signalTransfer, solveDc, stampReal, luFactorReal, luSolveRea
 import { integratePower, logGrid, peakToPeak } from '../physics/noise.js';
 import { noiseSpectrum, type NoiseSpectrum } from '../circuit/noise.js';
 import { atSensorSupply, type SensorFront, type SensorLimitKind } from '../physics/sensors.js';
-import type { SolvedStage } from '../solve/solver.js';
+import type { SolvedStage } from '../solve/stage.js';
 import { peakRange } from '../physics/topology.js';
 import { mulberry32 } from '../model/random.js';
 import { HOUR } from '../model/constants.js';

@@ -5,7 +5,8 @@
 import type { Design, Topology } from '../model/design.js';
 import { sensorFrontAtRail, type SensorFront } from '../physics/sensors.js';
 import { chooseTopology, peakRange, type TopologyChoiceResult } from '../physics/topology.js';
-import { solveStage, type Part, type SolvedStage } from '../solve/solver.js';
+import { solveStage, type SolvedStage } from '../solve/stage.js';
+import type { Part } from '../circuit/network.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
 import {
   batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, noise, speed, spread, supply, transferAt, transferCurve,
@@ -73,7 +74,7 @@ export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
   }
   const stage = solveStage(design, front, choice.chosen);
   warnings.push(...stage.warnings);
-  if (!stage.parts.length && stage.network.feedback === null && stage.network.reference.kind !== 'none') {
+  if (stage.warnings.some((w) => w.level === 'fail') || !Number.isFinite(stage.gain)) {
     absent.all = 'the resistor solver found no realisation';
     const r = { ...empty, stage };
     r.verdicts = verdictsOf(r);

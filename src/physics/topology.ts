@@ -49,6 +49,39 @@ export function referenceFor(topology: Topology, gain: number, quiescent: number
   return topology === 'non-inverting' ? (gain * quiescent - zero) / (gain - 1) : (zero + gain * quiescent) / (1 + gain);
 }
 
+/**
+ * Noise gain of the stage for a signal gain G: 1 + Rf/Rleg = G (non-inverting) or 1 + Rf/Rin = 1 + G
+ * (inverting), the same expression 1 + Rf/R for both (Texas A&M ECEN 457 notes, eqs. 1–2). Example: inverting G = 4 → 5.
+ */
+export function noiseGain(topology: Topology, gain: number): number {
+  return topology === 'non-inverting' ? gain : 1 + gain;
+}
+
+/**
+ * How much a change of the reference moves the output: G − 1 at the foot of a non-inverting ground leg,
+ * 1 + G at an inverting stage's + input (from the closed forms above). Example: non-inverting G = 8 → 7.
+ */
+export function referenceLeverage(topology: Topology, gain: number): number {
+  return topology === 'non-inverting' ? gain - 1 : 1 + gain;
+}
+
+/**
+ * The ideal-op-amp gain that gives the closed-loop gain `gain` with a finite DC open-loop gain A0, from
+ * Black's feedback formula G_cl = G_i / (1 + NG/A0) with NG the noise gain: non-inverting G_i = G/(1 − G/A0);
+ * inverting G_i = G(1 + 1/A0)/(1 − G/A0). Example: non-inverting 100 with A0 = 10⁵ → 100.1001.
+ */
+export function aimedGain(topology: Topology, gain: number, a0: number): number {
+  if (!(a0 > 0) || !Number.isFinite(a0)) return gain;
+  const d = 1 - gain / a0;
+  if (!(d > 0)) return NaN;
+  return topology === 'non-inverting' ? gain / d : (gain * (1 + 1 / a0)) / d;
+}
+
+/** Black's factor 1/(1 + NG/A0) by which a finite open-loop gain shrinks the ideal closed forms. Example: NG 100, A0 10⁵ → 0.999. */
+export function loopFactor(noiseGainValue: number, a0: number): number {
+  return !(a0 > 0) || !Number.isFinite(a0) ? 1 : 1 / (1 + noiseGainValue / a0);
+}
+
 /** The part of the op-amp output voltage that reaches the load through an output series resistor. */
 export function loadFactor(design: Pick<Design, 'output'>): number {
   const rl = design.output.load.resistance;

@@ -96,8 +96,12 @@ describe('tolerance spread', () => {
     const d = design('generic-sensor', (x) => {
       x.target.trim = { gain: false, zero: false };
       x.target.arrangements = ['single'];
-      x.target.zero = 2.5 * 8 - 0; // reference at 0 V: tied to the rail, no divider
-      x.supply.positive = 30; x.opamp.outputHigh = 1; x.target.range = [-5, 5]; x.target.scale = 0.1;
+      // A gain single E96 parts land exactly (1 + 20 kΩ/2.87 kΩ), a sensor centred on 0 V on ±15 V and a zero
+      // at 0 V: the reference is ground itself, tied with no divider.
+      const g = 1 + 20000 / 2870;
+      x.sensor = { ...x.sensor, sensitivity: 0.1 / g, quiescent: 0 } as typeof x.sensor;
+      x.target.zero = 0;
+      x.supply.positive = 15; x.supply.negative = -15; x.target.range = [-5, 5]; x.target.scale = 0.1;
     });
     const r = analyse(d, { spreadTrials: 4000 });
     expect(r.stage!.network.reference.kind).toBe('rail');

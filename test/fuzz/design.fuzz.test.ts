@@ -10,7 +10,7 @@ import { analyse, reportJson } from '../../src/analysis/report.js';
 import { main } from '../../src/cli/cli.js';
 import { DEMOS } from '../../src/model/demos.js';
 import { parseQuantity } from '../../src/model/units.js';
-import { COVERAGE, scaleStack, TRIMMER_TOLERANCE } from '../../src/solve/solver.js';
+import { COVERAGE, scaleStack, TRIMMER_TOLERANCE } from '../../src/solve/trimmers.js';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';

@@ -1,0 +1,368 @@
+/**
+ * The stage solver: from an ideal stage (gain, reference, polarity) to standard parts, stated as one search.
+ *
+ * 1. Aim at the real circuit: the gain the ideal closed forms must give is the wanted one corrected for the
+ *    op-amp's finite open-loop gain (Black's formula, `aimedGain`), and the reference is solved from the
+ *    same corrected closed form; the load divider is already undone in the ideal stage's pin scale.
+ * 2. Size the trimmers once from the tolerance stacks (src/solve/trimmers.ts).
+ * 3. Enumerate reference networks: a tie to the rail or ground the reference sits on, else dividers (fixed,
+ *    or with the zero pot) over a grid of Thevenin resistances the ground leg can hold.
+ * 4. For each, search the gain pair with the network's Thevenin and the gain trimmer's mid value folded in
+ *    (non-inverting G = 1 + (Rf + Rt/2)/(Rg + Rth); inverting G = (Rf + Rt/2)/(Rin + Rs)), so the pick
+ *    belongs to its network by construction; solve the zero pot's wiper exactly for the gain realised.
+ * 5. Score every candidate once: score = max(|scale error|, |zero error|/output span, floor) ·
+ *    1.5^(fixed parts − 2) · (1 + |log10(Rf/Rf_pref)|) · (1 + I_net/I_q): Rf_pref (100 kΩ kept inside the
+ *    window) stands for noise and bias-current error, I_net/I_q is the current the divider and feedback
+ *    network draw against the op-amp's own quiescent current (battery drain and output loading). Reference candidates are visited best bound first and the
+ *    search stops when no remaining one can beat the best score (branch and bound: exact for this score).
+ * 6. Accept only what is right: a scale more than ACCEPT of the target off, or a zero more than ACCEPT of
+ *    the output span off with no trimmer to fix it, is a failure with what to change, never a caution.
+ */
+import type { Design } from '../model/design.js';
+import { TRIMMER_VALUES, usualTolerance } from '../model/eseries.js';
+import type { Warning as Finding } from '../model/findings.js';
+import type { Arm, Part, PartRole, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
+import type { SensorFront } from '../physics/sensors.js';
+import { aimedGain, loopFactor, noiseGain, peakRange, referenceFor, referenceLeverage, type IdealStage } from '../physics/topology.js';
+import { armTable, searchPairs, type PairCandidate, type PairResult } from './search.js';
+import { fixedDivider, nearestArm, noReference, railTie, referenceSpan, resetWiper, trimmedDivider } from './reference.js';
+import {
+  COVERAGE, SETTABILITY, TRIMMER_TOLERANCE, feedbackForCoverage, feedbackSensitivity, gainTrimHalfSpan, scaleStack, zeroStack,
+} from './trimmers.js';
+
+export interface SolvedStage {
+  ideal: IdealStage;
+  network: StageNetwork;
+  parts: Part[];
+  /** Gain alternatives for the reference network built, ranked; `chosen` is the index built. */
+  alternatives: PairCandidate[];
+  chosen: number;
+  /** The smallest gain error the search found for the network built (the optimum). */
+  bestError: number;
+  /** Ideal-op-amp gain and reference from the real parts, trimmers at their settings. */
+  gain: number;
+  reference: number;
+  /** Relative scale error before trimming at the op-amp pin, finite open-loop gain included (trimmers at their settings). */
+  scaleError: number;
+  /** Zero error before trimming at the op-amp pin, V (finite open-loop gain included). */
+  zeroError: number;
+  warnings: Finding[];
+}
+
+/** A built scale may differ from the target by at most this fraction of the resistor tolerance (1 % parts → 0.1 %). */
+export const ACCEPT_OF_TOLERANCE = 0.1;
+/** Errors below this fraction of the resistor tolerance rank as equal (then parts and preference decide). */
+export const FLOOR_OF_TOLERANCE = 0.05;
+/** A trimmer may cover at most this many times what it must (one 1-2-5 step and part rounding: 2.5 × 1.3), so its setting stays fine. */
+export const MAX_OVERSIZE = 3.25;
+
+/**
+ * Preferred feedback resistance: 100 kΩ (10 kΩ–100 kΩ is the usual range for general-purpose op-amps: low
+ * enough for noise and bias-current error, high enough not to load the output or drain a battery; common
+ * practice), kept inside the window. It only ranks; the whole window is searched.
+ */
+export function preferredFeedback(design: Design): number {
+  const { resistanceMin: lo, resistanceMax: hi } = design.target;
+  return Math.min(Math.max(100e3, lo * 10), hi / 2);
+}
+
+/** Ideal-op-amp gain, noise gain and reference of a realised network (trimmers at their settings). */
+export function networkGain(net: StageNetwork, sourceResistance: number): { gain: number; noiseGain: number; reference: number } {
+  const rf = (net.feedback?.ohms ?? 0) + (net.gainTrim ? net.gainTrim.ohms * net.gainTrim.setting : 0);
+  const rth = net.reference.kind === 'divider' ? net.reference.thevenin : 0;
+  if (net.topology === 'non-inverting') {
+    if (!net.leg && net.reference.kind === 'none') return { gain: 1, noiseGain: 1, reference: NaN };
+    const g = 1 + rf / ((net.leg?.ohms ?? 0) + rth);
+    return { gain: g, noiseGain: g, reference: net.reference.voltage };
+  }
+  const g = rf / ((net.leg?.ohms ?? 0) + sourceResistance);
+  return { gain: g, noiseGain: 1 + g, reference: net.reference.voltage };
+}
+
+/** What the closed loop really gives for a network: scale and zero at the pin with Black's factor, relative to the ideal stage. */
+function realised(net: StageNetwork, ideal: IdealStage, front: SensorFront, a0: number): { gain: number; reference: number; scaleError: number; zeroError: number } {
+  const n = networkGain(net, front.sourceResistance);
+  const k = loopFactor(n.noiseGain, a0);
+  const lev = referenceLeverage(ideal.topology, n.gain);
+  // Non-inverting: Vout = k(G·Vs − (G−1)·Vref); inverting: Vout = k((1+G)·Vp − G·Vs).
+  const zero = ideal.topology === 'non-inverting' ? k * (n.gain * front.quiescent - lev * n.reference) : k * (lev * n.reference - n.gain * front.quiescent);
+  return { gain: n.gain, reference: n.reference, scaleError: (k * n.gain) / ideal.gain - 1, zeroError: zero - ideal.pinZero };
+}
+
+/** The reference that puts the zero where wanted for an ideal-op-amp gain G with Black's factor applied. */
+function referenceAimed(ideal: IdealStage, g: number, front: SensorFront, a0: number): number {
+  const k = loopFactor(noiseGain(ideal.topology, g), a0);
+  return referenceFor(ideal.topology, g, front.quiescent, ideal.pinZero / k);
+}
+
+interface GainOption {
+  /** Gain trimmer, Ω (0 = none). */
+  trim: number;
+  /** Window of the fixed feedback arm. */
+  aMin: number;
+  aMax: number;
+  /** Whether the trimmer covers the stack anywhere in the window. */
+  covers: boolean;
+}
+
+interface Candidate {
+  network: StageNetwork;
+  ranked: PairCandidate[];
+  best: number;
+  chosen: number;
+  score: number;
+  scaleError: number;
+  zeroError: number;
+}
+
+const fixedParts = (a: Arm | null) => a?.parts.length ?? 0;
+
+/** Solves the whole stage: reference network, gain network, trimmers, parts. */
+export function solveStage(design: Design, front: SensorFront, ideal: IdealStage): SolvedStage {
+  const warnings: Finding[] = [];
+  const { target } = design;
+  const w = (code: string, level: Finding['level'], message: string) => warnings.push({ code, level, message });
+
+  // Unity buffer: a wire from output to − input, nothing else.
+  if (ideal.topology === 'non-inverting' && !ideal.needsReference) {
+    const network: StageNetwork = { topology: 'non-inverting', feedback: null, gainTrim: null, leg: null, reference: noReference(design) };
+    if (target.trim.gain || target.trim.zero) w('buffer-no-trim', 'info', 'A unity buffer has no gain or zero to trim; the sensor\'s own scale and zero pass straight through.');
+    return { ideal, network, parts: partsOf(network, design), alternatives: [], chosen: 0, bestError: 0, gain: 1, reference: NaN, scaleError: 0, zeroError: 0, warnings };
+  }
+
+  const table = armTable(target.series, target.resistanceMin, target.resistanceMax, target.arrangements);
+  // Single parts beside a zero pot are usually enough (its wiper absorbs their rounding): offered as well.
+  const singles = target.arrangements.includes('single') ? armTable(target.series, target.resistanceMin, target.resistanceMax, ['single']) : table;
+  const a0 = 10 ** (design.opamp.openLoopGainDb / 20);
+  const top = ideal.topology;
+  const gAim = aimedGain(top, ideal.gain, a0);
+  const fail = (code: string, message: string): SolvedStage => {
+    w(code, 'fail', message);
+    const network: StageNetwork = { topology: top, feedback: null, gainTrim: null, leg: null, reference: noReference(design) };
+    return { ideal, network, parts: [], alternatives: [], chosen: 0, bestError: NaN, gain: NaN, reference: NaN, scaleError: NaN, zeroError: NaN, warnings };
+  };
+  if (!Number.isFinite(gAim) || gAim <= 0) {
+    return fail('gain-beyond-loop', `A gain of ${ideal.gain.toPrecision(4)} is beyond what the op-amp's open-loop gain (${design.opamp.openLoopGainDb} dB) can hold: use two stages or an op-amp with more open-loop gain.`);
+  }
+  if (table.size === 0) return fail('gain-unrealisable', `No ${target.series} part lies within the resistance window: widen it.`);
+
+  const tol = target.tolerance;
+  const floor = tol * FLOOR_OF_TOLERANCE;
+  const accept = tol * ACCEPT_OF_TOLERANCE;
+  const rfPref = preferredFeedback(design);
+  const sens = feedbackSensitivity(top, gAim);
+  const sStack = scaleStack(design, front, ideal);
+  const [xLo, xHi] = peakRange(design);
+  const outSpan = Math.max(Math.abs(ideal.pinScale * (xHi - xLo)), 1e-9);
+  const { lo, hi } = referenceSpan(design);
+  const vspan = hi - lo;
+  const tableMin = table.value[0]!, tableMax = table.value[table.size - 1]!;
+  const rs = top === 'inverting' ? front.sourceResistance : 0;
+
+  // Gain trimmer options: each standard value with the band of fixed feedback arms over which it covers the
+  // stack (COVERAGE) without wasting resolution (at most MAX_OVERSIZE × that), and no larger than the arm.
+  const options: GainOption[] = [];
+  if (target.trim.gain) {
+    for (const t of TRIMMER_VALUES) {
+      const aMax = Math.min(feedbackForCoverage(t, sens, sStack), tableMax);
+      const aMin = Math.max(feedbackForCoverage(t, sens, sStack * MAX_OVERSIZE), t, tableMin);
+      if (aMax >= aMin) options.push({ trim: t, aMin, aMax, covers: true });
+    }
+    // None covers (little leverage near unity gain): the largest trimmer no larger than the preferred arm.
+    if (!options.length) {
+      const t = [...TRIMMER_VALUES].reverse().find((v) => v <= Math.max(rfPref, tableMin)) ?? TRIMMER_VALUES[0]!;
+      options.push({ trim: t, aMin: Math.max(t, tableMin), aMax: tableMax, covers: false });
+    }
+  } else {
+    options.push({ trim: 0, aMin: tableMin, aMax: tableMax, covers: true });
+  }
+
+  const prefFactor = (a: number) => 1 + Math.abs(Math.log10(a / rfPref));
+  // Loading: the current the divider and the feedback network draw, against the op-amp's own quiescent
+  // current (a stage that doubles its supply drain costs a factor of two).
+  const iq = Math.max(design.opamp.supplyCurrent, 1e-6);
+  const outMax = Math.max(Math.abs(ideal.pinZero), Math.abs(ideal.pinZero + ideal.pinScale * xLo), Math.abs(ideal.pinZero + ideal.pinScale * xHi), 1e-3);
+  const dividerCurrent = (ref: ReferenceNetwork) => (ref.kind === 'divider' ? vspan / ((ref.top?.ohms ?? 0) + (ref.trim?.ohms ?? 0) + (ref.bottom?.ohms ?? 0)) : 0);
+  const scoreOf = (err: number, parts: number, a: number, current: number) => Math.max(err, floor) * 1.5 ** (parts - 2) * prefFactor(a) * (1 + current / iq);
+  /** Rf nearest the preferred value inside [lo, hi]: the best the preference factor can be there. */
+  const prefBound = (lo: number, hi: number) => prefFactor(Math.min(Math.max(rfPref, lo), hi));
+
+  /** The gain pair search for a given reference network and gain option. */
+  const searchGain = (opt: GainOption, rth: number, aFrom: number, keep: number): PairResult => {
+    const half = opt.trim / 2;
+    const ratio = top === 'non-inverting' ? { cA: half, cB: rth, k: gAim - 1, m: (gAim - 1) / gAim } : { cA: half, cB: rs, k: gAim, m: 1 };
+    return searchPairs(table, table, { preferredA: rfPref, floor, aMin: Math.max(opt.aMin, aFrom), aMax: opt.aMax, ratio }, keep);
+  };
+  /**
+   * The least Rf a non-inverting leg with this reference allows: the leg holds the Thevenin at least, and
+   * with a zero pot at least twice it (Rg ≥ Rth), so that the pot's own ±20 % and its setting move the gain
+   * little and zero and span barely interact.
+   */
+  const aFromRef = (opt: GainOption, ref: ReferenceNetwork) => ((ref.trim ? 2 : 1) * (gAim - 1) * ref.thevenin - opt.trim / 2) * 0.999;
+
+  /** Builds the network of a pick, solves the zero pot's wiper for the gain realised, and scores it. */
+  const finish = (opt: GainOption, ref: ReferenceNetwork, pick: PairCandidate | null, legless: Arm | null): Candidate | null => {
+    const feedback = pick ? pick.a : legless;
+    if (!feedback) return null;
+    const gainTrim: Trimmer | null = opt.trim ? { ohms: opt.trim, setting: 0.5, need: sStack, halfSpan: gainTrimHalfSpan(opt.trim, feedback.ohms, sens), step: (opt.trim / (feedback.ohms + opt.trim / 2)) * sens * SETTABILITY } : null;
+    let network: StageNetwork = { topology: top, feedback, gainTrim, leg: pick ? pick.b : null, reference: ref };
+    // The wiper that gives the zero exactly: the reference wanted depends on the gain realised, which (through
+    // the divider's Thevenin in a non-inverting leg) depends a little on the wiper: a contraction, solved to
+    // machine precision in a few steps.
+    if (ref.kind === 'divider' && ref.trim) {
+      for (let i = 0; i < 8; i++) {
+        const g = networkGain(network, front.sourceResistance).gain;
+        const moved = resetWiper(network.reference, referenceAimed(ideal, g, front, a0));
+        if (!moved) return null;
+        const delta = Math.abs(moved.voltage - network.reference.voltage);
+        network = { ...network, reference: moved };
+        if (delta <= 1e-12 * vspan) break;
+      }
+    }
+    const real = realised(network, ideal, front, a0);
+    const parts = fixedParts(feedback) + fixedParts(network.leg) + fixedParts(ref.top) + fixedParts(ref.bottom);
+    const zeroErr = ref.trim ? 0 : Math.abs(real.zeroError) / outSpan;
+    const legOhms = top === 'non-inverting' ? (network.leg?.ohms ?? 0) + network.reference.thevenin : (network.leg?.ohms ?? 0) + rs;
+    const current = dividerCurrent(network.reference) + outMax / (feedback.ohms + opt.trim / 2 + legOhms);
+    const score = scoreOf(Math.max(Math.abs(real.scaleError), zeroErr), parts, feedback.ohms, current);
+    return { network, ranked: pick ? [pick] : [], best: Math.abs(real.scaleError), chosen: 0, score, scaleError: real.scaleError, zeroError: real.zeroError };
+  };
+
+  const vref0 = referenceAimed(ideal, gAim, front, a0);
+  const r0 = (vref0 - lo) / vspan;
+  const lev = referenceLeverage(top, gAim);
+  const tie = railTie(design, vref0, 1e-6 * vspan);
+  const zeroAtRail = tie !== null && tie.voltage !== 0;
+  // A zero at a rail (or at ground on split rails) is a wire; a zero trimmer can straddle ground but not a rail.
+  const tied = tie !== null && (!target.trim.zero || zeroAtRail);
+  const zNeedAt = (rf: number) => zeroStack(design, front, ideal, target.trim.gain ? sStack : 0, rf) / lev;
+
+  // Every (gain option, reference network) pair with a lower bound on the score it can reach; visited best
+  // bound first, stopping when no remaining pair can beat the best found (branch and bound).
+  interface Job { opt: GainOption; ref: ReferenceNetwork | null; bound: number }
+  const jobs: Job[] = [];
+  if (top === 'inverting') {
+    for (const opt of options) jobs.push({ opt, ref: null, bound: floor * prefBound(opt.aMin, opt.aMax) });
+  } else {
+    const refs: ReferenceNetwork[] = [];
+    if (tied) refs.push(tie!);
+    else {
+      // Thevenin grid, eight per decade, from a quarter of the smallest arm up to the most any ground leg can hold.
+      const legMax = (tableMax + TRIMMER_VALUES[TRIMMER_VALUES.length - 1]! / 2) / (gAim - 1);
+      const zNeed = zNeedAt(rfPref);
+      for (let e = Math.ceil(8 * Math.log10(tableMin / 4)); 10 ** (e / 8) <= legMax; e++) {
+        const rth = 10 ** (e / 8);
+        const made = target.trim.zero
+          ? [trimmedDivider(design, singles, r0, rth, zNeed, lev, MAX_OVERSIZE), trimmedDivider(design, table, r0, rth, zNeed, lev, MAX_OVERSIZE)]
+          : [fixedDivider(design, table, r0, rth, lev, floor * outSpan)];
+        for (const ref of made) {
+          if (ref && !refs.some((x) => x.top?.ohms === ref.top?.ohms && x.bottom?.ohms === ref.bottom?.ohms && x.trim?.ohms === ref.trim?.ohms)) refs.push(ref);
+        }
+      }
+    }
+    for (const opt of options) {
+      for (const ref of refs) {
+        // Rf at least (G−1)·Rth − Rt/2 (the ground leg holds the Thevenin at least), at most the band's top.
+        const aLo = Math.max(aFromRef(opt, ref), opt.aMin);
+        if (aLo > opt.aMax) continue;
+        const bound = floor * 1.5 ** (1 + fixedParts(ref.top) + fixedParts(ref.bottom) - 2) * prefBound(aLo, opt.aMax) * (1 + dividerCurrent(ref) / iq);
+        jobs.push({ opt, ref, bound });
+      }
+    }
+  }
+  jobs.sort((x, y) => x.bound - y.bound);
+  const found: { cand: Candidate | null; opt: GainOption | null } = { cand: null, opt: null };
+  const consider = (cand: Candidate | null, opt: GainOption, res: PairResult | null, pick: PairCandidate | null) => {
+    if (!cand || (found.cand && cand.score >= found.cand.score)) return;
+    found.cand = res && pick ? { ...cand, ranked: res.ranked, best: Math.abs(res.best?.error ?? cand.scaleError), chosen: res.ranked.indexOf(pick) } : cand;
+    found.opt = opt;
+  };
+  for (const { opt, ref, bound } of jobs) {
+    if (found.cand && bound >= found.cand.score) break;
+    if (!ref) {
+      // Inverting: the + input's reference does not touch the gain: the gain pair first, then the reference for
+      // the gain realised, its Thevenin equal to the − input's (Rf ∥ Rin) so that the bias currents cancel.
+      const res = searchGain(opt, 0, 0, 10);
+      const pick = res.ranked[Math.min(target.alternative, res.ranked.length - 1)];
+      if (!pick) continue;
+      const rf = pick.a.ohms + opt.trim / 2, rin = pick.b.ohms + rs;
+      const r = (referenceAimed(ideal, rf / rin, front, a0) - lo) / vspan;
+      const rth = (rf * rin) / (rf + rin);
+      const built = tied ? tie
+        : (target.trim.zero ? trimmedDivider(design, singles, r, rth, zNeedAt(rf), lev, MAX_OVERSIZE) ?? trimmedDivider(design, table, r, rth, zNeedAt(rf), lev, MAX_OVERSIZE) ?? trimmedDivider(design, table, r, rth, zNeedAt(rf), lev) : railTie(design, lo + r * vspan, 1e-6 * vspan))
+          ?? fixedDivider(design, table, r, rth, lev, floor * outSpan);
+      if (built) consider(finish(opt, built, pick, null), opt, res, pick);
+      continue;
+    }
+    const res = searchGain(opt, ref.thevenin, aFromRef(opt, ref), 10);
+    const pick = res.ranked[Math.min(target.alternative, res.ranked.length - 1)] ?? null;
+    if (pick) consider(finish(opt, ref, pick, null), opt, res, pick);
+    // A fixed divider's Thevenin may be the whole leg (no Rg): Rf = (G−1)·Rth − Rt/2.
+    if (ref.kind === 'divider' && !ref.trim && target.alternative === 0) {
+      const aIdeal = (gAim - 1) * ref.thevenin - opt.trim / 2;
+      const near = aIdeal >= opt.aMin && aIdeal <= opt.aMax ? nearestArm(table, aIdeal) : null;
+      if (near) consider(finish(opt, ref, null, near), opt, null, null);
+    }
+  }
+
+  const best = found.cand, bestOpt = found.opt;
+  if (!best || !bestOpt) {
+    return fail('gain-unrealisable', `No network of ${target.series} parts within ${fmtOhms(target.resistanceMin)}…${fmtOhms(target.resistanceMax)} gives a gain of ${ideal.gain.toPrecision(4)} with the reference it needs: widen the resistance window, allow two-part arms, or choose a finer series.`);
+  }
+  if (Math.abs(best.scaleError) > accept) {
+    return fail('scale-off-target', `The nearest network of ${target.series} parts gives a scale ${(best.scaleError * 100).toFixed(3)} % off target, more than the ${(accept * 100).toFixed(2)} % a ${(tol * 100).toFixed(1)} % part tolerance allows: widen the resistance window, allow two-part arms, or choose a finer series.`);
+  }
+  if (!best.network.reference.trim && Math.abs(best.zeroError) > accept * outSpan) {
+    return fail('zero-off-target', `The nearest reference divider of ${target.series} parts puts the zero ${(best.zeroError * 1e3).toPrecision(3)} mV off at the output: allow a zero trimmer or two-part arms, or choose a finer series.`);
+  }
+  const net = best.network;
+  if (net.gainTrim && !bestOpt.covers) {
+    const why = top === 'non-inverting' && ideal.gain < 1.5 ? ` Near unity gain the span trim has little leverage ((G−1)/G = ${sens.toFixed(2)}): pick a sensor setup with less spread, or more gain and a smaller sensitivity (fewer turns, a longer gap).` : '';
+    w('gain-trim-short', 'caution', `The gain trimmer covers ±${(net.gainTrim.halfSpan * 100).toFixed(2)} %, less than ${COVERAGE} × the ±${(sStack * 100).toFixed(2)} % worst-case stack.${why}`);
+  }
+  if (target.trim.zero && !net.reference.trim) {
+    w('zero-trim-short', 'caution', zeroAtRail
+      ? `The zero needs the reference on the rail itself (${net.reference.voltage} V), where a trimmer cannot straddle it, so the leg is tied to the rail: null the zero at the instrument, or choose a zero away from the rail.`
+      : `No standard zero trimmer covers ${COVERAGE} × the worst-case zero stack from a reference this near a rail, so the divider is fixed: null the zero at the instrument, or move the zero.`);
+  } else if (net.reference.trim && Math.abs(net.reference.trim.setting - 0.5) > 0.3) {
+    w('zero-trim-off-centre', 'info', `The reference sits near a rail, so the zero trimmer starts at ${(net.reference.trim.setting * 100).toFixed(0)} % of its travel.`);
+  }
+  const real = realised(net, ideal, front, a0);
+  return { ideal, network: net, parts: partsOf(net, design), alternatives: best.ranked, chosen: Math.max(best.chosen, 0), bestError: best.best, gain: real.gain, reference: real.reference, scaleError: real.scaleError, zeroError: real.zeroError, warnings };
+}
+
+function fmtOhms(ohms: number): string {
+  const p = [[1e6, 'MΩ'], [1e3, 'kΩ'], [1, 'Ω']] as const;
+  const [m, u] = p.find(([m]) => ohms >= m) ?? [1, 'Ω'];
+  return `${+(ohms / m).toPrecision(3)} ${u}`;
+}
+
+/** Numbers the parts R1, R2 … and RV1, RV2 … in signal-path order. */
+export function partsOf(net: StageNetwork, design: Design): Part[] {
+  const { series, tolerance } = design.target;
+  const tol = tolerance ?? usualTolerance(series);
+  const parts: Part[] = [];
+  let r = 0, rv = 0;
+  const addArm = (arm: Arm | null, role: PartRole) => {
+    if (!arm) return;
+    for (const ohms of arm.parts) parts.push({ ref: `R${++r}`, role, kind: 'resistor', ohms, series, tolerance: tol, arrangement: arm.arrangement });
+  };
+  const addTrim = (t: Trimmer | null, role: PartRole) => {
+    if (!t) return;
+    parts.push({ ref: `RV${++rv}`, role, kind: 'trimmer', ohms: t.ohms, series: 'trimmer', tolerance: TRIMMER_TOLERANCE, arrangement: 'single', setting: t.setting });
+  };
+  addArm(net.feedback, 'feedback');
+  addTrim(net.gainTrim, 'gain-trim');
+  addArm(net.leg, net.topology === 'non-inverting' ? 'ground-leg' : 'input');
+  if (net.reference.kind === 'divider') {
+    addArm(net.reference.top, 'reference-top');
+    addTrim(net.reference.trim, 'zero-trim');
+    addArm(net.reference.bottom, 'reference-bottom');
+  }
+  const f = design.output.filter;
+  if (f) {
+    parts.push({ ref: `R${++r}`, role: 'output-series', kind: 'resistor', ohms: f.resistance, series, tolerance: tol, arrangement: 'single' });
+    if (f.capacitance > 0) parts.push({ ref: 'C1', role: 'output-capacitor', kind: 'capacitor', ohms: 0, farads: f.capacitance, series: 'capacitor', tolerance: 0.1, arrangement: 'single' });
+  }
+  return parts;
+}
