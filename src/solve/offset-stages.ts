@@ -84,7 +84,8 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
   const wantedRatios = (): number[] => {
     const v0 = ideal.reference;
     const fr = Number.isFinite(v0) ? (v0 - lo) / vspan : 0.5;
-    if (top === 'difference') return [fr];
+    // The difference stage's reference passes with Black's factor k = 1/(1 + (1+G)/A0): aim it at b/k.
+    if (top === 'difference') return [(v0 / loopFactor(1 + ideal.gain, a0) - lo) / vspan];
     // The summing stages: the reference can sit anywhere on b's side of ground; a few ratios of the rail span.
     const out = [fr];
     for (const r of [0.5, 0.7, 0.3, 0.85, 0.15]) {
@@ -253,7 +254,8 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
         const inv = (1 + 1 / a0) / (1 - (Math.abs(m) + g2w) / a0);
         if (!(inv > 0)) continue;
         const g1 = Math.abs(m) * inv;
-        const res = feedbackSearch(`${vr}`, opt, { cA: half, cB: rsMinus, k: g1, m: 1 });
+        // The sensor's + terminal feeds Rin here: its resistance is the source resistance.
+        const res = feedbackSearch(`${vr}`, opt, { cA: half, cB: front.sourceResistance, k: g1, m: 1 });
         for (const fb of res.ranked) {
           if (beaten(bound(ref, fb, opt, 1))) continue;
           const rf = fb.a.ohms + half;
@@ -269,7 +271,10 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
         for (const fb of res.ranked) {
           if (beaten(bound(ref, fb, opt, 2))) continue;
           const gReal = (fb.a.ohms + half) / (fb.b.ohms + rsMinus);
-          const pres = search(table, { cA: rth, cB: rsPlus, k: gReal, m: 1 / (1 + gReal) }, fb.a.ohms, Math.max(tableMin, fb.a.ohms / 1.1), Math.min(tableMax, fb.a.ohms * 1.1), 2);
+          // A ratio error ε of the + side moves the scale by ε/(1+G) and the zero by about ε·G/(1+G)·(|Vcm| + |Vref|)
+          // (the common-mode error of a mismatched pair): ranked on both, the zero's against the output span.
+          const cmLever = ((gReal / (1 + gReal)) * (Math.abs(front.commonMode ?? 0) + Math.abs(vr))) / outSpan;
+          const pres = search(table, { cA: rth, cB: rsPlus, k: gReal, m: 1 / (1 + gReal) + cmLever }, fb.a.ohms, Math.max(tableMin, fb.a.ohms / 1.1), Math.min(tableMax, fb.a.ohms * 1.1), 2);
           for (const pp of pres.ranked) {
             consider({ topology: top, feedback: fb.a, gainTrim: gainTrimOf(opt, fb.a), leg: fb.b, reference: ref, plusArm: pp.b, offsetArm: pp.a, swapped }, opt, res.ranked, fb);
           }
