@@ -75,8 +75,17 @@ export interface HallGapCoreSensor extends SensorCommon {
     gap: number;
     /** Saturation flux density of the core material, T. */
     saturation: number;
-    /** User correction for fringing: multiplies the gap field (1 = formula as is). */
+    /**
+     * Fringing factor F = A_g/A_c: the gap's effective area over the core's cross-section (1 = fringing
+     * neglected). Used when width and depth are not given.
+     */
     fringing: number;
+    /**
+     * Optional cross-section of the core at the gap, m × m; when given the gap's effective area is
+     * (width + g)·(depth + g). One alone is taken as a square section.
+     */
+    width?: number;
+    depth?: number;
   };
 }
 
@@ -256,6 +265,8 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
         gap: num('metres', 'positive', { max: 1 }),
         saturation: num('teslas', 'positive', { max: 100 }),
         fringing: opt(num('(factor)', 'positive', { min: 0.1, max: 10 }), 1),
+        width: num('metres', 'positive', { max: 10, optional: true }),
+        depth: num('metres', 'positive', { max: 10, optional: true }),
       },
     },
   },
