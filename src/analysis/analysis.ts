@@ -468,7 +468,8 @@ export interface SpreadResult {
 
 /**
  * Monte Carlo over part tolerances: each resistor uniform within ±tolerance (trimmers at their setting with
- * ±20 % on their total), the sensor's sensitivity and zero uniform within theirs; seeded so runs repeat.
+ * ±20 % on their whole track, both halves of a potentiometer together), the sensor's sensitivity and zero
+ * uniform within theirs; seeded so runs repeat.
  */
 export function spread(design: Design, front: SensorFront, sc: StageCircuit, dc: DcPoint, trials = design.analysis.spreadTrials, seed = design.analysis.spreadSeed): SpreadResult {
   const rand = mulberry32(seed);
@@ -481,6 +482,12 @@ export function spread(design: Design, front: SensorFront, sc: StageCircuit, dc:
   };
   const nominal = c.elements.map((e) => e.value);
   const tols = c.elements.map(tolOf);
+  // A potentiometer's tolerance scales its whole track: its two halves (RV2A, RV2B) share one draw, so the
+  // wiper ratio holds. Every other part draws on its own.
+  const groupOf = c.elements.map((e, i) => /^(RV\d+)[AB]?$/.exec(e.name)?.[1] ?? `#${i}`);
+  const groups = [...new Set(groupOf)];
+  const groupIdx = Int32Array.from(groupOf, (g) => groups.indexOf(g));
+  const draw = new Float64Array(groups.length);
   const sigIdx = sc.signalIndex;
   const sig = c.elements[sigIdx]!;
   const n = c.size;
@@ -497,9 +504,10 @@ export function spread(design: Design, front: SensorFront, sc: StageCircuit, dc:
   let pass = 0;
   const s0 = dc.out[1], z0 = dc.out[0];
   for (let t = 0; t < trials; t++) {
+    for (let g = 0; g < draw.length; g++) draw[g] = 2 * rand() - 1;
     for (let i = 0; i < c.elements.length; i++) {
       const tol = tols[i]!;
-      if (tol) c.elements[i]!.value = nominal[i]! * (1 + tol * (2 * rand() - 1));
+      if (tol) c.elements[i]!.value = nominal[i]! * (1 + tol * draw[groupIdx[i]!]!);
     }
     b0.set(base0); b1.set(base1);
     const kq = sig.kind === 'V' ? front.quiescentTolerance * (2 * rand() - 1) : 0;

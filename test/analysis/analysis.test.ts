@@ -111,6 +111,39 @@ describe('tolerance spread', () => {
     expect(r.spread!.scaleStd / sigma).toBeLessThan(1.06);
     expect(Math.abs(r.spread!.scaleMean - r.dc!.out[1])).toBeLessThan((4 * sigma) / Math.sqrt(4000));
   });
+  // GUM (JCGM 100:2008) §5.1.2 law of propagation: σ_z² = Σ (∂z/∂x_i)²·u(x_i)², u = t/√3 for a part uniform
+  // within ±t (§4.3.7). The zero comes from the non-inverting stage with its reference at the foot of the
+  // ground leg, by superposition (Franco, Design with Operational Amplifiers, summing amplifiers; ideal
+  // op-amp): z = [G·V_q − (G−1)·V_th]·R_L/(R_L + R_out), G = 1 + R_f/(R_g + R_th), the divider's Thevenin
+  // V_th, R_th from its top and bottom with the potentiometer's halves (1−s)·P and s·P. The potentiometer's
+  // ±20 % scales P as a whole, so s holds.
+  it('Monte Carlo σ of the bench clamp\'s zero matches first-order propagation with the pot track moving as one', () => {
+    const r = analyse(design('bench-clamp'), { spreadTrials: 6000 });
+    const part = (role: string) => { const ps = r.stage!.parts.filter((p) => p.role === role); expect(ps.length).toBe(1); return ps[0]!; };
+    const rv1 = part('gain-trim'), rv2 = part('zero-trim');
+    const x0: Record<string, number> = {
+      R1: part('feedback').ohms, R2: part('ground-leg').ohms, R3: part('reference-top').ohms, R4: part('reference-bottom').ohms,
+      R5: part('output-series').ohms, RV1: rv1.ohms, RV2: rv2.ohms, VQ: 2.5,
+    };
+    const s1 = rv1.setting!, s2 = rv2.setting!;
+    const zero = (x: Record<string, number>) => {
+      const rt = x.R3! + (1 - s2) * x.RV2!, rb = x.R4! + s2 * x.RV2!;
+      const vth = (5 * rb) / (rt + rb), rth = (rt * rb) / (rt + rb);
+      const g = 1 + (x.R1! + s1 * x.RV1!) / (x.R2! + rth);
+      return (g * x.VQ! - (g - 1) * vth) * (1e6 / (1e6 + x.R5!));
+    };
+    const u: Record<string, number> = { R1: 0.01, R2: 0.01, R3: 0.01, R4: 0.01, R5: 0.01, RV1: 0.2, RV2: 0.2 };
+    let variance = 0;
+    for (const k of Object.keys(x0)) {
+      const half = k === 'VQ' ? 0.02 : u[k]! * x0[k]!; // the sensor zero: ±20 mV
+      const h = half * 1e-4;
+      const c = (zero({ ...x0, [k]: x0[k]! + h }) - zero({ ...x0, [k]: x0[k]! - h })) / (2 * h);
+      variance += (c * half / Math.sqrt(3)) ** 2;
+    }
+    const sigma = Math.sqrt(variance);
+    expect(r.spread!.zeroStd / sigma).toBeGreaterThan(0.96);
+    expect(r.spread!.zeroStd / sigma).toBeLessThan(1.04);
+  });
   it('is repeatable with the same seed', () => {
     const a = analyse(design('generic-sensor'), { spreadTrials: 300 });
     const b = analyse(design('generic-sensor'), { spreadTrials: 300 });
