@@ -110,17 +110,20 @@ export function clipping(design: Design, front: SensorFront, dc: DcPoint, positi
   }
   for (const l of front.limits) add(l.kind, [l.low, l.high], l.why);
 
+  // The linear region is the intersection of every limit's interval. It need not contain zero: when the zero
+  // itself sits outside it (a sagging rail), each side's limit is still reported.
   let xLo = -Infinity, xHi = Infinity, firstLow: ClipCause | null = null, firstHigh: ClipCause | null = null;
-  let linearAtZero = true;
+  let empty: ClipLimit | null = null;
   for (const l of limits) {
-    if (!Number.isFinite(l.low) && Number.isNaN(l.low)) { linearAtZero = false; continue; }
-    if (l.low > 0 || l.high < 0) linearAtZero = false;
+    if (Number.isNaN(l.low) || Number.isNaN(l.high)) { empty ??= l; continue; }
     if (l.low > xLo) { xLo = l.low; firstLow = l.cause; }
     if (l.high < xHi) { xHi = l.high; firstHigh = l.cause; }
   }
-  if (!linearAtZero) {
-    const bad = limits.find((l) => Number.isNaN(l.low) || l.low > 0 || l.high < 0)!;
-    firstLow = firstHigh = bad.cause;
+  if (!empty && xLo > xHi) empty = limits.find((l) => l.cause === (xLo > 0 ? firstLow : firstHigh)) ?? null;
+  const linearAtZero = !empty && xLo <= 0 && xHi >= 0;
+  if (empty) {
+    // Nothing is linear anywhere: report the cause at zero measurand.
+    firstLow = firstHigh = empty.cause;
     xLo = xHi = 0;
   }
   const rangePeak = peakRange(design);
@@ -426,32 +429,78 @@ export interface BatteryStep {
   headroomLow: number;
   headroomHigh: number;
   zeroShift: number;
+  /** Scale at this voltage, V per measurand unit (a ratiometric sensor on a regulator in dropout changes it). */
+  scale: number;
   first: ClipCause | null;
   /** Whether the regulated rail (if any) still holds. */
   regulated: boolean;
 }
 
-/** Sweep of the positive rail from a fresh battery to its end of life: clip points, headroom, zero shift. */
+/**
+ * The stage at one positive-rail voltage: clip points, headroom, zero and scale. A regulator holds while the
+ * rail exceeds its output by its dropout; below that its output follows the rail, dropout below it, and a
+ * ratiometric sensor fed from it scales with it.
+ */
+export function batteryStep(design: Design, stage: SolvedStage, front: SensorFront, zero: number, v: number): BatteryStep | null {
+  const passband = !front.passesDc;
+  const reg = design.supply.regulated;
+  const dropout = reg?.dropout ?? 0;
+  const neg = design.supply.negative;
+  const regulated = !reg || v - neg >= reg.voltage + dropout;
+  const regOut = reg ? (regulated ? reg.voltage : Math.max(v - dropout - neg, 0.01)) : 0;
+  const sensorSupply = design.supply.sensorRail === 'regulated' && reg ? regOut : v;
+  const f2 = atSensorSupply(front, sensorSupply);
+  const d2: Design = reg && !regulated ? { ...design, supply: { ...design.supply, regulated: { ...reg, voltage: regOut } } } : design;
+  const sc = buildCircuit(d2, stage, front, { positive: v, front: f2 });
+  const dc = dcLinear(sc, passband);
+  if (!dc) return null;
+  const c = clipping(d2, f2, dc, v);
+  return { voltage: v, measurandLow: c.measurandLow, measurandHigh: c.measurandHigh, headroomLow: c.headroom.low, headroomHigh: c.headroom.high, zeroShift: dc.out[0] - zero, scale: dc.out[1], first: c.first, regulated };
+}
+
+/** Sweep of the positive rail from a fresh battery to its end of life: clip points, headroom, zero and scale. */
 export function batterySweep(design: Design, stage: SolvedStage, front: SensorFront, zero: number, steps = 9): BatteryStep[] {
   const bat = design.supply.battery;
   if (!bat) return [];
   const out: BatteryStep[] = [];
-  const passband = !front.passesDc;
-  const reg = design.supply.regulated;
   for (let i = 0; i < steps; i++) {
-    const v = bat.fresh + ((bat.endOfLife - bat.fresh) * i) / (steps - 1);
-    // A regulator holds while it has about 0.3 V of headroom (common practice for a low-dropout part).
-    const regulated = !reg || v - design.supply.negative >= reg.voltage + 0.3;
-    const sensorSupply = design.supply.sensorRail === 'regulated' && reg ? (regulated ? reg.voltage : v - 0.3) : v;
-    const f2 = atSensorSupply(front, sensorSupply);
-    const d2: Design = reg && !regulated ? { ...design, supply: { ...design.supply, regulated: { ...reg, voltage: Math.max(v - 0.3 - design.supply.negative, 0.01) } } } : design;
-    const sc = buildCircuit(d2, stage, front, { positive: v, front: f2 });
-    const dc = dcLinear(sc, passband);
-    if (!dc) continue;
-    const c = clipping(d2, f2, dc, v);
-    out.push({ voltage: v, measurandLow: c.measurandLow, measurandHigh: c.measurandHigh, headroomLow: c.headroom.low, headroomHigh: c.headroom.high, zeroShift: dc.out[0] - zero, first: c.first, regulated });
+    const s = batteryStep(design, stage, front, zero, bat.fresh + ((bat.endOfLife - bat.fresh) * i) / (steps - 1));
+    if (s) out.push(s);
   }
   return out;
+}
+
+export interface BatteryClip {
+  /** Highest battery voltage at which the output first clips inside the range, V (null: never, down to end of life). */
+  voltage: number | null;
+  /** Hours from a fresh battery to that voltage and to end of life (null without a current figure). */
+  hoursToClip: number | null;
+  hoursToEnd: number | null;
+}
+
+/**
+ * Where the output first clips inside the range as the battery sags, solved exactly: the smaller headroom is
+ * continuous in the rail voltage (piecewise linear), so its sign change between two sweep points is
+ * bisected to 1 µV. Times assume the battery voltage falls linearly with the charge drawn at a constant
+ * current (t = Q/I, Q the capacity; the straight line from fresh to end of life is our approximation, a
+ * real cell's curve is flatter in the middle).
+ */
+export function batteryClip(design: Design, stage: SolvedStage, front: SensorFront, zero: number, sweep: BatteryStep[], sup: SupplyResult): BatteryClip {
+  const bat = design.supply.battery;
+  const hoursToEnd = sup.batteryLife;
+  if (!bat) return { voltage: null, hoursToClip: null, hoursToEnd: null };
+  const margin = (s: BatteryStep | null) => (s ? Math.min(s.headroomLow, s.headroomHigh) : -Infinity);
+  const hours = (v: number) => (hoursToEnd === null ? null : (hoursToEnd * (bat.fresh - v)) / (bat.fresh - bat.endOfLife));
+  const k = sweep.findIndex((s) => margin(s) < 0);
+  if (k < 0) return { voltage: null, hoursToClip: null, hoursToEnd };
+  if (k === 0) return { voltage: sweep[0]!.voltage, hoursToClip: 0, hoursToEnd };
+  let hi = sweep[k - 1]!.voltage, lo = sweep[k]!.voltage;
+  for (let i = 0; i < 60 && hi - lo > 1e-6; i++) {
+    const m = (hi + lo) / 2;
+    if (margin(batteryStep(design, stage, front, zero, m)) < 0) lo = m; else hi = m;
+  }
+  const v = (hi + lo) / 2;
+  return { voltage: v, hoursToClip: hours(v), hoursToEnd };
 }
 
 export interface SpreadResult {

@@ -9,8 +9,8 @@ import { solveStage, type SolvedStage } from '../solve/stage.js';
 import type { Part } from '../circuit/network.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
 import {
-  batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, noise, speed, spread, supply, transferAt, transferCurve,
-  type BatteryStep, type ClipResult, type DcPoint, type ErrorBudget, type FrequencyResponse, type InstrumentDrive, type NoiseResult,
+  batteryClip, batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, noise, speed, spread, supply, transferAt, transferCurve,
+  type BatteryClip, type BatteryStep, type ClipResult, type DcPoint, type ErrorBudget, type FrequencyResponse, type InstrumentDrive, type NoiseResult,
   type Speed, type SpreadResult, type SupplyResult,
 } from './analysis.js';
 import type { Warning } from '../model/findings.js';
@@ -39,6 +39,8 @@ export interface Report {
   errors: ErrorBudget | null;
   supply: SupplyResult | null;
   battery: BatteryStep[];
+  /** Where and when the output first clips inside the range as the battery sags (null without a battery). */
+  batteryClip: BatteryClip | null;
   spread: SpreadResult | null;
   drive: InstrumentDrive | null;
   calibration: CalibrationStep[];
@@ -63,7 +65,7 @@ export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
   const absent: Record<string, string> = {};
   const empty: Report = {
     design, front, choice, stage: null, circuit: null, dc: null, clip: null, transfer: null, response: null, speed: null, noise: null,
-    errors: null, supply: null, battery: [], spread: null, drive: null, calibration: [], warnings, verdicts: [], absent,
+    errors: null, supply: null, battery: [], batteryClip: null, spread: null, drive: null, calibration: [], warnings, verdicts: [], absent,
   };
   if (!choice.chosen) {
     warnings.push({ code: 'no-topology', level: 'fail', message: `No stage fits: ${choice.why}.` });
@@ -101,12 +103,13 @@ export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
   const errors = errorBudget(design, stage, front, circuit, dc);
   const sup = supply(design, front, circuit, dc);
   const battery = batterySweep(design, stage, front, dc.out[0]);
+  const bClip = design.supply.battery ? batteryClip(design, stage, front, dc.out[0], battery, sup) : null;
   const trials = opts.spreadTrials ?? design.analysis.spreadTrials;
   const spr = trials > 0 ? spread(design, front, circuit, dc, trials) : null;
   if (!spr) absent.spread = 'the tolerance spread was not run';
   const drive = instrumentDrive(design, stage, front, sp.smallSignal);
   const report: Report = {
-    design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, spread: spr, drive,
+    design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, batteryClip: bClip, spread: spr, drive,
     calibration: [], warnings, verdicts: [], absent,
   };
   report.calibration = calibrationSteps(report);
@@ -174,8 +177,18 @@ function findings(r: Report): Warning[] {
     w.push({ code: 'no-zero-trim', level: 'info', message: 'No zero trimmer could be fitted; the zero depends on part tolerances.' });
   }
   if (r.battery.length) {
-    const firstBad = r.battery.find((s) => s.measurandLow > a || s.measurandHigh < b);
-    if (firstBad) w.push({ code: 'battery-clips', level: 'caution', message: `Once the battery is down to ${f3(firstBad.voltage, 'V')} the output clips inside the range (linear only from ${f3(firstBad.measurandLow, m)} to ${f3(firstBad.measurandHigh, m)}); end of life is ${f3(r.battery[r.battery.length - 1]!.voltage, 'V')}.` });
+    const bc = r.batteryClip;
+    const eol = r.battery[r.battery.length - 1]!;
+    if (bc && bc.voltage !== null) {
+      const hours = bc.hoursToClip !== null && bc.hoursToEnd !== null ? ` A fresh battery gets there after about ${bc.hoursToClip.toFixed(1)} h, of ${bc.hoursToEnd.toFixed(1)} h to end of life (voltage taken as falling linearly with the charge drawn).` : '';
+      w.push({ code: 'battery-clips', level: 'caution', message: `Once the battery is down to ${f3(bc.voltage, 'V')} the output clips inside the range; end of life is ${f3(eol.voltage, 'V')}, where it is linear only from ${f3(eol.measurandLow, m)} to ${f3(eol.measurandHigh, m)}.${hours}` });
+    }
+    const reg = d.supply.regulated;
+    const s0 = r.battery[0]!.scale;
+    const worst = r.battery.reduce((x, s) => (Math.abs(s.scale / s0 - 1) > Math.abs(x.scale / s0 - 1) ? s : x), r.battery[0]!);
+    if (reg && Math.abs(worst.scale / s0 - 1) > d.analysis.scaleLimit) {
+      w.push({ code: 'battery-scale-shift', level: 'caution', message: `Below ${f3(d.supply.negative + reg.voltage + reg.dropout, 'V')} the regulator drops out (${f3(reg.dropout, 'V')} dropout) and the ratiometric sensor on it scales with its falling output: at ${f3(worst.voltage, 'V')} the scale is ${f3(worst.scale, `V/${m}`)}, ${((worst.scale / s0 - 1) * 100).toFixed(1)} % off.` });
+    }
     const shift = Math.max(...r.battery.map((s) => Math.abs(s.zeroShift)));
     if (shift > d.analysis.zeroLimit) w.push({ code: 'battery-zero-shift', level: 'caution', message: `The zero moves by up to ${f3(shift, 'V')} as the battery sags, because the reference is taken from it; feed the reference from a regulated rail.` });
   }
@@ -244,10 +257,12 @@ export function verdictsOf(r: Report): Verdict[] {
   }
   if (r.supply) {
     const life = r.supply.batteryLife;
-    v.push({ level: life !== null && life < 4 ? 'caution' : 'pass', title: life !== null ? `Battery life about ${life.toFixed(1)} h` : `Supply current ${f3(r.supply.current, 'A')}`, detail: `Draws ${f3(r.supply.current, 'A')} in total.` });
+    const bc = r.batteryClip;
+    const clipNote = bc && bc.voltage !== null && bc.hoursToClip !== null ? ` The output first clips inside the range after about ${bc.hoursToClip.toFixed(1)} h (at ${f3(bc.voltage, 'V')}; voltage taken as falling linearly with the charge drawn).` : '';
+    v.push({ level: life !== null && life < 4 ? 'caution' : 'pass', title: life !== null ? `Battery life about ${life.toFixed(1)} h to end of life` : `Supply current ${f3(r.supply.current, 'A')}`, detail: `Draws ${f3(r.supply.current, 'A')} in total.${clipNote}` });
   }
   const titles: Record<string, string> = {
-    'battery-clips': 'Clips as the battery runs down', 'battery-zero-shift': 'Zero moves with the battery', 'capacitive-load': 'Capacitive load on the op-amp output',
+    'battery-clips': 'Clips as the battery runs down', 'battery-scale-shift': 'Scale moves as the regulator drops out', 'battery-zero-shift': 'Zero moves with the battery', 'capacitive-load': 'Capacitive load on the op-amp output',
     'slew-limited': 'Slew-limited at full scale', 'gap-critical': 'Gap is critical', 'burden-power': 'Burden overloaded', 'shunt-power': 'Shunt overloaded',
     'ct-no-dc': 'A current transformer passes no DC',
     'gain-trim-short': 'Span trimmer cannot cover the spread', 'zero-trim-short': 'Zero trimmer cannot cover the spread',
@@ -297,7 +312,8 @@ export function reportJson(r: Report): Record<string, unknown> {
     spread: r.spread ? { scaleStd: num(r.spread.scaleStd), zeroStd: num(r.spread.zeroStd), yield: num(r.spread.yield), trials: r.spread.trials } : null,
     drive: r.drive ? { scaleAt1M: num(r.drive.scaleAt1M), scaleAt50: num(r.drive.scaleAt50), drives50: r.drive.drives50, isolation: num(r.drive.isolation), probeRatio: r.drive.probeRatio } : null,
     sensor: { sensitivity: num(r.front.sensitivity), figures: r.front.figures.map((f) => ({ key: f.key, label: f.label, value: num(f.value), unit: f.unit })) },
-    battery: r.battery.map((b) => ({ voltage: b.voltage, measurandLow: num(b.measurandLow), measurandHigh: num(b.measurandHigh), headroomLow: num(b.headroomLow), headroomHigh: num(b.headroomHigh), zeroShift: num(b.zeroShift) })),
+    battery: r.battery.map((b) => ({ voltage: b.voltage, measurandLow: num(b.measurandLow), measurandHigh: num(b.measurandHigh), headroomLow: num(b.headroomLow), headroomHigh: num(b.headroomHigh), zeroShift: num(b.zeroShift), scale: num(b.scale), regulated: b.regulated })),
+    batteryClip: r.batteryClip ? { voltage: num(r.batteryClip.voltage), hoursToClip: num(r.batteryClip.hoursToClip), hoursToEnd: num(r.batteryClip.hoursToEnd) } : null,
     alternatives: s ? s.alternatives.map((a, i) => ({ index: i, feedback: a.a.parts, leg: a.b.parts, error: num(a.error), parts: a.parts })) : [],
     calibration: r.calibration.map((c) => c.text),
     warnings: r.warnings.map((w) => ({ code: w.code, level: w.level, message: w.message })),

@@ -123,7 +123,15 @@ export interface Supply {
   /** Negative rail, V (0 for a single supply). */
   negative: number;
   /** An optional regulated rail (e.g. a 5 V regulator fed by the battery). */
-  regulated: { voltage: number; tolerance: number; quiescentCurrent: number } | null;
+  regulated: {
+    voltage: number;
+    tolerance: number;
+    quiescentCurrent: number;
+    /** Input-to-output voltage below which the regulator drops out, V (default 0.3, a low-dropout part). */
+    dropout: number;
+    /** Output drift, parts of one per kelvin (default 100 ppm/K). */
+    drift: number;
+  } | null;
   /** Which rail feeds the sensor. */
   sensorRail: Rail;
   /** Which rail the offset reference divider hangs from. */
@@ -306,6 +314,8 @@ const SCHEMA: Spec = {
             voltage: num('volts', 'positive', { max: 1000 }),
             tolerance: opt(num('parts of one', 'fraction'), 0.02),
             quiescentCurrent: opt(num('amperes', 'nonneg', { max: 10 }), 0),
+            dropout: opt(num('volts', 'nonneg', { max: 100 }), 0.3),
+            drift: opt(num('parts of one per kelvin', 'nonneg', { max: 0.01 }), 100e-6),
           },
         },
         sensorRail: { t: 'str', oneOf: ['positive', 'regulated'], def: 'positive' },

@@ -124,6 +124,8 @@ export const FIELDS: readonly FieldDef[] = [
   N('supply', 'supply.regulated.voltage', 'Regulated voltage', 'V', 'V', undefined, 'supply.regulated'),
   N('supply', 'supply.regulated.tolerance', 'Regulator tolerance (±)', '1', '%', undefined, 'supply.regulated'),
   N('supply', 'supply.regulated.quiescentCurrent', 'Regulator quiescent current', 'A', 'A', undefined, 'supply.regulated'),
+  N('supply', 'supply.regulated.dropout', 'Regulator dropout', 'V', 'V', 'about 0.3 V for a low-dropout part, about 1.7 V for a common small linear regulator', 'supply.regulated'),
+  N('supply', 'supply.regulated.drift', 'Regulator drift', '1/K', 'ppm/K', undefined, 'supply.regulated'),
   { path: 'supply.sensorRail', label: 'Sensor fed from', section: 'supply', kind: 'select', options: [['positive', 'Positive rail'], ['regulated', 'Regulated rail']] },
   { path: 'supply.referenceRail', label: 'Reference divider from', section: 'supply', kind: 'select', options: [['positive', 'Positive rail'], ['regulated', 'Regulated rail']] },
   { path: 'supply.battery', label: 'Battery', section: 'supply', kind: 'bool', group: 'supply.battery' },
@@ -146,7 +148,7 @@ export const FIELDS: readonly FieldDef[] = [
 /** Default values for optional groups switched on in the editor. */
 export const GROUP_DEFAULTS: Record<string, unknown> = {
   'output.filter': { resistance: 100, capacitance: 0 },
-  'supply.regulated': { voltage: 5, tolerance: 0.02, quiescentCurrent: 0 },
+  'supply.regulated': { voltage: 5, tolerance: 0.02, quiescentCurrent: 0, dropout: 0.3, drift: 100e-6 },
   'supply.battery': { fresh: 9.6, endOfLife: 6, capacity: 2034 },
   'analysis.noiseBand': [1, 1e5],
 };

@@ -161,6 +161,46 @@ describe('battery and instrument', () => {
     // Battery life = capacity / current (565 mAh = 2034 C).
     expect(r.supply!.batteryLife! * r.supply!.current * 3600).toBeCloseTo(2034, 6);
   });
+  // Op-amp output swing (its definition: outputLow above the − rail, outputHigh below the + rail) with the
+  // bench clamp's 100 mV/A around 4.5 V: the low side clips at (0.05 − 4.5)/0.1 = −44.5 A on any battery
+  // voltage, 2.5 − 0.05 = 2.45 V below the −20 A output; at 6.00 V the high side stops at 6.0 − 1.5 = 4.5 V,
+  // the zero itself, 6.5 − 4.5 = 2.0 V short of the +20 A output.
+  it('at end of life (6.00 V) with the zero on the edge, each side\'s limit is still computed', () => {
+    const r = analyse(design('bench-clamp'), { spreadTrials: 0 });
+    const eol = r.battery[r.battery.length - 1]!;
+    expect(eol.voltage).toBe(6);
+    expect(eol.measurandLow).toBeCloseTo(-44.5, 1);
+    expect(eol.headroomLow).toBeCloseTo(2.45, 2);
+    expect(eol.headroomHigh).toBeCloseTo(-2.0, 2);
+    expect(eol.measurandHigh).toBeLessThan(0.1);
+  });
+  // The output reaches the swing limit where V_bat − outputHigh = V_out(+20 A) = 4.5 + 0.1·20 = 6.5 V, so at
+  // V_bat = 8.0 V exactly (not at a sweep point). Time t = Q/I for the charge drawn (definition of capacity),
+  // with the voltage falling linearly in charge from fresh to end of life (our stated approximation):
+  // t = (Q/I)·(9.6 − 8.0)/(9.6 − 6.0).
+  it('solves the battery voltage where clipping starts (8.0 V) and the hours to it', () => {
+    const r = analyse(design('bench-clamp'), { spreadTrials: 0 });
+    const bc = r.batteryClip!;
+    expect(bc.voltage!).toBeCloseTo(8.0, 2);
+    const hoursToEnd = 2034 / r.supply!.current / 3600;
+    expect(bc.hoursToEnd!).toBeCloseTo(hoursToEnd, 9);
+    expect(bc.hoursToClip! / (hoursToEnd * (9.6 - bc.voltage!) / 3.6)).toBeCloseTo(1, 9);
+    expect(r.warnings.find((w) => w.code === 'battery-clips')!.message).toMatch(/8\.00 V/);
+    expect(r.verdicts.find((v) => v.title.startsWith('Battery life'))!.detail).toMatch(/clips inside the range after about/);
+  });
+  // A regulator with 1.7 V dropout (common practice for a small non-LDO linear part, from memory) leaves
+  // regulation below 5 + 1.7 = 6.7 V; at 6.0 V its output is 4.3 V. The sensor and the reference both hang
+  // from it, so the linear stage's output scales with it (superposition: every source ×4.3/5): scale
+  // 0.1·4.3/5 = 86 mV/A and zero 4.5·4.3/5 = 3.87 V.
+  it('a ratiometric sensor on a regulator in dropout changes its scale, and the report says so', () => {
+    const r = analyse(design('bench-clamp', (x) => { x.supply.regulated.dropout = 1.7; }), { spreadTrials: 0 });
+    const eol = r.battery[r.battery.length - 1]!;
+    expect(eol.regulated).toBe(false);
+    expect(eol.scale / (r.dc!.out[1] * 4.3 / 5)).toBeCloseTo(1, 4);
+    expect(eol.zeroShift).toBeCloseTo(r.dc!.out[0] * (4.3 / 5 - 1), 3);
+    expect(r.battery[0]!.regulated).toBe(true);
+    expect(r.warnings.map((w) => w.code)).toContain('battery-scale-shift');
+  });
   it('a reference taken from the battery moves the zero as it sags', () => {
     const r = analyse(design('generic-sensor', (x) => { x.supply.battery = { fresh: 9.6, endOfLife: 7, capacity: 2034 }; }), { spreadTrials: 0 });
     expect(Math.abs(r.battery[r.battery.length - 1]!.zeroShift)).toBeGreaterThan(0.1);
