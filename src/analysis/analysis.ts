@@ -311,10 +311,15 @@ export function noise(design: Design, sc: StageCircuit, sp: Speed, points = 201)
 
 export interface ErrorTerm {
   name: string;
-  /** Error in measurand units at the range end. */
+  /** Error in measurand units at the range end the budget is stated at (`ErrorBudget.at`). */
   value: number;
+  /** The same at the low and the high end of the range. */
+  low: number;
+  high: number;
   /** zero: removed by the zero trim; scale: by the gain trim; none: remains after calibration. */
   removedBy: 'zero' | 'scale' | 'both' | 'none';
+  /** A term of the calibration itself (meter, trimmer resolution): it exists only after calibration. */
+  calibration?: boolean;
 }
 
 export interface ErrorBudget {
@@ -323,40 +328,86 @@ export interface ErrorBudget {
   rss: number;
   afterTrim: number;
   afterTrimRss: number;
-  /** Measurand at which the errors are stated (the range end with the larger magnitude). */
+  /** Measurand at which the errors are stated: the range end with the larger worst case after calibration. */
   at: number;
+  /** Worst case after calibration at the low and the high range end. */
+  afterTrimLow: number;
+  afterTrimHigh: number;
 }
 
 /**
- * DC error budget at the range end, in measurand units. Each resistor is moved by its tolerance alone and
- * the scale and zero recomputed from the circuit; offsets and bias currents come from their own DC columns.
+ * Where the span is calibrated, as a fraction of the range end (the calibration steps apply about half the
+ * range end; common practice: large enough to read well, small enough for a bench supply).
+ */
+export const SPAN_CALIBRATION_FRACTION = 0.5;
+
+/**
+ * DC error budget at both range ends, in measurand units. Each resistor and trimmer is moved by its
+ * tolerance alone and the scale and zero recomputed from the circuit; offsets, bias currents and rails come
+ * from their own DC columns. A rail that feeds a ratiometric sensor moves the sensor's zero and sensitivity
+ * with it (the sensor tracks its rail). After calibration the static terms go and what the calibration
+ * itself leaves comes in: the trimmers' settable step and the meter's uncertainty, with the span taken from
+ * the difference of two readings (at the zero and at the calibration point) so that a zero error does not
+ * enter the span.
  */
 export function errorBudget(design: Design, stage: SolvedStage, front: SensorFront, sc: StageCircuit, dc: DcPoint): ErrorBudget {
   const terms: ErrorTerm[] = [];
   const [a, b] = peakRange(design);
-  const xEnd = Math.abs(a) > Math.abs(b) ? a : b;
   const scale = dc.out[1];
   const toUnits = (volts: number) => Math.abs(volts / scale);
+  // A term as an output change dz + ds·x (V), read at both ends in measurand units.
+  const lin = (name: string, dz: number, ds: number, removedBy: ErrorTerm['removedBy'], calibration = false) =>
+    ({ name, value: 0, low: toUnits(dz + ds * a), high: toUnits(dz + ds * b), removedBy, ...(calibration ? { calibration } : {}) });
+  const add = (t: ErrorTerm) => { terms.push(t); };
   const passband = !front.passesDc;
   const zeroTrim = !!stage.network.reference.trim;
   const gainTrim = !!stage.network.gainTrim;
-  const dT = Math.max(Math.abs(design.environment.temperatureMax - design.environment.temperature), Math.abs(design.environment.temperature - design.environment.temperatureMin));
-  const sol = solveDc(sc.circuit, [(e) => e.extra?.vos ?? 0, (e) => (e.extra?.ibp ?? 0) + (e.extra?.ibn ?? 0), (e) => (e.name === 'VSIG' || e.name === 'VQ' ? 1 : 0)], passband);
+  const env = design.environment;
+  const dT = Math.max(Math.abs(env.temperatureMax - env.temperature), Math.abs(env.temperature - env.temperatureMin));
+  const o = sc.nodes.out - 1;
+  const sup = design.supply;
+  const oa = design.opamp;
+  const sol = solveDc(sc.circuit, [
+    (e) => e.extra?.vos ?? 0, (e) => (e.extra?.ibp ?? 0) + (e.extra?.ibn ?? 0), (e) => (e.name === 'VSIG' || e.name === 'VQ' ? 1 : 0),
+    (e) => (e.name === 'VREG' ? 1 : 0), (e) => (e.name === 'VPOS' ? 1 : 0), (e) => (e.name === 'VNEG' ? 1 : 0),
+  ], passband);
   if (sol) {
-    const o = sc.nodes.out - 1;
-    const [cVos, cIb, cVq] = sol.columns as [Float64Array, Float64Array, Float64Array];
-    terms.push({ name: 'op-amp offset voltage', value: toUnits(cVos[o]!), removedBy: 'zero' });
-    terms.push({ name: 'op-amp bias current', value: toUnits(cIb[o]!), removedBy: 'zero' });
-    if (front.quiescentTolerance) terms.push({ name: 'sensor zero tolerance', value: toUnits(cVq[o]! * front.quiescentTolerance), removedBy: 'zero' });
-    const vosPerVolt = Math.abs(cVos[o]! / (design.opamp.offsetVoltage || 1));
-    if (design.opamp.offsetDrift) terms.push({ name: 'op-amp offset drift', value: toUnits(vosPerVolt * design.opamp.offsetDrift * dT), removedBy: 'none' });
-    if (front.quiescentDrift) terms.push({ name: 'sensor zero drift', value: toUnits(cVq[o]! * front.quiescentDrift * dT), removedBy: 'none' });
+    const [cVos, cIb, cVq, cReg, cPos, cNeg] = sol.columns.map((c) => c[o]!) as [number, number, number, number, number, number];
+    add(lin('op-amp offset voltage', cVos, 0, 'zero'));
+    add(lin('op-amp bias current', cIb, 0, 'zero'));
+    if (front.quiescentTolerance) add(lin('sensor zero tolerance', cVq * front.quiescentTolerance, 0, 'zero'));
+    const vosPerVolt = oa.offsetVoltage ? cVos / oa.offsetVoltage : 0;
+    if (oa.offsetDrift) add(lin('op-amp offset drift', vosPerVolt * oa.offsetDrift * dT, 0, 'none'));
+    if (front.quiescentDrift) add(lin('sensor zero drift', cVq * front.quiescentDrift * dT, 0, 'none'));
+    // A relative change ε of a rail: the networks hanging from it (its column) and, for a ratiometric sensor
+    // fed from it, the sensor's zero and sensitivity by the same ε.
+    const railShift = (rail: 'regulated' | 'positive', column: number, volts: number, eps: number): [number, number] => {
+      const tracks = !!front.ratiometricSupply && sup.sensorRail === rail;
+      return [column * volts * eps + (tracks ? cVq * front.quiescent * eps : 0), tracks ? scale * eps : 0];
+    };
+    const reg = sup.regulated;
+    if (reg && sc.rails.regulated >= 0 && (sup.referenceRail === 'regulated' || sup.sensorRail === 'regulated')) {
+      add(lin(`regulated rail tolerance (±${+(reg.tolerance * 100).toPrecision(3)} %)`, ...railShift('regulated', cReg, reg.voltage, reg.tolerance), 'both'));
+      if (reg.drift) add(lin(`regulated rail drift (${+(reg.drift * 1e6).toPrecision(3)} ppm/K over ±${dT.toFixed(0)} K)`, ...railShift('regulated', cReg, reg.voltage, reg.drift * dT), 'none'));
+    }
+    // The op-amp's supply rejection: a change ΔV across its supply moves its offset by ΔV/PSRR.
+    const psrr = 10 ** (-oa.psrrDb / 20);
+    if (sup.battery) {
+      // A battery sags after calibration: its sweep shows the rail's own effect; the offset's share remains.
+      add(lin(`op-amp supply rejection over the battery's sag (${oa.psrrDb} dB)`, vosPerVolt * (sup.battery.fresh - sup.battery.endOfLife) * psrr, 0, 'none'));
+    } else if (sup.tolerance) {
+      const [dzP, dsP] = railShift('positive', cPos, sup.positive, sup.tolerance);
+      const dzN = cNeg * sup.negative * sup.tolerance;
+      add({ ...lin(`supply rail tolerance (±${+(sup.tolerance * 100).toPrecision(3)} %)`, dzP, dsP, 'both'), low: toUnits(dzP + dsP * a) + toUnits(dzN), high: toUnits(dzP + dsP * b) + toUnits(dzN) });
+      add(lin(`op-amp supply rejection of the rail tolerance (${oa.psrrDb} dB)`, vosPerVolt * (sup.positive - sup.negative) * sup.tolerance * psrr, 0, 'zero'));
+    }
   }
-  if (front.sensitivityTolerance) terms.push({ name: 'sensor sensitivity tolerance', value: Math.abs(xEnd) * front.sensitivityTolerance, removedBy: 'scale' });
-  if (front.sensitivityDrift) terms.push({ name: 'sensor sensitivity drift', value: Math.abs(xEnd * front.sensitivityDrift * dT), removedBy: 'none' });
-  // Resistors: each part alone at +tolerance; zero and scale shifts from the circuit.
+  if (front.sensitivityTolerance) add(lin('sensor sensitivity tolerance', 0, scale * front.sensitivityTolerance, 'scale'));
+  if (front.sensitivityDrift) add(lin('sensor sensitivity drift', 0, scale * front.sensitivityDrift * dT, 'none'));
+  // Resistors and trimmers: each part alone at +tolerance; zero and scale shifts from the circuit. A
+  // potentiometer's halves move together (its tolerance and tempco scale the whole track).
   const base0 = dc.out[0], base1 = dc.out[1];
-  let driftSum = 0;
+  const drift = { resistor: { low: 0, high: 0 }, trimmer: { low: 0, high: 0 } };
   for (const p of stage.parts) {
     if (p.kind === 'capacitor') continue;
     const names = sc.circuit.elements.filter((e) => e.kind === 'R' && (e.name === p.ref || e.name === `${p.ref}A` || e.name === `${p.ref}B`)).map((e) => e.name);
@@ -368,29 +419,42 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
       return { dz: d2.out[0] - base0, ds: d2.out[1] - base1 };
     };
     const t = shift(p.tolerance);
-    const removed = p.kind === 'trimmer' ? 'both' : 'both';
-    terms.push({ name: `${p.ref} tolerance (${formatEng(p.ohms, 'Ω', 3)})`, value: toUnits(t.dz + t.ds * xEnd), removedBy: removed });
-    if (design.target.tempco && p.kind === 'resistor') {
-      const d = shift(Math.abs(design.target.tempco) * dT);
-      const v = toUnits(d.dz + d.ds * xEnd);
-      driftSum += v;
+    add(lin(`${p.ref} tolerance (${formatEng(p.ohms, 'Ω', 3)})`, t.dz, t.ds, 'both'));
+    const tc = p.kind === 'trimmer' ? design.target.trimmerTempco : design.target.tempco;
+    if (tc) {
+      const d = shift(Math.abs(tc) * dT);
+      const acc = p.kind === 'trimmer' ? drift.trimmer : drift.resistor;
+      acc.low += toUnits(d.dz + d.ds * a);
+      acc.high += toUnits(d.dz + d.ds * b);
     }
   }
-  if (driftSum > 0) terms.push({ name: `resistor tempco (${(design.target.tempco * 1e6).toFixed(0)} ppm/K over ±${dT.toFixed(0)} K)`, value: driftSum, removedBy: 'none' });
-  const reg = design.supply.regulated;
-  if (reg && design.supply.referenceRail === 'regulated' && sc.rails.regulated >= 0) {
-    const sol2 = solveDc(sc.circuit, [(e) => (e.name === 'VREG' ? reg.voltage * reg.tolerance : 0)], passband);
-    if (sol2) terms.push({ name: 'regulated rail tolerance', value: toUnits(sol2.columns[0]![sc.nodes.out - 1]!), removedBy: 'zero' });
+  if (drift.resistor.low || drift.resistor.high) add({ name: `resistor tempco (${(design.target.tempco * 1e6).toFixed(0)} ppm/K over ±${dT.toFixed(0)} K)`, value: 0, ...drift.resistor, removedBy: 'none' });
+  if (drift.trimmer.low || drift.trimmer.high) add({ name: `trimmer tempco (${(design.target.trimmerTempco * 1e6).toFixed(0)} ppm/K over ±${dT.toFixed(0)} K)`, value: 0, ...drift.trimmer, removedBy: 'none' });
+  // What the calibration itself leaves: the trimmers' settable step and the meter.
+  if (stage.network.reference.trim) add(lin('zero trimmer resolution', stage.network.reference.trim.step, 0, 'none', true));
+  if (stage.network.gainTrim) add(lin('span trimmer resolution', 0, scale * stage.network.gainTrim.step, 'none', true));
+  const cal = design.calibration;
+  const end = Math.max(Math.abs(a), Math.abs(b)) / (design.target.signal === 'ac-rms' ? Math.SQRT2 : 1);
+  const xCal = SPAN_CALIBRATION_FRACTION * end;
+  if (cal.meterRelative || cal.meterDigits) {
+    // Zero: one reading of the output at zero, ±(r·|z| + d). Span: the difference of the readings at the
+    // calibration point and at zero, ±(r·|s·x_cal| + 2d), against the applied measurand read to ±r, so the
+    // relative span error is r + (r·|s·x_cal| + 2d)/|s·x_cal|.
+    add(lin('calibration meter, zero reading', cal.meterRelative * Math.abs(base0) + cal.meterDigits, 0, 'none', true));
+    const rel = cal.meterRelative + (cal.meterRelative * Math.abs(scale * xCal) + 2 * cal.meterDigits) / Math.abs(scale * xCal);
+    add(lin('calibration meter, span from two readings', 0, scale * rel, 'none', true));
   }
-  // What the trims leave: their settable step.
-  const removedFlag = (t: ErrorTerm) => (t.removedBy === 'zero' && zeroTrim) || (t.removedBy === 'scale' && gainTrim) || (t.removedBy === 'both' && zeroTrim && gainTrim);
-  const after: number[] = terms.filter((t) => !removedFlag(t)).map((t) => t.value);
-  if (stage.network.reference.trim) after.push(toUnits(stage.network.reference.trim.step));
-  if (stage.network.gainTrim) after.push(Math.abs(xEnd) * stage.network.gainTrim.step);
-  const wc = terms.reduce((s, t) => s + t.value, 0);
-  const rss = Math.sqrt(terms.reduce((s, t) => s + t.value ** 2, 0));
+  const removed = (t: ErrorTerm) => (t.removedBy === 'zero' && zeroTrim) || (t.removedBy === 'scale' && gainTrim) || (t.removedBy === 'both' && zeroTrim && gainTrim);
+  const before = terms.filter((t) => !t.calibration);
+  const after = terms.filter((t) => t.calibration || !removed(t));
+  const sum = (ts: ErrorTerm[], k: 'low' | 'high') => ts.reduce((x, t) => x + t[k], 0);
+  const rss = (ts: ErrorTerm[], k: 'low' | 'high') => Math.sqrt(ts.reduce((x, t) => x + t[k] ** 2, 0));
+  const afterLow = sum(after, 'low'), afterHigh = sum(after, 'high');
+  const k: 'low' | 'high' = afterLow > afterHigh ? 'low' : 'high';
+  for (const t of terms) t.value = t[k];
   return {
-    terms, worstCase: wc, rss, afterTrim: after.reduce((s, v) => s + v, 0), afterTrimRss: Math.sqrt(after.reduce((s, v) => s + v * v, 0)), at: xEnd,
+    terms, worstCase: sum(before, k), rss: rss(before, k), afterTrim: Math.max(afterLow, afterHigh), afterTrimRss: rss(after, k),
+    at: k === 'low' ? a : b, afterTrimLow: afterLow, afterTrimHigh: afterHigh,
   };
 }
 

@@ -253,7 +253,7 @@ export function verdictsOf(r: Report): Verdict[] {
   v.push({ level: pp <= 0.01 * end ? 'pass' : pp <= 0.05 * end ? 'caution' : 'fail', title: `Noise ${f3(r.noise.referredRms, `${m} rms`)}`, detail: `${f3(r.noise.rms, 'V rms')} at the output over ${f3(r.noise.band[0], 'Hz')}…${f3(r.noise.band[1], 'Hz')}, about ${f3(r.noise.peakToPeak, 'V')} (${f3(pp, m)}) peak-to-peak, ${((pp / end) * 100).toFixed(2)} % of the range end.` });
   if (r.errors) {
     const e = r.errors.afterTrim / end;
-    v.push({ level: e <= 0.01 ? 'pass' : e <= 0.03 ? 'caution' : 'fail', title: `Error ±${f3(r.errors.afterTrim, m)} after calibration`, detail: `${(e * 100).toFixed(2)} % of the range end, worst case, mostly ${r.errors.terms.filter((t) => t.removedBy === 'none').sort((x, y) => y.value - x.value)[0]?.name ?? 'trim resolution'}; before trimming ±${f3(r.errors.worstCase, m)} (RSS ±${f3(r.errors.rss, m)}) at ${f3(r.errors.at, m)}.` });
+    v.push({ level: e <= 0.01 ? 'pass' : e <= 0.03 ? 'caution' : 'fail', title: `Error ±${f3(r.errors.afterTrim, m)} after calibration`, detail: `${(e * 100).toFixed(2)} % of the range end, worst case (RSS ±${f3(r.errors.afterTrimRss, m)}), mostly ${r.errors.terms.filter((t) => t.removedBy === 'none').sort((x, y) => y.value - x.value)[0]?.name ?? 'nothing'}; before trimming ±${f3(r.errors.worstCase, m)} (RSS ±${f3(r.errors.rss, m)}) at ${f3(r.errors.at, m)}.` });
   }
   if (r.supply) {
     const life = r.supply.batteryLife;
@@ -307,7 +307,7 @@ export function reportJson(r: Report): Record<string, unknown> {
     headroom: r.clip ? { low: num(r.clip.headroom.low), high: num(r.clip.headroom.high) } : null,
     bandwidth: r.speed ? { smallSignal: num(r.speed.smallSignal), fullPower: num(r.speed.fullPower), lowCorner: num(r.speed.lowCorner), riseTime: num(r.speed.riseTime), phaseAtCorner: num(r.speed.phaseAtCorner) } : null,
     noise: r.noise ? { densityAt1kHz: num(r.noise.densityAt1kHz), rms: num(r.noise.rms), band: r.noise.band, referredRms: num(r.noise.referredRms), peakToPeak: num(r.noise.peakToPeak) } : null,
-    errors: r.errors ? { worstCase: num(r.errors.worstCase), rss: num(r.errors.rss), afterTrim: num(r.errors.afterTrim), at: num(r.errors.at) } : null,
+    errors: r.errors ? { worstCase: num(r.errors.worstCase), rss: num(r.errors.rss), afterTrim: num(r.errors.afterTrim), afterTrimLow: num(r.errors.afterTrimLow), afterTrimHigh: num(r.errors.afterTrimHigh), at: num(r.errors.at) } : null,
     supply: r.supply ? { current: num(r.supply.current), batteryLife: num(r.supply.batteryLife) } : null,
     spread: r.spread ? { scaleStd: num(r.spread.scaleStd), zeroStd: num(r.spread.zeroStd), yield: num(r.spread.yield), trials: r.spread.trials } : null,
     drive: r.drive ? { scaleAt1M: num(r.drive.scaleAt1M), scaleAt50: num(r.drive.scaleAt50), drives50: r.drive.drives50, isolation: num(r.drive.isolation), probeRatio: r.drive.probeRatio } : null,

@@ -89,6 +89,96 @@ describe('noise and errors', () => {
   });
 });
 
+describe('rails in the error budget, at both range ends', () => {
+  // A ratiometric sensor and a reference divider both fed from the regulated rail: every source in the
+  // linear stage scales by (1 + ε) with the rail, so by superposition the output does too: Δv(x) = ε·(z + s·x).
+  // Bench clamp, 2 % regulator, z = 4.5 V, s = 0.1 V/A: at +20 A 0.02·6.5/0.1 = 1.30 A, at −20 A 0.02·2.5/0.1 = 0.50 A.
+  it('the regulated-rail term tracks the ratiometric sensor: 1.30 A at +20 A, 0.50 A at −20 A', () => {
+    const r = analyse(design('bench-clamp'), { spreadTrials: 0 });
+    const t = r.errors!.terms.find((x) => x.name.startsWith('regulated rail tolerance'))!;
+    const z = r.dc!.out[0], sc = r.dc!.out[1];
+    expect(t.high).toBeCloseTo((0.02 * (z + sc * 20)) / sc, 2);
+    expect(t.low).toBeCloseTo((0.02 * Math.abs(z - sc * 20)) / sc, 2);
+    expect(t.high).toBeCloseTo(1.3, 2);
+    expect(t.low).toBeCloseTo(0.5, 2);
+    // Its drift (100 ppm/K over ±15 K, ε = 1.5e-3) is the same shape and remains after calibration.
+    const d = r.errors!.terms.find((x) => x.name.startsWith('regulated rail drift'))!;
+    expect(d.high).toBeCloseTo((1.5e-3 * (z + sc * 20)) / sc, 3);
+    expect(d.removedBy).toBe('none');
+  });
+  // Non-inverting stage, reference at the foot of the ground leg (superposition; Franco, summing and
+  // difference amplifiers): v = G·V_s − (G−1)·V_ref with V_ref = G·V_q − z over (G−1) taken from the 9 V rail, so
+  // a 1 % rail moves the zero by (G·V_q − z)·0.01 = (8·2.5 − 4.5)·0.01 = 0.155 V = 1.55 A at 0.1 V/A.
+  it('a 1 % bench rail moves the generic demo\'s zero by (G·Vq − z)·1 % = 1.55 A', () => {
+    const r = analyse(design('generic-sensor'), { spreadTrials: 0 });
+    const t = r.errors!.terms.find((x) => x.name.startsWith('supply rail tolerance'))!;
+    const g = r.stage!.gain, z = r.dc!.out[0], sc = r.dc!.out[1];
+    expect(t.high).toBeCloseTo(((g * 2.5 - z) * 0.01) / sc, 2);
+    expect(t.high).toBeCloseTo(1.55, 2);
+    expect(t.low).toBeCloseTo(t.high, 9); // the sensor is not ratiometric: a pure zero shift
+  });
+  // PSRR (its definition: the input offset moves by ΔV_supply/PSRR; Franco, op-amp DC limitations): 60 dB and
+  // a 1 % change of the 9 V span move V_os by 90 µV, times the noise gain 8 at the output: 0.72 mV = 7.2 mA.
+  it('the op-amp\'s supply rejection turns the rail tolerance into an offset: NG·ΔV/PSRR', () => {
+    const r = analyse(design('generic-sensor', (x) => { x.opamp.psrrDb = 60; }), { spreadTrials: 0 });
+    const t = r.errors!.terms.find((x) => x.name.startsWith('op-amp supply rejection'))!;
+    expect(t.high).toBeCloseTo((r.stage!.gain * 0.09 * 1e-3) / r.dc!.out[1], 4);
+  });
+  it('existing files without the new fields get the defaults (1 % rail, 80 dB, 100 ppm/K trimmers, 0.5 % + 3 mV meter)', () => {
+    const d = design('generic-sensor');
+    expect(d.supply.tolerance).toBe(0.01);
+    expect(d.opamp.psrrDb).toBe(80);
+    expect(d.target.trimmerTempco).toBe(100e-6);
+    expect(d.calibration).toEqual({ meterRelative: 0.005, meterDigits: 0.003 });
+    const b = design('bench-clamp');
+    expect(b.supply.regulated!.dropout).toBe(0.3);
+    expect(b.supply.regulated!.drift).toBe(100e-6);
+  });
+});
+
+describe('after calibration', () => {
+  // A meter reading is uncertain by ±(r·reading + digits) (common practice: 0.5 % + 3 counts of 1 mV).
+  // Zero: one reading of z. Span: the difference of two readings (at zero and at x_cal = half the range end),
+  // ±(r·|s·x_cal| + 2·digits), against an applied measurand read to ±r; the errors add (worst case, GUM
+  // §5.1 with full correlation taken as the bound). Bench clamp: z 4.5 V, s 0.1 V/A, x_cal 10 A.
+  it('carries the calibration meter: zero (r·z + d)/s and span |x|·(r + (r·s·x_cal + 2d)/(s·x_cal))', () => {
+    const r = analyse(design('bench-clamp'), { spreadTrials: 0 });
+    const z = r.dc!.out[0], sc = r.dc!.out[1];
+    const zeroT = r.errors!.terms.find((x) => x.name === 'calibration meter, zero reading')!;
+    const spanT = r.errors!.terms.find((x) => x.name === 'calibration meter, span from two readings')!;
+    expect(zeroT.high).toBeCloseTo((0.005 * z + 0.003) / sc, 6);
+    const rel = 0.005 + (0.005 * sc * 10 + 2 * 0.003) / (sc * 10);
+    expect(spanT.high).toBeCloseTo(20 * rel, 6);
+    expect(spanT.low).toBeCloseTo(20 * rel, 6);
+    // They exist only after calibration; the static terms (rail tolerance) do not.
+    const after = r.errors!.terms.filter((t) => t.calibration || t.removedBy === 'none').reduce((x, t) => x + t.high, 0);
+    expect(r.errors!.afterTrimHigh).toBeCloseTo(after, 9);
+    const before = r.errors!.terms.filter((t) => !t.calibration).reduce((x, t) => x + t.value, 0);
+    expect(r.errors!.worstCase).toBeCloseTo(before, 9);
+  });
+  // The trimmers' tempco scales each whole track: the rheostat in the feedback arm moves the gain, the
+  // potentiometer's ratio holds and only its Thevenin resistance moves. Closed form of the bench clamp
+  // (non-inverting, reference at the foot of the ground leg; superposition, ideal op-amp):
+  // v(x) = [G·(V_q + S·x) − (G−1)·V_th]·R_L/(R_L + R_out), G = 1 + R_f/(R_g + R_th).
+  it('trimmer tempco: each trimmer\'s whole track moved by 100 ppm/K × 15 K, from the closed form', () => {
+    const r = analyse(design('bench-clamp'), { spreadTrials: 0 });
+    const part = (role: string) => r.stage!.parts.find((p) => p.role === role)!;
+    const rv1 = part('gain-trim'), rv2 = part('zero-trim');
+    const S = r.front.sensitivity;
+    const out = (k1: number, k2: number, x: number) => {
+      const rt = part('reference-top').ohms + (1 - rv2.setting!) * rv2.ohms * k2, rb = part('reference-bottom').ohms + rv2.setting! * rv2.ohms * k2;
+      const vth = (5 * rb) / (rt + rb), rth = (rt * rb) / (rt + rb);
+      const g = 1 + (part('feedback').ohms + rv1.setting! * rv1.ohms * k1) / (part('ground-leg').ohms + rth);
+      return (g * (2.5 + S * x) - (g - 1) * vth) * (1e6 / (1e6 + part('output-series').ohms));
+    };
+    const k = 1 + 100e-6 * 15;
+    const at = (x: number) => (Math.abs(out(k, 1, x) - out(1, 1, x)) + Math.abs(out(1, k, x) - out(1, 1, x))) / r.dc!.out[1];
+    const t = r.errors!.terms.find((x) => x.name.startsWith('trimmer tempco'))!;
+    expect(t.high / at(20)).toBeCloseTo(1, 2);
+    expect(t.low / at(-20)).toBeCloseTo(1, 2);
+  });
+});
+
 describe('tolerance spread', () => {
   // First-order propagation: for G = 1 + Rf/Rg, ∂lnG/∂lnRf = −∂lnG/∂lnRg = (G−1)/G; a uniform ±t part has
   // σ = t/√3, so σ_G/G = (G−1)/G · t/√3 · √2 (any metrology text, GUM §5.1.2).
