@@ -283,7 +283,20 @@ export interface NoiseResult {
   referredDensityAt1kHz: number;
   /** Each source's share of the integrated noise power. */
   shares: Array<{ name: string; rms: number; fraction: number }>;
+  /** Whether the band is the default one (`defaultBand`) rather than the design's own. */
+  bandIsDefault: boolean;
+  /** The 0.1–10 Hz figure that decides how far a DC reading wanders: rms and peak-to-peak at the output, V, and referred. */
+  lowFrequency: { band: [number, number]; rms: number; peakToPeak: number; referredPeakToPeak: number };
 }
+
+/** The low-frequency band whose peak-to-peak noise is quoted for DC work, Hz (common practice: 0.1–10 Hz). */
+export const LOW_FREQUENCY_BAND: readonly [number, number] = [0.1, 10];
+
+/**
+ * Share of a single pole's noise bandwidth (π/2)·f_c that the default band's top, 100 × f_c, holds:
+ * ∫₀^{100 f_c} df/(1 + (f/f_c)²) = f_c·atan(100), over (π/2)·f_c → 0.9936 (derived).
+ */
+export const DEFAULT_BAND_SHARE = Math.atan(100) / (Math.PI / 2);
 
 /** The default noise band: 1 Hz (or a tenth of an AC-coupled chain's low corner) to 100 × the −3 dB frequency. */
 export function defaultBand(sp: Speed): [number, number] {
@@ -303,9 +316,13 @@ export function noise(design: Design, sc: StageCircuit, sp: Speed, points = 201)
     return { name: s.name, rms: Math.sqrt(p), fraction: power > 0 ? p / power : 0 };
   }).sort((a, b) => b.fraction - a.fraction);
   const g = Math.abs(sp.passband) || NaN;
+  const lf = LOW_FREQUENCY_BAND;
+  const lfFreqs = logGrid(lf[0], lf[1], 24);
+  const lfRms = Math.sqrt(integratePower(lfFreqs, noiseSpectrum(sc.circuit, sc.nodes.out, lfFreqs, T).total));
   return {
     spectrum, band, densityAt1kHz: at1k, rms, peakToPeak: peakToPeak(rms), referredRms: rms / g,
-    referredDensityAt1kHz: at1k / g, shares,
+    referredDensityAt1kHz: at1k / g, shares, bandIsDefault: design.analysis.noiseBand === null,
+    lowFrequency: { band: [lf[0], lf[1]], rms: lfRms, peakToPeak: peakToPeak(lfRms), referredPeakToPeak: peakToPeak(lfRms) / g },
   };
 }
 

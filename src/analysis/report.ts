@@ -9,7 +9,7 @@ import { solveStage, type SolvedStage } from '../solve/stage.js';
 import type { Part } from '../circuit/network.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
 import {
-  batteryClip, batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, noise, speed, spread, supply, transferAt, transferCurve,
+  DEFAULT_BAND_SHARE, batteryClip, batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, noise, speed, spread, supply, transferAt, transferCurve,
   type BatteryClip, type BatteryStep, type ClipResult, type DcPoint, type ErrorBudget, type FrequencyResponse, type InstrumentDrive, type NoiseResult,
   type Speed, type SpreadResult, type SupplyResult,
 } from './analysis.js';
@@ -169,6 +169,9 @@ function findings(r: Report): Warning[] {
       w.push({ code: 'sensor-load', level: 'info', message: `The input network draws up to ${f3(draw, 'A')} from the sensor's output${r.front.outputDrive > 0 ? ` (it can drive ${f3(r.front.outputDrive, 'A')})` : '; check that the sensor can drive it'}.` });
     }
   }
+  if ((d.opamp.voltageNoise > 0 && !d.opamp.voltageNoiseCorner) || (d.opamp.currentNoise > 0 && !d.opamp.currentNoiseCorner)) {
+    w.push({ code: 'flicker-not-given', level: 'info', message: `The op-amp's 1/f noise corner${!d.opamp.voltageNoiseCorner && !d.opamp.currentNoiseCorner ? 's are' : ' is'} not given (0 Hz): its noise is taken as white down to ${f3(r.noise!.lowFrequency.band[0], 'Hz')}, right for a chopper, optimistic for most other kinds. Give opamp.voltageNoiseCorner and opamp.currentNoiseCorner from the datasheet's noise curve.` });
+  }
   if (r.drive) {
     if (!r.drive.drives50) w.push({ code: 'no-50-ohm', level: 'info', message: 'Do not switch the instrument to its 50 Ω input: the op-amp cannot drive it over the range.' });
     if (r.drive.isolation > 0) w.push({ code: 'capacitive-load', level: 'caution', message: `The instrument and cable capacitance sits on the op-amp output unisolated: fit a series resistor of about ${f3(r.drive.isolation, 'Ω')} (output.filter).` });
@@ -250,7 +253,15 @@ export function verdictsOf(r: Report): Verdict[] {
   // caution; DC error after calibration within 1 % passes, within 3 % is a caution.
   const end = Math.max(Math.abs(a), Math.abs(b)) || 1;
   const pp = r.noise.peakToPeak / (Math.abs(r.speed.passband) || 1);
-  v.push({ level: pp <= 0.01 * end ? 'pass' : pp <= 0.05 * end ? 'caution' : 'fail', title: `Noise ${f3(r.noise.referredRms, `${m} rms`)}`, detail: `${f3(r.noise.rms, 'V rms')} at the output over ${f3(r.noise.band[0], 'Hz')}…${f3(r.noise.band[1], 'Hz')}, about ${f3(r.noise.peakToPeak, 'V')} (${f3(pp, m)}) peak-to-peak, ${((pp / end) * 100).toFixed(2)} % of the range end.` });
+  const lf = r.noise.lowFrequency;
+  const ppWorst = Math.max(pp, lf.referredPeakToPeak);
+  const bandWhy = r.noise.bandIsDefault
+    ? ` (the default band: from 1 Hz, below which noise counts as drift, to 100 × the −3 dB bandwidth, which holds ${(DEFAULT_BAND_SHARE * 100).toFixed(1)} % of a single pole's noise bandwidth)`
+    : ' (the design\'s own band)';
+  v.push({
+    level: ppWorst <= 0.01 * end ? 'pass' : ppWorst <= 0.05 * end ? 'caution' : 'fail', title: `Noise ${f3(r.noise.referredRms, `${m} rms`)}`,
+    detail: `${f3(r.noise.rms, 'V rms')} at the output over ${f3(r.noise.band[0], 'Hz')}…${f3(r.noise.band[1], 'Hz')}${bandWhy}, about ${f3(r.noise.peakToPeak, 'V')} (${f3(pp, m)}) peak-to-peak, ${((pp / end) * 100).toFixed(2)} % of the range end. From ${f3(lf.band[0], 'Hz')} to ${f3(lf.band[1], 'Hz')}, how far a ${r.front.passesDc ? 'DC' : 'slow'} reading wanders: ${f3(lf.peakToPeak, 'V')} (${f3(lf.referredPeakToPeak, m)}) peak-to-peak.`,
+  });
   if (r.errors) {
     const e = r.errors.afterTrim / end;
     v.push({ level: e <= 0.01 ? 'pass' : e <= 0.03 ? 'caution' : 'fail', title: `Error ±${f3(r.errors.afterTrim, m)} after calibration`, detail: `${(e * 100).toFixed(2)} % of the range end, worst case (RSS ±${f3(r.errors.afterTrimRss, m)}), mostly ${r.errors.terms.filter((t) => t.removedBy === 'none').sort((x, y) => y.value - x.value)[0]?.name ?? 'nothing'}; before trimming ±${f3(r.errors.worstCase, m)} (RSS ±${f3(r.errors.rss, m)}) at ${f3(r.errors.at, m)}.` });
@@ -306,7 +317,10 @@ export function reportJson(r: Report): Record<string, unknown> {
     clip: r.clip ? { outputLow: num(r.clip.outputLow), outputHigh: num(r.clip.outputHigh), measurandLow: num(r.clip.measurandLow), measurandHigh: num(r.clip.measurandHigh), first: r.clip.first, firstLow: r.clip.firstLow, firstHigh: r.clip.firstHigh } : null,
     headroom: r.clip ? { low: num(r.clip.headroom.low), high: num(r.clip.headroom.high) } : null,
     bandwidth: r.speed ? { smallSignal: num(r.speed.smallSignal), fullPower: num(r.speed.fullPower), lowCorner: num(r.speed.lowCorner), riseTime: num(r.speed.riseTime), phaseAtCorner: num(r.speed.phaseAtCorner) } : null,
-    noise: r.noise ? { densityAt1kHz: num(r.noise.densityAt1kHz), rms: num(r.noise.rms), band: r.noise.band, referredRms: num(r.noise.referredRms), peakToPeak: num(r.noise.peakToPeak) } : null,
+    noise: r.noise ? {
+      densityAt1kHz: num(r.noise.densityAt1kHz), rms: num(r.noise.rms), band: r.noise.band, bandIsDefault: r.noise.bandIsDefault, referredRms: num(r.noise.referredRms), peakToPeak: num(r.noise.peakToPeak),
+      lowFrequency: { band: r.noise.lowFrequency.band, rms: num(r.noise.lowFrequency.rms), peakToPeak: num(r.noise.lowFrequency.peakToPeak), referredPeakToPeak: num(r.noise.lowFrequency.referredPeakToPeak) },
+    } : null,
     errors: r.errors ? { worstCase: num(r.errors.worstCase), rss: num(r.errors.rss), afterTrim: num(r.errors.afterTrim), afterTrimLow: num(r.errors.afterTrimLow), afterTrimHigh: num(r.errors.afterTrimHigh), at: num(r.errors.at) } : null,
     supply: r.supply ? { current: num(r.supply.current), batteryLife: num(r.supply.batteryLife) } : null,
     spread: r.spread ? { scaleStd: num(r.spread.scaleStd), zeroStd: num(r.spread.zeroStd), yield: num(r.spread.yield), trials: r.spread.trials } : null,
