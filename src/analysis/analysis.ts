@@ -680,8 +680,14 @@ export interface InstrumentDrive {
   drives50: boolean;
   /** Recommended series isolation resistor, Ω (0 when one is fitted already). */
   isolation: number;
-  /** Instrument probe-ratio setting that reads the measurand directly, or null when none fits. */
+  /** Instrument probe-ratio setting that makes one displayed volt one measurand unit, or null when none fits. */
   probeRatio: number | null;
+  /** Output at zero measurand at a 1 MΩ input, V: what the instrument's offset control must null. */
+  probeOffset: number;
+  /** The same as the instrument shows it with the probe ratio set, in measurand units (0 without a ratio). */
+  probeOffsetShown: number;
+  /** The scale is negative: the channel must be inverted to read the measurand with its sign. */
+  probeInvert: boolean;
 }
 
 /** How the stage drives the instrument: 1 MΩ and 50 Ω inputs, isolation from capacitance, probe ratio. */
@@ -711,9 +717,16 @@ export function instrumentDrive(design: Design, stage: SolvedStage, front: Senso
       isolation = Math.min(Math.max(47, design.opamp.outputResistance), upper);
     }
   }
+  // A probe ratio k shows volts × k: with k = 1/|scale| one displayed unit is one measurand unit, but the
+  // zero is shown too (z·k at no measurand) and a negative scale reads with the wrong sign.
   const scale = Math.abs(design.target.scale);
   const ratio = 1 / scale;
   const ratios = [1, 2, 5, 10, 20, 50, 100, 200, 500, 1000, 2000, 5000, 10000];
   const probeRatio = ratios.find((r) => Math.abs(r / ratio - 1) < 1e-6) ?? null;
-  return { scaleAt1M: m1.dc?.out[1] ?? NaN, scaleAt50: m50.dc?.out[1] ?? NaN, drives50, isolation, probeRatio };
+  const probeOffset = m1.dc?.out[0] ?? design.target.zero;
+  const scaleAt1M = m1.dc?.out[1] ?? NaN;
+  return {
+    scaleAt1M, scaleAt50: m50.dc?.out[1] ?? NaN, drives50, isolation, probeRatio, probeOffset,
+    probeOffsetShown: probeRatio ? probeOffset * probeRatio : 0, probeInvert: (Number.isFinite(scaleAt1M) ? scaleAt1M : design.target.scale) < 0,
+  };
 }

@@ -112,8 +112,9 @@ export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
     design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, batteryClip: bClip, spread: spr, drive,
     calibration: [], warnings, verdicts: [], absent,
   };
-  report.calibration = calibrationSteps(report);
+  // Findings first: the calibration steps repeat the instrument advice found there.
   warnings.push(...findings(report));
+  report.calibration = calibrationSteps(report);
   report.verdicts = verdictsOf(report);
   return report;
 }
@@ -172,6 +173,8 @@ function findings(r: Report): Warning[] {
   if ((d.opamp.voltageNoise > 0 && !d.opamp.voltageNoiseCorner) || (d.opamp.currentNoise > 0 && !d.opamp.currentNoiseCorner)) {
     w.push({ code: 'flicker-not-given', level: 'info', message: `The op-amp's 1/f noise corner${!d.opamp.voltageNoiseCorner && !d.opamp.currentNoiseCorner ? 's are' : ' is'} not given (0 Hz): its noise is taken as white down to ${f3(r.noise!.lowFrequency.band[0], 'Hz')}, right for a chopper, optimistic for most other kinds. Give opamp.voltageNoiseCorner and opamp.currentNoiseCorner from the datasheet's noise curve.` });
   }
+  const advice = r.drive ? probeAdvice(r.drive, m, d.target.signal === 'ac-rms') : null;
+  if (advice) w.push({ code: 'probe-ratio', level: 'info', message: advice });
   if (r.drive) {
     if (!r.drive.drives50) w.push({ code: 'no-50-ohm', level: 'info', message: 'Do not switch the instrument to its 50 Ω input: the op-amp cannot drive it over the range.' });
     if (r.drive.isolation > 0) w.push({ code: 'capacitive-load', level: 'caution', message: `The instrument and cable capacitance sits on the op-amp output unisolated: fit a series resistor of about ${f3(r.drive.isolation, 'Ω')} (output.filter).` });
@@ -196,6 +199,20 @@ function findings(r: Report): Warning[] {
     if (shift > d.analysis.zeroLimit) w.push({ code: 'battery-zero-shift', level: 'caution', message: `The zero moves by up to ${f3(shift, 'V')} as the battery sags, because the reference is taken from it; feed the reference from a regulated rail.` });
   }
   return w;
+}
+
+/**
+ * How to make the instrument read the measurand: the probe ratio, the offset to null (the zero is displayed
+ * as z × ratio at no measurand) and the sign. Null when no standard ratio fits.
+ */
+function probeAdvice(dr: InstrumentDrive, m: string, ac: boolean): string | null {
+  if (!dr.probeRatio) return null;
+  const k = dr.probeRatio;
+  const invert = dr.probeInvert ? ` The scale is negative: switch on the channel's invert so that a positive ${m} reads positive.` : '';
+  // A zero below a thousandth of a displayed unit needs no nulling.
+  if (Math.abs(dr.probeOffsetShown) < 1e-3) return `Set the instrument's probe ratio to ${k}×: with the zero at 0 V it then reads ${m} directly.${invert}`;
+  const coupling = ac ? ' For an AC reading, AC coupling removes it as well.' : '';
+  return `With the probe ratio at ${k}× one displayed unit is one ${m}, but the zero of ${f3(dr.probeOffset, 'V')} shows as ${f3(dr.probeOffsetShown, m)} when nothing is measured. Null it before reading: set the channel's offset to ${f3(-dr.probeOffsetShown, m)} on screen (${f3(-dr.probeOffset, 'V')} at its input), or subtract a reference channel that sees the probe's zero (its output at zero ${m}, or a ${f3(dr.probeOffset, 'V')} source).${coupling}${invert}`;
 }
 
 /** Largest current the sensor output delivers over the range, A (null when the circuit has no source resistor). */
@@ -324,7 +341,7 @@ export function reportJson(r: Report): Record<string, unknown> {
     errors: r.errors ? { worstCase: num(r.errors.worstCase), rss: num(r.errors.rss), afterTrim: num(r.errors.afterTrim), afterTrimLow: num(r.errors.afterTrimLow), afterTrimHigh: num(r.errors.afterTrimHigh), at: num(r.errors.at) } : null,
     supply: r.supply ? { current: num(r.supply.current), batteryLife: num(r.supply.batteryLife) } : null,
     spread: r.spread ? { scaleStd: num(r.spread.scaleStd), zeroStd: num(r.spread.zeroStd), yield: num(r.spread.yield), trials: r.spread.trials } : null,
-    drive: r.drive ? { scaleAt1M: num(r.drive.scaleAt1M), scaleAt50: num(r.drive.scaleAt50), drives50: r.drive.drives50, isolation: num(r.drive.isolation), probeRatio: r.drive.probeRatio } : null,
+    drive: r.drive ? { scaleAt1M: num(r.drive.scaleAt1M), scaleAt50: num(r.drive.scaleAt50), drives50: r.drive.drives50, isolation: num(r.drive.isolation), probeRatio: r.drive.probeRatio, probeOffset: num(r.drive.probeOffset), probeOffsetShown: num(r.drive.probeOffsetShown), probeInvert: r.drive.probeInvert } : null,
     sensor: { sensitivity: num(r.front.sensitivity), figures: r.front.figures.map((f) => ({ key: f.key, label: f.label, value: num(f.value), unit: f.unit })) },
     battery: r.battery.map((b) => ({ voltage: b.voltage, measurandLow: num(b.measurandLow), measurandHigh: num(b.measurandHigh), headroomLow: num(b.headroomLow), headroomHigh: num(b.headroomHigh), zeroShift: num(b.zeroShift), scale: num(b.scale), regulated: b.regulated })),
     batteryClip: r.batteryClip ? { voltage: num(r.batteryClip.voltage), hoursToClip: num(r.batteryClip.hoursToClip), hoursToEnd: num(r.batteryClip.hoursToEnd) } : null,

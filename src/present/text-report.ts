@@ -73,7 +73,8 @@ export function textReport(r: Report): string {
   if (r.drive) {
     h('Driving the instrument');
     out.push(`  Scale at a 1 MΩ input ${f(r.drive.scaleAt1M, `V/${m}`, 4)}, at 50 Ω ${f(r.drive.scaleAt50, `V/${m}`, 4)}${r.drive.drives50 ? '' : ' (the op-amp cannot drive 50 Ω over the range)'}`);
-    if (r.drive.probeRatio) out.push(`  Set the instrument's probe ratio to ${r.drive.probeRatio}× to read ${m} directly`);
+    const probe = r.warnings.find((w) => w.code === 'probe-ratio');
+    if (probe) out.push(`  ${probe.message}`);
   }
   if (r.warnings.length) {
     h('Findings');

@@ -303,6 +303,36 @@ describe('battery and instrument', () => {
   });
 });
 
+describe('probe-ratio advice (a probe ratio k displays k × the input volts: common practice)', () => {
+  // Bench clamp: 100 mV/A, so k = 1/0.1 = 10 makes one displayed volt one ampere; its 4.5 V zero then shows
+  // as 4.5 × 10 = 45 A with nothing measured, so the advice must say how to null it.
+  it('with a 4.5 V zero the 10× advice says the zero shows as 45 A and how to null it', () => {
+    const r = analyse(design('bench-clamp'), { spreadTrials: 0 });
+    expect(r.drive!.probeRatio).toBe(10);
+    expect(r.drive!.probeOffset).toBeCloseTo(4.5, 3);
+    expect(r.drive!.probeOffsetShown).toBeCloseTo(45, 2);
+    expect(r.drive!.probeInvert).toBe(false);
+    const w = r.warnings.find((x) => x.code === 'probe-ratio')!;
+    expect(w.message).toMatch(/45\.0 A/);
+    expect(w.message).toMatch(/offset/);
+    expect(w.message).not.toMatch(/reads A directly/);
+    expect(r.calibration.some((c) => c.text === w.message)).toBe(true);
+  });
+  // 0.5 V/A around 0 V: k = 2 reads amperes directly, no offset to null.
+  it('with the zero at 0 V the ratio alone reads the measurand directly', () => {
+    const r = analyse(design('generic-sensor', shuntOnSplitSupply), { spreadTrials: 0 });
+    expect(r.drive!.probeRatio).toBe(2);
+    expect(Math.abs(r.drive!.probeOffsetShown)).toBeLessThan(1e-3);
+    expect(r.warnings.find((x) => x.code === 'probe-ratio')!.message).toMatch(/reads A directly/);
+  });
+  it('a negative scale asks for the channel to be inverted', () => {
+    const r = analyse(design('generic-sensor', (x) => { shuntOnSplitSupply(x); x.target.scale = -0.5; }), { spreadTrials: 0 });
+    expect(r.drive!.probeRatio).toBe(2);
+    expect(r.drive!.probeInvert).toBe(true);
+    expect(r.warnings.find((x) => x.code === 'probe-ratio')!.message).toMatch(/invert/);
+  });
+});
+
 describe('every demo reports finite numbers', () => {
   it.each(DEMOS.map((d) => d.id))('%s', (id) => {
     const r = analyse(design(id), { spreadTrials: 200 });
