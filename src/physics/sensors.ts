@@ -166,7 +166,7 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
         figures: [
           { key: 'fieldPerAmp', label: 'Gap field per ampere (mean over the gap\'s effective area)', value: bPerAmp, unit: 'T/A' },
           { key: 'coreFieldPerAmp', label: 'Core flux density per ampere', value: coreBPerAmp, unit: 'T/A' },
-          { key: 'gapAreaRatio', label: 'Gap effective area / core cross-section (fringing)', value: areaRatio, unit: '' },
+          { key: 'gapAreaExcess', label: 'Gap effective area beyond the core cross-section (fringing, A_g/A_c − 1)', value: areaRatio - 1, unit: '' },
           { key: 'sensitivity', label: 'Sensitivity', value: sensitivity, unit: `V/${spec.measurand}` },
           { key: 'coreSaturation', label: 'Core saturates at', value: coreLimit, unit: spec.measurand },
           { key: 'hallLinear', label: 'Hall sensor leaves its linear range at', value: linLimit, unit: spec.measurand },

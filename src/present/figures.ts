@@ -36,11 +36,14 @@ export function keyFigures(r: Report): FigureRow[] {
   }
   if (r.errors) {
     rows.push({ label: 'DC error, worst case', value: `±${f(r.errors.worstCase, m)}`, note: `RSS ±${f(r.errors.rss, m)} at ${f(r.errors.at, m)}` });
-    rows.push({ label: 'DC error after calibration', value: `±${f(r.errors.afterTrim, m)}`, note: 'drift and trim resolution remain' });
+    rows.push({ label: 'DC error after calibration', value: `±${f(r.errors.afterTrim, m)}`, note: 'drift, trim resolution and the calibration meter remain' });
   }
   if (r.supply) {
     rows.push({ label: 'Supply current', value: f(r.supply.current, 'A') });
-    if (r.supply.batteryLife !== null) rows.push({ label: 'Battery life', value: `${r.supply.batteryLife.toFixed(1)} h` });
+    if (r.supply.batteryLife !== null) {
+      const bc = r.batteryClip;
+      rows.push({ label: 'Battery life', value: `${r.supply.batteryLife.toFixed(1)} h`, note: bc && bc.voltage !== null && bc.hoursToClip !== null ? `clips inside the range after about ${bc.hoursToClip.toFixed(1)} h (${f(bc.voltage, 'V')})` : 'to end of life' });
+    }
   }
   if (r.spread) rows.push({ label: 'Spread (1σ, before trim)', value: `${f(r.spread.scaleStd, `V/${m}`)} / ${f(r.spread.zeroStd, 'V')}`, note: `${(r.spread.yield * 100).toFixed(1)} % of builds within limits untrimmed` });
   if (r.drive) {

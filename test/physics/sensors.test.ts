@@ -79,7 +79,7 @@ describe('gap fringing: effective gap area, same for the sensor field and the co
     const plain = sensorFront(design('bench-clamp').sensor, design('bench-clamp'));
     expect(f.limits.find((l) => l.kind === 'core')!.high).toBeLessThan(plain.limits.find((l) => l.kind === 'core')!.high);
     expect(f.warnings.map((w) => w.code)).toContain('fringing-model');
-    expect(f.figures.find((x) => x.key === 'gapAreaRatio')!.value).toBeCloseTo(Ag / Ac, 12);
+    expect(f.figures.find((x) => x.key === 'gapAreaExcess')!.value).toBeCloseTo(Ag / Ac - 1, 12);
   });
   it('a fringing factor alone is the same effective area: the core limit falls by it too', () => {
     const d = design('bench-clamp', (x) => { x.sensor.core.fringing = 1.2; });
