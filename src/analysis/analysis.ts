@@ -456,10 +456,12 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
   if (cal.meterRelative || cal.meterDigits) {
     // Zero: one reading of the output at zero, ±(r·|z| + d). Span: the difference of the readings at the
     // calibration point and at zero, ±(r·|s·x_cal| + 2d), against the applied measurand read to ±r, so the
-    // relative span error is r + (r·|s·x_cal| + 2d)/|s·x_cal|.
+    // relative span error is r + (r·|s·x_cal| + 2d)/|s·x_cal|. An AC span is one rms reading (its zero is
+    // not in it): ±(r·|s·x_cal| + d).
+    const ac = design.target.signal === 'ac-rms';
     add(lin('calibration meter, zero reading', cal.meterRelative * Math.abs(base0) + cal.meterDigits, 0, 'none', true));
-    const rel = cal.meterRelative + (cal.meterRelative * Math.abs(scale * xCal) + 2 * cal.meterDigits) / Math.abs(scale * xCal);
-    add(lin('calibration meter, span from two readings', 0, scale * rel, 'none', true));
+    const rel = cal.meterRelative + (cal.meterRelative * Math.abs(scale * xCal) + (ac ? 1 : 2) * cal.meterDigits) / Math.abs(scale * xCal);
+    add(lin(ac ? 'calibration meter, span (one rms reading)' : 'calibration meter, span from two readings', 0, scale * rel, 'none', true));
   }
   const removed = (t: ErrorTerm) => (t.removedBy === 'zero' && zeroTrim) || (t.removedBy === 'scale' && gainTrim) || (t.removedBy === 'both' && zeroTrim && gainTrim);
   const before = terms.filter((t) => !t.calibration);

@@ -155,6 +155,8 @@ describe('after calibration', () => {
     expect(r.errors!.afterTrimHigh).toBeCloseTo(after, 9);
     const before = r.errors!.terms.filter((t) => !t.calibration).reduce((x, t) => x + t.value, 0);
     expect(r.errors!.worstCase).toBeCloseTo(before, 9);
+    // The steps tell the user to judge the span by that difference.
+    expect(r.calibration.some((c) => /difference from the zero reading/.test(c.text))).toBe(true);
   });
   // The trimmers' tempco scales each whole track: the rheostat in the feedback arm moves the gain, the
   // potentiometer's ratio holds and only its Thevenin resistance moves. Closed form of the bench clamp
