@@ -415,7 +415,9 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
     } else if (sup.tolerance) {
       const [dzP, dsP] = railShift('positive', cPos, sup.positive, sup.tolerance);
       const dzN = cNeg * sup.negative * sup.tolerance;
-      add({ ...lin(`supply rail tolerance (±${+(sup.tolerance * 100).toPrecision(3)} %)`, dzP, dsP, 'both'), low: toUnits(dzP + dsP * a) + toUnits(dzN), high: toUnits(dzP + dsP * b) + toUnits(dzN) });
+      const railTerm = { ...lin(`supply rail tolerance (±${+(sup.tolerance * 100).toPrecision(3)} %)`, dzP, dsP, 'both'), low: toUnits(dzP + dsP * a) + toUnits(dzN), high: toUnits(dzP + dsP * b) + toUnits(dzN) };
+      // Nothing may hang from the bench rails (a reference and sensor on a regulator): then there is no term.
+      if (Math.max(railTerm.low, railTerm.high) > 1e-9 * Math.max(Math.abs(a), Math.abs(b))) add(railTerm);
       add(lin(`op-amp supply rejection of the rail tolerance (${oa.psrrDb} dB)`, vosPerVolt * (sup.positive - sup.negative) * sup.tolerance * psrr, 0, 'zero'));
     }
   }
