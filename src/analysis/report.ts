@@ -18,6 +18,7 @@ import { formatEng, rkmCode } from '../model/units.js';
 import { significantFigures } from '../model/eseries.js';
 import { calibrationSteps, type CalibrationStep } from '../present/calibration.js';
 import { frontWithReadings, sensorFromReadings, type SensorFromReadings } from './sensor-readings.js';
+import { trimFromReadings, type TrimResult } from './trim.js';
 
 export interface Verdict {
   level: 'pass' | 'caution' | 'fail';
@@ -45,6 +46,8 @@ export interface Report {
   calibration: CalibrationStep[];
   /** The fit of the sensor's bench readings and what the design took from it (null: no readings). */
   readings: SensorFromReadings | null;
+  /** The trim solved from the built probe's readings (design.probeReadings; null: none given). */
+  trim: TrimResult | null;
   warnings: Warning[];
   verdicts: Verdict[];
   /** Figures that could not be computed, with the reason. */
@@ -69,7 +72,7 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
   const absent: Record<string, string> = {};
   const empty: Report = {
     design, front, choice, stage: null, circuit: null, dc: null, clip: null, transfer: null, response: null, speed: null, noise: null,
-    errors: null, supply: null, battery: [], spread: null, drive: null, calibration: [], readings: fromReadings.readings, warnings, verdicts: [], absent,
+    errors: null, supply: null, battery: [], spread: null, drive: null, calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
   };
   if (!choice.chosen) {
     warnings.push({ code: 'no-topology', level: 'fail', message: `No stage fits: ${choice.why}.` });
@@ -113,9 +116,10 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
   const drive = instrumentDrive(design, stage, front, sp.smallSignal);
   const report: Report = {
     design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, spread: spr, drive,
-    calibration: [], readings: fromReadings.readings, warnings, verdicts: [], absent,
+    calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
   };
   report.calibration = calibrationSteps(report);
+  if (design.probeReadings?.length) report.trim = trimFromReadings({ design, front, stage }, design.probeReadings);
   warnings.push(...findings(report));
   report.verdicts = verdictsOf(report);
   return report;
