@@ -7,7 +7,7 @@
  *
  * 1. Measured: the least-squares line through the readings (src/analysis/fit.ts) gives scale and zero at
  *    the instrument.
- * 2. Explain: every part that can differ (each fixed resistor and trimmer by its tolerance, the sensor's
+ * 2. Explain: every part that can differ (each fixed resistor by its tolerance, the sensor's
  *    sensitivity and zero by theirs, the op-amp's offset) is a candidate deviation δ_c with a spread σ_c.
  *    The circuit's (zero, scale) is linearised in all of them at the built values; each pair of candidates
  *    that can produce the measured (zero, scale) is solved exactly (2 × 2), then refined on the circuit by
@@ -28,7 +28,6 @@ import type { Part } from '../circuit/network.js';
 import { buildCircuit } from '../circuit/build.js';
 import type { SensorFront } from '../physics/sensors.js';
 import { WIPER_MAX, WIPER_MIN } from '../solve/reference.js';
-import { TRIMMER_TOLERANCE } from '../solve/trimmers.js';
 import type { SolvedStage } from '../solve/stage.js';
 import { dcLinear } from './analysis.js';
 import { leastSquares } from './fit.js';
@@ -143,10 +142,8 @@ function candidatesOf(input: TrimInput): Candidate[] {
   const out: Candidate[] = [];
   for (const p of stage!.parts) {
     if (p.kind === 'resistor' && p.tolerance > 0) out.push({ kind: 'resistor', ref: p.ref, sigma: p.tolerance, apply: (m, d) => withScale(m, [p.ref], d) });
-    if (p.kind === 'trimmer') {
-      const names = p.role === 'zero-trim' ? [`${p.ref}A`, `${p.ref}B`] : [p.ref];
-      out.push({ kind: 'trimmer', ref: p.ref, sigma: TRIMMER_TOLERANCE, apply: (m, d) => withScale(m, names, d) });
-    }
+    // A trimmer's own value is not a candidate: at the one setting the readings were taken at, its
+    // deviation looks exactly like a different setting, which the trim absorbs anyway.
   }
   if (design.sensor.type === 'shunt') {
     out.push({ kind: 'sensor-sensitivity', ref: null, sigma: front.sensitivityTolerance || 0.01, apply: (m, d) => withScale(m, ['RSH'], d) });
