@@ -4,6 +4,7 @@
  * these lines, the app shows them beside its readings tables.
  */
 import type { FitProblem, ReadingsFit } from '../analysis/fit.js';
+import type { Report } from '../analysis/report.js';
 import type { SensorFromReadings } from '../analysis/sensor-readings.js';
 import type { Deviation, TrimProblem, TrimResult } from '../analysis/trim.js';
 import type { Part } from '../circuit/network.js';
@@ -131,4 +132,19 @@ export function residualChart(fit: ReadingsFit, readings: readonly Reading[], me
       { label: 'Left out (beyond the linear region or outlier)', role: 'clipped', points: pick((i) => !used.has(i)) },
     ],
   };
+}
+
+/**
+ * Rows of the blank readings table on the printed sheet: the measurand values to apply and the output the
+ * target gives there (zero, half the range end and the range end, and minus half for a range below zero).
+ */
+export function probeSheetRows(r: Report): Array<{ measurand: number; expected: number; unit: string }> {
+  const d = r.design;
+  const { scale, zero, range, signal } = d.target;
+  const top = Math.max(Math.abs(range[0]), Math.abs(range[1]));
+  const round = (x: number) => Number(x.toPrecision(2));
+  if (signal === 'ac-rms') return [0.5, 1].map((k) => ({ measurand: round(k * top), expected: Math.abs(scale) * round(k * top), unit: 'V rms' }));
+  const xs = [0, round(range[1] / 2), range[1]];
+  if (range[0] < 0) xs.push(round(range[0] / 2));
+  return xs.map((x) => ({ measurand: x, expected: zero + scale * x, unit: 'V' }));
 }
