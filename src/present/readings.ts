@@ -108,7 +108,7 @@ export function trimLines(t: TrimResult, parts: readonly Part[], measurand: stri
   }
   t.settings.forEach((s, i) => {
     const step = t.steps[i]!;
-    const where = step.measurand === 0 ? `with zero ${measurand}` : `with ${f(step.measurand, measurand)} applied`;
+    const where = step.measurand === 0 ? `with 0 ${measurand} applied` : `with ${f(step.measurand, measurand)} applied`;
     lines.push(`${i + 1}. Turn ${s.ref} (${s.role === 'gain-trim' ? 'gain' : 'zero'} trim) from ${(s.from * 100).toFixed(1)} % to ${(s.setting * 100).toFixed(1)} % of its travel; ${where} the output should then read ${f(step.output, 'V')}.`);
   });
   if (t.checks.length) lines.push(`Then check: ${t.checks.map((c) => `${f(c.measurand, measurand, 3)} → ${f(c.output, 'V')}`).join(', ')}.`);
