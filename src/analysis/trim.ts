@@ -206,7 +206,8 @@ export function trimFromReadings(input: TrimInput, readings: readonly Reading[])
   const usable = readings.filter((r) => Array.isArray(r) && Number.isFinite(r[0]) && Number.isFinite(r[1]));
   const distinct = new Set(usable.map((r) => r[0])).size;
   if (distinct < 2) { res.problem = { code: 'too-few-readings', have: distinct, need: 2 }; return res; }
-  const line = leastSquares(usable.map((r) => r[0]), usable.map((r) => r[1]))!;
+  const line = leastSquares(usable.map((r) => r[0]), usable.map((r) => r[1]));
+  if (!line) { res.problem = { code: 'too-few-readings', have: 1, need: 2 }; return res; }
   res.scale = line.slope;
   res.zero = line.intercept;
   res.checks = usable.map((r) => ({ measurand: r[0], output: target.zero + target.scale * r[0] }));
@@ -275,7 +276,7 @@ export function trimFromReadings(input: TrimInput, readings: readonly Reading[])
   let model = built;
   let sol = solveSettings(input, model, from, target);
   const replaceFor = (quantity: 'gain' | 'zero'): boolean => {
-    const roles = quantity === 'gain' ? ['feedback'] : ['reference-top', 'reference-bottom'];
+    const roles = quantity === 'gain' ? ['feedback'] : ['reference-top', 'reference-bottom', 'offset'];
     let best: { model: Model; sol: Solved; ref: string; ohms: number; from: number; off: number } | null = null;
     for (const p of model.parts.filter((x) => roles.includes(x.role) && x.kind === 'resistor')) {
       const ohms = valueFor(input, model, p.ref, quantity, target, sol?.settings ?? from);
