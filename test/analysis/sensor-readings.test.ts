@@ -106,6 +106,18 @@ describe('a Hall sensor in a gapped core from readings', () => {
     expect(keys).toContain('readingsGap');
     expect(r.front.sensitivity).toBeCloseTo(fitReadings(pts).line!.slope, 10);
   });
+  it('the fit\'s tolerance, not the datasheet\'s 3 %, sizes the gain trimmer and enters the error budget', () => {
+    const datasheet = analyse(base, { spreadTrials: 0 });
+    const measured = analyse(d, { spreadTrials: 0 });
+    const tol = sensorFromReadings(d).readings!.sensitivityTolerance;
+    expect(tol).toBeLessThan(0.01);
+    // The scale stack the gain trimmer must absorb shrinks by the difference of the two sensor tolerances
+    // (the resistor pair's 2·t·(G−1)/G moves by well under 0.1 % with the gain).
+    const drop = datasheet.stage!.network.gainTrim!.need - measured.stage!.network.gainTrim!.need;
+    expect(Math.abs(drop - (0.03 - tol))).toBeLessThan(1e-3);
+    const term = measured.errors!.terms.find((t) => t.name === 'sensor sensitivity tolerance')!;
+    expect(term.value).toBeCloseTo(20 * tol, 9);
+  });
   it('readings of the wrong sign imply an impossible fringing and are refused with a fail finding', () => {
     const neg = readingsOf(-model, 2.5, [-10, -5, 0, 5, 10]);
     const r = analyse(designFrom('bench-clamp', (x) => { x.sensor.readings = { use: true, points: neg }; }), { spreadTrials: 0 });
