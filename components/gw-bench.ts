@@ -60,13 +60,29 @@ export class GwBench extends LitElement {
       ${chart ? html`<gw-chart data-chart="residuals" .data=${chart}></gw-chart>` : nothing}`;
   }
 
+  /** Where a trimmer sat while the probe readings were taken: as given, else its parts-list setting. */
+  private _settingOf(r: Report, ref: string, fallback: number): number {
+    return r.design.probeSettings?.find(([x]) => x === ref)?.[1] ?? fallback;
+  }
+
+  private _setSetting(r: Report, ref: string, text: string): void {
+    const v = Number(text.replace(',', '.').replace('%', '').trim()) / 100;
+    if (!(v >= 0 && v <= 1)) return;
+    const rest = (r.design.probeSettings ?? []).filter(([x]) => x !== ref);
+    this._set('probeSettings', [...rest, [ref, v]]);
+  }
+
   private _probe(r: Report) {
     const m = r.design.sensor.measurand;
     const points = r.design.probeReadings ?? [];
+    const trimmers = (r.stage?.parts ?? []).filter((p) => p.kind === 'trimmer');
     return html`
       <p class="note">After building, with the trimmers where the parts list puts them, read the output at zero and at one or two known ${m === 'A' ? 'currents' : `values of ${m}`}: the trim below says which trimmer to turn, how far, in which order, and what to read after each turn.</p>
       <gw-readings caption="Readings of the built probe" .measurand=${m} .points=${points}
         @gw-readings=${(e: CustomEvent<ReadingsDetail>) => { e.stopPropagation(); this._set('probeReadings', e.detail.points); }}></gw-readings>
+      ${trimmers.length ? html`<p class="settings">Where the trimmers sat while reading (change after turning, for the next round):
+        ${trimmers.map((p) => html`<label>${p.ref} <input size="5" data-setting=${p.ref} .value=${(this._settingOf(r, p.ref, p.setting ?? 0.5) * 100).toFixed(1)}
+          @change=${(e: Event) => this._setSetting(r, p.ref, (e.target as HTMLInputElement).value)} /> %</label> `)}</p>` : nothing}
       ${r.trim ? html`<ul class="trim">${trimLines(r.trim, r.stage?.parts ?? [], m).map((l) => html`<li>${l}</li>`)}</ul>` : nothing}`;
   }
 

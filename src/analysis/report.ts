@@ -119,7 +119,7 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
     calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
   };
   report.calibration = calibrationSteps(report);
-  if (design.probeReadings?.length) report.trim = trimFromReadings({ design, front, stage }, design.probeReadings);
+  if (design.probeReadings?.length) report.trim = trimFromReadings({ design, front, stage }, design.probeReadings, design.probeSettings ?? []);
   warnings.push(...findings(report));
   report.verdicts = verdictsOf(report);
   return report;

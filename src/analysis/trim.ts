@@ -193,9 +193,10 @@ function solve2(a: number, b: number, c: number, d: number, e: number, f: number
 
 /**
  * Trims a built probe from its readings (measurand, output volts at the instrument), taken with the trimmers
- * at the settings of the parts list. See the module comment for the method.
+ * at the settings of the parts list, or at those given in `settingsAt` ([reference, setting 0…1]; a second round
+ * after turning). See the module comment for the method.
  */
-export function trimFromReadings(input: TrimInput, readings: readonly Reading[]): TrimResult {
+export function trimFromReadings(input: TrimInput, readings: readonly Reading[], settingsAt: ReadonlyArray<readonly [string, number]> = []): TrimResult {
   const { design, stage } = input;
   const target = { scale: design.target.scale, zero: design.target.zero };
   const res: TrimResult = {
@@ -220,7 +221,14 @@ export function trimFromReadings(input: TrimInput, readings: readonly Reading[])
   };
 
   // 2. The likeliest explanation of the measured (zero, scale).
-  const nominal: Model = { scale: {}, sensitivity: input.front.sensitivity, quiescent: input.front.quiescent, offset: 0, parts: stage.parts.map((p) => ({ ...p })) };
+  const settingAt = (p: Part) => {
+    const given = settingsAt.find(([ref]) => ref === p.ref);
+    return given && Number.isFinite(given[1]) ? Math.min(Math.max(given[1], 0), 1) : p.setting;
+  };
+  const nominal: Model = {
+    scale: {}, sensitivity: input.front.sensitivity, quiescent: input.front.quiescent, offset: 0,
+    parts: stage.parts.map((p) => (p.kind === 'trimmer' ? { ...p, setting: settingAt(p) } : { ...p })),
+  };
   const base = evaluate(input, nominal);
   if (!base) { res.problem = { code: 'no-stage' }; return res; }
   const want: [number, number] = [res.zero - base[0], res.scale - base[1]];
@@ -272,7 +280,7 @@ export function trimFromReadings(input: TrimInput, readings: readonly Reading[])
   if (!built) { res.problem = { code: 'unexplained' }; return res; }
 
   // 3. The settings, with a fixed resistor changed where a trimmer cannot reach.
-  const from = { gain: gainPart?.setting ?? 0.5, zero: zeroPart?.setting ?? 0.5 };
+  const from = { gain: (gainPart && settingAt(gainPart)) ?? 0.5, zero: (zeroPart && settingAt(zeroPart)) ?? 0.5 };
   let model = built;
   let sol = solveSettings(input, model, from, target);
   const replaceFor = (quantity: 'gain' | 'zero'): boolean => {

@@ -34,8 +34,9 @@ const USAGE = `usage:
   gainwright report DIR --json           one JSON line per *.json design in DIR
   gainwright new [${DEMOS.map((d) => d.id).join('|')}]
   gainwright fit READINGS.csv [--json]   fit a sensor from readings (measurand, output volts)
-  gainwright trim DESIGN.json READINGS.csv [--json]
+  gainwright trim DESIGN.json READINGS.csv [--json] [--at=RV1=0.47,RV2=0.55]
                                          trimmer settings for a built probe from its readings
+                                         (--at: where the trimmers sat while reading, if turned)
 `;
 
 function readDesign(path: string, limit = MAX_DESIGN_BYTES, what = 'a design file is a few kB'): { ok: true; text: string } | { ok: false; message: string } {
@@ -64,6 +65,9 @@ function run(argv: string[], io: Io): number {
   const flags = new Set(rest.filter((a) => a.startsWith('--')));
   const args = rest.filter((a) => !a.startsWith('--'));
   const known = new Set(['--json', '--spice', '--no-spread', '--help']);
+  // `--at=RV1=0.47,RV2=0.55`: where the trimmers sat while the probe readings were taken (gainwright trim).
+  const atFlag = [...flags].find((fl) => fl.startsWith('--at='));
+  if (atFlag) flags.delete(atFlag);
   for (const fl of flags) if (!known.has(fl)) { io.err(`gainwright: unknown option ${fl}\n${USAGE}`); return 2; }
   if (!cmd || cmd === '--help' || cmd === 'help') { io.out(USAGE); return cmd ? 0 : 2; }
   if (cmd === 'new') {
@@ -73,7 +77,7 @@ function run(argv: string[], io: Io): number {
     return 0;
   }
   if (cmd === 'fit') return fitCommand(args, flags.has('--json'), io);
-  if (cmd === 'trim') return trimCommand(args, flags.has('--json'), io);
+  if (cmd === 'trim') return trimCommand(args, flags.has('--json'), io, atFlag?.slice('--at='.length) ?? null);
   if (cmd !== 'report') { io.err(`gainwright: unknown command "${cmd}"\n${USAGE}`); return 2; }
   if (args.length !== 1) { io.err(`gainwright: report takes one design file or folder\n${USAGE}`); return 2; }
   const path = args[0]!;
@@ -138,8 +142,23 @@ function fitCommand(args: string[], json: boolean, io: Io): number {
   return 0;
 }
 
-function trimCommand(args: string[], json: boolean, io: Io): number {
+/** Reads `RV1=0.47,RV2=0.55` (settings from 0 to 1, or percent with a % sign); null when it cannot be read. */
+function parseAt(text: string): Array<[string, number]> | null {
+  const out: Array<[string, number]> = [];
+  for (const item of text.split(',').filter((x) => x.trim() !== '')) {
+    const m = /^\s*([A-Za-z]{1,4}\d{1,3})\s*=\s*([0-9]*\.?[0-9]+)\s*(%?)\s*$/.exec(item);
+    if (!m) return null;
+    const v = Number(m[2]) / (m[3] ? 100 : 1);
+    if (!(v >= 0 && v <= 1)) return null;
+    out.push([m[1]!, v]);
+  }
+  return out;
+}
+
+function trimCommand(args: string[], json: boolean, io: Io, atText: string | null): number {
   if (args.length !== 2) { io.err(`gainwright: trim takes a design file and a readings file\n${USAGE}`); return 2; }
+  const at = atText === null ? [] : parseAt(atText);
+  if (!at) { io.err(`gainwright: --at takes trimmer settings like --at=RV1=0.47,RV2=55%\n`); return 2; }
   const read = readDesign(args[0]!);
   if (!read.ok) { io.err(`gainwright: ${read.message}\n`); return 2; }
   const v = parseDesignText(read.text);
@@ -151,7 +170,7 @@ function trimCommand(args: string[], json: boolean, io: Io): number {
   if (k === null) { io.err(`gainwright: ${args[1]}: the readings are in "${inert(parsed.units[0])}" but the design measures ${m}\n`); return 2; }
   const points = parsed.points.map(([x, y]) => [x * k, y] as [number, number]);
   const r = analyse(v.design, { spreadTrials: 0 });
-  const t = trimFromReadings({ design: r.design, front: r.front, stage: r.circuit ? r.stage : null }, points);
+  const t = trimFromReadings({ design: r.design, front: r.front, stage: r.circuit ? r.stage : null }, points, at.length ? at : r.design.probeSettings ?? []);
   if (json) io.out(JSON.stringify(trimJson(t), null, 2) + '\n');
   else io.out(trimLines(t, r.stage?.parts ?? [], m).join('\n') + '\n');
   if (t.problem && t.problem.code !== 'out-of-reach') {

@@ -239,6 +239,8 @@ export interface Design {
   analysis: AnalysisOptions;
   /** Readings of the built probe: [measurand, output volts at the instrument] pairs, for the trim solve ([] = none). */
   probeReadings?: Reading[];
+  /** Trimmer wiper settings (0…1) while the probe readings were taken, by part reference; a trimmer not listed is at its parts-list setting. */
+  probeSettings?: Array<[string, number]>;
 }
 
 // ---------------------------------------------------------------------------------------------------------
@@ -414,6 +416,7 @@ const SCHEMA: Spec = {
       },
     },
     probeReadings: readingsList,
+    probeSettings: { t: 'list', item: { t: 'tuple', items: [{ t: 'str', maxLength: 16 }, num('parts of the travel', 'fraction')] }, def: [], maxItems: 20 },
     analysis: {
       t: 'obj',
       def: {},

@@ -113,7 +113,7 @@ export function trimLines(t: TrimResult, parts: readonly Part[], measurand: stri
   });
   if (t.checks.length) lines.push(`Then check: ${t.checks.map((c) => `${f(c.measurand, measurand, 3)} → ${f(c.output, 'V')}`).join(', ')}.`);
   if (Number.isFinite(t.step.scale) || Number.isFinite(t.step.zero)) {
-    lines.push(`One settable step of the trimmers moves the scale by about ${f(t.step.scale, `V/${measurand}`, 2)} and the zero by about ${f(t.step.zero, 'V', 2)}; a large correction is best made in two rounds: turn, read again, trim again (the trimmers' own ±20 % are not known from one set of readings).`);
+    lines.push(`One settable step of the trimmers moves the scale by about ${f(t.step.scale, `V/${measurand}`, 2)} and the zero by about ${f(t.step.zero, 'V', 2)}; a large correction is best made in rounds: turn, read again, give where the trimmers now sit, trim again (the trimmers' own ±20 % and which part is off are not known from one set of readings).`);
   }
   return lines;
 }

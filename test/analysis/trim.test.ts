@@ -99,6 +99,29 @@ describe('trimFromReadings on the bench-clamp demo (our own scenario)', () => {
     expect(t.replace.some((x) => x.ref === 'R3' || x.ref === 'R4')).toBe(true);
     landsWithinAStep(r, b, t);
   });
+  it('R1 30 % high (a wrong value fitted) is trimmed in rounds, each read where the trimmers sit: the error shrinks at least fourfold a round and lands within a step by the third', () => {
+    const b: Built = { front: r.front, scale: { R1: 1.3 } };
+    const gainStep = r.stage!.network.gainTrim!.step;
+    let stage = r.stage!;
+    let at: Array<readonly [string, number]> = [];
+    const errors: number[] = [];
+    let last: TrimResult | null = null;
+    for (let round = 0; round < 3; round++) {
+      const now = { ...r, stage };
+      const t = trimFromReadings(input, readingsOf(now, b, [0, 10]), at);
+      expect(t.problem).toBeNull();
+      expect(t.replace).toEqual([]);
+      const [, s] = built(r, b, t);
+      errors.push(Math.abs(s / r.design.target.scale - 1));
+      at = t.settings.map((x) => [x.ref, x.setting] as const);
+      stage = { ...stage, parts: stage.parts.map((p) => ({ ...p, setting: t.settings.find((x) => x.ref === p.ref)?.setting ?? p.setting })) };
+      last = t;
+    }
+    expect(errors[0]).toBeGreaterThan(gainStep);
+    expect(errors[1]!).toBeLessThan(errors[0]! / 4);
+    expect(errors[2]!).toBeLessThan(errors[1]! / 4);
+    landsWithinAStep(r, b, last!);
+  });
   it('one reading says that two measurand values are needed', () => {
     const t = trimFromReadings(input, [[0, 4.51]]);
     expect(t.problem).toEqual({ code: 'too-few-readings', have: 1, need: 2 });

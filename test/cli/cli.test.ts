@@ -150,3 +150,19 @@ describe('gainwright fit and trim on the example files (docs/examples, our own i
     expect(r.err).not.toMatch(/\u001b|\u0007|at .*\.ts/);
   });
 });
+
+describe('gainwright trim --at', () => {
+  const ex = (f: string) => join(__dirname, '../../docs/examples', f);
+  it('readings taken after turning are trimmed from where the trimmers sat', async () => {
+    const plain = JSON.parse((await run(['trim', ex('bench-clamp-from-readings.json'), ex('probe-readings.csv'), '--json'])).out);
+    const turned = await run(['trim', ex('bench-clamp-from-readings.json'), ex('probe-readings.csv'), '--json', '--at=RV1=0.4,RV2=60%']);
+    expect(turned.code).toBe(0);
+    const j = JSON.parse(turned.out);
+    expect(j.settings.find((s: any) => s.ref === 'RV1').setting).not.toBeCloseTo(plain.settings.find((s: any) => s.ref === 'RV1').setting, 3);
+  });
+  it('a setting that cannot be read exits 2 with what --at takes', async () => {
+    const r = await run(['trim', ex('bench-clamp-from-readings.json'), ex('probe-readings.csv'), '--at=RV1=lots']);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/--at takes trimmer settings/);
+  });
+});

@@ -60,6 +60,10 @@ describe('the bench loop in Chromium', () => {
     expect(text).toMatch(/1\. Turn RV\d/);
     expect(text).toMatch(/2\. Turn RV\d/);
     expect(text).toMatch(/the output should then read 4\.500 V/);
+    // Readings taken after turning: say where RV1 sat, and the trim starts from there.
+    await panel.locator('input[data-setting="RV1"]').fill('40');
+    await panel.locator('input[data-setting="RV1"]').press('Enter');
+    await expect.poll(() => panel.locator('ul.trim').innerText()).toMatch(/Turn RV1 \(gain trim\) from 40\.0 %/);
     // A row that is not a number is refused at the table, and the readings stay.
     await add('ten', '5');
     await expect.poll(() => panel.locator('gw-readings [role="alert"]').innerText()).toMatch(/not a number|two numbers/);
