@@ -309,10 +309,10 @@ export class GwApp extends LitElement {
       <p>${this._design.notes}</p>
       <div class="grid">
         <section><h2>Schematic</h2><gw-schematic .drawing=${d.drawing}></gw-schematic></section>
-        <section><h2>Safety</h2><ul class="safety">${this._cautions().map((c) => html`<li>${c}</li>`)}</ul></section>
+        <section><h2>Safety</h2><ul class="safety">${this._cautions().map((c) => html`<li>${c}</li>`)}</ul>
+          <h2>Readings of the built probe</h2><gw-bench mode="sheet" .report=${r}></gw-bench></section>
         <section class="wide"><h2>Parts list</h2><gw-parts compact .rows=${d.rows}></gw-parts></section>
         <section class="wide"><h2>Calibration</h2><ol class="cal">${r.calibration.map((c) => html`<li>${c.text}</li>`)}</ol></section>
-        <section class="wide"><h2>Readings of the built probe</h2><gw-bench mode="sheet" .report=${r}></gw-bench></section>
         <section><h2>Key figures</h2><gw-figures caption="Key figures" .rows=${d.figures.slice(0, half)}></gw-figures></section>
         <section><h2>&nbsp;</h2><gw-figures caption="Key figures, continued" .rows=${d.figures.slice(half)}></gw-figures></section>
       </div>

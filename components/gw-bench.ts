@@ -22,7 +22,7 @@ export class GwBench extends LitElement {
     li { margin-bottom: 0.25rem; }
     .note { color: var(--gw-muted); font-size: 0.85rem; }
     gw-chart { --gw-chart-height: 200px; max-width: 34rem; }
-    .blank td { height: 1.4em; min-width: 6em; }
+    .blank td { height: 1.3em; }
   `];
 
   /** What to show: sensor readings, built-probe readings, or the printed blank table. */
@@ -89,9 +89,8 @@ export class GwBench extends LitElement {
   private _sheet(r: Report) {
     const m = r.design.sensor.measurand;
     return html`<table class="blank" aria-label="Readings of the built probe (to fill in)">
-      <thead><tr><th>${m} applied</th><th>Output expected</th><th>Output read (trimmers as built)</th><th>Output read (after trimming)</th></tr></thead>
-      <tbody>${probeSheetRows(r).map((row) => html`<tr><td class="num">${formatEng(row.measurand, m, 3)}</td><td class="num">${formatEng(row.expected, row.unit, 4)}</td><td></td><td></td></tr>`)}
-        <tr><td></td><td></td><td></td><td></td></tr></tbody></table>`;
+      <thead><tr><th>${m} applied</th><th>Expected</th><th>Read, as built</th><th>Read, trimmed</th></tr></thead>
+      <tbody>${probeSheetRows(r).map((row) => html`<tr><td class="num">${formatEng(row.measurand, m, 3)}</td><td class="num">${formatEng(row.expected, row.unit, 4)}</td><td></td><td></td></tr>`)}</tbody></table>`;
   }
 
   override render() {

@@ -17,7 +17,7 @@ export class GwReadings extends LitElement {
   static override styles = [base, css`
     :host { display: block; }
     table { max-width: 28rem; }
-    td input { width: 7rem; }
+    td input { width: 100%; max-width: 7rem; min-width: 2.5rem; box-sizing: border-box; }
     .marked td { color: var(--gw-muted); }
     .mark { font-size: 0.8rem; color: var(--gw-caution); }
     textarea { width: 100%; max-width: 28rem; min-height: 4.5rem; font: inherit; font-size: 0.85rem; }
