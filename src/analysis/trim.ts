@@ -33,13 +33,13 @@ import { dcLinear } from './analysis.js';
 import { leastSquares } from './fit.js';
 
 /** What a candidate deviation is: a part by its reference, or the sensor or op-amp figure. */
-export type CauseKind = 'resistor' | 'trimmer' | 'sensor-sensitivity' | 'sensor-zero' | 'opamp-offset';
+export type CauseKind = 'resistor' | 'sensor-sensitivity' | 'sensor-zero' | 'opamp-offset';
 
 export interface Deviation {
   kind: CauseKind;
-  /** Part reference for a resistor or trimmer, null otherwise. */
+  /** Part reference for a resistor, null otherwise. */
   ref: string | null;
-  /** Relative for resistors, trimmers and sensitivity (0.02 = 2 % high); volts for zero and offset. */
+  /** Relative for resistors and sensitivity (0.02 = 2 % high); volts for zero and offset. */
   value: number;
   /** The same in units of the candidate's tolerance. */
   tolerances: number;
@@ -265,7 +265,7 @@ export function trimFromReadings(input: TrimInput, readings: readonly Reading[],
         { kind: cands[i]!.kind, ref: cands[i]!.ref, value: d[0], tolerances: d[0] / cands[i]!.sigma },
         { kind: cands[j]!.kind, ref: cands[j]!.ref, value: d[1], tolerances: d[1] / cands[j]!.sigma },
       ].sort((x, y) => Math.abs(y.tolerances) - Math.abs(x.tolerances));
-      if (!devs.every((x) => Number.isFinite(x.value)) || devs.some((x) => (x.kind === 'resistor' || x.kind === 'trimmer' || x.kind === 'sensor-sensitivity') && x.value <= -0.9)) continue;
+      if (!devs.every((x) => Number.isFinite(x.value)) || devs.some((x) => (x.kind === 'resistor' || x.kind === 'sensor-sensitivity') && x.value <= -0.9)) continue;
       explained.push({ model, exp: { deviations: devs, score: devs[0]!.tolerances ** 2 + devs[1]!.tolerances ** 2 } });
     }
   }

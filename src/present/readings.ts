@@ -57,8 +57,7 @@ export function sensorReadingsLines(sr: SensorFromReadings, readings: readonly R
 
 const causeName = (d: Deviation, parts: readonly Part[]): string => {
   switch (d.kind) {
-    case 'resistor':
-    case 'trimmer': {
+    case 'resistor': {
       const p = parts.find((x) => x.ref === d.ref);
       return p ? `${p.ref} (${partRole(p)}, ${partValue(p)})` : d.ref ?? '?';
     }
