@@ -26,6 +26,8 @@ export function chartConfig(d: ChartData): ChartConfiguration {
   const datasets = d.series.map((s, i) => ({
     label: s.label, data: s.points, parsing: false as const, pointRadius: 0, tension: 0, spanGaps: false,
     yAxisID: s.axis === 'y2' ? 'y2' : 'y', ...styleFor(s, i),
+    // Readings are points, not a curve.
+    ...(d.dots ? { showLine: false, pointRadius: 3 } : {}),
   }));
   const scales: Record<string, unknown> = {
     x: { type: d.x.log ? 'logarithmic' : 'linear', title: { display: true, text: d.x.label }, ...(d.bars ? { offset: true } : {}) },

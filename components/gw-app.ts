@@ -21,6 +21,7 @@ import './gw-chart.js';
 import './gw-schematic.js';
 import './gw-parts.js';
 import './gw-figures.js';
+import './gw-bench.js';
 
 /** The unit engine (mathjs units) loads after the first render so that it does not delay it. */
 let unitsLoading: Promise<unknown> | null = null;
@@ -308,7 +309,8 @@ export class GwApp extends LitElement {
       <p>${this._design.notes}</p>
       <div class="grid">
         <section><h2>Schematic</h2><gw-schematic .drawing=${d.drawing}></gw-schematic></section>
-        <section><h2>Safety</h2><ul class="safety">${this._cautions().map((c) => html`<li>${c}</li>`)}</ul></section>
+        <section><h2>Safety</h2><ul class="safety">${this._cautions().map((c) => html`<li>${c}</li>`)}</ul>
+          <h2>Readings of the built probe</h2><gw-bench mode="sheet" .report=${r}></gw-bench></section>
         <section class="wide"><h2>Parts list</h2><gw-parts compact .rows=${d.rows}></gw-parts></section>
         <section class="wide"><h2>Calibration</h2><ol class="cal">${r.calibration.map((c) => html`<li>${c.text}</li>`)}</ol></section>
         <section><h2>Key figures</h2><gw-figures caption="Key figures" .rows=${d.figures.slice(0, half)}></gw-figures></section>
@@ -358,6 +360,8 @@ export class GwApp extends LitElement {
           <div class="panel scroll"><h2>Figures</h2><gw-figures caption="Figures" .rows=${d?.figures ?? []}></gw-figures></div>
           <div class="panel"><h2>Findings</h2><ul>${(r?.warnings ?? []).map((w) => html`<li data-code=${w.code}><strong>${w.level}</strong>: ${w.message}</li>`)}</ul></div>
           <div class="panel"><h2>Calibration</h2><ol class="cal">${(r?.calibration ?? []).map((c) => html`<li>${c.text}</li>`)}</ol></div>
+          <div class="panel" id="probe-readings"><h2>Measured on the built probe</h2><gw-bench mode="probe" .report=${r ?? null} @gw-set=${this._onSet}></gw-bench></div>
+          <div class="panel" id="sensor-readings"><h2>Sensor from bench readings</h2><gw-bench mode="sensor" .report=${r ?? null} @gw-set=${this._onSet}></gw-bench></div>
         </section>
       </main>
       ${this._sheet()}

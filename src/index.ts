@@ -36,3 +36,11 @@ export { FIELDS, GROUP_DEFAULTS, parseField, setPath, displayValue, fieldsFor, g
 export type { FieldDef, Section } from './present/fields.js';
 export { AUTOSAVE_KEY, autosaveEntry, designFromFragment, fileName, restoreAutosave, shareFragment } from './model/persist.js';
 export { sensorTemplate } from './model/templates.js';
+export { parseReadings, readingsCsv, unitFactor, MAX_READINGS } from './model/readings.js';
+export type { Reading, ParsedReadings } from './model/readings.js';
+export { fitReadings, fitJson, leastSquares } from './analysis/fit.js';
+export type { ReadingsFit, LineFit } from './analysis/fit.js';
+export { trimFromReadings, trimJson } from './analysis/trim.js';
+export type { TrimResult } from './analysis/trim.js';
+export type { SensorFromReadings } from './analysis/sensor-readings.js';
+export { fitLines, sensorReadingsLines, trimLines, residualChart, probeSheetRows } from './present/readings.js';

@@ -17,6 +17,8 @@ import type { Warning } from '../model/findings.js';
 import { formatEng, rkmCode } from '../model/units.js';
 import { significantFigures } from '../model/eseries.js';
 import { calibrationSteps, type CalibrationStep } from '../present/calibration.js';
+import { frontWithReadings, sensorFromReadings, type SensorFromReadings } from './sensor-readings.js';
+import { trimFromReadings, type TrimResult } from './trim.js';
 
 export interface Verdict {
   level: 'pass' | 'caution' | 'fail';
@@ -44,6 +46,10 @@ export interface Report {
   spread: SpreadResult | null;
   drive: InstrumentDrive | null;
   calibration: CalibrationStep[];
+  /** The fit of the sensor's bench readings and what the design took from it (null: no readings). */
+  readings: SensorFromReadings | null;
+  /** The trim solved from the built probe's readings (design.probeReadings; null: none given). */
+  trim: TrimResult | null;
   warnings: Warning[];
   verdicts: Verdict[];
   /** Figures that could not be computed, with the reason. */
@@ -58,14 +64,17 @@ export interface AnalyseOptions {
 }
 
 /** Analyses a (validated) design. Never throws for a valid design: what cannot be computed is in `absent`. */
-export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
-  const front = sensorFrontAtRail(design.sensor, design);
+export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
+  // A sensor "from readings" is analysed with the fit's sensitivity and zero in place of its own figures.
+  const fromReadings = sensorFromReadings(given);
+  const design = fromReadings.design;
+  const front = frontWithReadings(sensorFrontAtRail(design.sensor, design), fromReadings.readings, design.sensor.measurand);
   const choice = chooseTopology(design, front);
-  const warnings: Warning[] = [...front.warnings];
+  const warnings: Warning[] = [...front.warnings, ...fromReadings.warnings];
   const absent: Record<string, string> = {};
   const empty: Report = {
     design, front, choice, stage: null, circuit: null, dc: null, clip: null, transfer: null, response: null, speed: null, noise: null,
-    errors: null, supply: null, battery: [], batteryClip: null, spread: null, drive: null, calibration: [], warnings, verdicts: [], absent,
+    errors: null, supply: null, battery: [], batteryClip: null, spread: null, drive: null, calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
   };
   if (!choice.chosen) {
     warnings.push({ code: 'no-topology', level: 'fail', message: `No stage fits: ${choice.why}.` });
@@ -110,8 +119,9 @@ export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
   const drive = instrumentDrive(design, stage, front, sp.smallSignal);
   const report: Report = {
     design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, batteryClip: bClip, spread: spr, drive,
-    calibration: [], warnings, verdicts: [], absent,
+    calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
   };
+  if (design.probeReadings?.length) report.trim = trimFromReadings({ design, front, stage }, design.probeReadings, design.probeSettings ?? []);
   // Findings first: the calibration steps repeat the instrument advice found there.
   warnings.push(...findings(report));
   report.calibration = calibrationSteps(report);
@@ -296,6 +306,7 @@ export function verdictsOf(r: Report): Verdict[] {
     'ct-no-dc': 'A current transformer passes no DC',
     'gain-trim-short': 'Span trimmer cannot cover the spread', 'zero-trim-short': 'Zero trimmer cannot cover the spread',
     'sensor-drive': 'Sensor cannot drive the input', 'ac-low-frequency': 'Reads low at 50 Hz',
+    'readings-too-few': 'Too few sensor readings to fit', 'readings-implausible': 'Sensor readings do not fit this core',
   };
   for (const w of r.warnings.filter((x) => (x.level === 'fail' || x.level === 'caution') && !x.code.startsWith('clips-in-range') && x.code !== 'bandwidth-short')) {
     v.push({ level: w.level === 'fail' ? 'fail' : 'caution', title: titles[w.code] ?? w.code, detail: w.message });

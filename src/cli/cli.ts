@@ -4,6 +4,8 @@
  *   gainwright report FILE [--json] [--spice]   solve one design
  *   gainwright report DIR --json                 one JSON line per design file in DIR
  *   gainwright new [DEMO]                        print a demo design to start from
+ *   gainwright fit READINGS.csv [--json]         fit a sensor from bench readings
+ *   gainwright trim DESIGN READINGS.csv [--json] trim a built probe from its readings
  *
  * Exit codes: 0 done, 1 the design was solved but fails a check (with --strict), 2 bad input.
  */
@@ -15,6 +17,10 @@ import { analyse, reportJson } from '../analysis/report.js';
 import { textReport } from '../present/text-report.js';
 import { spiceNetlist } from '../present/spice.js';
 import { DEMOS } from '../model/demos.js';
+import { MAX_READINGS_TEXT, parseReadings, unitFactor, type ParsedReadings } from '../model/readings.js';
+import { fitJson, fitReadings } from '../analysis/fit.js';
+import { trimFromReadings, trimJson } from '../analysis/trim.js';
+import { fitLines, trimLines } from '../present/readings.js';
 
 export interface Io {
   out: (s: string) => void;
@@ -27,12 +33,16 @@ const USAGE = `usage:
   gainwright report FILE [--json] [--spice] [--no-spread]
   gainwright report DIR --json           one JSON line per *.json design in DIR
   gainwright new [${DEMOS.map((d) => d.id).join('|')}]
+  gainwright fit READINGS.csv [--json]   fit a sensor from readings (measurand, output volts)
+  gainwright trim DESIGN.json READINGS.csv [--json] [--at=RV1=0.47,RV2=0.55]
+                                         trimmer settings for a built probe from its readings
+                                         (--at: where the trimmers sat while reading, if turned)
 `;
 
-function readDesign(path: string): { ok: true; text: string } | { ok: false; message: string } {
+function readDesign(path: string, limit = MAX_DESIGN_BYTES, what = 'a design file is a few kB'): { ok: true; text: string } | { ok: false; message: string } {
   try {
     const st = statSync(path);
-    if (st.size > MAX_DESIGN_BYTES) return { ok: false, message: `${path}: is larger than 1 MB; a design file is a few kB` };
+    if (st.size > limit) return { ok: false, message: `${path}: is larger than ${limit >= 1e6 ? `${limit / 1e6} MB` : `${limit / 1e3} kB`}; ${what}` };
     return { ok: true, text: readFileSync(path, 'utf8') };
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
@@ -55,6 +65,9 @@ function run(argv: string[], io: Io): number {
   const flags = new Set(rest.filter((a) => a.startsWith('--')));
   const args = rest.filter((a) => !a.startsWith('--'));
   const known = new Set(['--json', '--spice', '--no-spread', '--help']);
+  // `--at=RV1=0.47,RV2=0.55`: where the trimmers sat while the probe readings were taken (gainwright trim).
+  const atFlag = [...flags].find((fl) => fl.startsWith('--at='));
+  if (atFlag) flags.delete(atFlag);
   for (const fl of flags) if (!known.has(fl)) { io.err(`gainwright: unknown option ${fl}\n${USAGE}`); return 2; }
   if (!cmd || cmd === '--help' || cmd === 'help') { io.out(USAGE); return cmd ? 0 : 2; }
   if (cmd === 'new') {
@@ -63,6 +76,8 @@ function run(argv: string[], io: Io): number {
     io.out(JSON.stringify(demo.document, null, 2) + '\n');
     return 0;
   }
+  if (cmd === 'fit') return fitCommand(args, flags.has('--json'), io);
+  if (cmd === 'trim') return trimCommand(args, flags.has('--json'), io, atFlag?.slice('--at='.length) ?? null);
   if (cmd !== 'report') { io.err(`gainwright: unknown command "${cmd}"\n${USAGE}`); return 2; }
   if (args.length !== 1) { io.err(`gainwright: report takes one design file or folder\n${USAGE}`); return 2; }
   const path = args[0]!;
@@ -97,5 +112,70 @@ function run(argv: string[], io: Io): number {
     return 0;
   }
   io.out(flags.has('--json') ? JSON.stringify(reportJson(r), null, 2) + '\n' : textReport(r));
+  return 0;
+}
+
+/** Reads a readings file; line problems go to stderr (the readable lines are kept). */
+function readReadings(path: string, io: Io): ParsedReadings | null {
+  const read = readDesign(path, MAX_READINGS_TEXT, 'a readings file is a few dozen lines');
+  if (!read.ok) { io.err(`gainwright: ${read.message}\n`); return null; }
+  const parsed = parseReadings(read.text);
+  // Text from the file is shown inert: control characters are dropped before it reaches a terminal.
+  for (const p of parsed.problems) io.err(`gainwright: ${path}: ${p.path}: ${inert(p.message)}\n`);
+  return parsed;
+}
+
+const inert = (s: string) => s.replace(/[\u0000-\u001f\u007f-\u009f\u202a-\u202e\u2066-\u2069]/g, '?');
+
+function fitCommand(args: string[], json: boolean, io: Io): number {
+  if (args.length !== 1) { io.err(`gainwright: fit takes one readings file\n${USAGE}`); return 2; }
+  const parsed = readReadings(args[0]!, io);
+  if (!parsed) return 2;
+  const fit = fitReadings(parsed.points);
+  const measurand = inert(parsed.units[0] || 'unit');
+  if (json) io.out(JSON.stringify(fitJson(fit), null, 2) + '\n');
+  else io.out(fitLines(fit, parsed.points, measurand).join('\n') + '\n');
+  if (fit.problem) {
+    if (json) io.err(`gainwright: ${fitLines(fit, parsed.points, measurand).join(' ')}\n`);
+    return 2;
+  }
+  return 0;
+}
+
+/** Reads `RV1=0.47,RV2=0.55` (settings from 0 to 1, or percent with a % sign); null when it cannot be read. */
+function parseAt(text: string): Array<[string, number]> | null {
+  const out: Array<[string, number]> = [];
+  for (const item of text.split(',').filter((x) => x.trim() !== '')) {
+    const m = /^\s*([A-Za-z]{1,4}\d{1,3})\s*=\s*([0-9]*\.?[0-9]+)\s*(%?)\s*$/.exec(item);
+    if (!m) return null;
+    const v = Number(m[2]) / (m[3] ? 100 : 1);
+    if (!(v >= 0 && v <= 1)) return null;
+    out.push([m[1]!, v]);
+  }
+  return out;
+}
+
+function trimCommand(args: string[], json: boolean, io: Io, atText: string | null): number {
+  if (args.length !== 2) { io.err(`gainwright: trim takes a design file and a readings file\n${USAGE}`); return 2; }
+  const at = atText === null ? [] : parseAt(atText);
+  if (!at) { io.err(`gainwright: --at takes trimmer settings like --at=RV1=0.47,RV2=55%\n`); return 2; }
+  const read = readDesign(args[0]!);
+  if (!read.ok) { io.err(`gainwright: ${read.message}\n`); return 2; }
+  const v = parseDesignText(read.text);
+  if (!v.ok) { io.err(`gainwright: ${args[0]} is not a valid design:\n${formatProblems(v.problems).replace(/^/gm, '  ')}\n`); return 2; }
+  const parsed = readReadings(args[1]!, io);
+  if (!parsed) return 2;
+  const m = v.design.sensor.measurand;
+  const k = unitFactor(parsed.units[0], m);
+  if (k === null) { io.err(`gainwright: ${args[1]}: the readings are in "${inert(parsed.units[0])}" but the design measures ${m}\n`); return 2; }
+  const points = parsed.points.map(([x, y]) => [x * k, y] as [number, number]);
+  const r = analyse(v.design, { spreadTrials: 0 });
+  const t = trimFromReadings({ design: r.design, front: r.front, stage: r.circuit ? r.stage : null }, points, at.length ? at : r.design.probeSettings ?? []);
+  if (json) io.out(JSON.stringify(trimJson(t), null, 2) + '\n');
+  else io.out(trimLines(t, r.stage?.parts ?? [], m).join('\n') + '\n');
+  if (t.problem && t.problem.code !== 'out-of-reach') {
+    if (json) io.err(`gainwright: ${trimLines(t, r.stage?.parts ?? [], m).join(' ')}\n`);
+    return 1;
+  }
   return 0;
 }

@@ -5,6 +5,7 @@
  */
 import { check, type Problem, type Spec } from './validate.js';
 import type { SeriesName } from './eseries.js';
+import { MAX_READINGS, type Reading } from './readings.js';
 
 export const DESIGN_FORMAT = 'gainwright-design';
 export const DESIGN_VERSION = 1;
@@ -44,6 +45,18 @@ export interface SensorCommon {
   supplyCurrent: number;
   /** Current the sensor output can source or sink, A (0 = not stated). */
   outputDrive: number;
+  /**
+   * Bench readings of the sensor's output against the measurand (docs/design-format.md). With `use`, the
+   * sensitivity and zero (and their tolerances) come from the fit of these readings instead of the
+   * figures above (voltage-output and hall-gap-core sensors). Absent or null: none taken.
+   */
+  readings?: SensorReadings | null;
+}
+
+/** Readings of a sensor taken on the bench: [measurand, output volts] pairs, and whether the design uses their fit. */
+export interface SensorReadings {
+  use: boolean;
+  points: Reading[];
 }
 
 export interface VoltageOutputSensor extends SensorCommon {
@@ -262,6 +275,10 @@ export interface Design {
   environment: Environment;
   analysis: AnalysisOptions;
   calibration: CalibrationMeter;
+  /** Readings of the built probe: [measurand, output volts at the instrument] pairs, for the trim solve ([] = none). */
+  probeReadings?: Reading[];
+  /** Trimmer wiper settings (0…1) while the probe readings were taken, by part reference; a trimmer not listed is at its parts-list setting. */
+  probeSettings?: Array<[string, number]>;
 }
 
 // ---------------------------------------------------------------------------------------------------------
@@ -270,6 +287,10 @@ export interface Design {
 const V = (o: Partial<Spec & { t: 'num' }> = {}): Spec => ({ t: 'num', what: 'volts', maxAbs: 1000, ...o } as Spec);
 const num = (what: string, check: 'positive' | 'nonneg' | 'any' | 'fraction', o: object = {}): Spec => ({ t: 'num', what, check, ...o } as Spec);
 const opt = (s: Spec, def: unknown): Spec => ({ ...s, def } as Spec);
+
+/** One bench reading: [measurand, volts]. */
+const readingSpec: Spec = { t: 'tuple', items: [num('measurand units', 'any', { maxAbs: 1e9 }), V()] };
+const readingsList: Spec = { t: 'list', item: readingSpec, def: [], maxItems: MAX_READINGS };
 
 const sensorCommon: Record<string, Spec> = {
   measurand: { t: 'str', def: 'A', maxLength: 16 },
@@ -282,6 +303,7 @@ const sensorCommon: Record<string, Spec> = {
   quiescentDrift: opt(num('volts per kelvin', 'any', { maxAbs: 1 }), 0),
   supplyCurrent: opt(num('amperes', 'nonneg', { max: 10 }), 0),
   outputDrive: opt(num('amperes', 'nonneg', { max: 10 }), 0),
+  readings: { t: 'obj', nullable: true, def: null, fields: { use: { t: 'bool', def: true }, points: readingsList } },
 };
 
 const sensorVariants: Record<string, Record<string, Spec>> = {
@@ -440,6 +462,8 @@ const SCHEMA: Spec = {
         temperatureMax: opt(num('kelvins', 'positive', { min: 1, max: 1000 }), 313.15),
       },
     },
+    probeReadings: readingsList,
+    probeSettings: { t: 'list', item: { t: 'tuple', items: [{ t: 'str', maxLength: 16 }, num('parts of the travel', 'fraction')] }, def: [], maxItems: 20 },
     analysis: {
       t: 'obj',
       def: {},
@@ -538,6 +562,9 @@ function crossCheck(d: Design, problems: Problem[]): void {
     const sens = s.type === 'voltage-output' ? s.sensitivity : s.hallSensitivity;
     if (sens === 0) p(`sensor.${s.type === 'voltage-output' ? 'sensitivity' : 'hallSensitivity'}`, 'must not be zero');
     if (s.outputMin !== undefined && s.outputMax !== undefined && s.outputMin >= s.outputMax) p('sensor.outputMin', 'must be below sensor.outputMax');
+  }
+  if (s.readings?.use && s.type !== 'voltage-output' && s.type !== 'hall-gap-core') {
+    p('sensor.readings.use', 'can only be true for a voltage-output or hall-gap-core sensor: a current transformer or shunt is set by its parts');
   }
   if (s.type === 'hall-gap-core' && s.core.gap >= s.core.pathLength) p('sensor.core.gap', 'must be shorter than sensor.core.pathLength');
 }

@@ -13,7 +13,7 @@ export interface Series {
 }
 
 export interface ChartData {
-  id: 'transfer' | 'response' | 'noise' | 'battery' | 'spread';
+  id: 'transfer' | 'response' | 'noise' | 'battery' | 'spread' | 'residuals';
   title: string;
   x: { label: string; log?: boolean };
   y: { label: string; log?: boolean };
@@ -21,6 +21,8 @@ export interface ChartData {
   series: Series[];
   /** Bar chart (histogram) instead of lines. */
   bars?: boolean;
+  /** Points without joining lines (readings, residuals). */
+  dots?: boolean;
 }
 
 const pts = (x: ArrayLike<number>, y: ArrayLike<number>) => Array.from({ length: x.length }, (_, i) => ({ x: x[i]!, y: y[i]! })).filter((p) => Number.isFinite(p.x) && Number.isFinite(p.y));

@@ -88,3 +88,81 @@ describe('gainwright report', () => {
     expect(bad.stderr).not.toMatch(/node:internal|\n\s+at /);
   });
 });
+
+describe('gainwright fit and trim on the example files (docs/examples, our own invented readings)', () => {
+  const ex = (f: string) => join(__dirname, '../../docs/examples', f);
+  it('fit --json gives the gainwright-fit object: the misread 10 A reading is an outlier, the flattened top is outside the linear range', async () => {
+    const r = await run(['fit', ex('sensor-readings.csv'), '--json']);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out);
+    expect(Object.keys(j)).toEqual(['format', 'version', 'slope', 'intercept', 'slopeStdError', 'interceptStdError', 'residualStd', 'linear', 'points', 'used', 'outliers']);
+    expect(j.format).toBe('gainwright-fit');
+    expect(j.points).toBe(16);
+    expect(j.outliers).toEqual([8]);
+    expect(j.linear[0]).toBe(-30);
+    expect(j.linear[1]).toBeGreaterThanOrEqual(25);
+    expect(j.linear[1]).toBeLessThanOrEqual(35);
+    // The invented line is 22.6 mV/A around 2.49 V.
+    expect(Math.abs(j.slope - 0.0226)).toBeLessThan(4 * j.slopeStdError);
+    expect(Math.abs(j.intercept - 2.49)).toBeLessThan(4 * j.interceptStdError);
+  });
+  it('fit prints the line, the linear range and the outlier in words', async () => {
+    const r = await run(['fit', ex('sensor-readings.csv')]);
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/Sensitivity 22\.\d+ mV\/A/);
+    expect(r.out).toMatch(/Linear from -30\.00 A to/);
+    expect(r.out).toMatch(/Reading 9 \(10\.0 A\) lies off the line/);
+  });
+  it('fit with two readings says what is missing and exits 2', async () => {
+    writeFileSync(join(dir, 'two.csv'), 'A,V\n0,2.5\n10,2.7\n');
+    const r = await run(['fit', join(dir, 'two.csv')]);
+    expect(r.code).toBe(2);
+    expect(r.out).toMatch(/2 usable readings: a fit with standard errors needs at least 3; take 1 more/);
+  });
+  it('trim --json gives the gainwright-trim object with both trimmers in turning order', async () => {
+    const r = await run(['trim', ex('bench-clamp-from-readings.json'), ex('probe-readings.csv'), '--json']);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out);
+    expect(Object.keys(j)).toEqual(['format', 'version', 'scale', 'zero', 'settings', 'replace', 'expected']);
+    expect(j.format).toBe('gainwright-trim');
+    expect(j.settings.map((s: any) => s.ref).sort()).toEqual(['RV1', 'RV2']);
+    for (const s of j.settings) { expect(s.setting).toBeGreaterThan(0); expect(s.setting).toBeLessThan(1); }
+    expect(j.expected).toHaveLength(2);
+    expect(j.replace).toEqual([]);
+  });
+  it('trim refuses readings in a unit the design does not measure', async () => {
+    writeFileSync(join(dir, 'mt.csv'), 'x,y\nmT,V\n0,4.5\n10,5.5\n');
+    const r = await run(['trim', ex('bench-clamp-from-readings.json'), join(dir, 'mt.csv')]);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/readings are in "mT" but the design measures A/);
+  });
+  it('trim reads milliamperes as amperes for an ampere design', async () => {
+    writeFileSync(join(dir, 'ma.csv'), 'I,U\nmA;V\n');
+    writeFileSync(join(dir, 'ma.csv'), 'I;U\nmA;V\n0;4,5735\n5000;5,0791\n10000;5,5846\n');
+    const a = await run(['trim', ex('bench-clamp-from-readings.json'), join(dir, 'ma.csv'), '--json']);
+    const b = await run(['trim', ex('bench-clamp-from-readings.json'), ex('probe-readings.csv'), '--json']);
+    expect(JSON.parse(a.out).scale).toBeCloseTo(JSON.parse(b.out).scale, 9);
+  });
+  it('a readings file that is not readings gives line problems on stderr, never a stack trace', async () => {
+    writeFileSync(join(dir, 'junk.csv'), 'hello\n\u001b[31mred\u0007,1\n');
+    const r = await run(['fit', join(dir, 'junk.csv')]);
+    expect(r.code).toBe(2);
+    expect(r.err).not.toMatch(/\u001b|\u0007|at .*\.ts/);
+  });
+});
+
+describe('gainwright trim --at', () => {
+  const ex = (f: string) => join(__dirname, '../../docs/examples', f);
+  it('readings taken after turning are trimmed from where the trimmers sat', async () => {
+    const plain = JSON.parse((await run(['trim', ex('bench-clamp-from-readings.json'), ex('probe-readings.csv'), '--json'])).out);
+    const turned = await run(['trim', ex('bench-clamp-from-readings.json'), ex('probe-readings.csv'), '--json', '--at=RV1=0.4,RV2=60%']);
+    expect(turned.code).toBe(0);
+    const j = JSON.parse(turned.out);
+    expect(j.settings.find((s: any) => s.ref === 'RV1').setting).not.toBeCloseTo(plain.settings.find((s: any) => s.ref === 'RV1').setting, 3);
+  });
+  it('a setting that cannot be read exits 2 with what --at takes', async () => {
+    const r = await run(['trim', ex('bench-clamp-from-readings.json'), ex('probe-readings.csv'), '--at=RV1=lots']);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/--at takes trimmer settings/);
+  });
+});
