@@ -12,7 +12,7 @@ import { atSensorSupply, type SensorFront, type SensorLimitKind } from '../physi
 import type { SolvedStage } from '../solve/stage.js';
 import { peakRange } from '../physics/topology.js';
 import { mulberry32 } from '../model/random.js';
-import { HOUR } from '../model/constants.js';
+import { HOUR, REGULATOR_DROPOUT } from '../model/constants.js';
 import { formatEng } from '../model/units.js';
 
 export type ClipCause = 'opamp-output' | 'opamp-current' | 'opamp-input' | SensorLimitKind;
@@ -440,11 +440,11 @@ export function batterySweep(design: Design, stage: SolvedStage, front: SensorFr
   const reg = design.supply.regulated;
   for (let i = 0; i < steps; i++) {
     const v = bat.fresh + ((bat.endOfLife - bat.fresh) * i) / (steps - 1);
-    // A regulator holds while it has about 0.3 V of headroom (common practice for a low-dropout part).
-    const regulated = !reg || v - design.supply.negative >= reg.voltage + 0.3;
-    const sensorSupply = design.supply.sensorRail === 'regulated' && reg ? (regulated ? reg.voltage : v - 0.3) : v;
+    // A regulator holds while it has its dropout of headroom.
+    const regulated = !reg || v - design.supply.negative >= reg.voltage + REGULATOR_DROPOUT;
+    const sensorSupply = design.supply.sensorRail === 'regulated' && reg ? (regulated ? reg.voltage : v - REGULATOR_DROPOUT) : v;
     const f2 = atSensorSupply(front, sensorSupply);
-    const d2: Design = reg && !regulated ? { ...design, supply: { ...design.supply, regulated: { ...reg, voltage: Math.max(v - 0.3 - design.supply.negative, 0.01) } } } : design;
+    const d2: Design = reg && !regulated ? { ...design, supply: { ...design.supply, regulated: { ...reg, voltage: Math.max(v - REGULATOR_DROPOUT - design.supply.negative, 0.01) } } } : design;
     const sc = buildCircuit(d2, stage, front, { positive: v, front: f2 });
     const dc = dcLinear(sc, passband);
     if (!dc) continue;
