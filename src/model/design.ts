@@ -517,15 +517,24 @@ const tooLarge = (): Problem => ({ path: '(file)', message: `is larger than ${MA
 /** Where JSON.parse stopped, as one line: the engine's own message quotes the text, control characters and all. */
 function jsonErrorAt(text: string, err: unknown): string {
   const msg = err instanceof Error ? err.message : '';
-  const pos = /position (\d+)/.exec(msg);
-  if (pos) {
-    const before = text.slice(0, Number(pos[1]));
+  const pos = /position (\d+)/.exec(msg)?.[1] ?? firstBadCharacter(text);
+  if (pos !== null) {
+    const before = text.slice(0, Number(pos));
     const line = before.split('\n').length;
     const column = before.length - before.lastIndexOf('\n');
     return `is not valid JSON (at line ${line}, column ${column})`;
   }
   if (/end of (JSON )?input/i.test(msg)) return 'is not valid JSON (it ends too early)';
   return 'is not valid JSON';
+}
+
+/** The offset of the first character that cannot begin a JSON token, or null when every one can. */
+function firstBadCharacter(text: string): number | null {
+  const token = /[ \t\n\r]*(?:[{}[\],:]|"(?:[^"\\\u0000-\u001f]|\\.)*"|-?[0-9][0-9.eE+-]*|true|false|null)/y;
+  let at = 0;
+  while (token.exec(text)) at = token.lastIndex;
+  const rest = /^[ \t\n\r]*/.exec(text.slice(at))![0].length;
+  return at + rest < text.length ? at + rest : null;
 }
 
 /**
