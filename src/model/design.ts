@@ -403,6 +403,31 @@ const SCHEMA: Spec = {
   },
 };
 
+/** A number field of the format with its bounds, for tools and tests that go through every field. */
+export interface NumberField {
+  /** Dotted path, list items as `.0`, `.1` (`target.range.1`). */
+  path: string;
+  min?: number;
+  max?: number;
+  maxAbs?: number;
+  minAbs?: number;
+  check: 'positive' | 'nonneg' | 'any' | 'fraction';
+  whole: boolean;
+}
+
+/** Every number field of a design with this sensor type, with its bounds, read from the schema itself. */
+export function numberFields(type: SensorType): NumberField[] {
+  const out: NumberField[] = [];
+  const walk = (spec: Spec, path: string) => {
+    if (spec.t === 'num') out.push({ path, min: spec.min, max: spec.max, maxAbs: spec.maxAbs, minAbs: spec.minAbs, check: spec.check ?? 'any', whole: !!spec.whole });
+    else if (spec.t === 'obj') for (const [k, s] of Object.entries(spec.fields)) walk(s, path ? `${path}.${k}` : k);
+    else if (spec.t === 'tuple') spec.items.forEach((s, i) => walk(s, `${path}.${i}`));
+    else if (spec.t === 'variant') for (const [k, s] of Object.entries(spec.variants[type]!)) walk(s, `${path}.${k}`);
+  };
+  walk(SCHEMA, '');
+  return out.filter((f) => f.path !== 'version');
+}
+
 export type ValidationResult = { ok: true; design: Design } | { ok: false; problems: Problem[] };
 
 /**

@@ -94,7 +94,7 @@ export function check(value: unknown, spec: Spec, path: string, problems: Proble
         return undefined;
       }
       if (spec.minAbs !== undefined && value !== 0 && Math.abs(value) < spec.minAbs) {
-        const zeroOk = c !== 'positive' && spec.min === undefined;
+        const zeroOk = c !== 'positive' && (spec.min === undefined || spec.min <= 0) && (spec.max === undefined || spec.max >= 0);
         problems.push({ path: label, message: `is too small to mean anything: ${zeroOk ? 'use 0 or ' : 'use '}at least ${spec.minAbs} ${spec.what}${c === 'any' ? ' in size' : ''}`, limit: { kind: 'minAbs', value: spec.minAbs } });
         return undefined;
       }
