@@ -11,7 +11,7 @@ export interface Problem {
    * For a number outside its bounds: the bound it broke, in SI, so that a screen can write it in the
    * field's own unit. `other` lists further fields a cross-field rule involves.
    */
-  limit?: { kind: 'min' | 'max' | 'maxAbs' | 'minAbs' | 'whole'; value: number };
+  limit?: { kind: 'min' | 'max' | 'maxAbs' | 'minAbs' | 'whole' | 'positive' | 'nonneg' | 'fraction'; value: number };
   other?: string[];
 }
 
@@ -74,7 +74,9 @@ export function check(value: unknown, spec: Spec, path: string, problems: Proble
       }
       const c = spec.check ?? 'any';
       if ((c === 'positive' && !(value > 0)) || (c === 'nonneg' && value < 0) || (c === 'fraction' && (value < 0 || value > 1))) {
-        problems.push({ path: label, message: describe(spec) });
+        // With a lower bound the bound says more than the sign ("at least 0.36 coulombs", not "positive").
+        const limit = spec.min !== undefined && c !== 'fraction' ? { kind: 'min' as const, value: spec.min } : { kind: c, value: c === 'fraction' ? 1 : 0 };
+        problems.push({ path: label, message: describe(spec), limit });
         return undefined;
       }
       if (spec.whole && !Number.isInteger(value)) {
