@@ -266,7 +266,9 @@ export class GwApp extends LitElement {
     const words = `${problems.slice(0, 4).map((p) => problemWords(p, this._design)).join('; ')}. The value in force stays.`;
     const def = fieldPath ? FIELDS.find((f) => f.path === fieldPath) : undefined;
     const typed = !!def && (def.kind === 'number' || def.kind === 'text');
-    if (typed) this._messages = { ...this._messages, [fieldPath!]: words };
+    // A fresh messages object either way: the editor renders again, and a switch or choice goes back to the
+    // value in force (its binding compares with what the control shows now).
+    this._messages = typed ? { ...this._messages, [fieldPath!]: words } : { ...this._messages };
     this._notice = typed && fieldPath !== 'title' ? null : { text: `Not applied: ${words}`, bad: true };
     this.requestUpdate();
   }

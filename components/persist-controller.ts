@@ -1,6 +1,6 @@
 import type { ReactiveController, ReactiveControllerHost } from 'lit';
 import {
-  AUTOSAVE_KEY, DAMAGED_KEY, HISTORY_KEY, autosaveEntry, historyText, readHistory, restoreAutosave, withHistory,
+  AUTOSAVE_KEY, DAMAGED_KEY, HISTORY_KEY, autosaveEntry, historyText, problemWords, readHistory, restoreAutosave, withHistory,
   type Design, type HistoryEntry, type RestoreResult,
 } from '../src/index.js';
 
@@ -69,7 +69,8 @@ export class PersistController implements ReactiveController {
       } catch { /* a damaged copy of a damaged entry: nothing left to offer */ }
     }
     const saved = restoreAutosave(this.read(AUTOSAVE_KEY));
-    if (saved.kind === 'damaged') this.keepDamaged(saved.text, saved.reason);
+    // The reason in a person's words (fields by label), never as field paths.
+    if (saved.kind === 'damaged') this.keepDamaged(saved.text, saved.problems ? `the saved design has problems: ${saved.problems.slice(0, 3).map((p) => problemWords(p)).join('; ')}` : saved.reason);
     return saved;
   }
 

@@ -2,7 +2,7 @@
  * Keeping designs: the share link (the design in the URL fragment), the versioned autosave envelope and a
  * safe file name. Pure functions; the app does the storage and the download.
  */
-import { parseDesignText, serialiseDesign, validateDesign, type Design, type ValidationResult } from './design.js';
+import { parseDesignText, serialiseDesign, validateDesign, type Design, type Problem, type ValidationResult } from './design.js';
 
 export const AUTOSAVE_KEY = 'gainwright.autosave';
 export const AUTOSAVE_VERSION = 1;
@@ -57,7 +57,7 @@ export function autosaveEntry(design: Design, unsaved = false): string {
 export type RestoreResult =
   | { kind: 'none' }
   | { kind: 'ok'; design: Design; unsaved: boolean }
-  | { kind: 'damaged'; text: string; reason: string };
+  | { kind: 'damaged'; text: string; reason: string; problems?: Problem[] };
 
 /** Reads the autosave entry; a damaged one is reported with its text so that nothing is lost. */
 export function restoreAutosave(stored: string | null): RestoreResult {
@@ -73,7 +73,7 @@ export function restoreAutosave(stored: string | null): RestoreResult {
     return { kind: 'damaged', text: stored, reason: 'the saved entry has an unknown layout' };
   }
   const v = validateDesign(env.design);
-  if (!v.ok) return { kind: 'damaged', text: stored, reason: `the saved design has problems: ${v.problems.slice(0, 3).map((p) => `${p.path}: ${p.message}`).join('; ')}` };
+  if (!v.ok) return { kind: 'damaged', text: stored, reason: `the saved design has problems: ${v.problems.slice(0, 3).map((p) => `${p.path}: ${p.message}`).join('; ')}`, problems: v.problems };
   return { kind: 'ok', design: v.design, unsaved: env.unsaved === true };
 }
 

@@ -237,14 +237,22 @@ export function fieldForPath(path: string, design?: Design): FieldDef | undefine
 
 /**
  * A problem in a person's words, for the screen: the field named by its label, every other field a rule
- * involves named by its label too (in quotes), and a broken bound written in the field's own unit.
+ * involves named by its label too (in quotes), and a broken bound written in the field's own unit; a place
+ * that is no editor field (a file's unknown key) is named as an entry, never as a dotted path.
  * `supply.regulated.voltage: needs supply.positive of at least 5.3 V …` → `Regulated voltage needs “Positive
- * rail” of at least 5.3 V …`. A path that is no editor field (a file's unknown key) is said as a place in the file.
+ * rail” of at least 5.3 V …`.
  */
 export function problemWords(p: Problem, design?: Design): string {
   const f = fieldForPath(p.path, design);
-  const subject = f ? f.label : p.path.startsWith('(') ? `The ${p.path.slice(1, -1)}` : `The file's entry ${p.path}`;
+  const subject = f ? f.label : p.path.startsWith('(') ? `The ${p.path.slice(1, -1)}` : entryName(p.path);
   return `${subject} ${p.limit && f?.kind === 'number' ? boundWords(p, f, design) : labelsFor(p.message, design)}`;
+}
+
+/** A place in a document that is no editor field: `opamp.__proto__` → `The entry “__proto__” in opamp`. */
+function entryName(path: string): string {
+  const parts = dotted(path).split('.');
+  const last = parts.pop()!;
+  return `The entry “${last}”${parts.length ? ` in ${parts.join(' › ')}` : ''}`;
 }
 
 function boundWords(p: Problem, f: FieldDef, design?: Design): string {

@@ -93,7 +93,7 @@ describe('problemWords: a refusal in the field\'s own words, never a field path'
     expect(words('bench-clamp', (d) => { d.supply.battery.capacity = 0; })).toEqual(['Capacity must be at least 0.1 mAh']);
     expect(words('generic-sensor', (d) => { d.environment = { temperature: 2000 }; })[0]).toBe('Design temperature must be at most 726.85 °C');
   });
-  it('a file entry that is no field is named as a place in the file', () => {
-    expect(problemWords({ path: 'opamp.__proto__', message: 'is not a field this format knows' })).toBe('The file\'s entry opamp.__proto__ is not a field this format knows');
+  it('a document entry that is no field is named as an entry, not as a dotted path', () => {
+    expect(problemWords({ path: 'opamp.__proto__', message: 'is not a field this format knows' })).toBe('The entry “__proto__” in opamp is not a field this format knows');
   });
 });
