@@ -28,7 +28,8 @@ const loadUnits = () => (unitsLoading ??= import('../src/model/units-mathjs.js')
 /** Monte Carlo trials run on each edit: enough for a stable histogram, quick enough to keep typing smooth. */
 const EDIT_TRIALS = 400;
 
-interface Notice { text: string; bad: boolean }
+/** A line above the work area; `undo` offers to undo the replacement it reports. */
+interface Notice { text: string; bad: boolean; undo?: boolean }
 
 interface Derived {
   report: Report;
@@ -160,7 +161,7 @@ export class GwApp extends LitElement {
         this._unsaved = true;
         this._persist.save(this._design, true);
         if (saved.kind === 'ok') this._undo = { design: saved.design, title: saved.design.title };
-        this._notice = { text: 'Opened the design from the link.', bad: false };
+        this._notice = { text: 'Opened the design from the link.', bad: false, undo: saved.kind === 'ok' };
         return;
       }
     }
@@ -223,7 +224,7 @@ export class GwApp extends LitElement {
     this._unsaved = false;
     this._persist.save(this._design, false);
     this._undo = { design: old, title: old.title };
-    this._notice = { text: done, bad: false };
+    this._notice = { text: done, bad: false, undo: true };
   }
 
   private _undoReplace(): void {
@@ -396,7 +397,7 @@ export class GwApp extends LitElement {
         <button @click=${() => this._replace(this._confirm!.design, this._confirm!.what, this._confirm!.done)}>Replace</button>
         <button @click=${() => { this._confirm = null; }}>Keep mine</button></div>` : nothing}
       ${this._notice ? html`<div class="notice ${this._notice.bad ? 'bad' : ''}" role="status" data-notice="message">${this._notice.text}
-        ${this._undo && !this._notice.bad ? html` <button @click=${this._undoReplace}>Undo</button>` : nothing}
+        ${this._undo && this._notice.undo ? html` <button @click=${this._undoReplace}>Undo</button>` : nothing}
         ${dismiss(() => { this._notice = null; })}</div>` : nothing}
     `;
   }
