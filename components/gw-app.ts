@@ -1,6 +1,6 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, state, query } from 'lit/decorators.js';
-import { validateDesign, parseDesignText, formatProblems, MAX_DESIGN_BYTES, type Design, type Problem } from '../src/index.js';
+import { validateDesign, parseDesignText, MAX_DESIGN_BYTES, type Design, type Problem } from '../src/index.js';
 import { analyse, SAFETY_CAUTIONS, type Report } from '../src/index.js';
 import { DEMOS, demoDesign } from '../src/index.js';
 import { FIELDS, GROUP_DEFAULTS, parseField, setPath } from '../src/index.js';
@@ -9,12 +9,11 @@ import { allCharts, type ChartData } from '../src/index.js';
 import { schematic, type Schematic } from '../src/index.js';
 import { bomCsv, bomRows, type BomRow } from '../src/index.js';
 import { keyFigures, type FigureRow } from '../src/index.js';
-import { AUTOSAVE_KEY, autosaveEntry, designFromFragment, fileName, restoreAutosave, serialiseDesign, shareFragment } from '../src/index.js';
+import { decodeDesignBytes, designFromFragment, fileName, problemWords, serialiseDesign, shareFragment } from '../src/index.js';
 import { sensorTemplate } from '../src/index.js';
-import type { SensorType } from '../src/index.js';
 import { base } from './styles.js';
-import type { FieldInputDetail } from './gw-field.js';
-import type { SetDetail } from './gw-editor.js';
+import { live } from 'lit/directives/live.js';
+import { PersistController } from './persist-controller.js';
 import './gw-editor.js';
 import './gw-verdicts.js';
 import './gw-chart.js';
@@ -30,12 +29,25 @@ const loadUnits = () => (unitsLoading ??= import('../src/model/units-mathjs.js')
 /** Monte Carlo trials run on each edit: enough for a stable histogram, quick enough to keep typing smooth. */
 const EDIT_TRIALS = 400;
 
+/** A line above the work area; `undo` offers to undo the replacement it reports. */
+interface Notice { text: string; bad: boolean; undo?: boolean }
+
 interface Derived {
   report: Report;
   charts: ChartData[];
   drawing: Schematic | null;
   rows: BomRow[];
   figures: FigureRow[];
+}
+
+/** Everything shown that is derived from the design (throws only on a fault of ours). */
+function derive(design: Design, trials: number): Derived {
+  performance.mark('gw-analyse-start');
+  const report = analyse(design, { spreadTrials: trials });
+  const derived = { report, charts: allCharts(report), drawing: schematic(report), rows: bomRows(report), figures: keyFigures(report) };
+  performance.mark('gw-analyse-end');
+  performance.measure('gw-analyse', 'gw-analyse-start', 'gw-analyse-end');
+  return derived;
 }
 
 /**
@@ -91,10 +103,24 @@ export class GwApp extends LitElement {
 
   @state() private _design: Design = demoDesign();
   @state() private _derived: Derived | null = null;
+  /** Refusals in a person's words, by the field path they are shown at. */
   @state() private _messages: Record<string, string> = {};
-  @state() private _notice: { text: string; bad: boolean } | null = null;
-  @state() private _damaged: string | null = null;
+  @state() private _notice: Notice | null = null;
   @state() private _shareUrl = '';
+  /** Edits not yet saved to a file (a replacement asks first). */
+  @state() private _unsaved = false;
+  /** The design the last replacement put aside: Undo brings it back. */
+  @state() private _undo: { design: Design; title: string } | null = null;
+  /** A replacement waiting for the person's yes, because the design in force has unsaved edits. */
+  @state() private _confirm: { design: Design; what: string; done: string } | null = null;
+
+  private readonly _persist = new PersistController(this);
+  /** Edits run one after another, in the order they were made, even while the unit engine is loading. */
+  private _queue: Promise<void> = Promise.resolve();
+  private _spreadTimer = 0;
+
+  /** The design in force (read by the persistence controller). */
+  get currentDesign(): Design { return this._design; }
 
   override connectedCallback(): void {
     super.connectedCallback();
@@ -108,6 +134,7 @@ export class GwApp extends LitElement {
 
   override disconnectedCallback(): void {
     window.removeEventListener('hashchange', this._onHash);
+    clearTimeout(this._spreadTimer);
     super.disconnectedCallback();
   }
 
@@ -118,135 +145,177 @@ export class GwApp extends LitElement {
   private _onHash = (): void => {
     const fromLink = designFromFragment(location.hash);
     if (!fromLink) return;
-    if (fromLink.ok) { this._adopt(fromLink.design, 'Opened the design from the link.'); this._clearFragment(); }
-    else this._notice = { text: `The link does not carry a usable design, so the current one stays: ${formatProblems(fromLink.problems)}`, bad: true };
+    this._clearFragment();
+    if (fromLink.ok) this._requestReplace(fromLink.design, 'replaced by a shared link', 'Opened the design from the link.');
+    else this._notice = { text: `The link does not carry a usable design, so the current one stays: ${this._problemList(fromLink.problems)}`, bad: true };
   };
 
   /** Start-up order: a share link, then the autosave, then the first demo. */
   private _restore(): void {
+    const saved = this._persist.restore();
     const fromLink = designFromFragment(location.hash);
-    let stored: string | null = null;
-    try { stored = localStorage.getItem(AUTOSAVE_KEY); } catch { stored = null; }
-    const saved = restoreAutosave(stored);
+    // The fragment goes at once: a reload must not repeat a link (good or bad) over later edits.
+    this._clearFragment();
     if (fromLink?.ok) {
-      // Keep it in the browser and drop the fragment, so a reload after later edits keeps the edits.
-      this._adopt(fromLink.design, 'Opened the design from the link.', true);
-      this._clearFragment();
-      return;
-    }
-    if (saved.kind === 'ok') this._adopt(saved.design, null, false);
-    else {
-      this._adopt(demoDesign(), null, false);
-      if (saved.kind === 'damaged') {
-        this._damaged = saved.text;
-        this._notice = { text: `The design saved in this browser could not be read (${saved.reason}). Started from the demo; you can download the damaged text below.`, bad: true };
+      if (saved.kind === 'ok') this._persist.remember(saved.design, 'replaced by a shared link');
+      if (this._setDesign(fromLink.design, 0)) {
+        this._unsaved = true;
+        this._persist.save(this._design, true);
+        if (saved.kind === 'ok') this._undo = { design: saved.design, title: saved.design.title };
+        this._notice = { text: 'Opened the design from the link.', bad: false, undo: saved.kind === 'ok' };
+        return;
       }
     }
-    if (fromLink && !fromLink.ok) this._notice = { text: `The link does not carry a usable design: ${formatProblems(fromLink.problems)}`, bad: true };
+    if (saved.kind === 'ok') {
+      if (this._setDesign(saved.design, 0)) this._unsaved = saved.unsaved;
+      else {
+        this._persist.keepDamaged(JSON.stringify(saved.design, null, 2), 'the saved design could not be analysed');
+        this._setDesign(demoDesign(), 0);
+      }
+    } else this._setDesign(demoDesign(), 0);
+    if (fromLink && !fromLink.ok) this._notice = { text: `The link does not carry a usable design: ${this._problemList(fromLink.problems)}`, bad: true };
   }
-
-  private _adopt(design: Design, notice: string | null, save = true): void {
-    this._design = design;
-    this._messages = {};
-    this._recompute(0);
-    clearTimeout(this._spreadTimer);
-    this._spreadTimer = window.setTimeout(() => this._recompute(), 50);
-    if (notice) this._notice = { text: notice, bad: false };
-    if (save) this._autosave();
-  }
-
-  private _spreadTimer = 0;
 
   /**
-   * Recomputes the report. The Monte Carlo spread is left to a moment later, so the verdict of the first
-   * render (and of a freshly opened design) does not wait for it.
+   * Makes `design` the one in force, if it can be analysed: the last line of defence. A fault of ours while
+   * analysing keeps the design in force as it was and says so, instead of leaving an empty page.
    */
-  private _recompute(trials = EDIT_TRIALS): void {
-    performance.mark('gw-analyse-start');
-    const report = analyse(this._design, { spreadTrials: trials });
-    this._derived = { report, charts: allCharts(report), drawing: schematic(report), rows: bomRows(report), figures: keyFigures(report) };
-    performance.mark('gw-analyse-end');
-    performance.measure('gw-analyse', 'gw-analyse-start', 'gw-analyse-end');
+  private _setDesign(design: Design, trials = EDIT_TRIALS): boolean {
+    let derived: Derived;
+    try {
+      derived = derive(design, trials);
+    } catch (e) {
+      this._fault(e);
+      return false;
+    }
+    this._design = design;
+    this._derived = derived;
+    clearTimeout(this._spreadTimer);
+    // The Monte Carlo spread a moment later, so that the verdict of the first render does not wait for it.
+    if (trials === 0) this._spreadTimer = window.setTimeout(() => { try { this._derived = derive(this._design, EDIT_TRIALS); } catch (e) { this._fault(e); } }, 50);
+    return true;
   }
 
-  private _autosave(): void {
-    try { localStorage.setItem(AUTOSAVE_KEY, autosaveEntry(this._design)); } catch { /* storage full or off: nothing else to do */ }
+  private _fault(e: unknown): void {
+    const why = String(e instanceof Error ? e.message : e).replace(/\s+/g, ' ').slice(0, 160);
+    this._notice = { text: `Gainwright could not analyse that design (a fault of its own: ${why}), so the design in force stays as it was. Save it and report the fault.`, bad: true };
   }
 
-  /** Applies a change; a change that leaves the design invalid is refused with the problems at their fields. */
+  /** Problems as one line in a person's words (at most six). */
+  private _problemList(problems: Problem[]): string {
+    return problems.slice(0, 6).map((p) => problemWords(p, this._design)).join('; ');
+  }
+
+  /**
+   * Replaces the whole design (a demo, a file, a link, a recent design). The design in force goes to the
+   * recent designs first and Undo brings it back; unsaved edits are asked about before anything happens.
+   */
+  private _requestReplace(design: Design, why: string, done: string): void {
+    if (this._unsaved) this._confirm = { design, what: why, done };
+    else this._replace(design, why, done);
+  }
+
+  private _replace(design: Design, why: string, done: string): void {
+    const old = this._design;
+    this._confirm = null;
+    if (!this._setDesign(design, 0)) return;
+    this._persist.remember(old, why);
+    this._messages = {};
+    this._shareUrl = '';
+    this._unsaved = false;
+    this._persist.save(this._design, false);
+    this._undo = { design: old, title: old.title };
+    this._notice = { text: done, bad: false, undo: true };
+  }
+
+  private _undoReplace(): void {
+    const u = this._undo;
+    if (!u) return;
+    this._replace(u.design, 'replaced by Undo', `Brought back "${u.title}".`);
+  }
+
+  /** Applies a change; a change that leaves the design invalid is refused, in the words of the field edited. */
   private _apply(next: unknown, fieldPath: string | null): void {
     const v = validateDesign(next);
     if (!v.ok) {
       this._reject(v.problems, fieldPath);
       return;
     }
+    performance.mark('gw-edit-start');
+    if (!this._setDesign(v.design)) return;
     const messages = { ...this._messages };
     if (fieldPath) delete messages[fieldPath];
     for (const k of Object.keys(messages)) if (!k.startsWith('(')) delete messages[k];
     this._messages = messages;
-    this._design = v.design;
+    if (this._notice?.bad) this._notice = null;
+    this._unsaved = true;
     // The design no longer matches a share link in the address bar.
     this._clearFragment();
     this._shareUrl = '';
-    performance.mark('gw-edit-start');
-    this._recompute();
-    this._autosave();
+    this._persist.save(this._design, true);
     this.updateComplete.then(() => {
       performance.mark('gw-edit-end');
       performance.measure('gw-edit', 'gw-edit-start', 'gw-edit-end');
     });
   }
 
+  /**
+   * A refused edit: a typed field keeps what was typed, marked invalid, with the reason at it; a switch or a
+   * choice goes back to the value in force and the reason is said above. Either way every field involved is
+   * named by its label, with the fix.
+   */
   private _reject(problems: Problem[], fieldPath: string | null): void {
-    const messages: Record<string, string> = { ...this._messages };
-    for (const p of problems) {
-      const known = FIELDS.find((f) => f.path === p.path || p.path.startsWith(`${f.path}.`) || f.path.replace(/\.(\d)$/, '[$1]') === p.path);
-      messages[known?.path ?? fieldPath ?? '(design)'] = `${p.message}; the last good design stays in force`;
-    }
-    this._messages = messages;
-    this._notice = { text: `Not applied: ${formatProblems(problems).split('\n').slice(0, 3).join('; ')}`, bad: true };
+    const words = `${problems.slice(0, 4).map((p) => problemWords(p, this._design)).join('; ')}. The value in force stays.`;
+    const def = fieldPath ? FIELDS.find((f) => f.path === fieldPath) : undefined;
+    const typed = !!def && (def.kind === 'number' || def.kind === 'text');
+    // A fresh messages object either way: the editor renders again, and a switch or choice goes back to the
+    // value in force (its binding compares with what the control shows now).
+    this._messages = typed ? { ...this._messages, [fieldPath!]: words } : { ...this._messages };
+    this._notice = typed && fieldPath !== 'title' ? null : { text: `Not applied: ${words}`, bad: true };
+    this.requestUpdate();
   }
 
-  private _onFieldInput = async (e: CustomEvent<FieldInputDetail>): Promise<void> => {
+  /** Runs edits strictly in order; a fault in one is said and never stops the ones after it. */
+  private _enqueue(job: () => void | Promise<void>): void {
+    this._queue = this._queue.then(job).catch((e: unknown) => this._fault(e));
+  }
+
+  private _onFieldInput = (e: HTMLElementEventMap['gw-field-input']): void => {
     const { path, text } = e.detail;
-    const def = FIELDS.find((f) => f.path === path);
-    if (!def) return;
-    if (def.kind === 'text') {
-      this._apply(setPath(this._design, path, text), path);
-      return;
-    }
-    if (text.trim() === '' && def.clearable) {
-      this._apply(setPath(this._design, path, undefined), path);
-      return;
-    }
-    let parsed = parseField(def, text, this._design);
-    if (!parsed.ok && parsed.pending) {
-      await loadUnits();
-      parsed = parseField(def, text, this._design);
-    }
-    if (!parsed.ok) {
-      this._messages = { ...this._messages, [path]: `${parsed.message}; the last good value stays in force` };
-      return;
-    }
-    this._apply(setPath(this._design, path, parsed.value), path);
+    this._enqueue(async () => {
+      const def = FIELDS.find((f) => f.path === path);
+      if (!def) return;
+      if (def.kind === 'text') return this._apply(setPath(this._design, path, text), path);
+      if (text.trim() === '' && def.clearable) return this._apply(setPath(this._design, path, undefined), path);
+      let parsed = parseField(def, text, this._design);
+      if (!parsed.ok && parsed.pending) {
+        await loadUnits();
+        parsed = parseField(def, text, this._design);
+      }
+      if (!parsed.ok) {
+        this._messages = { ...this._messages, [path]: `${def.label}: ${parsed.message}; the value in force stays` };
+        return;
+      }
+      this._apply(setPath(this._design, path, parsed.value), path);
+    });
   };
 
-  private _onSet = (e: CustomEvent<SetDetail>): void => {
+  private _onSet = (e: HTMLElementEventMap['gw-set']): void => {
     const { path, value } = e.detail;
-    if (path in GROUP_DEFAULTS) {
-      this._apply(setPath(this._design, path, value ? GROUP_DEFAULTS[path] : null), path);
-      return;
-    }
-    this._apply(setPath(this._design, path, value), path);
+    this._enqueue(() => {
+      if (path in GROUP_DEFAULTS) this._apply(setPath(this._design, path, value ? GROUP_DEFAULTS[path] : null), path);
+      else this._apply(setPath(this._design, path, value), path);
+    });
   };
 
-  private _onSensorType = (e: CustomEvent<{ type: SensorType }>): void => {
-    this._apply(sensorTemplate(this._design, e.detail.type), 'sensor.type');
+  private _onSensorType = (e: HTMLElementEventMap['gw-sensor-type']): void => {
+    const type = e.detail.type;
+    this._enqueue(() => this._apply(sensorTemplate(this._design, type), 'sensor.type'));
   };
 
-  private _onArchetype = (e: CustomEvent<{ id: string }>): void => {
+  private _onArchetype = (e: HTMLElementEventMap['gw-opamp-archetype']): void => {
     const a = archetype(e.detail.id);
-    if (a) this._apply({ ...this._design, opamp: { ...a.spec } }, null);
+    if (a) this._enqueue(() => this._apply({ ...this._design, opamp: { ...a.spec } }, null));
   };
 
   private _download(text: string, name: string, type: string): void {
@@ -260,6 +329,8 @@ export class GwApp extends LitElement {
 
   private _save(): void {
     this._download(serialiseDesign(this._design), fileName(this._design, 'json'), 'application/json');
+    this._unsaved = false;
+    this._persist.save(this._design, false);
   }
 
   private async _open(e: Event): Promise<void> {
@@ -267,16 +338,19 @@ export class GwApp extends LitElement {
     const file = input.files?.[0];
     input.value = '';
     if (!file) return;
+    const name = file.name.replace(/[\u0000-\u001f\u007f-\u009f]/g, ' ').slice(0, 80);
     if (file.size > MAX_DESIGN_BYTES) {
-      this._notice = { text: `${file.name} is larger than 1 MB; a design file is a few kB. The current design stays.`, bad: true };
+      this._notice = { text: `${name} is larger than 1 MB; a design file is a few kB. The current design stays.`, bad: true };
       return;
     }
-    const v = parseDesignText(await file.text());
+    // Decoded as the CLI decodes it: UTF-8 with or without a byte-order mark, or UTF-16.
+    const text = decodeDesignBytes(new Uint8Array(await file.arrayBuffer()));
+    const v = text.ok ? parseDesignText(text.text) : text;
     if (!v.ok) {
-      this._notice = { text: `${file.name} cannot be opened, so the current design stays: ${formatProblems(v.problems).split('\n').slice(0, 6).join('; ')}`, bad: true };
+      this._notice = { text: `${name} cannot be opened, so the current design stays: ${this._problemList(v.problems)}`, bad: true };
       return;
     }
-    this._adopt(v.design, `Opened ${file.name}.`);
+    this._requestReplace(v.design, `replaced by the file ${name}`, `Opened ${name}.`);
   }
 
   private _share(): void {
@@ -290,9 +364,43 @@ export class GwApp extends LitElement {
   }
 
   private _loadDemo(e: Event): void {
-    const id = (e.target as HTMLSelectElement).value;
-    if (id) this._adopt(demoDesign(id), `Loaded the demo "${DEMOS.find((d) => d.id === id)?.label}" (a scenario of our own invention).`);
-    (e.target as HTMLSelectElement).value = '';
+    const select = e.target as HTMLSelectElement;
+    const id = select.value;
+    select.value = '';
+    const demo = DEMOS.find((d) => d.id === id);
+    if (demo) this._requestReplace(demoDesign(id), `replaced by the demo "${demo.label}"`, `Loaded the demo "${demo.label}" (a scenario of our own invention).`);
+  }
+
+  private _loadRecent(e: Event): void {
+    const select = e.target as HTMLSelectElement;
+    const entry = this._persist.history[Number(select.value)];
+    select.value = '';
+    if (entry) this._requestReplace(entry.design, 'replaced by a recent design', `Opened "${entry.design.title}" from Recent designs.`);
+  }
+
+  private _takeOtherTab(): void {
+    const theirs = this._persist.otherTab;
+    this._persist.clearOtherTab();
+    if (theirs) this._requestReplace(theirs, 'replaced by the design of another tab', `Opened the design "${theirs.title}" saved by another tab.`);
+  }
+
+  /** The notices above the work area, each with what can be done about it. */
+  private _notices() {
+    const p = this._persist;
+    const dismiss = (f: () => void) => html`<button aria-label="Dismiss" @click=${f}>×</button>`;
+    return html`
+      ${p.storage !== 'ok' ? html`<div class="notice bad" role="alert" data-notice="storage">This browser is not keeping your design (its storage is ${p.storage === 'full' ? 'full' : 'turned off'}): your edits will be lost when this page closes. Save it to a file. <button @click=${this._save}>Save</button></div>` : nothing}
+      ${p.damaged ? html`<div class="notice bad" role="alert" data-notice="damaged">The design saved in this browser could not be read (${p.damaged.reason}). Gainwright started from the demo; the damaged text is kept until you dismiss this.
+        <button @click=${() => this._download(p.damaged!.text, 'damaged-autosave.txt', 'text/plain')}>Download the damaged text</button> ${dismiss(() => p.dismissDamaged())}</div>` : nothing}
+      ${p.otherTab ? html`<div class="notice" role="status" data-notice="other-tab">Another tab saved a different design ("${p.otherTab.title}"). This tab keeps its own; the other one is kept in Recent designs.
+        <button @click=${this._takeOtherTab}>Open the other tab's design here</button> ${dismiss(() => p.clearOtherTab())}</div>` : nothing}
+      ${this._confirm ? html`<div class="notice" role="alertdialog" aria-label="Replace the design?" data-notice="confirm">"${this._design.title}" has edits not saved to a file. Replace it (${this._confirm.what.replace(/^replaced by /, 'with ')})? It stays in Recent designs either way.
+        <button @click=${() => this._replace(this._confirm!.design, this._confirm!.what, this._confirm!.done)}>Replace</button>
+        <button @click=${() => { this._confirm = null; }}>Keep mine</button></div>` : nothing}
+      ${this._notice ? html`<div class="notice ${this._notice.bad ? 'bad' : ''}" role="status" data-notice="message">${this._notice.text}
+        ${this._undo && this._notice.undo ? html` <button @click=${this._undoReplace}>Undo</button>` : nothing}
+        ${dismiss(() => { this._notice = null; })}</div>` : nothing}
+    `;
   }
 
   private _cautions(): string[] {
@@ -326,11 +434,15 @@ export class GwApp extends LitElement {
     return html`
       <header>
         <h1>Gain<span>wright</span></h1>
-        <input class="title-input" aria-label="Design title" .value=${this._design.title}
-          @change=${(e: Event) => this._apply(setPath(this._design, 'title', (e.target as HTMLInputElement).value), 'title')} />
+        <input class="title-input" aria-label="Design title" .value=${live(this._design.title)}
+          @change=${(e: Event) => { const t = (e.target as HTMLInputElement).value; this._enqueue(() => this._apply(setPath(this._design, 'title', t), 'title')); }} />
         <select aria-label="Load a demo" @change=${this._loadDemo}>
           <option value="">Load a demo…</option>
           ${DEMOS.map((x) => html`<option value=${x.id}>${x.label}</option>`)}
+        </select>
+        <select aria-label="Recent designs" @change=${this._loadRecent} ?disabled=${!this._persist.history.length}>
+          <option value="">Recent designs…</option>
+          ${this._persist.history.map((h, i) => html`<option value=${i}>${h.design.title} (${h.why}${h.savedAt ? `, ${h.savedAt.slice(0, 16).replace('T', ' ')}` : ''})</option>`)}
         </select>
         <button @click=${() => this._file.click()}>Open…</button>
         <input id="open-file" type="file" accept=".json,application/json" hidden @change=${this._open} />
@@ -340,9 +452,7 @@ export class GwApp extends LitElement {
         <button @click=${() => window.print()}>Print build sheet</button>
       </header>
       <div class="safety-banner" role="note"><strong>Safety:</strong> ${this._cautions().join(' ')}</div>
-      ${this._notice ? html`<div class="notice ${this._notice.bad ? 'bad' : ''}" role="status">${this._notice.text}
-        ${this._damaged ? html` <button @click=${() => this._download(this._damaged!, 'damaged-autosave.txt', 'text/plain')}>Download the damaged text</button>` : nothing}
-        <button aria-label="Dismiss" @click=${() => { this._notice = null; }}>×</button></div>` : nothing}
+      ${this._notices()}
       ${this._shareUrl ? html`<div class="notice no-print"><label>Share link <input class="share" readonly .value=${this._shareUrl} @focus=${(e: Event) => (e.target as HTMLInputElement).select()} /></label></div>` : nothing}
       <main>
         <section class="area-verdict" aria-label="Verdict">

@@ -1,12 +1,15 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import type { Design } from '../src/index.js';
+import { live } from 'lit/directives/live.js';
+import type { Design, SensorType } from '../src/index.js';
 import { displayValue, fieldsFor, getPath, SENSOR_TYPES, type FieldDef, type Section } from '../src/index.js';
 import { OPAMP_ARCHETYPES } from '../src/index.js';
 import { base } from './styles.js';
 import './gw-field.js';
 
 export interface SetDetail { path: string; value: unknown }
+export interface SensorTypeDetail { type: SensorType }
+export interface ArchetypeDetail { id: string }
 
 const SECTIONS: Array<[Section, string]> = [
   ['sensor', '1 · Sensor'],
@@ -51,14 +54,14 @@ export class GwEditor extends LitElement {
     const value = getPath(this.design, path);
     if (f.kind === 'select') {
       return html`<label class="row"><span>${f.label}</span>
-        <select data-path=${path} @change=${(e: Event) => this._set(path, f.options![Number((e.target as HTMLSelectElement).value)]![0])}>
+        <select data-path=${path} .value=${live(String(Math.max(0, f.options!.findIndex(([v]) => JSON.stringify(v) === JSON.stringify(value)))))} @change=${(e: Event) => this._set(path, f.options![Number((e.target as HTMLSelectElement).value)]![0])}>
           ${f.options!.map(([v, l], i) => html`<option value=${i} ?selected=${JSON.stringify(value) === JSON.stringify(v)}>${l}</option>`)}
         </select></label>`;
     }
     if (f.kind === 'bool') {
       const on = f.group ? value !== null && value !== undefined : value === true;
       return html`<label class="row"><span>${f.label}</span>
-        <input type="checkbox" data-path=${path} .checked=${on} @change=${(e: Event) => this._set(path, (e.target as HTMLInputElement).checked)} /></label>`;
+        <input type="checkbox" data-path=${path} .checked=${live(on)} @change=${(e: Event) => this._set(path, (e.target as HTMLInputElement).checked)} /></label>`;
     }
     if (f.kind === 'text') {
       return html`<gw-field path=${path} label=${f.label} .value=${String(value ?? '')} .message=${this.messages[path] ?? ''}></gw-field>`;
@@ -75,11 +78,11 @@ export class GwEditor extends LitElement {
       <fieldset>
         <legend>${title}</legend>
         ${section === 'sensor' ? html`<label class="row"><span>Sensor model</span>
-          <select data-path="sensor.type" @change=${(e: Event) => this.dispatchEvent(new CustomEvent('gw-sensor-type', { detail: { type: (e.target as HTMLSelectElement).value }, bubbles: true, composed: true }))}>
+          <select data-path="sensor.type" .value=${live(this.design.sensor.type)} @change=${(e: Event) => this.dispatchEvent(new CustomEvent<SensorTypeDetail>('gw-sensor-type', { detail: { type: (e.target as HTMLSelectElement).value as SensorType }, bubbles: true, composed: true }))}>
             ${SENSOR_TYPES.map(([t, l]) => html`<option value=${t} ?selected=${this.design.sensor.type === t}>${l}</option>`)}
           </select></label>` : nothing}
         ${section === 'amplifier' ? html`<label class="row"><span>Start from an archetype</span>
-          <select data-path="opamp.archetype" @change=${(e: Event) => this.dispatchEvent(new CustomEvent('gw-opamp-archetype', { detail: { id: (e.target as HTMLSelectElement).value }, bubbles: true, composed: true }))}>
+          <select data-path="opamp.archetype" .value=${live(archetype?.id ?? '')} @change=${(e: Event) => this.dispatchEvent(new CustomEvent<ArchetypeDetail>('gw-opamp-archetype', { detail: { id: (e.target as HTMLSelectElement).value }, bubbles: true, composed: true }))}>
             <option value="" ?selected=${!archetype}>— figures as entered —</option>
             ${OPAMP_ARCHETYPES.map((a) => html`<option value=${a.id} ?selected=${archetype?.id === a.id}>${a.label}</option>`)}
           </select></label>
@@ -91,4 +94,9 @@ export class GwEditor extends LitElement {
 
 declare global {
   interface HTMLElementTagNameMap { 'gw-editor': GwEditor; }
+  interface HTMLElementEventMap {
+    'gw-set': CustomEvent<SetDetail>;
+    'gw-sensor-type': CustomEvent<SensorTypeDetail>;
+    'gw-opamp-archetype': CustomEvent<ArchetypeDetail>;
+  }
 }

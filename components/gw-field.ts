@@ -39,8 +39,9 @@ export class GwField extends LitElement {
   @property() hint = '';
 
   override willUpdate(changed: Map<string, unknown>): void {
-    // A new good value from the app replaces the draft; a message keeps what was typed on screen.
-    if (changed.has('value') && !this.message) this._draft = null;
+    // A message keeps what was typed on screen, marked invalid; once there is no message, the field shows
+    // the value in force again (a new good value, or the refusal withdrawn), never a typed text not in force.
+    if ((changed.has('value') || changed.has('message')) && !this.message) this._draft = null;
   }
 
   private _commit(e: Event): void {
@@ -68,4 +69,5 @@ export class GwField extends LitElement {
 
 declare global {
   interface HTMLElementTagNameMap { 'gw-field': GwField; }
+  interface HTMLElementEventMap { 'gw-field-input': CustomEvent<FieldInputDetail>; }
 }

@@ -236,7 +236,8 @@ function crossing(sc: StageCircuit, level: number, f1: number, f2: number, ws: R
 
 /**
  * Small-signal bandwidth of the whole chain, rise time 0.35/BW (single-pole step, ln 9/2π; common practice)
- * and the slew-limited full-power bandwidth SR/(2π·Vp) (NPTEL 117107094, lecture 7).
+ * and the full-power bandwidth min(SR/(2π·Vp), BW) (the slew limit SR/(2π·Vp) is the textbook full-power
+ * bandwidth, e.g. Sedra & Smith, Microelectronic Circuits, on slew rate; from memory).
  */
 export function speed(design: Design, sc: StageCircuit, front: SensorFront, dc: DcPoint): Speed {
   const ws = workspace(sc.circuit);
@@ -272,7 +273,9 @@ export function speed(design: Design, sc: StageCircuit, front: SensorFront, dc: 
   const peakSwing = Math.max(Math.abs(dc.pin[1] * a), Math.abs(dc.pin[1] * b));
   return {
     passband, lowCorner, smallSignal: bw, phaseAtCorner: phase, riseTime: Math.log(9) / (2 * Math.PI * bw),
-    fullPower: peakSwing > 0 ? design.opamp.slewRate / (2 * Math.PI * peakSwing) : Infinity, peakSwing,
+    // A full-scale sine is limited by the slew rate and, like any signal, by the small-signal bandwidth: the
+    // full-power bandwidth is the lower of the two (a slow op-amp never reaches its slew limit).
+    fullPower: Math.min(peakSwing > 0 ? design.opamp.slewRate / (2 * Math.PI * peakSwing) : Infinity, bw), peakSwing,
   };
 }
 

@@ -76,6 +76,15 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
     design, front, choice, stage: null, circuit: null, dc: null, clip: null, transfer: null, response: null, speed: null, noise: null,
     errors: null, supply: null, battery: [], batteryClip: null, spread: null, drive: null, calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
   };
+  // The gain the target asks of the stage: a ratio that is not a finite, non-zero number cannot be built.
+  const needed = design.target.scale / front.sensitivity;
+  if (!Number.isFinite(needed) || needed === 0 || !Number.isFinite(front.sensitivity)) {
+    warnings.push({ code: 'gain-not-computable', level: 'fail', message: 'The gain cannot be computed, because the wanted scale divided by the sensor\'s sensitivity is beyond any number: check both for a slipped prefix or exponent.' });
+    absent.all = 'the gain cannot be computed from the wanted scale and the sensor\'s sensitivity';
+    const r = { ...empty, choice: { ...choice, chosen: null, why: 'no stage: the gain cannot be computed', considered: [], guidance: [] } };
+    r.verdicts = verdictsOf(r);
+    return r;
+  }
   if (!choice.chosen) {
     warnings.push({ code: 'no-topology', level: 'fail', message: `No stage fits: ${choice.why}.` });
     for (const g of choice.guidance) warnings.push({ code: 'guidance', level: 'info', message: g });
@@ -101,22 +110,25 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
     r.verdicts = verdictsOf(r);
     return r;
   }
-  const clip = clipping(design, front, dc);
-  const transfer = transferCurve(dc, clip);
-  const sp = speed(design, circuit, front, dc);
+  // Every figure is checked before it is reported: one that did not come out as a finite number is left out,
+  // with the reason, instead of reaching a page as NaN or Infinity (the last guard behind the file's bounds).
+  const clip = finiteOr(clipping(design, front, dc), 'clip', 'the clipping points', absent, ['limits']);
+  const transfer = clip ? finiteOr(transferCurve(dc, clip), 'transfer', 'the transfer curve', absent) : null;
+  const sp = finiteOr(plausibleSpeed(speed(design, circuit, front, dc), dc, front, absent), 'speed', 'the bandwidth', absent);
   // One sweep gives the noise and, over the default band, the frequency response from the same solves.
-  const nz = noise(design, circuit, sp, opts.acPoints ? Math.max(opts.acPoints | 1, 21) : 201);
-  const response = design.analysis.noiseBand === null
-    ? responseFromSpectrum(nz.spectrum)
-    : frequencyResponse(circuit, defaultBand(sp)[0], defaultBand(sp)[1], opts.acPoints ?? 200);
-  const errors = errorBudget(design, stage, front, circuit, dc);
-  const sup = supply(design, front, circuit, dc);
-  const battery = batterySweep(design, stage, front, dc.out[0]);
-  const bClip = design.supply.battery ? batteryClip(design, stage, front, dc.out[0], battery, sup) : null;
+  const nz = sp ? finiteOr(noise(design, circuit, sp, opts.acPoints ? Math.max(opts.acPoints | 1, 21) : 201), 'noise', 'the noise', absent) : null;
+  if (!sp) absent.noise = 'the noise cannot be computed, because the bandwidth it is integrated over cannot';
+  const response = !sp ? null : design.analysis.noiseBand === null
+    ? (nz ? finiteOr(responseFromSpectrum(nz.spectrum), 'response', 'the frequency response', absent) : null)
+    : finiteOr(frequencyResponse(circuit, defaultBand(sp)[0], defaultBand(sp)[1], opts.acPoints ?? 200), 'response', 'the frequency response', absent);
+  const errors = finiteOr(errorBudget(design, stage, front, circuit, dc), 'errors', 'the error budget', absent);
+  const sup = finiteOr(supply(design, front, circuit, dc), 'supply', 'the supply current', absent);
+  const battery = finiteOr(batterySweep(design, stage, front, dc.out[0]), 'battery', 'the battery sweep', absent) ?? [];
+  const bClip = design.supply.battery && sup ? finiteOr(batteryClip(design, stage, front, dc.out[0], battery, sup), 'batteryClip', 'the battery life to the first clip', absent) : null;
   const trials = opts.spreadTrials ?? design.analysis.spreadTrials;
-  const spr = trials > 0 ? spread(design, front, circuit, dc, trials) : null;
-  if (!spr) absent.spread = 'the tolerance spread was not run';
-  const drive = instrumentDrive(design, stage, front, sp.smallSignal);
+  const spr = trials > 0 ? finiteOr(spread(design, front, circuit, dc, trials), 'spread', 'the tolerance spread', absent) : null;
+  if (!spr && !absent.spread) absent.spread = 'the tolerance spread was not run';
+  const drive = sp ? finiteOr(instrumentDrive(design, stage, front, sp.smallSignal), 'drive', 'the instrument drive', absent) : null;
   const report: Report = {
     design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, batteryClip: bClip, spread: spr, drive,
     calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
@@ -129,6 +141,59 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
   return report;
 }
 
+/**
+ * The first number in a figure that is not finite, as a path (`.smallSignal`, `.x[3]`), or null. `skip` names
+ * keys whose infinities mean "no limit" on purpose (a clip limit that never binds).
+ */
+export function firstNonFinite(x: unknown, skip: readonly string[] = [], path = ''): string | null {
+  if (typeof x === 'number') return Number.isFinite(x) ? null : path || '(value)';
+  if (ArrayBuffer.isView(x) && !(x instanceof DataView)) {
+    const a = x as unknown as ArrayLike<number>;
+    for (let i = 0; i < a.length; i++) if (!Number.isFinite(a[i]!)) return `${path}[${i}]`;
+    return null;
+  }
+  if (Array.isArray(x)) {
+    for (let i = 0; i < x.length; i++) { const p = firstNonFinite(x[i], skip, `${path}[${i}]`); if (p) return p; }
+    return null;
+  }
+  if (x && typeof x === 'object') {
+    for (const [k, v] of Object.entries(x)) {
+      if (skip.includes(k)) continue;
+      const p = firstNonFinite(v, skip, `${path}.${k}`);
+      if (p) return p;
+    }
+  }
+  return null;
+}
+
+/** The figure when every number in it is finite; otherwise null, with "cannot be computed, because …" in `absent`. */
+function finiteOr<T>(figure: T, key: string, what: string, absent: Record<string, string>, skip: readonly string[] = []): T | null {
+  const at = firstNonFinite(figure, skip);
+  if (at === null) return figure;
+  absent[key] = `${what} cannot be computed, because a value it depends on came out ${Number.isNaN(pick(figure, at)) ? 'undefined' : 'infinite'} (${key}${at}): the design's figures are beyond what the arithmetic can hold; check them for a slipped prefix or exponent`;
+  return null;
+}
+
+/**
+ * A bandwidth search starts at 1 mHz: a chain that already reads less than half its DC scale there has its
+ * corner below the search (or passes nothing), and the corner found would be the search's floor, not the
+ * chain's. Such a speed is left out with the reason.
+ */
+function plausibleSpeed(sp: Speed, dc: DcPoint, front: SensorFront, absent: Record<string, string>): Speed | null {
+  if (!(sp.passband > 0) || (front.passesDc && sp.passband < 0.5 * Math.abs(dc.out[1]))) {
+    absent.speed = 'the bandwidth cannot be computed, because the chain already reads less than half its DC scale at 1 mHz, the lowest frequency searched: check the op-amp\'s GBW and the sensor\'s bandwidth';
+    return null;
+  }
+  return sp;
+}
+
+/** The number at a path written by firstNonFinite (for the wording of the reason only). */
+function pick(x: unknown, path: string): number {
+  let o: unknown = x;
+  for (const m of path.matchAll(/\.([^.[\]]+)|\[(\d+)\]/g)) o = (o as Record<string, unknown>)?.[m[1] ?? m[2]!];
+  return typeof o === 'number' ? o : NaN;
+}
+
 const f3 = (x: number, unit = '') => formatEng(x, unit, 3);
 
 /** Findings in plain words from the figures. */
@@ -136,7 +201,8 @@ function findings(r: Report): Warning[] {
   const w: Warning[] = [];
   const d = r.design;
   const m = d.sensor.measurand;
-  const clip = r.clip!, sp = r.speed!;
+  const clip = r.clip, sp = r.speed;
+  if (!clip) return w;
   const [a, b] = clip.rangePeak;
   if (d.target.signal === 'ac-rms') w.push({ code: 'ac-peak', level: 'info', message: `The range is rms: headroom is checked at the sine peak, ±${f3(Math.max(Math.abs(a), Math.abs(b)), m)} (√2 × rms).` });
   if (!clip.linear) {
@@ -151,10 +217,10 @@ function findings(r: Report): Warning[] {
     if (clip.measurandLow > a) w.push({ code: 'clips-in-range-low', level: 'fail', message: `The output saturates at ${f3(clip.measurandLow, m)}, inside the wanted range (${f3(a, m)}): ${why(clip, clip.firstLow)}.${fix(clip.firstLow)}` });
     if (clip.measurandHigh < b) w.push({ code: 'clips-in-range-high', level: 'fail', message: `The output saturates at ${f3(clip.measurandHigh, m)}, inside the wanted range (${f3(b, m)}): ${why(clip, clip.firstHigh)}.${fix(clip.firstHigh)}` });
   }
-  if (d.target.bandwidth > 0 && sp.smallSignal < d.target.bandwidth) {
+  if (sp && d.target.bandwidth > 0 && sp.smallSignal < d.target.bandwidth) {
     w.push({ code: 'bandwidth-short', level: 'fail', message: `The chain's bandwidth is ${f3(sp.smallSignal, 'Hz')}, below the ${f3(d.target.bandwidth, 'Hz')} wanted.` });
   }
-  if (d.target.bandwidth > 0 && sp.fullPower < d.target.bandwidth) {
+  if (sp && d.target.bandwidth > 0 && sp.fullPower < d.target.bandwidth) {
     w.push({ code: 'slew-limited', level: 'caution', message: `Full-scale signals are slew-limited above ${f3(sp.fullPower, 'Hz')} (SR/(2π·Vpeak)); the wanted range and ${f3(d.target.bandwidth, 'Hz')} cannot both be had.` });
   }
   // An AC-coupled sensor at mains frequency (50 Hz, the lower of the two in use; common practice): how far
@@ -181,8 +247,8 @@ function findings(r: Report): Warning[] {
       w.push({ code: 'sensor-load', level: 'info', message: `The input network draws up to ${f3(draw, 'A')} from the sensor's output${r.front.outputDrive > 0 ? ` (it can drive ${f3(r.front.outputDrive, 'A')})` : '; check that the sensor can drive it'}.` });
     }
   }
-  if ((d.opamp.voltageNoise > 0 && !d.opamp.voltageNoiseCorner) || (d.opamp.currentNoise > 0 && !d.opamp.currentNoiseCorner)) {
-    w.push({ code: 'flicker-not-given', level: 'info', message: `The op-amp's 1/f noise corner${!d.opamp.voltageNoiseCorner && !d.opamp.currentNoiseCorner ? 's are' : ' is'} not given (0 Hz): its noise is taken as white down to ${f3(r.noise!.lowFrequency.band[0], 'Hz')}, right for a chopper, optimistic for most other kinds. Give opamp.voltageNoiseCorner and opamp.currentNoiseCorner from the datasheet's noise curve.` });
+  if (r.noise && ((d.opamp.voltageNoise > 0 && !d.opamp.voltageNoiseCorner) || (d.opamp.currentNoise > 0 && !d.opamp.currentNoiseCorner))) {
+    w.push({ code: 'flicker-not-given', level: 'info', message: `The op-amp's 1/f noise corner${!d.opamp.voltageNoiseCorner && !d.opamp.currentNoiseCorner ? 's are' : ' is'} not given (0 Hz): its noise is taken as white down to ${f3(r.noise.lowFrequency.band[0], 'Hz')}, right for a chopper, optimistic for most other kinds. Give opamp.voltageNoiseCorner and opamp.currentNoiseCorner from the datasheet's noise curve.` });
   }
   const advice = r.drive ? probeAdvice(r.drive, m, d.target.signal === 'ac-rms') : null;
   if (advice) w.push({ code: 'probe-ratio', level: 'info', message: advice });
@@ -257,10 +323,12 @@ export function verdictsOf(r: Report): Verdict[] {
   const v: Verdict[] = [];
   const d = r.design;
   const m = d.sensor.measurand;
-  if (!r.clip || !r.speed || !r.noise || !r.stage) {
-    v.push({ level: 'fail', title: 'No design', detail: r.warnings.filter((w) => w.level === 'fail').map((w) => w.message).join(' ') || (r.absent.all ?? 'not computed') });
+  if (!r.clip || !r.stage || !r.dc) {
+    v.push({ level: 'fail', title: 'No design', detail: r.warnings.filter((w) => w.level === 'fail').map((w) => w.message).join(' ') || (r.absent.all ?? r.absent.clip ?? 'not computed') });
     return v;
   }
+  // A figure that could not be computed is said so, with the reason, in place of its verdict.
+  const missing = (key: string, title: string) => v.push({ level: 'caution', title, detail: `${r.absent[key] ?? 'It cannot be computed.'}` });
   const c = r.clip;
   const [a, b] = c.rangePeak;
   const inRange = c.linear && c.measurandLow <= a && c.measurandHigh >= b;
@@ -274,26 +342,32 @@ export function verdictsOf(r: Report): Verdict[] {
   v.push({ level: inputOk ? 'pass' : 'fail', title: inputOk ? 'Op-amp inputs stay in their range' : 'Op-amp input range is violated', detail: inputLimit.why + (inputOk ? '.' : `: leaves it at ${f3(Math.max(inputLimit.low, a), m)} / ${f3(Math.min(inputLimit.high, b), m)}.`) });
   const se = r.stage.scaleError;
   v.push({ level: Math.abs(se) < d.target.tolerance ? 'pass' : 'caution', title: `Scale ${f3(r.dc!.out[1], `V/${m}`)} before trim`, detail: `${(se * 100).toFixed(3)} % from the target with the trimmers at mid; zero ${f3(r.dc!.out[0], 'V')}.` });
-  const bwOk = !(d.target.bandwidth > 0) || r.speed.smallSignal >= d.target.bandwidth;
-  const bwShort = bwOk ? '' : `${r.warnings.find((w) => w.code === 'bandwidth-short')?.message ?? ''} `;
-  v.push({ level: bwOk ? 'pass' : 'fail', title: `Bandwidth ${f3(r.speed.smallSignal, 'Hz')}`, detail: `${bwShort}Rise time ${f3(r.speed.riseTime, 's')}; full-power bandwidth ${f3(r.speed.fullPower, 'Hz')}.` });
+  if (r.speed) {
+    const bwOk = !(d.target.bandwidth > 0) || r.speed.smallSignal >= d.target.bandwidth;
+    const bwShort = bwOk ? '' : `${r.warnings.find((w) => w.code === 'bandwidth-short')?.message ?? ''} `;
+    v.push({ level: bwOk ? 'pass' : 'fail', title: `Bandwidth ${f3(r.speed.smallSignal, 'Hz')}`, detail: `${bwShort}Rise time ${f3(r.speed.riseTime, 's')}; full-power bandwidth ${f3(r.speed.fullPower, 'Hz')}.` });
+  } else missing('speed', 'Bandwidth cannot be computed');
   // Our own thresholds, against the range end: noise peak-to-peak within 1 % passes, within 5 % is a
   // caution; DC error after calibration within 1 % passes, within 3 % is a caution.
   const end = Math.max(Math.abs(a), Math.abs(b)) || 1;
-  const pp = r.noise.peakToPeak / (Math.abs(r.speed.passband) || 1);
-  const lf = r.noise.lowFrequency;
-  const ppWorst = Math.max(pp, lf.referredPeakToPeak);
-  const bandWhy = r.noise.bandIsDefault
-    ? ` (the default band: from 1 Hz, below which noise counts as drift, to 100 × the −3 dB bandwidth, which holds ${(DEFAULT_BAND_SHARE * 100).toFixed(1)} % of a single pole's noise bandwidth)`
-    : ' (the design\'s own band)';
-  v.push({
-    level: ppWorst <= 0.01 * end ? 'pass' : ppWorst <= 0.05 * end ? 'caution' : 'fail', title: `Noise ${f3(r.noise.referredRms, `${m} rms`)}`,
-    detail: `${f3(r.noise.rms, 'V rms')} at the output over ${f3(r.noise.band[0], 'Hz')}…${f3(r.noise.band[1], 'Hz')}${bandWhy}, about ${f3(r.noise.peakToPeak, 'V')} (${f3(pp, m)}) peak-to-peak, ${((pp / end) * 100).toFixed(2)} % of the range end. From ${f3(lf.band[0], 'Hz')} to ${f3(lf.band[1], 'Hz')}, how far a ${r.front.passesDc ? 'DC' : 'slow'} reading wanders: ${f3(lf.peakToPeak, 'V')} (${f3(lf.referredPeakToPeak, m)}) peak-to-peak.`,
-  });
+  if (r.noise && r.speed) {
+    const pp = r.noise.peakToPeak / (Math.abs(r.speed.passband) || 1);
+    const lf = r.noise.lowFrequency;
+    const ppWorst = Math.max(pp, lf.referredPeakToPeak);
+    const bandWhy = r.noise.bandIsDefault
+      ? ` (the default band: from 1 Hz, below which noise counts as drift, to 100 × the −3 dB bandwidth, which holds ${(DEFAULT_BAND_SHARE * 100).toFixed(1)} % of a single pole's noise bandwidth)`
+      : ' (the design\'s own band)';
+    v.push({
+      level: ppWorst <= 0.01 * end ? 'pass' : ppWorst <= 0.05 * end ? 'caution' : 'fail', title: `Noise ${f3(r.noise.referredRms, `${m} rms`)}`,
+      detail: `${f3(r.noise.rms, 'V rms')} at the output over ${f3(r.noise.band[0], 'Hz')}…${f3(r.noise.band[1], 'Hz')}${bandWhy}, about ${f3(r.noise.peakToPeak, 'V')} (${f3(pp, m)}) peak-to-peak, ${((pp / end) * 100).toFixed(2)} % of the range end. From ${f3(lf.band[0], 'Hz')} to ${f3(lf.band[1], 'Hz')}, how far a ${r.front.passesDc ? 'DC' : 'slow'} reading wanders: ${f3(lf.peakToPeak, 'V')} (${f3(lf.referredPeakToPeak, m)}) peak-to-peak.`,
+    });
+  } else missing('noise', 'Noise cannot be computed');
+  if (!r.errors) missing('errors', 'Error budget cannot be computed');
   if (r.errors) {
     const e = r.errors.afterTrim / end;
     v.push({ level: e <= 0.01 ? 'pass' : e <= 0.03 ? 'caution' : 'fail', title: `Error ±${f3(r.errors.afterTrim, m)} after calibration`, detail: `${(e * 100).toFixed(2)} % of the range end, worst case (RSS ±${f3(r.errors.afterTrimRss, m)}), mostly ${r.errors.terms.filter((t) => t.removedBy === 'none').sort((x, y) => y.value - x.value)[0]?.name ?? 'nothing'}; before trimming ±${f3(r.errors.worstCase, m)} (RSS ±${f3(r.errors.rss, m)}) at ${f3(r.errors.at, m)}.` });
   }
+  if (!r.supply) missing('supply', 'Supply current cannot be computed');
   if (r.supply) {
     const life = r.supply.batteryLife;
     const bc = r.batteryClip;

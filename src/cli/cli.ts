@@ -7,12 +7,14 @@
  *   gainwright fit READINGS.csv [--json]         fit a sensor from bench readings
  *   gainwright trim DESIGN READINGS.csv [--json] trim a built probe from its readings
  *
- * Exit codes: 0 done, 1 the design was solved but fails a check (with --strict), 2 bad input.
+ * Exit codes: 0 done, 1 the design was solved but fails a check (with --strict), 2 bad input, 3 a fault of
+ * Gainwright's own (one line, never a stack trace). Every message is one line.
  */
-import { readFileSync, readdirSync, statSync } from 'node:fs';
+import { closeSync, constants, fstatSync, openSync, readSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import '../model/units-mathjs.js';
-import { formatProblems, MAX_DESIGN_BYTES, parseDesignText } from '../model/design.js';
+import { decodeDesignBytes, formatProblems, MAX_DESIGN_BYTES, parseDesignText } from '../model/design.js';
+import { quoteText } from '../model/validate.js';
 import { analyse, reportJson } from '../analysis/report.js';
 import { textReport } from '../present/text-report.js';
 import { spiceNetlist } from '../present/spice.js';
@@ -27,7 +29,23 @@ export interface Io {
   err: (s: string) => void;
 }
 
-const nodeIo: Io = { out: (s) => process.stdout.write(s), err: (s) => process.stderr.write(s) };
+const nodeIo: Io = { out: (s) => { process.stdout.write(s); }, err: (s) => { process.stderr.write(s); } };
+
+/**
+ * A reader that stops reading (`report DIR --json | head -1`) closes the pipe: the rest of the output has
+ * nowhere to go, which is not an error worth a word, and certainly not a stack trace.
+ */
+function quietOnClosedPipe(): void {
+  const onError = (e: NodeJS.ErrnoException) => {
+    if (e.code === 'EPIPE' || e.code === 'ERR_STREAM_DESTROYED') { process.stdout.destroy(); return; }
+    process.stderr.write(`gainwright: cannot write the output (${e.code ?? 'error'})\n`);
+    process.exit(2);
+  };
+  if (!process.stdout.listeners('error').length) process.stdout.on('error', onError);
+}
+
+/** A path or name as it appears in a message: as it is when plain, quoted with escapes otherwise. */
+const shown = (path: string) => (/^[\w./\\:~+-]+$/.test(path) ? path : quoteText(path, 200));
 
 const USAGE = `usage:
   gainwright report FILE [--json] [--spice] [--no-spread]
@@ -39,26 +57,52 @@ const USAGE = `usage:
                                          (--at: where the trimmers sat while reading, if turned)
 `;
 
+const tooLarge = (limit: number, what: string) => `is larger than ${limit >= 1e6 ? `${limit / 1e6} MB` : `${limit / 1e3} kB`}; ${what}`;
+
+/**
+ * Reads a design (or readings) file: only a regular file, and at most the limit plus one byte whatever its stated size
+ * (a device or a FIFO states 0). Opened without blocking, so that a FIFO named like a design cannot hang
+ * the run; decoded as UTF-8 or UTF-16 the way the app decodes a file.
+ */
 function readDesign(path: string, limit = MAX_DESIGN_BYTES, what = 'a design file is a few kB'): { ok: true; text: string } | { ok: false; message: string } {
+  let fd = -1;
   try {
-    const st = statSync(path);
-    if (st.size > limit) return { ok: false, message: `${path}: is larger than ${limit >= 1e6 ? `${limit / 1e6} MB` : `${limit / 1e3} kB`}; ${what}` };
-    return { ok: true, text: readFileSync(path, 'utf8') };
+    const first = statSync(path);
+    if (!first.isFile()) return { ok: false, message: first.isDirectory() ? 'is a folder' : 'is not a regular file' };
+    fd = openSync(path, constants.O_RDONLY | (constants.O_NONBLOCK ?? 0));
+    const st = fstatSync(fd);
+    if (!st.isFile()) return { ok: false, message: 'is not a regular file' };
+    if (st.size > limit) return { ok: false, message: tooLarge(limit, what) };
+    const buf = Buffer.alloc(limit + 1);
+    let n = 0;
+    for (let got = 1; got > 0 && n < buf.length; n += got) got = readSync(fd, buf, n, buf.length - n, null);
+    if (n > limit) return { ok: false, message: tooLarge(limit, what) };
+    const text = decodeDesignBytes(buf.subarray(0, n));
+    if (!text.ok) return { ok: false, message: text.problems[0]!.message };
+    return { ok: true, text: text.text };
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
-    return { ok: false, message: `${path}: ${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder' : `cannot be read (${code ?? 'error'})`}` };
+    return { ok: false, message: code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder' : `cannot be read (${code ?? 'error'})` };
+  } finally {
+    if (fd >= 0) closeSync(fd);
   }
 }
 
+/** A problem list as lines, each one line whatever the text in it. */
+const problemLines = (problems: Array<{ path: string; message: string }>) => formatProblems(problems).split('\n').map((l) => l.replace(/[\u0000-\u001f\u007f-\u009f]/g, ' '));
+
 export async function main(argv: string[], io: Io = nodeIo): Promise<number> {
+  if (io === nodeIo) quietOnClosedPipe();
   try {
     return run(argv, io);
   } catch (e) {
     // A bug must still not print a stack trace at a user.
-    io.err(`gainwright: internal error: ${(e as Error).message}\n`);
+    io.err(`gainwright: internal error: ${oneLine(e)}\n`);
     return 3;
   }
 }
+
+const oneLine = (e: unknown) => String(e instanceof Error ? e.message : e).replace(/\s+/g, ' ').slice(0, 300);
 
 function run(argv: string[], io: Io): number {
   const [cmd, ...rest] = argv;
@@ -68,17 +112,17 @@ function run(argv: string[], io: Io): number {
   // `--at=RV1=0.47,RV2=0.55`: where the trimmers sat while the probe readings were taken (gainwright trim).
   const atFlag = [...flags].find((fl) => fl.startsWith('--at='));
   if (atFlag) flags.delete(atFlag);
-  for (const fl of flags) if (!known.has(fl)) { io.err(`gainwright: unknown option ${fl}\n${USAGE}`); return 2; }
+  for (const fl of flags) if (!known.has(fl)) { io.err(`gainwright: unknown option ${shown(fl)}\n${USAGE}`); return 2; }
   if (!cmd || cmd === '--help' || cmd === 'help') { io.out(USAGE); return cmd ? 0 : 2; }
   if (cmd === 'new') {
     const demo = DEMOS.find((d) => d.id === (args[0] ?? DEMOS[0]!.id));
-    if (!demo) { io.err(`gainwright: no demo called "${args[0]}"; choose one of ${DEMOS.map((d) => d.id).join(', ')}\n`); return 2; }
+    if (!demo) { io.err(`gainwright: no demo called ${quoteText(args[0] ?? '')}; choose one of ${DEMOS.map((d) => d.id).join(', ')}\n`); return 2; }
     io.out(JSON.stringify(demo.document, null, 2) + '\n');
     return 0;
   }
   if (cmd === 'fit') return fitCommand(args, flags.has('--json'), io);
   if (cmd === 'trim') return trimCommand(args, flags.has('--json'), io, atFlag?.slice('--at='.length) ?? null);
-  if (cmd !== 'report') { io.err(`gainwright: unknown command "${cmd}"\n${USAGE}`); return 2; }
+  if (cmd !== 'report') { io.err(`gainwright: unknown command ${quoteText(cmd)}\n${USAGE}`); return 2; }
   if (args.length !== 1) { io.err(`gainwright: report takes one design file or folder\n${USAGE}`); return 2; }
   const path = args[0]!;
   let isDir = false;
@@ -87,27 +131,33 @@ function run(argv: string[], io: Io): number {
   if (isDir) {
     if (!flags.has('--json')) { io.err('gainwright: a folder is reported with --json (one line per design)\n'); return 2; }
     let files: string[];
-    try { files = readdirSync(path).filter((f) => f.endsWith('.json')).sort(); } catch { io.err(`gainwright: ${path}: cannot be listed\n`); return 2; }
-    let bad = 0;
+    try { files = readdirSync(path).filter((f) => f.endsWith('.json')).sort(); } catch { io.err(`gainwright: ${shown(path)}: cannot be listed\n`); return 2; }
+    let bad = 0, broken = 0;
     for (const f of files) {
       const p = join(path, f);
       const read = readDesign(p);
       if (!read.ok) { io.out(JSON.stringify({ file: f, ok: false, problems: [read.message] }) + '\n'); bad++; continue; }
       const v = parseDesignText(read.text);
       if (!v.ok) { io.out(JSON.stringify({ file: f, ok: false, problems: v.problems.map((q) => `${q.path}: ${q.message}`) }) + '\n'); bad++; continue; }
-      const r = analyse(v.design, { spreadTrials: spreadTrials ?? 0, acPoints: 50 });
-      io.out(JSON.stringify({ file: f, ok: true, ...reportJson(r) }) + '\n');
+      // One design that trips a fault of ours must not cost the report of the files after it.
+      try {
+        const r = analyse(v.design, { spreadTrials: spreadTrials ?? 0, acPoints: 50 });
+        io.out(JSON.stringify({ file: f, ok: true, ...reportJson(r) }) + '\n');
+      } catch (e) {
+        io.out(JSON.stringify({ file: f, ok: false, problems: [`internal error: ${oneLine(e)}`] }) + '\n');
+        broken++;
+      }
     }
-    return bad ? 2 : 0;
+    return broken ? 3 : bad ? 2 : 0;
   }
   const read = readDesign(path);
-  if (!read.ok) { io.err(`gainwright: ${read.message}\n`); return 2; }
+  if (!read.ok) { io.err(`gainwright: ${shown(path)}: ${read.message}\n`); return 2; }
   const v = parseDesignText(read.text);
-  if (!v.ok) { io.err(`gainwright: ${path} is not a valid design:\n${formatProblems(v.problems).replace(/^/gm, '  ')}\n`); return 2; }
+  if (!v.ok) { io.err(`gainwright: ${shown(path)} is not a valid design:\n${problemLines(v.problems).map((l) => `  ${l}`).join('\n')}\n`); return 2; }
   const r = analyse(v.design, { spreadTrials });
   if (flags.has('--spice')) {
     const net = spiceNetlist(r);
-    if (!net) { io.err(`gainwright: no circuit to export: ${r.warnings.filter((w) => w.level === 'fail').map((w) => w.message).join(' ')}\n`); return 1; }
+    if (!net) { io.err(`gainwright: no circuit to export: ${oneLine(r.warnings.filter((w) => w.level === 'fail').map((w) => w.message).join(' '))}\n`); return 1; }
     io.out(net);
     return 0;
   }

@@ -8,3 +8,8 @@ export const ELEMENTARY_CHARGE = 1.602176634e-19;
 export const MU0 = 1.25663706127e-6;
 /** Seconds in an hour, for battery life. */
 export const HOUR = 3600;
+/**
+ * Headroom a low-dropout regulator needs between its input and its output to hold regulation, V
+ * (common practice for a low-dropout part).
+ */
+export const REGULATOR_DROPOUT = 0.3;

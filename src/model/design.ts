@@ -3,9 +3,10 @@
  * All numbers are SI base units (V, A, Ω, Hz, s, T, m, K, F; battery capacity in coulombs, 1 mAh = 3.6 C).
  * See docs/design-format.md for every field.
  */
-import { check, type Problem, type Spec } from './validate.js';
+import { check, quoteText, type Problem, type Spec } from './validate.js';
 import type { SeriesName } from './eseries.js';
 import { MAX_READINGS, type Reading } from './readings.js';
+import { REGULATOR_DROPOUT } from './constants.js';
 
 export const DESIGN_FORMAT = 'gainwright-design';
 export const DESIGN_VERSION = 1;
@@ -284,74 +285,84 @@ export interface Design {
 // ---------------------------------------------------------------------------------------------------------
 // Schema
 
-const V = (o: Partial<Spec & { t: 'num' }> = {}): Spec => ({ t: 'num', what: 'volts', maxAbs: 1000, ...o } as Spec);
+// Bounds: every number has a largest and a smallest meaningful size. A value beyond them is a typing slip
+// (a missing prefix, an exponent's sign) that would otherwise reach the analysis as an underflow or an
+// overflow; the limits sit orders of magnitude outside any real part (common practice), so no design of
+// real parts meets them. `minAbs` refuses tiny non-zero sizes; zero stays allowed where it means "none".
+const V = (o: Partial<Spec & { t: 'num' }> = {}): Spec => ({ t: 'num', what: 'volts', maxAbs: 1000, minAbs: 1e-9, ...o } as Spec);
 const num = (what: string, check: 'positive' | 'nonneg' | 'any' | 'fraction', o: object = {}): Spec => ({ t: 'num', what, check, ...o } as Spec);
 const opt = (s: Spec, def: unknown): Spec => ({ ...s, def } as Spec);
 
 /** One bench reading: [measurand, volts]. */
-const readingSpec: Spec = { t: 'tuple', items: [num('measurand units', 'any', { maxAbs: 1e9 }), V()] };
+const readingSpec: Spec = { t: 'tuple', items: [num('measurand units', 'any', { maxAbs: 1e9, minAbs: 1e-12 }), V()] };
 const readingsList: Spec = { t: 'list', item: readingSpec, def: [], maxItems: MAX_READINGS };
 
+/**
+ * A measurand's unit symbol: a letter, µ, Ω, ° or % first, then letters, digits, µ, Ω, °, %, ², ³, /, ^, · or
+ * a hyphen. Nothing that could start a new line, a comment or a formula in any output.
+ */
+export const UNIT_SYMBOL = /^[A-Za-zµμΩ°%][A-Za-z0-9µμΩ°%²³/^·-]*$/;
+
 const sensorCommon: Record<string, Spec> = {
-  measurand: { t: 'str', def: 'A', maxLength: 16 },
-  sourceResistance: opt(num('ohms', 'nonneg', { max: 1e9 }), 0),
-  noiseDensity: opt(num('volts per root hertz', 'nonneg', { max: 1e-3 }), 0),
-  bandwidth: opt(num('hertz', 'positive', { max: 1e10 }), 1e9),
-  sensitivityTolerance: opt(num('parts of one', 'fraction'), 0),
-  quiescentTolerance: opt(num('volts', 'nonneg', { max: 100 }), 0),
-  sensitivityDrift: opt(num('parts of one per kelvin', 'any', { maxAbs: 1 }), 0),
-  quiescentDrift: opt(num('volts per kelvin', 'any', { maxAbs: 1 }), 0),
-  supplyCurrent: opt(num('amperes', 'nonneg', { max: 10 }), 0),
-  outputDrive: opt(num('amperes', 'nonneg', { max: 10 }), 0),
+  measurand: { t: 'str', def: 'A', maxLength: 16, pattern: UNIT_SYMBOL, patternHint: 'must be a unit symbol such as A, mT, V or kPa (letters, digits, µ, Ω, °, %, / and ^ only)' },
+  sourceResistance: opt(num('ohms', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
+  noiseDensity: opt(num('volts per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-15 }), 0),
+  bandwidth: opt(num('hertz', 'positive', { min: 1e-3, max: 1e10 }), 1e9),
+  sensitivityTolerance: opt(num('parts of one', 'fraction', { minAbs: 1e-9 }), 0),
+  quiescentTolerance: opt(num('volts', 'nonneg', { max: 100, minAbs: 1e-12 }), 0),
+  sensitivityDrift: opt(num('parts of one per kelvin', 'any', { maxAbs: 1, minAbs: 1e-12 }), 0),
+  quiescentDrift: opt(num('volts per kelvin', 'any', { maxAbs: 1, minAbs: 1e-12 }), 0),
+  supplyCurrent: opt(num('amperes', 'nonneg', { max: 10, minAbs: 1e-12 }), 0),
+  outputDrive: opt(num('amperes', 'nonneg', { max: 10, minAbs: 1e-12 }), 0),
   readings: { t: 'obj', nullable: true, def: null, fields: { use: { t: 'bool', def: true }, points: readingsList } },
 };
 
 const sensorVariants: Record<string, Record<string, Spec>> = {
   'voltage-output': {
     ...sensorCommon,
-    sensitivity: num('volts per measurand unit', 'any', { maxAbs: 1e6 }),
+    sensitivity: num('volts per measurand unit', 'any', { maxAbs: 1e6, minAbs: 1e-9 }),
     quiescent: V(),
     outputMin: V({ optional: true }),
     outputMax: V({ optional: true }),
-    ratiometricSupply: { t: 'num', what: 'volts', check: 'positive', max: 1000, optional: true },
+    ratiometricSupply: { t: 'num', what: 'volts', check: 'positive', min: 0.1, max: 1000, optional: true },
     commonMode: V({ optional: true }),
   },
   'hall-gap-core': {
     ...sensorCommon,
-    hallSensitivity: num('volts per tesla', 'any', { maxAbs: 1e6 }),
+    hallSensitivity: num('volts per tesla', 'any', { maxAbs: 1e6, minAbs: 1e-6 }),
     quiescent: V(),
-    linearField: num('teslas', 'positive', { max: 100 }),
+    linearField: num('teslas', 'positive', { min: 1e-6, max: 100 }),
     outputMin: V({ optional: true }),
     outputMax: V({ optional: true }),
-    ratiometricSupply: { t: 'num', what: 'volts', check: 'positive', max: 1000, optional: true },
-    turns: num('turns', 'positive', { max: 1e6 }),
+    ratiometricSupply: { t: 'num', what: 'volts', check: 'positive', min: 0.1, max: 1000, optional: true },
+    turns: num('turns', 'positive', { min: 1, max: 1e6, whole: true }),
     core: {
       t: 'obj',
       fields: {
-        pathLength: num('metres', 'positive', { max: 100 }),
+        pathLength: num('metres', 'positive', { min: 1e-4, max: 100 }),
         permeability: num('(relative permeability)', 'positive', { min: 1, max: 1e7 }),
-        gap: num('metres', 'positive', { max: 1 }),
-        saturation: num('teslas', 'positive', { max: 100 }),
+        gap: num('metres', 'positive', { min: 1e-6, max: 1 }),
+        saturation: num('teslas', 'positive', { min: 1e-3, max: 100 }),
         fringing: opt(num('(factor)', 'positive', { min: 0.1, max: 10 }), 1),
-        width: num('metres', 'positive', { max: 10, optional: true }),
-        depth: num('metres', 'positive', { max: 10, optional: true }),
+        width: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }),
+        depth: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }),
       },
     },
   },
   'current-transformer': {
     ...sensorCommon,
-    secondaryTurns: num('turns', 'positive', { max: 1e7 }),
-    primaryTurns: opt(num('turns', 'positive', { max: 1e6 }), 1),
-    burden: num('ohms', 'positive', { max: 1e9 }),
-    burdenPower: opt(num('watts', 'positive', { max: 1e6 }), 0.25),
-    inductanceFactor: num('henries per turn squared', 'positive', { max: 1 }),
-    windingResistance: opt(num('ohms', 'nonneg', { max: 1e9 }), 0),
+    secondaryTurns: num('turns', 'positive', { min: 1, max: 1e7, whole: true }),
+    primaryTurns: opt(num('turns', 'positive', { min: 1, max: 1e6, whole: true }), 1),
+    burden: num('ohms', 'positive', { min: 1e-3, max: 1e9 }),
+    burdenPower: opt(num('watts', 'positive', { min: 1e-4, max: 1e6 }), 0.25),
+    inductanceFactor: num('henries per turn squared', 'positive', { min: 1e-12, max: 1 }),
+    windingResistance: opt(num('ohms', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
     quiescent: opt(V(), 0),
   },
   shunt: {
     ...sensorCommon,
-    resistance: num('ohms', 'positive', { max: 1e9 }),
-    powerRating: opt(num('watts', 'positive', { max: 1e6 }), 0.25),
+    resistance: num('ohms', 'positive', { min: 1e-6, max: 1e9 }),
+    powerRating: opt(num('watts', 'positive', { min: 1e-4, max: 1e6 }), 0.25),
     commonMode: V({ optional: true }),
   },
 };
@@ -360,7 +371,7 @@ const SCHEMA: Spec = {
   t: 'obj',
   fields: {
     format: { t: 'str', oneOf: [DESIGN_FORMAT] },
-    version: { t: 'num', what: '(format version)', check: 'positive' },
+    version: { t: 'num', what: '(format version)', check: 'positive', whole: true },
     title: { t: 'str', def: 'Untitled design', maxLength: 200 },
     notes: { t: 'str', def: '', maxLength: 10_000 },
     sensor: { t: 'variant', tag: 'type', variants: sensorVariants },
@@ -372,22 +383,22 @@ const SCHEMA: Spec = {
         regulated: {
           t: 'obj', nullable: true, def: null,
           fields: {
-            voltage: num('volts', 'positive', { max: 1000 }),
-            tolerance: opt(num('parts of one', 'fraction'), 0.02),
-            quiescentCurrent: opt(num('amperes', 'nonneg', { max: 10 }), 0),
-            dropout: opt(num('volts', 'nonneg', { max: 100 }), 0.3),
-            drift: opt(num('parts of one per kelvin', 'nonneg', { max: 0.01 }), 100e-6),
+            voltage: num('volts', 'positive', { min: 0.1, max: 1000 }),
+            tolerance: opt(num('parts of one', 'fraction', { minAbs: 1e-9 }), 0.02),
+            quiescentCurrent: opt(num('amperes', 'nonneg', { max: 10, minAbs: 1e-12 }), 0),
+            dropout: opt(num('volts', 'nonneg', { max: 100, minAbs: 1e-6 }), REGULATOR_DROPOUT),
+            drift: opt(num('parts of one per kelvin', 'nonneg', { max: 0.01, minAbs: 1e-12 }), 100e-6),
           },
         },
-        tolerance: opt(num('parts of one', 'fraction'), 0.01),
+        tolerance: opt(num('parts of one', 'fraction', { minAbs: 1e-9 }), 0.01),
         sensorRail: { t: 'str', oneOf: ['positive', 'regulated'], def: 'positive' },
         referenceRail: { t: 'str', oneOf: ['positive', 'regulated'], def: 'positive' },
         battery: {
           t: 'obj', nullable: true, def: null,
           fields: {
-            fresh: num('volts', 'positive', { max: 1000 }),
-            endOfLife: num('volts', 'positive', { max: 1000 }),
-            capacity: num('coulombs', 'positive', { max: 1e9 }),
+            fresh: num('volts', 'positive', { min: 0.1, max: 1000 }),
+            endOfLife: num('volts', 'positive', { min: 0.1, max: 1000 }),
+            capacity: num('coulombs', 'positive', { min: 0.36, max: 1e9 }),
           },
         },
       },
@@ -396,32 +407,32 @@ const SCHEMA: Spec = {
       t: 'obj',
       fields: {
         name: { t: 'str', def: 'custom', maxLength: 80 },
-        gbw: num('hertz', 'positive', { max: 1e11 }),
-        slewRate: num('volts per second', 'positive', { max: 1e12 }),
+        gbw: num('hertz', 'positive', { min: 1, max: 1e11 }),
+        slewRate: num('volts per second', 'positive', { min: 1, max: 1e12 }),
         openLoopGainDb: num('decibels', 'any', { min: 20, max: 200 }),
-        inputLow: num('volts', 'any', { min: -100, max: 100 }),
-        inputHigh: num('volts', 'any', { min: -100, max: 100 }),
-        outputLow: num('volts', 'nonneg', { max: 100 }),
-        outputHigh: num('volts', 'nonneg', { max: 100 }),
-        voltageNoise: num('volts per root hertz', 'nonneg', { max: 1e-3 }),
-        currentNoise: num('amperes per root hertz', 'nonneg', { max: 1e-3 }),
-        offsetVoltage: num('volts', 'nonneg', { max: 1 }),
-        biasCurrent: num('amperes', 'any', { maxAbs: 1e-2 }),
-        supplyCurrent: num('amperes', 'nonneg', { max: 10 }),
-        outputResistance: opt(num('ohms', 'nonneg', { max: 1e6 }), 50),
-        outputCurrent: opt(num('amperes', 'positive', { max: 100 }), 0.02),
-        offsetDrift: opt(num('volts per kelvin', 'nonneg', { max: 1e-2 }), 0),
+        inputLow: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
+        inputHigh: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
+        outputLow: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
+        outputHigh: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
+        voltageNoise: num('volts per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-15 }),
+        currentNoise: num('amperes per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-18 }),
+        offsetVoltage: num('volts', 'nonneg', { max: 1, minAbs: 1e-12 }),
+        biasCurrent: num('amperes', 'any', { maxAbs: 1e-2, minAbs: 1e-18 }),
+        supplyCurrent: num('amperes', 'nonneg', { max: 10, minAbs: 1e-12 }),
+        outputResistance: opt(num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6 }), 50),
+        outputCurrent: opt(num('amperes', 'positive', { min: 1e-6, max: 100 }), 0.02),
+        offsetDrift: opt(num('volts per kelvin', 'nonneg', { max: 1e-2, minAbs: 1e-15 }), 0),
         psrrDb: opt(num('decibels', 'any', { min: 20, max: 200 }), 80),
-        voltageNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9 }), 0),
-        currentNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9 }), 0),
+        voltageNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
+        currentNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
       },
     },
     target: {
       t: 'obj',
       fields: {
-        scale: num('volts per measurand unit', 'any', { maxAbs: 1e6 }),
+        scale: num('volts per measurand unit', 'any', { maxAbs: 1e6, minAbs: 1e-9 }),
         zero: V(),
-        range: { t: 'tuple', items: [num('measurand units', 'any', { maxAbs: 1e9 }), num('measurand units', 'any', { maxAbs: 1e9 })] },
+        range: { t: 'tuple', items: [num('measurand units', 'any', { maxAbs: 1e9, minAbs: 1e-12 }), num('measurand units', 'any', { maxAbs: 1e9, minAbs: 1e-12 })] },
         signal: { t: 'str', oneOf: ['dc', 'ac-rms'], def: 'dc' },
         topology: { t: 'str', oneOf: ['auto', ...TOPOLOGIES], def: 'auto' },
         series: { t: 'str', oneOf: ['E3', 'E6', 'E12', 'E24', 'E48', 'E96', 'E192'], def: 'E96' },
@@ -429,14 +440,14 @@ const SCHEMA: Spec = {
         arrangements: { t: 'list', item: { t: 'str', oneOf: ['single', 'series', 'parallel'] }, def: ['single', 'series', 'parallel'], nonEmpty: true, maxItems: 3 },
         resistanceMin: opt(num('ohms', 'positive', { min: 1, max: 1e9 }), 1e3),
         resistanceMax: opt(num('ohms', 'positive', { min: 1, max: 1e10 }), 1e6),
-        tempco: opt(num('parts of one per kelvin', 'any', { maxAbs: 0.01 }), 100e-6),
-        trimmerTempco: opt(num('parts of one per kelvin', 'any', { maxAbs: 0.01 }), 100e-6),
+        tempco: opt(num('parts of one per kelvin', 'any', { maxAbs: 0.01, minAbs: 1e-12 }), 100e-6),
+        trimmerTempco: opt(num('parts of one per kelvin', 'any', { maxAbs: 0.01, minAbs: 1e-12 }), 100e-6),
         trim: {
           t: 'obj', def: { gain: true, zero: true },
           fields: { gain: { t: 'bool', def: true }, zero: { t: 'bool', def: true } },
         },
-        bandwidth: opt(num('hertz', 'nonneg', { max: 1e10 }), 0),
-        alternative: opt(num('(index)', 'nonneg', { max: 50 }), 0),
+        bandwidth: opt(num('hertz', 'nonneg', { max: 1e10, minAbs: 1e-3 }), 0),
+        alternative: opt(num('(index)', 'nonneg', { max: 50, whole: true }), 0),
       },
     },
     output: {
@@ -445,11 +456,11 @@ const SCHEMA: Spec = {
       fields: {
         filter: {
           t: 'obj', nullable: true, def: null,
-          fields: { resistance: num('ohms', 'positive', { max: 1e9 }), capacitance: num('farads', 'nonneg', { max: 1 }) },
+          fields: { resistance: num('ohms', 'positive', { min: 1e-3, max: 1e9 }), capacitance: num('farads', 'nonneg', { max: 1, minAbs: 1e-15 }) },
         },
         load: {
           t: 'obj', def: { resistance: 1e6, capacitance: 15e-12 },
-          fields: { resistance: num('ohms', 'positive', { min: 1, max: 1e15 }), capacitance: opt(num('farads', 'nonneg', { max: 1 }), 0) },
+          fields: { resistance: num('ohms', 'positive', { min: 1, max: 1e15 }), capacitance: opt(num('farads', 'nonneg', { max: 1, minAbs: 1e-15 }), 0) },
         },
       },
     },
@@ -470,24 +481,49 @@ const SCHEMA: Spec = {
       fields: {
         noiseBand: {
           t: 'tuple', optional: true, nullable: true,
-          items: [num('hertz', 'positive', { max: 1e11 }), num('hertz', 'positive', { max: 1e11 })],
+          items: [num('hertz', 'positive', { min: 1e-3, max: 1e11 }), num('hertz', 'positive', { min: 1e-3, max: 1e11 })],
         },
-        spreadTrials: opt(num('trials', 'positive', { min: 10, max: 1e6 }), 2000),
-        spreadSeed: opt(num('(seed)', 'nonneg', { max: 2 ** 32 }), 1),
-        scaleLimit: opt(num('parts of one', 'fraction'), 0.01),
-        zeroLimit: opt(num('volts', 'positive', { max: 100 }), 0.02),
+        spreadTrials: opt(num('trials', 'positive', { min: 10, max: 1e6, whole: true }), 2000),
+        spreadSeed: opt(num('(seed)', 'nonneg', { max: 2 ** 32, whole: true }), 1),
+        scaleLimit: opt(num('parts of one', 'fraction', { minAbs: 1e-9 }), 0.01),
+        zeroLimit: opt(num('volts', 'positive', { min: 1e-9, max: 100 }), 0.02),
       },
     },
     calibration: {
       t: 'obj',
       def: {},
       fields: {
-        meterRelative: opt(num('parts of one', 'fraction'), 0.005),
-        meterDigits: opt(num('volts', 'nonneg', { max: 100 }), 0.003),
+        meterRelative: opt(num('parts of one', 'fraction', { minAbs: 1e-9 }), 0.005),
+        meterDigits: opt(num('volts', 'nonneg', { max: 100, minAbs: 1e-12 }), 0.003),
       },
     },
   },
 };
+
+/** A number field of the format with its bounds, for tools and tests that go through every field. */
+export interface NumberField {
+  /** Dotted path, list items as `.0`, `.1` (`target.range.1`). */
+  path: string;
+  min?: number;
+  max?: number;
+  maxAbs?: number;
+  minAbs?: number;
+  check: 'positive' | 'nonneg' | 'any' | 'fraction';
+  whole: boolean;
+}
+
+/** Every number field of a design with this sensor type, with its bounds, read from the schema itself. */
+export function numberFields(type: SensorType): NumberField[] {
+  const out: NumberField[] = [];
+  const walk = (spec: Spec, path: string) => {
+    if (spec.t === 'num') out.push({ path, min: spec.min, max: spec.max, maxAbs: spec.maxAbs, minAbs: spec.minAbs, check: spec.check ?? 'any', whole: !!spec.whole });
+    else if (spec.t === 'obj') for (const [k, s] of Object.entries(spec.fields)) walk(s, path ? `${path}.${k}` : k);
+    else if (spec.t === 'tuple') spec.items.forEach((s, i) => walk(s, `${path}.${i}`));
+    else if (spec.t === 'variant') for (const [k, s] of Object.entries(spec.variants[type]!)) walk(s, `${path}.${k}`);
+  };
+  walk(SCHEMA, '');
+  return out.filter((f) => f.path !== 'version');
+}
 
 export type ValidationResult = { ok: true; design: Design } | { ok: false; problems: Problem[] };
 
@@ -532,41 +568,47 @@ export function validateDesign(doc: unknown): ValidationResult {
   return problems.length ? { ok: false, problems } : { ok: true, design };
 }
 
+/**
+ * Rules that tie fields together. Each problem sits at one field, lists in `other` every further field it
+ * involves, and says what would fix it, naming fields by path (a screen writes them as labels).
+ */
 function crossCheck(d: Design, problems: Problem[]): void {
-  const p = (path: string, message: string) => problems.push({ path, message });
+  const p = (path: string, message: string, other: string[] = []) => problems.push({ path, message, other });
   const s = d.sensor;
-  if (d.supply.positive <= d.supply.negative) p('supply.positive', 'must be above supply.negative');
-  if (d.supply.negative > 0) p('supply.negative', 'must be 0 V (single supply) or below 0 V (split supply)');
+  const span = d.supply.positive - d.supply.negative;
   if (d.supply.positive <= 0) p('supply.positive', 'must be above 0 V');
-  if (d.target.range[0] >= d.target.range[1]) p('target.range', 'must run from low to high (the first value below the second)');
+  else if (d.supply.positive <= d.supply.negative) p('supply.positive', 'must be above supply.negative: raise supply.positive or lower supply.negative', ['supply.negative']);
+  if (d.supply.negative > 0) p('supply.negative', 'must be 0 V (single supply) or below 0 V (split supply)');
+  if (d.target.range[0] >= d.target.range[1]) p('target.range[0]', 'must be below target.range[1]: the range runs from low to high', ['target.range[1]']);
   if (d.target.scale === 0) p('target.scale', 'must not be zero');
-  if (d.target.resistanceMin >= d.target.resistanceMax) p('target.resistanceMin', 'must be below target.resistanceMax');
-  if (d.target.resistanceMax / d.target.resistanceMin < 10) p('target.resistanceMax', 'must be at least ten times target.resistanceMin so that arms can be found');
+  if (d.target.resistanceMin >= d.target.resistanceMax) p('target.resistanceMin', 'must be below target.resistanceMax', ['target.resistanceMax']);
+  else if (d.target.resistanceMax / d.target.resistanceMin < 10) p('target.resistanceMax', 'must be at least ten times target.resistanceMin so that arms can be found: raise target.resistanceMax or lower target.resistanceMin', ['target.resistanceMin']);
   const e = d.environment;
-  if (e.temperatureMin > e.temperature || e.temperature > e.temperatureMax) p('environment.temperature', 'must lie between environment.temperatureMin and environment.temperatureMax');
-  if (d.supply.battery && d.supply.battery.fresh <= d.supply.battery.endOfLife) p('supply.battery.endOfLife', 'must be below supply.battery.fresh');
-  if ((d.supply.sensorRail === 'regulated' || d.supply.referenceRail === 'regulated') && !d.supply.regulated) {
-    p(d.supply.sensorRail === 'regulated' ? 'supply.sensorRail' : 'supply.referenceRail', 'is "regulated" but supply.regulated is not set');
+  if (e.temperatureMin > e.temperature) p('environment.temperatureMin', 'must not be above environment.temperature: lower environment.temperatureMin or raise environment.temperature', ['environment.temperature']);
+  if (e.temperature > e.temperatureMax) p('environment.temperatureMax', 'must not be below environment.temperature: raise environment.temperatureMax or lower environment.temperature', ['environment.temperature']);
+  if (d.supply.battery && d.supply.battery.fresh <= d.supply.battery.endOfLife) p('supply.battery.endOfLife', 'must be below supply.battery.fresh', ['supply.battery.fresh']);
+  if (d.supply.sensorRail === 'regulated' && !d.supply.regulated) p('supply.sensorRail', 'is the regulated rail, but supply.regulated is off: feed the sensor from the positive rail or keep supply.regulated', ['supply.regulated']);
+  if (d.supply.referenceRail === 'regulated' && !d.supply.regulated) p('supply.referenceRail', 'is the regulated rail, but supply.regulated is off: take the reference from the positive rail or keep supply.regulated', ['supply.regulated']);
+  if (d.supply.regulated && d.supply.regulated.voltage + d.supply.regulated.dropout > span) {
+    const need = +(d.supply.regulated.voltage + d.supply.regulated.dropout + d.supply.negative).toPrecision(4);
+    p('supply.regulated.voltage', `needs supply.positive of at least ${need} V (its ${+d.supply.regulated.voltage.toPrecision(4)} V plus ${+d.supply.regulated.dropout.toPrecision(3)} V dropout): raise supply.positive, lower supply.regulated.voltage or switch supply.regulated off`, ['supply.positive', 'supply.regulated']);
   }
-  if (d.supply.regulated && d.supply.regulated.voltage > d.supply.positive - d.supply.negative) {
-    p('supply.regulated.voltage', 'must not exceed the supply span (a regulator cannot output more than it is fed)');
+  if (d.opamp.inputLow + d.opamp.inputHigh >= span) {
+    p('opamp.inputHigh', 'leaves no input common-mode range on these rails (opamp.inputLow + opamp.inputHigh is larger than the supply span): widen the rails or choose an op-amp whose inputs reach closer to them', ['opamp.inputLow', 'supply.positive']);
   }
-  if (d.opamp.inputLow + d.opamp.inputHigh >= d.supply.positive - d.supply.negative) {
-    p('opamp.inputHigh', 'leaves no input common-mode range on these rails (inputLow + inputHigh is larger than the supply span)');
+  if (d.opamp.outputLow + d.opamp.outputHigh >= span) {
+    p('opamp.outputHigh', 'leaves no output swing on these rails (opamp.outputLow + opamp.outputHigh is larger than the supply span): widen the rails or choose an op-amp whose output swings closer to them', ['opamp.outputLow', 'supply.positive']);
   }
-  if (d.opamp.outputLow + d.opamp.outputHigh >= d.supply.positive - d.supply.negative) {
-    p('opamp.outputHigh', 'leaves no output swing on these rails (outputLow + outputHigh is larger than the supply span)');
-  }
-  if (d.analysis.noiseBand && d.analysis.noiseBand[0] >= d.analysis.noiseBand[1]) p('analysis.noiseBand', 'must run from low to high');
+  if (d.analysis.noiseBand && d.analysis.noiseBand[0] >= d.analysis.noiseBand[1]) p('analysis.noiseBand[0]', 'must be below analysis.noiseBand[1]', ['analysis.noiseBand[1]']);
   if (s.type === 'voltage-output' || s.type === 'hall-gap-core') {
     const sens = s.type === 'voltage-output' ? s.sensitivity : s.hallSensitivity;
     if (sens === 0) p(`sensor.${s.type === 'voltage-output' ? 'sensitivity' : 'hallSensitivity'}`, 'must not be zero');
-    if (s.outputMin !== undefined && s.outputMax !== undefined && s.outputMin >= s.outputMax) p('sensor.outputMin', 'must be below sensor.outputMax');
+    if (s.outputMin !== undefined && s.outputMax !== undefined && s.outputMin >= s.outputMax) p('sensor.outputMin', 'must be below sensor.outputMax', ['sensor.outputMax']);
   }
   if (s.readings?.use && s.type !== 'voltage-output' && s.type !== 'hall-gap-core') {
     p('sensor.readings.use', 'can only be true for a voltage-output or hall-gap-core sensor: a current transformer or shunt is set by its parts');
   }
-  if (s.type === 'hall-gap-core' && s.core.gap >= s.core.pathLength) p('sensor.core.gap', 'must be shorter than sensor.core.pathLength');
+  if (s.type === 'hall-gap-core' && s.core.gap >= s.core.pathLength) p('sensor.core.gap', 'must be shorter than sensor.core.pathLength', ['sensor.core.pathLength']);
 }
 
 /** Formats problems one per line: `opamp.gbw: must be a positive number of hertz`. */
@@ -574,17 +616,105 @@ export function formatProblems(problems: Problem[]): string {
   return problems.map((q) => `${q.path}: ${q.message}`).join('\n');
 }
 
+/**
+ * Reads the bytes of a design file as text, the same way in the app and the CLI: UTF-8 with or without a
+ * byte-order mark, or UTF-16 (little or big endian, with a mark, or without one when the first character is
+ * ASCII, as every JSON document's is). Anything else is refused with one line.
+ */
+export function decodeDesignBytes(bytes: Uint8Array): { ok: true; text: string } | { ok: false; problems: Problem[] } {
+  if (bytes.length > MAX_DESIGN_BYTES) return { ok: false, problems: [tooLarge()] };
+  let encoding = 'utf-8';
+  let start = 0;
+  if (bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf) start = 3;
+  else if (bytes[0] === 0xff && bytes[1] === 0xfe) { encoding = 'utf-16le'; start = 2; }
+  else if (bytes[0] === 0xfe && bytes[1] === 0xff) { encoding = 'utf-16be'; start = 2; }
+  else if (bytes.length >= 2 && bytes[0] !== 0 && bytes[1] === 0) encoding = 'utf-16le';
+  else if (bytes.length >= 2 && bytes[0] === 0 && bytes[1] !== 0) encoding = 'utf-16be';
+  try {
+    return { ok: true, text: new TextDecoder(encoding, { fatal: true, ignoreBOM: true }).decode(bytes.subarray(start)) };
+  } catch {
+    return { ok: false, problems: [{ path: '(file)', message: `is not text (neither UTF-8 nor ${encoding === 'utf-8' ? 'UTF-16' : encoding.toUpperCase()} throughout)` }] };
+  }
+}
+
+const tooLarge = (): Problem => ({ path: '(file)', message: `is larger than ${MAX_DESIGN_BYTES / 1e6} MB; a design file is a few kB` });
+
+/** Where JSON.parse stopped, as one line: the engine's own message quotes the text, control characters and all. */
+function jsonErrorAt(text: string, err: unknown): string {
+  const msg = err instanceof Error ? err.message : '';
+  const pos = /position (\d+)/.exec(msg)?.[1] ?? firstBadCharacter(text);
+  if (pos !== null) {
+    const before = text.slice(0, Number(pos));
+    const line = before.split('\n').length;
+    const column = before.length - before.lastIndexOf('\n');
+    return `is not valid JSON (at line ${line}, column ${column})`;
+  }
+  if (/end of (JSON )?input/i.test(msg)) return 'is not valid JSON (it ends too early)';
+  return 'is not valid JSON';
+}
+
+/** The offset of the first character that cannot begin a JSON token, or null when every one can. */
+function firstBadCharacter(text: string): number | null {
+  const token = /[ \t\n\r]*(?:[{}[\],:]|"(?:[^"\\\u0000-\u001f]|\\.)*"|-?[0-9][0-9.eE+-]*|true|false|null)/y;
+  let at = 0;
+  while (token.exec(text)) at = token.lastIndex;
+  const rest = /^[ \t\n\r]*/.exec(text.slice(at))![0].length;
+  return at + rest < text.length ? at + rest : null;
+}
+
+/**
+ * The path of the first key that appears twice in one object of a (valid) JSON text, or null. JSON.parse
+ * keeps the last silently; a design file says what it means once. A scan of tokens with an explicit stack,
+ * so that deep nesting cannot overflow the call stack.
+ */
+export function firstDuplicateKey(text: string): string | null {
+  const token = /[ \t\n\r]*(?:([{}[\],:])|("(?:[^"\\]|\\.)*")|(-?[0-9][0-9.eE+-]*|true|false|null))/y;
+  const stack: Array<{ obj: boolean; keys: Set<string>; path: string; n: number; key: string }> = [];
+  const join = (path: string, key: string) => {
+    const k = /^[A-Za-z_$][\w$]*$/.test(key) ? key : quoteText(key);
+    return path ? `${path}.${k}` : k;
+  };
+  const childPath = () => {
+    const f = stack[stack.length - 1];
+    if (!f) return '';
+    return f.obj ? join(f.path, f.key) : `${f.path}[${f.n}]`;
+  };
+  let expectKey = false;
+  for (let m = token.exec(text); m; m = token.exec(text)) {
+    const punct = m[1], str = m[2];
+    const top = stack[stack.length - 1];
+    if (punct === '{' || punct === '[') {
+      stack.push({ obj: punct === '{', keys: new Set(), path: childPath(), n: 0, key: '' });
+      expectKey = punct === '{';
+    } else if (punct === '}' || punct === ']') {
+      stack.pop();
+      expectKey = false;
+    } else if (punct === ',') {
+      if (top?.obj) expectKey = true; else if (top) top.n++;
+    } else if (str !== undefined && expectKey && top) {
+      const key = JSON.parse(str) as string;
+      if (top.keys.has(key)) return join(top.path, key);
+      top.keys.add(key);
+      top.key = key;
+      expectKey = false;
+    }
+  }
+  return null;
+}
+
 /** Parses JSON text as a design, with a message (not an exception) for text that is not JSON. */
 export function parseDesignText(text: string): ValidationResult {
-  if (text.length > MAX_DESIGN_BYTES) {
-    return { ok: false, problems: [{ path: '(file)', message: `is larger than ${MAX_DESIGN_BYTES / 1e6} MB; a design file is a few kB` }] };
-  }
+  if (text.length > MAX_DESIGN_BYTES) return { ok: false, problems: [tooLarge()] };
+  // A byte-order mark that reached the text (a file read as UTF-8 by the caller) is not part of the JSON.
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
   let doc: unknown;
   try {
-    doc = JSON.parse(text);
+    doc = JSON.parse(body);
   } catch (err) {
-    return { ok: false, problems: [{ path: '(file)', message: `is not valid JSON (${(err as Error).message})` }] };
+    return { ok: false, problems: [{ path: '(file)', message: jsonErrorAt(body, err) }] };
   }
+  const twice = firstDuplicateKey(body);
+  if (twice) return { ok: false, problems: [{ path: twice, message: 'appears twice in the file: keep the one you mean and delete the other' }] };
   return validateDesign(doc);
 }
 

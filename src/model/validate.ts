@@ -7,18 +7,39 @@ export interface Problem {
   /** Dotted path of the field, e.g. `opamp.gbw` or `target.range[1]`. */
   path: string;
   message: string;
+  /**
+   * For a number outside its bounds: the bound it broke, in SI, so that a screen can write it in the
+   * field's own unit. `other` lists further fields a cross-field rule involves.
+   */
+  limit?: { kind: 'min' | 'max' | 'maxAbs' | 'minAbs' | 'whole' | 'positive' | 'nonneg' | 'fraction'; value: number };
+  other?: string[];
 }
 
 export type NumCheck = 'positive' | 'nonneg' | 'any' | 'fraction';
 
 export type Spec =
-  | { t: 'num'; what: string; check?: NumCheck; optional?: boolean; def?: number; min?: number; max?: number; maxAbs?: number }
-  | { t: 'str'; optional?: boolean; def?: string; oneOf?: readonly string[]; maxLength?: number }
+  | {
+    t: 'num'; what: string; check?: NumCheck; optional?: boolean; def?: number; min?: number; max?: number; maxAbs?: number;
+    /** Smallest magnitude other than zero that means something physically (a tinier value is refused). */
+    minAbs?: number;
+    /** A count or an index: whole numbers only. */
+    whole?: boolean;
+  }
+  | { t: 'str'; optional?: boolean; def?: string; oneOf?: readonly string[]; maxLength?: number; pattern?: RegExp; patternHint?: string }
   | { t: 'bool'; optional?: boolean; def?: boolean }
   | { t: 'obj'; fields: Record<string, Spec>; optional?: boolean; nullable?: boolean; def?: unknown }
   | { t: 'tuple'; items: Spec[]; optional?: boolean; nullable?: boolean; def?: unknown[] | null }
   | { t: 'list'; item: Spec; optional?: boolean; def?: unknown[]; nonEmpty?: boolean; maxItems?: number }
   | { t: 'variant'; tag: string; variants: Record<string, Record<string, Spec>>; optional?: boolean };
+
+/**
+ * A piece of a person's text inside a message: at most `max` characters, with control and line-break
+ * characters written as escapes, so that a message always stays one inert line.
+ */
+export function quoteText(text: string, max = 40): string {
+  const cut = [...text].slice(0, max).join('');
+  return `"${cut.replace(/[\u0000-\u001f\u007f-\u009f\u2028\u2029\u202a-\u202e\u2066-\u2069"\\]/g, (c) => (c === '"' ? '\\"' : c === '\\' ? '\\\\' : `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`))}${cut.length < text.length ? '…' : ''}"`;
+}
 
 const article = (w: string) => (/^[aeiou]/i.test(w) ? 'an' : 'a');
 
@@ -48,24 +69,35 @@ export function check(value: unknown, spec: Spec, path: string, problems: Proble
   switch (spec.t) {
     case 'num': {
       if (typeof value !== 'number' || !Number.isFinite(value)) {
-        problems.push({ path: label, message: describe(spec) + (typeof value === 'string' ? ` (got the text "${String(value).slice(0, 40)}")` : '') });
+        problems.push({ path: label, message: describe(spec) + (typeof value === 'string' ? ` (got the text ${quoteText(value)})` : '') });
         return undefined;
       }
       const c = spec.check ?? 'any';
       if ((c === 'positive' && !(value > 0)) || (c === 'nonneg' && value < 0) || (c === 'fraction' && (value < 0 || value > 1))) {
-        problems.push({ path: label, message: describe(spec) });
+        // With a lower bound the bound says more than the sign ("at least 0.36 coulombs", not "positive").
+        const limit = spec.min !== undefined && c !== 'fraction' ? { kind: 'min' as const, value: spec.min } : { kind: c, value: c === 'fraction' ? 1 : 0 };
+        problems.push({ path: label, message: describe(spec), limit });
+        return undefined;
+      }
+      if (spec.whole && !Number.isInteger(value)) {
+        problems.push({ path: label, message: `must be a whole number of ${spec.what}`, limit: { kind: 'whole', value: Math.round(value) } });
         return undefined;
       }
       if (spec.min !== undefined && value < spec.min) {
-        problems.push({ path: label, message: `must be at least ${spec.min} ${spec.what}` });
+        problems.push({ path: label, message: `must be at least ${spec.min} ${spec.what}`, limit: { kind: 'min', value: spec.min } });
         return undefined;
       }
       if (spec.max !== undefined && value > spec.max) {
-        problems.push({ path: label, message: `must be at most ${spec.max} ${spec.what}` });
+        problems.push({ path: label, message: `must be at most ${spec.max} ${spec.what}`, limit: { kind: 'max', value: spec.max } });
         return undefined;
       }
       if (spec.maxAbs !== undefined && Math.abs(value) > spec.maxAbs) {
-        problems.push({ path: label, message: `is out of bounds: keep it within ±${spec.maxAbs} ${spec.what}` });
+        problems.push({ path: label, message: `is out of bounds: keep it within ±${spec.maxAbs} ${spec.what}`, limit: { kind: 'maxAbs', value: spec.maxAbs } });
+        return undefined;
+      }
+      if (spec.minAbs !== undefined && value !== 0 && Math.abs(value) < spec.minAbs) {
+        const zeroOk = c !== 'positive' && (spec.min === undefined || spec.min <= 0) && (spec.max === undefined || spec.max >= 0);
+        problems.push({ path: label, message: `is too small to mean anything: ${zeroOk ? 'use 0 or ' : 'use '}at least ${spec.minAbs} ${spec.what}${c === 'any' ? ' in size' : ''}`, limit: { kind: 'minAbs', value: spec.minAbs } });
         return undefined;
       }
       return value;
@@ -76,11 +108,15 @@ export function check(value: unknown, spec: Spec, path: string, problems: Proble
         return undefined;
       }
       if (spec.oneOf && !spec.oneOf.includes(value)) {
-        problems.push({ path: label, message: `must be one of ${spec.oneOf.map((s) => `"${s}"`).join(', ')} (got "${value.slice(0, 40)}")` });
+        problems.push({ path: label, message: `must be one of ${spec.oneOf.map((s) => `"${s}"`).join(', ')} (got ${quoteText(value)})` });
         return undefined;
       }
       if (spec.maxLength !== undefined && value.length > spec.maxLength) {
         problems.push({ path: label, message: `is too long (at most ${spec.maxLength} characters)` });
+        return undefined;
+      }
+      if (spec.pattern && !spec.pattern.test(value)) {
+        problems.push({ path: label, message: `${spec.patternHint ?? 'has characters this field does not take'} (got ${quoteText(value, 20)})` });
         return undefined;
       }
       return value;
@@ -127,7 +163,7 @@ export function check(value: unknown, spec: Spec, path: string, problems: Proble
         problems.push({ path: label, message: 'must be an object' });
         return undefined;
       }
-      const tag = (value as Record<string, unknown>)[spec.tag];
+      const tag = ownValue(value as Record<string, unknown>, spec.tag);
       const names = Object.keys(spec.variants);
       if (typeof tag !== 'string' || !names.includes(tag)) {
         problems.push({ path: join(path, spec.tag), message: `must be one of ${names.map((s) => `"${s}"`).join(', ')}` });
@@ -138,14 +174,22 @@ export function check(value: unknown, spec: Spec, path: string, problems: Proble
   }
 }
 
+/** A key's value only when the object holds it itself (never `constructor` or `toString` from its prototype). */
+const ownValue = (obj: Record<string, unknown>, key: string): unknown => (Object.hasOwn(obj, key) ? obj[key] : undefined);
+
 function checkFields(obj: Record<string, unknown>, fields: Record<string, Spec>, path: string, problems: Problem[]): Record<string, unknown> {
   const out: Record<string, unknown> = {};
   for (const key of Object.keys(obj)) {
-    if (!(key in fields)) problems.push({ path: join(path, key), message: 'is not a field this format knows' });
+    if (!Object.hasOwn(fields, key)) problems.push({ path: join(path, quoteKey(key)), message: 'is not a field this format knows' });
   }
   for (const [key, s] of Object.entries(fields)) {
-    const v = check(obj[key], s, join(path, key), problems);
+    const v = check(ownValue(obj, key), s, join(path, key), problems);
     if (v !== undefined) out[key] = v;
   }
   return out;
+}
+
+/** A key as it may appear in a path: plain when it is a simple name, quoted (and escaped) otherwise. */
+function quoteKey(key: string): string {
+  return /^[A-Za-z_$][\w$]{0,39}$/.test(key) ? key : quoteText(key);
 }

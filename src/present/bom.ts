@@ -6,6 +6,7 @@ import { partCode, partRole, partValue } from './parts.js';
 import { SAFETY_CAUTIONS, type Report } from '../analysis/report.js';
 import { peakRange } from '../physics/topology.js';
 import { formatEng } from '../model/units.js';
+import { csvCell, spiceCommentText } from './inert.js';
 
 export interface BomRow {
   ref: string;
@@ -83,21 +84,22 @@ export function bomRows(r: Report): BomRow[] {
   return rows;
 }
 
-const csvCell = (s: string | number | null) => {
-  const t = s === null ? '' : String(s);
-  // Quote every cell; neutralise leading = + - @ so that a spreadsheet never runs a cell as a formula.
-  const safe = /^[=+\-@]/.test(t) ? `'${t}` : t;
-  return `"${safe.replace(/"/g, '""')}"`;
-};
-
-/** The parts list as CSV (RFC 4180 quoting), with the safety cautions as trailing comment rows. */
+/**
+ * The parts list as CSV (RFC 4180 quoting): the table alone, so that parts-list importers read it cleanly,
+ * after a header comment (lines starting `#`) that carries the safety cautions. Numbers are written as
+ * numbers; every text cell goes through the formula guard.
+ */
 export function bomCsv(r: Report): string {
   const head = ['Designator', 'Value', 'Code (IEC 60062)', 'Specification', 'Dissipation (W)', 'Rating (W)', 'Quantity', 'Role'];
-  const lines = [head.map(csvCell).join(',')];
+  const lines = cautionLines(r).map((c) => `# ${c}`);
+  lines.push(head.map(csvCell).join(','));
   for (const row of bomRows(r)) {
-    lines.push([row.ref, row.value, row.code, row.spec, row.dissipation === null ? '' : Number(row.dissipation.toPrecision(3)), row.rating ?? '', row.quantity, row.role].map(csvCell).join(','));
+    lines.push([row.ref, row.value, row.code, row.spec, row.dissipation === null ? null : Number(row.dissipation.toPrecision(3)), row.rating, row.quantity, row.role].map(csvCell).join(','));
   }
-  lines.push('');
-  for (const c of [...SAFETY_CAUTIONS, ...r.front.cautions]) lines.push(csvCell(`CAUTION: ${c}`));
   return lines.join('\r\n') + '\r\n';
+}
+
+/** The cautions for the CSV's header comment, one line each, with nothing in them that could end the comment. */
+function cautionLines(r: Report): string[] {
+  return [...SAFETY_CAUTIONS, ...r.front.cautions].map((c) => `CAUTION: ${spiceCommentText(c, 1000)}`);
 }

@@ -5,6 +5,7 @@
 import { TOPOLOGIES, type Design, type SensorType } from '../model/design.js';
 import { STAGE_NAMES } from './words.js';
 import { formatEng, parseQuantity, type Dimension, type ParseResult } from '../model/units.js';
+import type { Problem } from '../model/validate.js';
 
 export type Section = 'sensor' | 'amplifier' | 'target' | 'output' | 'supply' | 'environment';
 
@@ -230,4 +231,63 @@ export function parseField(f: FieldDef, text: string, design?: Design): ParseRes
   const scaled = f.unit ? SCALED_UNITS[f.unit] : undefined;
   if (scaled && BARE_NUMBER.test(text)) return { ok: true, value: scaled.toSi(Number(text)) };
   return parseQuantity(text, dim);
+}
+
+/** A problem's path in the editor's form: list items as `.0` (`target.range[0]` → `target.range.0`). */
+const dotted = (path: string) => path.replace(/\[(\d+)\]/g, '.$1');
+
+/**
+ * The editor field a problem's path points at, preferring the fields that apply to this design (two sensor
+ * types label `sensor.quiescent` differently); a path inside a field (`a.b.c` under `a.b`) finds that field.
+ */
+export function fieldForPath(path: string, design?: Design): FieldDef | undefined {
+  const p = dotted(path);
+  const pool = design ? [...fieldsFor(design), ...FIELDS] : FIELDS;
+  return pool.find((f) => f.path === p) ?? pool.find((f) => p.startsWith(`${f.path}.`));
+}
+
+/**
+ * A problem in a person's words, for the screen: the field named by its label, every other field a rule
+ * involves named by its label too (in quotes), and a broken bound written in the field's own unit; a place
+ * that is no editor field (a file's unknown key) is named as an entry, never as a dotted path.
+ * `supply.regulated.voltage: needs supply.positive of at least 5.3 V …` → `Regulated voltage needs “Positive
+ * rail” of at least 5.3 V …`.
+ */
+export function problemWords(p: Problem, design?: Design): string {
+  const f = fieldForPath(p.path, design);
+  const subject = f ? f.label : p.path.startsWith('(') ? `The ${p.path.slice(1, -1)}` : entryName(p.path);
+  return `${subject} ${p.limit && f?.kind === 'number' ? boundWords(p, f, design) : labelsFor(p.message, design)}`;
+}
+
+/** A place in a document that is no editor field: `opamp.__proto__` → `The entry “__proto__” in opamp`. */
+function entryName(path: string): string {
+  const parts = dotted(path).split('.');
+  const last = parts.pop()!;
+  return `The entry “${last}”${parts.length ? ` in ${parts.join(' › ')}` : ''}`;
+}
+
+function boundWords(p: Problem, f: FieldDef, design?: Design): string {
+  const { kind, value } = p.limit!;
+  const show = (x: number) => displayValue(f, x, design) || String(x);
+  switch (kind) {
+    case 'min': return `must be at least ${show(value)}`;
+    case 'max': return `must be at most ${show(value)}`;
+    case 'maxAbs': return `must lie within ±${show(value)}`;
+    case 'whole': return 'must be a whole number';
+    case 'positive': return 'must be more than 0';
+    case 'nonneg': return 'must not be negative';
+    case 'fraction': return `must lie from ${show(0)} to ${show(1)}`;
+    case 'minAbs': return `is too small to mean anything: use ${/use 0 or/.test(p.message) ? '0 or ' : ''}at least ${show(value)}${/in size/.test(p.message) ? ' in size' : ''}`;
+  }
+}
+
+/** Every field path in a message replaced by its label in quotes, longest paths first. */
+function labelsFor(message: string, design?: Design): string {
+  const pool = design ? [...fieldsFor(design), ...FIELDS] : [...FIELDS];
+  const labels = new Map<string, string>();
+  for (const f of pool) if (!labels.has(f.path)) labels.set(f.path, f.label);
+  const paths = [...labels.keys()].sort((a, b) => b.length - a.length);
+  const esc = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+  const alt = paths.map((p) => esc(p.replace(/\.(\d+)$/, '[$1]')) + '|' + esc(p)).join('|');
+  return message.replace(new RegExp(`(?<![\\w.])(${alt})(?![\\w\\[])`, 'g'), (m) => `“${labels.get(dotted(m)) ?? m}”`);
 }

@@ -11,6 +11,7 @@
  */
 import { BOLTZMANN } from '../model/constants.js';
 import type { Report } from '../analysis/report.js';
+import { spiceCommentText } from './inert.js';
 
 const fmt = (x: number) => (Number.isFinite(x) ? Number(x.toPrecision(9)).toString() : '0');
 const node = (names: string[], i: number) => (i === 0 ? '0' : names[i]!.replace(/[^A-Za-z0-9_]/g, '_'));
@@ -33,14 +34,16 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
   const enRef = Math.sqrt(4 * BOLTZMANN * T * rn);
   const lines: string[] = [];
   const date = opts.date ?? new Date().toISOString().slice(0, 10);
-  const title = d.title.replace(/[\r\n]+/g, ' ').slice(0, 120);
+  // Every text from the design reaches the netlist only inside a comment line, reduced to one line.
+  const title = spiceCommentText(d.title);
+  const measurand = spiceCommentText(d.sensor.measurand, 16);
   lines.push(`* Gainwright netlist: ${title}`);
   lines.push(`* Exported ${date} (ISO 8601). Topology: ${r.stage?.ideal.topology ?? 'none'}.`);
   lines.push('* Model assumptions: behavioural op-amp with a single pole at GBW/A0, open-loop output resistance, and its');
   lines.push('* internal output limited to the swing (outputLow above the - rail, outputHigh below the + rail); no slew limit,');
   lines.push('* no output current limit, offsets and bias currents omitted; trimmers as two resistors at their settings;');
   lines.push('* sensor as an ideal source with its resistance and bandwidth (its own output limits are not modelled).');
-  lines.push(`* Measurand ${d.sensor.measurand}: the signal source is ${c.elements[sc.signalIndex]?.name ?? '?'}; its value is quiescent + sensitivity x measurand.`);
+  lines.push(`* Measurand ${measurand}: the signal source is ${c.elements[sc.signalIndex]?.name ?? '?'}; its value is quiescent + sensitivity x measurand.`);
   lines.push(`* Output node: ${node(names, sc.nodes.out)}. Temperature ${fmt(tempC)} C.`);
   lines.push('*');
   lines.push(`.temp ${fmt(tempC)}`);
@@ -132,7 +135,7 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
     // DC sweep of the signal source across the range and half a range beyond each end (the transfer plot's span).
     const x0 = r.transfer.x[0]!, x1 = r.transfer.x[r.transfer.x.length - 1]!;
     const v = (x: number) => (sig.dc0 ?? 0) + (sig.dc1 ?? 0) * x;
-    lines.push(`* source value = ${fmt(sig.dc0 ?? 0)} + ${fmt(sig.dc1 ?? 0)} x measurand, from ${fmt(x0)} to ${fmt(x1)} ${d.sensor.measurand}`);
+    lines.push(`* source value = ${fmt(sig.dc0 ?? 0)} + ${fmt(sig.dc1 ?? 0)} x measurand, from ${fmt(x0)} to ${fmt(x1)} ${measurand}`);
     lines.push(`dc ${sigName} ${fmt(v(x0))} ${fmt(v(x1))} ${fmt((v(x1) - v(x0)) / 400)}`);
     lines.push(`wrdata gainwright-dc.txt v(${out})`);
   }

@@ -2,6 +2,7 @@
 import { partCode, partRole, partValue } from './parts.js';
 import { SAFETY_CAUTIONS, type Report } from '../analysis/report.js';
 import { formatEng } from '../model/units.js';
+import { terminalLine } from './inert.js';
 
 const f = (x: number | null | undefined, u = '', d = 3) => (x === null || x === undefined ? '—' : formatEng(x, u, d));
 const MARK = { pass: 'PASS', caution: 'CAUTION', fail: 'FAIL' } as const;
@@ -11,7 +12,7 @@ export function textReport(r: Report): string {
   const m = d.sensor.measurand;
   const out: string[] = [];
   const h = (s: string) => out.push('', s, '-'.repeat(s.length));
-  out.push(`${d.title}`, '='.repeat(Math.min(d.title.length, 80)));
+  out.push(d.title, '='.repeat(Math.min(terminalLine(d.title).length, 80)));
   h('Verdict');
   for (const v of r.verdicts) out.push(`  [${MARK[v.level]}] ${v.title}: ${v.detail}`);
   const s = r.stage;
@@ -89,5 +90,6 @@ export function textReport(r: Report): string {
   }
   h('Safety');
   for (const c of [...SAFETY_CAUTIONS, ...r.front.cautions]) out.push(`  ! ${c}`);
-  return out.join('\n') + '\n';
+  // Each entry is one line: whatever a design's text holds is shown, never acted on by the terminal.
+  return out.map(terminalLine).join('\n') + '\n';
 }

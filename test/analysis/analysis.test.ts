@@ -51,16 +51,22 @@ describe('speed', () => {
     // Rise time ln 9/(2π·BW) ≈ 0.35/BW.
     expect(r.speed!.riseTime * r.speed!.smallSignal).toBeCloseTo(Math.log(9) / (2 * Math.PI), 9);
   });
-  // NPTEL 117107094 lecture 7: SR 2 V/µs at 12 V peak → 26.5 kHz full-power bandwidth.
+  // Textbook full-power bandwidth SR/(2π·Vp) (e.g. Sedra & Smith, on slew rate; from memory):
+  // 2 V/µs at 12 V peak → 2e6/(2π·12) = 26.5 kHz. GBW 10 MHz keeps the small-signal bandwidth above it.
   it('full-power bandwidth SR/(2π·Vp): 2 V/µs at 12 V peak is 26.5 kHz', () => {
     const r = analyse(design('generic-sensor', (x) => {
       x.supply = { positive: 15, negative: -15 };
-      x.opamp.slewRate = 2e6; x.opamp.inputLow = 1; x.opamp.inputHigh = 1; x.opamp.outputLow = 1; x.opamp.outputHigh = 1;
+      x.opamp.gbw = 10e6; x.opamp.slewRate = 2e6; x.opamp.inputLow = 1; x.opamp.inputHigh = 1; x.opamp.outputLow = 1; x.opamp.outputHigh = 1;
       x.target.scale = 0.6; x.target.zero = 0; x.target.range = [-20, 20]; x.sensor.quiescent = 0;
       x.sensor.outputMin = -10; x.sensor.outputMax = 10;
     }), { spreadTrials: 0 });
     expect(r.speed!.peakSwing).toBeCloseTo(12, 1);
     expect(r.speed!.fullPower / 26.5e3).toBeCloseTo(1, 2);
+  });
+  it('a GBW of 1 Hz gives a full-power bandwidth no higher than the small-signal one (issue 14)', () => {
+    const r = analyse(design('generic-sensor', (x) => { x.opamp.gbw = 1; }), { spreadTrials: 0 });
+    expect(r.speed!.smallSignal).toBeLessThan(1);
+    expect(r.speed!.fullPower).toBeLessThanOrEqual(r.speed!.smallSignal);
   });
   it('warns when the wanted bandwidth cannot be had', () => {
     const r = analyse(design('generic-sensor', (x) => { x.target.bandwidth = 500e3; }), { spreadTrials: 0 });

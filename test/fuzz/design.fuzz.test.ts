@@ -5,8 +5,11 @@
  */
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { validateDesign } from '../../src/model/design.js';
-import { analyse, reportJson } from '../../src/analysis/report.js';
+import { numberFields, validateDesign } from '../../src/model/design.js';
+import { analyse, firstNonFinite, type Report } from '../../src/analysis/report.js';
+import { textReport } from '../../src/present/text-report.js';
+import { keyFigures } from '../../src/present/figures.js';
+import { getPath, setPath } from '../../src/present/fields.js';
 import { main } from '../../src/cli/cli.js';
 import { DEMOS } from '../../src/model/demos.js';
 import { parseQuantity } from '../../src/model/units.js';
@@ -18,35 +21,54 @@ import { join } from 'node:path';
 const RUNS = Number(process.env.FUZZ_RUNS ?? 2000);
 const SEED = 20261201;
 
-function nonFinite(x: unknown, path = ''): string[] {
-  if (typeof x === 'number') return Number.isFinite(x) ? [] : [path];
-  if (Array.isArray(x)) return x.flatMap((v, i) => nonFinite(v, `${path}[${i}]`));
-  if (x && typeof x === 'object') return Object.entries(x).flatMap(([k, v]) => nonFinite(v, `${path}.${k}`));
-  return [];
+/**
+ * Every reported figure of the report object itself (not its JSON, which turns NaN into null): the first one
+ * that is not a finite number, or null. A figure the report leaves out must say why in `absent`. Clip limits
+ * may be infinite on purpose (a limit that never binds); NaN is allowed nowhere.
+ */
+function badFigure(r: Report): string | null {
+  const figures = {
+    dc: r.dc?.out, clip: r.clip, transfer: r.transfer, response: r.response, speed: r.speed, noise: r.noise, errors: r.errors,
+    supply: r.supply, battery: r.battery, spread: r.spread, drive: r.drive, sensitivity: r.front.sensitivity, sensor: r.front.figures,
+    gain: r.stage && !r.absent.all ? r.stage.gain : 0, scaleError: r.stage && !r.absent.all ? r.stage.scaleError : 0,
+  };
+  const at = firstNonFinite(figures, ['limits']);
+  if (at) return at;
+  for (const l of r.clip?.limits ?? []) if (Number.isNaN(l.low) || Number.isNaN(l.high)) return '.clip.limits';
+  for (const k of ['clip', 'speed', 'noise', 'errors', 'supply'] as const) if (r[k] === null && !r.absent[k] && !r.absent.all) return `${k} absent without a reason`;
+  return null;
 }
 
+/** Words a person reads: verdicts, findings, key figures and the text report. */
+const shownText = (r: Report) => [
+  ...r.verdicts.map((v) => `${v.title} ${v.detail}`), ...r.warnings.map((w) => w.message),
+  ...keyFigures(r).map((f) => `${f.value} ${f.note ?? ''}`), textReport(r),
+].join('\n');
+
+/** A double in a range, with sizes below a microvolt written as 0 (the file refuses tiny non-zero sizes). */
+const plain = (min: number, max: number) => fc.double({ min, max, noNaN: true }).map((x) => (Math.abs(x) < 1e-6 ? 0 : x));
 const logUniform = (lo: number, hi: number) => fc.double({ min: Math.log10(lo), max: Math.log10(hi), noNaN: true }).map((e) => 10 ** e);
 
 const sensorArb = fc.oneof(
-  fc.record({ type: fc.constant('voltage-output'), measurand: fc.constant('A'), sensitivity: fc.oneof(logUniform(1e-4, 1), logUniform(1e-4, 1).map((v) => -v)), quiescent: fc.double({ min: -5, max: 5, noNaN: true }), sourceResistance: logUniform(0.1, 1e4), noiseDensity: logUniform(1e-9, 1e-6), bandwidth: logUniform(1e2, 1e7) }),
-  fc.record({ type: fc.constant('hall-gap-core'), measurand: fc.constant('A'), hallSensitivity: logUniform(1, 200), quiescent: fc.double({ min: 0.5, max: 4.5, noNaN: true }), linearField: logUniform(0.01, 0.5), turns: fc.integer({ min: 1, max: 20 }), core: fc.record({ pathLength: logUniform(0.02, 0.2), permeability: logUniform(100, 1e4), gap: logUniform(2e-4, 5e-3), saturation: logUniform(0.2, 0.5) }), bandwidth: logUniform(1e3, 1e6) }),
-  fc.record({ type: fc.constant('current-transformer'), measurand: fc.constant('A'), secondaryTurns: fc.integer({ min: 100, max: 5000 }), burden: logUniform(1, 1000), inductanceFactor: logUniform(1e-7, 1e-5), windingResistance: logUniform(1, 300), quiescent: fc.double({ min: -1, max: 3, noNaN: true }) }),
+  fc.record({ type: fc.constant('voltage-output'), measurand: fc.constant('A'), sensitivity: fc.oneof(logUniform(1e-4, 1), logUniform(1e-4, 1).map((v) => -v)), quiescent: plain(-5, 5), sourceResistance: logUniform(0.1, 1e4), noiseDensity: logUniform(1e-9, 1e-6), bandwidth: logUniform(1e2, 1e7) }),
+  fc.record({ type: fc.constant('hall-gap-core'), measurand: fc.constant('A'), hallSensitivity: logUniform(1, 200), quiescent: plain(0.5, 4.5), linearField: logUniform(0.01, 0.5), turns: fc.integer({ min: 1, max: 20 }), core: fc.record({ pathLength: logUniform(0.02, 0.2), permeability: logUniform(100, 1e4), gap: logUniform(2e-4, 5e-3), saturation: logUniform(0.2, 0.5) }), bandwidth: logUniform(1e3, 1e6) }),
+  fc.record({ type: fc.constant('current-transformer'), measurand: fc.constant('A'), secondaryTurns: fc.integer({ min: 100, max: 5000 }), burden: logUniform(1, 1000), inductanceFactor: logUniform(1e-7, 1e-5), windingResistance: logUniform(1, 300), quiescent: plain(-1, 3) }),
   fc.record({ type: fc.constant('shunt'), measurand: fc.constant('A'), resistance: logUniform(1e-3, 1), powerRating: logUniform(0.1, 5) }),
 );
 
 const designArb = fc.record({
   sensor: sensorArb,
-  positive: fc.double({ min: 2.5, max: 30, noNaN: true }),
+  positive: plain(2.5, 30),
   split: fc.boolean(),
   gbw: logUniform(1e5, 1e8),
   slew: logUniform(1e5, 1e8),
-  aol: fc.double({ min: 60, max: 140, noNaN: true }),
-  inLo: fc.double({ min: -0.3, max: 2, noNaN: true }),
-  inHi: fc.double({ min: -0.3, max: 2, noNaN: true }),
-  outLo: fc.double({ min: 0, max: 1.5, noNaN: true }),
-  outHi: fc.double({ min: 0, max: 1.5, noNaN: true }),
+  aol: plain(60, 140),
+  inLo: plain(-0.3, 2),
+  inHi: plain(-0.3, 2),
+  outLo: plain(0, 1.5),
+  outHi: plain(0, 1.5),
   scale: fc.oneof(logUniform(1e-3, 10), logUniform(1e-3, 10).map((v) => -v)),
-  zeroFrac: fc.double({ min: 0.05, max: 0.95, noNaN: true }),
+  zeroFrac: plain(0.05, 0.95),
   span: logUniform(0.1, 100),
   topology: fc.constantFrom('auto', 'non-inverting', 'inverting'),
   series: fc.constantFrom('E12', 'E24', 'E96'),
@@ -83,10 +105,9 @@ describe('random valid designs', () => {
       }
       analysed++;
       const r = analyse(v.design, { spreadTrials: 10, acPoints: 20 });
-      const j = reportJson(r);
-      expect(nonFinite(j)).toEqual([]);
+      expect(badFigure(r)).toBeNull();
       // A figure that is absent says why.
-      if (j.clip === null) expect(Object.keys(r.absent).length).toBeGreaterThan(0);
+      if (r.clip === null) expect(Object.keys(r.absent).length).toBeGreaterThan(0);
       for (const verdict of r.verdicts) expect(verdict.detail).not.toMatch(/NaN|Infinity/);
     }), { numRuns: RUNS, seed: SEED });
     expect(analysed).toBeGreaterThan(RUNS / 2);
@@ -235,4 +256,50 @@ describe('reachable targets are solved', () => {
     }), { numRuns: Math.max(400, Math.floor(RUNS / 10)), seed: SEED });
     expect(solved).toBeGreaterThan(100);
   }, 900_000);
+});
+
+describe('tiny and huge finite values in every number field', () => {
+  // Issue 14: 1e-200 Ω source resistance gave "phase NaN°", 5e-324 V/A sensitivity "a gain of Infinity",
+  // 1e-300 Hz GBW "NaN %". Every number field of every sensor type gets values from the smallest subnormal to
+  // the largest double, either sign, plus its own bounds: each is refused at that field (or by a cross-field
+  // rule that names it), or the report's own figures are all finite or left out with the reason.
+  const EXTREMES = [5e-324, 1e-300, 1e-200, 1e-30, 1e-15, 1e15, 1e30, 1e200, 1e300, Number.MAX_VALUE];
+  const cases = DEMOS.flatMap((demo) => {
+    const v = validateDesign(structuredClone(demo.document));
+    if (!v.ok) throw new Error(demo.id);
+    // Fields of an optional group that is off (no battery, no filter) have nothing to set.
+    const present = (path: string) => { const parent = getPath(v.design, path.split('.').slice(0, -1).join('.')); return parent !== null && parent !== undefined; };
+    return numberFields(v.design.sensor.type).filter((f) => present(f.path)).map((f) => ({ demo: demo.id, design: v.design, field: f }));
+  });
+  const valueArb = (f: (typeof cases)[number]['field']) => fc.oneof(
+    fc.constantFrom(...EXTREMES, ...EXTREMES.map((x) => -x)),
+    fc.constantFrom(...[f.min, f.max, f.maxAbs, f.minAbs].filter((x): x is number => x !== undefined).flatMap((x) => [x, -x, x * (1 + 1e-12), x * (1 - 1e-12)])),
+    fc.double({ min: -Number.MAX_VALUE, max: Number.MAX_VALUE, noNaN: true, noDefaultInfinity: true }),
+  );
+  const caseArb = fc.integer({ min: 0, max: cases.length - 1 }).chain((i) => fc.tuple(fc.constant(i), valueArb(cases[i]!.field)));
+  it(`every field, every extreme: refused at the field, or finite figures (${Math.max(600, Math.floor(RUNS / 4))} random cases, plus each field's own list)`, () => {
+    const check = (i: number, value: number) => {
+      const { demo, design, field } = cases[i]!;
+      const doc = setPath(design, field.path, value);
+      const v = validateDesign(doc);
+      if (!v.ok) {
+        const dotted = (p: string) => p.replace(/\[(\d+)\]/g, '.$1');
+        const named = v.problems.some((p) => dotted(p.path) === field.path || (p.other ?? []).map(dotted).includes(field.path));
+        expect(named, `${demo} ${field.path}=${value}: ${JSON.stringify(v.problems)}`).toBe(true);
+        return 'refused';
+      }
+      expect(getPath(v.design, field.path)).toBe(value);
+      const r = analyse(v.design, { spreadTrials: 10, acPoints: 20 });
+      expect(badFigure(r), `${demo} ${field.path}=${value}`).toBeNull();
+      expect(shownText(r), `${demo} ${field.path}=${value}`).not.toMatch(/NaN|Infinity/);
+      return 'analysed';
+    };
+    // Each field's full list once, then random picks.
+    const seen = { refused: 0, analysed: 0 };
+    for (let i = 0; i < cases.length; i++) for (const x of [...EXTREMES, ...EXTREMES.map((y) => -y)]) seen[check(i, x)]++;
+    fc.assert(fc.property(caseArb, ([i, x]) => { seen[check(i, x)]++; }), { numRuns: Math.max(600, Math.floor(RUNS / 4)), seed: SEED });
+    // The property sees both outcomes (a generator that only produced refusals would prove nothing).
+    expect(seen.refused).toBeGreaterThan(100);
+    expect(seen.analysed).toBeGreaterThan(50);
+  }, 600_000);
 });

@@ -60,7 +60,7 @@ describe('validateDesign', () => {
     expect(v.ok).toBe(false);
     if (v.ok) return;
     const text = formatProblems(v.problems);
-    expect(text).toContain('target.range: must run from low to high');
+    expect(text).toContain('target.range[0]: must be below target.range[1]: the range runs from low to high');
     expect(text).toContain('supply.positive: must be above supply.negative');
   });
   it('refuses a wrong format and a newer version with a message', () => {

@@ -22,13 +22,18 @@ describe('parts list', () => {
     expect(rows.map((x) => x.ref)).toEqual(expect.arrayContaining(['S1', 'U1', 'U2', 'C9']));
     for (const row of rows.filter((x) => x.ref.startsWith('R'))) expect(row.rating).toBeGreaterThanOrEqual(0.125);
   });
-  it('CSV quotes every cell, neutralises formulas and ends with the cautions', () => {
+  it('CSV quotes every cell, neutralises formulas and keeps the cautions in a header comment, out of the table', () => {
     const r = analyse(designFrom('generic-sensor', (x) => { x.opamp.name = '=HYPERLINK("x")'; }), { spreadTrials: 0 });
     const csv = bomCsv(r);
     const lines = csv.trim().split('\r\n');
-    expect(lines[0]).toBe('"Designator","Value","Code (IEC 60062)","Specification","Dissipation (W)","Rating (W)","Quantity","Role"');
+    const table = lines.filter((l) => !l.startsWith('#'));
+    expect(lines.slice(0, lines.length - table.length).every((l) => l.startsWith('# CAUTION: '))).toBe(true);
+    expect(table[0]).toBe('"Designator","Value","Code (IEC 60062)","Specification","Dissipation (W)","Rating (W)","Quantity","Role"');
+    // Every table row has the header's eight cells and no caution.
+    for (const row of table) expect(row.match(/"(?:[^"]|"")*"/g)!.length, row).toBe(8);
+    expect(table.join('\n')).not.toMatch(/CAUTION/);
     expect(csv).toContain(`"'=HYPERLINK(""x"")"`);
-    expect(csv).toMatch(/CAUTION: Clamp only onto insulated conductors/);
+    expect(csv).toMatch(/^# CAUTION: Clamp only onto insulated conductors/m);
     expect(csv).toMatch(/measurement-category/);
   });
 });

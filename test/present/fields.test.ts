@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { displayValue, FIELDS, fieldsFor, getPath, parseField, setPath } from '../../src/present/fields.js';
+import { displayValue, FIELDS, fieldsFor, getPath, parseField, problemWords, setPath } from '../../src/present/fields.js';
+import { DEMOS } from '../../src/model/demos.js';
 import { demoDesign } from '../../src/model/demos.js';
 import { validateDesign } from '../../src/model/design.js';
 
@@ -66,5 +67,33 @@ describe('per-measurand units are checked', () => {
     const d = setPath(demoDesign('generic-sensor'), 'sensor.measurand', 'mT');
     expect(parseField(f('target.scale'), '25 mV/mT', d)).toEqual({ ok: true, value: 0.025 });
     expect(parseField(f('target.scale'), '25 mV/A', d).ok).toBe(false);
+  });
+});
+
+describe('problemWords: a refusal in the field\'s own words, never a field path', () => {
+  const words = (id: string, mut: (d: any) => void) => {
+    const d = structuredClone(DEMOS.find((x) => x.id === id)!.document) as any;
+    mut(d);
+    const v = validateDesign(d);
+    if (v.ok) throw new Error('expected a refusal');
+    const base = validateDesign(structuredClone(DEMOS.find((x) => x.id === id)!.document));
+    return v.problems.map((p) => problemWords(p, base.ok ? base.design : undefined));
+  };
+  const PATH = /\b(sensor|supply|opamp|target|output|environment|analysis)\.[a-zA-Z]/;
+  it('a 3.3 V rail under a 5 V regulator names the regulator, the rail and the fix by their labels', () => {
+    const w = words('bench-clamp', (d) => { d.supply.positive = 3.3; d.supply.battery = null; });
+    expect(w).toContain('Regulated voltage needs “Positive rail” of at least 5.3 V (its 5 V plus 0.3 V dropout): raise “Positive rail”, lower “Regulated voltage” or switch “Regulated rail” off');
+    for (const x of w) expect(x).not.toMatch(PATH);
+  });
+  it('a lowest temperature above the design temperature is said at the lowest temperature, with both labels', () => {
+    const w = words('generic-sensor', (d) => { d.environment = { temperature: 298.15, temperatureMin: 323.15, temperatureMax: 333.15 }; });
+    expect(w).toEqual(['Lowest temperature must not be above “Design temperature”: lower “Lowest temperature” or raise “Design temperature”']);
+  });
+  it('a bound is written in the unit the field shows: a battery capacity in mAh, a temperature in °C', () => {
+    expect(words('bench-clamp', (d) => { d.supply.battery.capacity = 0; })).toEqual(['Capacity must be at least 0.1 mAh']);
+    expect(words('generic-sensor', (d) => { d.environment = { temperature: 2000 }; })[0]).toBe('Design temperature must be at most 726.85 °C');
+  });
+  it('a document entry that is no field is named as an entry, not as a dotted path', () => {
+    expect(problemWords({ path: 'opamp.__proto__', message: 'is not a field this format knows' })).toBe('The entry “__proto__” in opamp is not a field this format knows');
   });
 });

@@ -26,4 +26,17 @@ describe('SPICE netlist', () => {
     const n2 = spiceNetlist(r2)!;
     expect(n2).not.toMatch(/^\.include/m);
   });
+  it('no text from the design leaves its comment line: every line is a comment, a directive or an element we wrote', () => {
+    // Issue 14: a measurand with a newline wrote live lines (.inc, shell inside .control). The measurand is now
+    // validated as a unit symbol; the netlist writer is the second guard, tested here with a report built
+    // around validation.
+    const evil = 'A\n.inc other.cir\r\nshell touch x\u2028.end';
+    const r3 = analyse({ ...r.design, title: evil, sensor: { ...r.design.sensor, measurand: evil } }, { spreadTrials: 0 });
+    const n3 = spiceNetlist(r3)!;
+    expect(n3).not.toMatch(/^\.inc /m);
+    expect(n3).not.toMatch(/^shell/m);
+    expect(n3).not.toMatch(/[\r\u2028]/);
+    const own = /^(\*|\.(temp|nodeset|control|endc|end)\b|[RCLVIEGB][A-Za-z0-9_]* |set |op$|wrdata |dc |ac |noise |setplot |quit$)/;
+    for (const line of n3.trimEnd().split('\n')) expect(line, line).toMatch(own);
+  });
 });

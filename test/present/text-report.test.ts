@@ -19,4 +19,9 @@ describe('text report and key figures', () => {
     expect(t).toMatch(/reverse the conductor/i);
     expect(t).toMatch(/insulated conductors/);
   });
+  it('a title with terminal escapes, NUL and CR is shown escaped, never acted on', () => {
+    const t = textReport(analyse(designFrom('generic-sensor', (x) => { x.title = 'x\u001b[2J\u001b]0;owned\u0007\u0000\rdone'; }), { spreadTrials: 0 }));
+    expect(t).not.toMatch(/[\u0000-\u0009\u000b-\u001f\u007f-\u009f]/);
+    expect(t.split('\n')[0]).toBe('x\\u001b[2J\\u001b]0;owned\\u0007\\u0000\\u000ddone');
+  });
 });
