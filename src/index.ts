@@ -3,7 +3,7 @@
  * Import `./units-mathjs.js` once as well to read unit expressions beyond the common forms.
  */
 export { validateDesign, parseDesignText, serialiseDesign, formatProblems, migrate, DESIGN_FORMAT, DESIGN_VERSION, MAX_DESIGN_BYTES } from './model/design.js';
-export type { Design, SensorSpec, SensorType, Supply, OpAmpSpec, Target, Output, Environment, AnalysisOptions, Topology, TopologyChoice, Arrangement, Problem } from './model/design.js';
+export type { Design, SensorSpec, SensorType, Supply, OpAmpSpec, Target, Output, Environment, AnalysisOptions, MeasurandWaveform, Topology, TopologyChoice, Arrangement, Problem } from './model/design.js';
 export { analyse, reportJson, verdictsOf, SAFETY_CAUTIONS } from './analysis/report.js';
 export type { Report, Verdict, AnalyseOptions } from './analysis/report.js';
 export { textReport } from './present/text-report.js';

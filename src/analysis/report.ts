@@ -2,7 +2,7 @@
  * The report: a pure function of the design. Solves the stage, builds its circuit and runs every analysis.
  * The app, the CLI and the tests all read this one object.
  */
-import type { Design, Topology } from '../model/design.js';
+import type { Design, MeasurandWaveform, Topology } from '../model/design.js';
 import { sensorFrontAtRail, type SensorFront } from '../physics/sensors.js';
 import { chooseTopology, peakRange, type TopologyChoiceResult } from '../physics/topology.js';
 import { solveStage, type SolvedStage } from '../solve/stage.js';
@@ -13,6 +13,7 @@ import {
   type BatteryStep, type ClipResult, type DcPoint, type ErrorBudget, type FrequencyResponse, type InstrumentDrive, type NoiseResult,
   type Speed, type SpreadResult, type SupplyResult,
 } from './analysis.js';
+import { stepOverRange, waveform, type WaveformResult } from './waveform.js';
 import type { Warning } from '../model/findings.js';
 import { formatEng, rkmCode } from '../model/units.js';
 import { significantFigures } from '../model/eseries.js';
@@ -41,6 +42,10 @@ export interface Report {
   battery: BatteryStep[];
   spread: SpreadResult | null;
   drive: InstrumentDrive | null;
+  /** The output for the measurand waveform (the design's, or a step over the range when asked for). */
+  waveform: WaveformResult | null;
+  /** The measurand waveform solved, or null. */
+  waveformSpec: MeasurandWaveform | null;
   calibration: CalibrationStep[];
   warnings: Warning[];
   verdicts: Verdict[];
@@ -53,6 +58,10 @@ export interface AnalyseOptions {
   spreadTrials?: number;
   /** Points of the AC plot. */
   acPoints?: number;
+  /** When the design names no waveform, solve a step over the wanted range (the app's starting point). */
+  defaultWaveform?: boolean;
+  /** Samples of the waveform (default 2000). */
+  waveformSamples?: number;
 }
 
 /** Analyses a (validated) design. Never throws for a valid design: what cannot be computed is in `absent`. */
@@ -63,7 +72,7 @@ export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
   const absent: Record<string, string> = {};
   const empty: Report = {
     design, front, choice, stage: null, circuit: null, dc: null, clip: null, transfer: null, response: null, speed: null, noise: null,
-    errors: null, supply: null, battery: [], spread: null, drive: null, calibration: [], warnings, verdicts: [], absent,
+    errors: null, supply: null, battery: [], spread: null, drive: null, waveform: null, waveformSpec: null, calibration: [], warnings, verdicts: [], absent,
   };
   if (!choice.chosen) {
     warnings.push({ code: 'no-topology', level: 'fail', message: `No stage fits: ${choice.why}.` });
@@ -105,9 +114,12 @@ export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
   const spr = trials > 0 ? spread(design, front, circuit, dc, trials) : null;
   if (!spr) absent.spread = 'the tolerance spread was not run';
   const drive = instrumentDrive(design, stage, front, sp.smallSignal);
+  const waveformSpec = design.analysis.waveform ?? (opts.defaultWaveform ? stepOverRange(design) : null);
+  const wave = waveformSpec ? waveform(design, waveformSpec, circuit, front, dc, clip, sp, opts.waveformSamples ?? 2000) : null;
+  if (waveformSpec && !wave) absent.waveform = 'the time-domain solve failed (singular network)';
   const report: Report = {
     design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, spread: spr, drive,
-    calibration: [], warnings, verdicts: [], absent,
+    waveform: wave, waveformSpec: wave ? waveformSpec : null, calibration: [], warnings, verdicts: [], absent,
   };
   report.calibration = calibrationSteps(report);
   warnings.push(...findings(report));
@@ -296,6 +308,11 @@ export function reportJson(r: Report): Record<string, unknown> {
     supply: r.supply ? { current: num(r.supply.current), batteryLife: num(r.supply.batteryLife) } : null,
     spread: r.spread ? { scaleStd: num(r.spread.scaleStd), zeroStd: num(r.spread.zeroStd), yield: num(r.spread.yield), trials: r.spread.trials } : null,
     drive: r.drive ? { scaleAt1M: num(r.drive.scaleAt1M), scaleAt50: num(r.drive.scaleAt50), drives50: r.drive.drives50, isolation: num(r.drive.isolation), probeRatio: r.drive.probeRatio } : null,
+    waveform: r.waveform ? {
+      t: Array.from(r.waveform.t), measurand: Array.from(r.waveform.measurand), output: Array.from(r.waveform.output), ideal: Array.from(r.waveform.ideal),
+      riseTime: num(r.waveform.riseTime), overshoot: num(r.waveform.overshoot), settlingTime: num(r.waveform.settlingTime), droop: num(r.waveform.droop),
+      slewLimited: r.waveform.slewLimited, clipped: r.waveform.clipped,
+    } : null,
     sensor: { sensitivity: num(r.front.sensitivity), figures: r.front.figures.map((f) => ({ key: f.key, label: f.label, value: num(f.value), unit: f.unit })) },
     battery: r.battery.map((b) => ({ voltage: b.voltage, measurandLow: num(b.measurandLow), measurandHigh: num(b.measurandHigh), headroomLow: num(b.headroomLow), headroomHigh: num(b.headroomHigh), zeroShift: num(b.zeroShift) })),
     alternatives: s ? s.alternatives.map((a, i) => ({ index: i, feedback: a.a.parts, leg: a.b.parts, error: num(a.error), parts: a.parts })) : [],

@@ -186,6 +186,18 @@ export interface Environment {
   temperatureMax: number;
 }
 
+/** A measurand waveform to look at in time (measurand units, hertz). */
+export interface MeasurandWaveform {
+  /** step: low to high at t = 0 after settling at low; sine, square, triangle: periodic between low and high. */
+  shape: 'step' | 'sine' | 'square' | 'triangle';
+  low: number;
+  high: number;
+  /** Repetition frequency, Hz (not used by a step). */
+  frequency: number;
+  /** Square: fraction of the period at high; triangle: fraction of the period rising. */
+  duty: number;
+}
+
 export interface AnalysisOptions {
   /** Band for integrated noise, Hz; null = 1 Hz to 100 × the chain's −3 dB bandwidth. */
   noiseBand: [number, number] | null;
@@ -194,6 +206,8 @@ export interface AnalysisOptions {
   /** Yield limit for the spread: fractional scale error and zero error (V). */
   scaleLimit: number;
   zeroLimit: number;
+  /** Measurand waveform for the time-domain solve (null = none). */
+  waveform: MeasurandWaveform | null;
 }
 
 export interface Design {
@@ -387,6 +401,16 @@ const SCHEMA: Spec = {
         spreadSeed: opt(num('(seed)', 'nonneg', { max: 2 ** 32 }), 1),
         scaleLimit: opt(num('parts of one', 'fraction'), 0.01),
         zeroLimit: opt(num('volts', 'positive', { max: 100 }), 0.02),
+        waveform: {
+          t: 'obj', nullable: true, def: null,
+          fields: {
+            shape: { t: 'str', oneOf: ['step', 'sine', 'square', 'triangle'] },
+            low: num('measurand units', 'any', { maxAbs: 1e9 }),
+            high: num('measurand units', 'any', { maxAbs: 1e9 }),
+            frequency: opt(num('hertz', 'nonneg', { max: 1e9 }), 0),
+            duty: opt(num('parts of one', 'fraction'), 0.5),
+          },
+        },
       },
     },
   },
@@ -461,6 +485,12 @@ function crossCheck(d: Design, problems: Problem[]): void {
     p('opamp.outputHigh', 'leaves no output swing on these rails (outputLow + outputHigh is larger than the supply span)');
   }
   if (d.analysis.noiseBand && d.analysis.noiseBand[0] >= d.analysis.noiseBand[1]) p('analysis.noiseBand', 'must run from low to high');
+  const w = d.analysis.waveform;
+  if (w) {
+    if (w.low === w.high) p('analysis.waveform.high', 'must differ from analysis.waveform.low');
+    if (w.shape !== 'step' && !(w.frequency > 0)) p('analysis.waveform.frequency', `must be a positive number of hertz for a ${w.shape} wave`);
+    if ((w.shape === 'square' || w.shape === 'triangle') && !(w.duty > 0 && w.duty < 1)) p('analysis.waveform.duty', 'must lie between 0 and 1 (not at either end)');
+  }
   if (s.type === 'voltage-output' || s.type === 'hall-gap-core') {
     const sens = s.type === 'voltage-output' ? s.sensitivity : s.hallSensitivity;
     if (sens === 0) p(`sensor.${s.type === 'voltage-output' ? 'sensitivity' : 'hallSensitivity'}`, 'must not be zero');
