@@ -196,7 +196,7 @@ export function transient(c: Circuit, plan: TransientPlan): TransientTrace | nul
   };
   push(plan.t0);
 
-  const bps = plan.breakpoints.filter((tb) => tb > plan.t0 && tb < plan.t1);
+  const bps = plan.breakpoints.filter((tb) => tb > plan.t0 && tb <= plan.t1);
   let nextBp = 0;
   let t = plan.t0, h = plan.hMin, hPrev = 0, lastBp = plan.t0, atSize = 0;
   let firstOrder = true;
