@@ -65,7 +65,7 @@ export class GwApp extends LitElement {
     /* On a narrow screen the verdict comes first, then the editor, then the rest. */
     @media (max-width: 860px) { main { grid-template-columns: minmax(0, 1fr); grid-template-areas: 'verdict' 'editor' 'results'; padding: 0.5rem; } .title-input { width: 100%; } }
     .panel { background: var(--gw-paper); border: 1px solid var(--gw-line); border-radius: 6px; padding: 0.7rem 0.9rem; margin-bottom: 1rem; }
-    .scope { display: grid; grid-template-columns: minmax(0, 2fr) minmax(14rem, 1fr); gap: 0.8rem; align-items: start; }
+    .scope { display: grid; grid-template-columns: minmax(0, 3fr) minmax(0, 2fr); gap: 0.8rem; align-items: start; }
     @media (max-width: 1100px) { .scope { grid-template-columns: minmax(0, 1fr); } }
     .charts { display: grid; grid-template-columns: repeat(auto-fit, minmax(min(320px, 100%), 1fr)); gap: 0.8rem; }
     .scroll { overflow-x: auto; }
@@ -361,7 +361,7 @@ export class GwApp extends LitElement {
         </section>
         <section class="area-results" aria-label="Results">
           <div class="panel"><h2>Schematic</h2><gw-schematic .drawing=${d?.drawing ?? null}></gw-schematic></div>
-          <div class="panel" id="scope"><h2>What the scope shows</h2><div class="scope">
+          <div class="panel scroll" id="scope"><h2>What the scope shows</h2><div class="scope">
             ${d?.wave ? html`<gw-chart data-chart="waveform" .data=${d.wave}></gw-chart>` : html`<p>No waveform: ${r?.absent.waveform ?? r?.absent.all ?? ''}</p>`}
             <gw-figures caption="Waveform figures" .rows=${d?.waveRows ?? []}></gw-figures></div></div>
           <div class="panel"><h2>Plots</h2><div class="charts">${(d?.charts ?? []).map((c) => html`<gw-chart data-chart=${c.id} .data=${c}></gw-chart>`)}</div></div>

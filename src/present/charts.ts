@@ -137,7 +137,7 @@ export function waveformChart(r: Report): ChartData | null {
     { label: 'Ideal (DC transfer, no delay or limits)', role: 'secondary', points: pts(ts, w.ideal) },
   ];
   if (r.clip) {
-    series.push({ label: 'Output clips', role: 'limit', points: [{ x: x0, y: r.clip.outputHigh }, { x: x1, y: r.clip.outputHigh }].filter((p) => Number.isFinite(p.y)) });
+    series.push({ label: 'Output clips (high)', role: 'limit', points: [{ x: x0, y: r.clip.outputHigh }, { x: x1, y: r.clip.outputHigh }].filter((p) => Number.isFinite(p.y)) });
     series.push({ label: 'Output clips (low)', role: 'limit', points: [{ x: x0, y: r.clip.outputLow }, { x: x1, y: r.clip.outputLow }].filter((p) => Number.isFinite(p.y)) });
   }
   return { id: 'waveform', title: 'What the scope shows', x: { label: `Time (${unit})` }, y: { label: 'Output (V)' }, series };

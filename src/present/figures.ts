@@ -56,7 +56,7 @@ export function waveformTitle(r: Report): string {
   const w = r.waveformSpec;
   if (!w) return 'no waveform';
   const m = r.design.sensor.measurand;
-  if (w.shape === 'step') return `step from ${f(w.low, m)} to ${f(w.high, m)}${r.design.analysis.waveform ? '' : ' (over the range, as a start; the design can name its own)'}`;
+  if (w.shape === 'step') return `step ${f(w.low, m)} → ${f(w.high, m)}${r.design.analysis.waveform ? '' : ', the range (a start: name your own)'}`;
   return `${SHAPES[w.shape]} ${f(w.low, m)} … ${f(w.high, m)} at ${f(w.frequency, 'Hz')}${w.shape === 'sine' ? '' : `, ${(w.duty * 100).toFixed(0)} % ${w.shape === 'triangle' ? 'rising' : 'duty'}`}`;
 }
 
@@ -65,7 +65,8 @@ export function waveformFigures(r: Report): FigureRow[] {
   const w = r.waveform;
   if (!w) return r.waveformSpec || r.absent.waveform ? [{ label: 'Waveform', value: 'not solved', note: r.absent.waveform ?? '' }] : [];
   const pct = (x: number | null) => (x === null ? '—' : `${(x * 100).toFixed(1)} %`);
-  const rows: FigureRow[] = [{ label: 'Measurand', value: waveformTitle(r) }];
+  const spec = r.waveformSpec!;
+  const rows: FigureRow[] = [{ label: 'Measurand', value: SHAPES[spec.shape], note: waveformTitle(r) }];
   const edge = w.riseTime !== null || w.overshoot !== null;
   if (edge) {
     rows.push({ label: 'Rise time (10–90 %)', value: f(w.riseTime, 's'), note: w.slewLimited ? 'slew-limited' : `small-signal ${f(r.speed?.riseTime, 's')}` });
@@ -76,7 +77,7 @@ export function waveformFigures(r: Report): FigureRow[] {
   let lo = Infinity, hi = -Infinity;
   for (const v of w.output) { lo = Math.min(lo, v); hi = Math.max(hi, v); }
   rows.push({ label: 'Output swings', value: `${f(lo, 'V')} … ${f(hi, 'V')}` });
-  rows.push({ label: 'Slew-limited', value: w.slewLimited ? 'yes' : 'no', note: w.slewLimited ? `the op-amp's ${f(r.design.opamp.slewRate, 'V/s')} sets the edges` : '' });
-  rows.push({ label: 'Clipped', value: w.clipped ? 'yes' : 'no', note: w.clipped ? 'the output or the sensor reaches a limit' : '' });
+  rows.push({ label: 'Slew-limited', value: w.slewLimited ? 'yes' : 'no', note: w.slewLimited ? `at ${f(r.design.opamp.slewRate, 'V/s')}` : '' });
+  rows.push({ label: 'Clipped', value: w.clipped ? 'yes' : 'no', note: w.clipped ? 'output or sensor at a limit' : '' });
   return rows;
 }

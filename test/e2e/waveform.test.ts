@@ -31,7 +31,7 @@ describe('the scope view in Chromium', () => {
       expect(s.ideal, demo.id).toBeGreaterThan(1000);
       const f = await figures(page);
       expect(f, demo.id).toMatch(/Rise time/);
-      expect(f, demo.id).toMatch(/step from/);
+      expect(f, demo.id).toMatch(/step .* → /);
       expect(f, demo.id).not.toMatch(/NaN|Infinity/);
     }
     expect(errors).toEqual([]);
