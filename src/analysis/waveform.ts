@@ -7,7 +7,9 @@
 import type { Design, MeasurandWaveform } from '../model/design.js';
 import type { SensorFront } from '../physics/sensors.js';
 import type { StageCircuit } from '../circuit/build.js';
-import { transient, type TransientTrace } from '../circuit/transient.js';
+import { interpolate, transient, type TransientTrace } from '../circuit/transient.js';
+
+export { interpolate };
 import { opampSwing, type ClipResult, type DcPoint, type Speed } from './analysis.js';
 import { peakRange } from '../physics/topology.js';
 
@@ -173,18 +175,6 @@ function lastIndexAtOrBefore(t: ArrayLike<number>, x: number): number {
   let k = t.length - 1;
   while (k > 0 && t[k]! > x) k--;
   return k;
-}
-
-/** Linear interpolation of (t, v) at x, t ascending; clamped at the ends. */
-export function interpolate(t: ArrayLike<number>, v: ArrayLike<number>, x: number): number {
-  const n = t.length;
-  if (n === 0) return NaN;
-  if (x <= t[0]!) return v[0]!;
-  if (x >= t[n - 1]!) return v[n - 1]!;
-  let lo = 0, hi = n - 1;
-  while (hi - lo > 1) { const m = (lo + hi) >> 1; if (t[m]! <= x) lo = m; else hi = m; }
-  const w = (x - t[lo]!) / (t[hi]! - t[lo]! || 1);
-  return v[lo]! + w * (v[hi]! - v[lo]!);
 }
 
 /**

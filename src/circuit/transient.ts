@@ -240,12 +240,14 @@ export function transient(c: Circuit, plan: TransientPlan): TransientTrace | nul
   return { t: tBuf.slice(0, count), v: vBuf.map((a) => a.slice(0, count)), mode: mBuf.slice(0, count) };
 }
 
-/** Linear interpolation of a trace column at time t (clamped at the ends). */
-export function sampleTrace(tr: Float64Array, v: Float64Array, t: number, from = 0): { value: number; index: number } {
-  let i = Math.max(1, from);
-  while (i < tr.length - 1 && tr[i]! < t) i++;
-  if (tr.length < 2) return { value: v[0] ?? NaN, index: 0 };
-  const t0 = tr[i - 1]!, t1 = tr[i]!;
-  const w = t1 > t0 ? Math.min(Math.max((t - t0) / (t1 - t0), 0), 1) : 1;
-  return { value: v[i - 1]! + w * (v[i]! - v[i - 1]!), index: i };
+/** Linear interpolation of (t, v) at x, t ascending; clamped at the ends. `interpolate([0, 1], [0, 10], 0.25)` → 2.5. */
+export function interpolate(t: ArrayLike<number>, v: ArrayLike<number>, x: number): number {
+  const n = t.length;
+  if (n === 0) return NaN;
+  if (x <= t[0]!) return v[0]!;
+  if (x >= t[n - 1]!) return v[n - 1]!;
+  let lo = 0, hi = n - 1;
+  while (hi - lo > 1) { const m = (lo + hi) >> 1; if (t[m]! <= x) lo = m; else hi = m; }
+  const w = (x - t[lo]!) / (t[hi]! - t[lo]! || 1);
+  return v[lo]! + w * (v[hi]! - v[lo]!);
 }
