@@ -39,7 +39,7 @@ export interface TransientPlan {
   hFine: number;
   hMax: number;
   hMaxWarm: number;
-  /** How long after a breakpoint the step stays at most hFine, s. */
+  /** How long after a breakpoint in the recorded window the step stays at most hFine, s. */
   fineFor: number;
   /** Steps from this time on are recorded. */
   recordFrom: number;
@@ -77,6 +77,9 @@ export function transient(c: Circuit, plan: TransientPlan): TransientTrace | nul
   for (const i of dyn) { const e = els[i]!; if (e.kind === 'E') tau[i] = 1 / (2 * Math.PI * e.pole!); }
   const blocks = plan.limits.filter((l) => els[l.index]?.kind === 'E');
   const modes = new Int8Array(blocks.length);
+  const blockOf = new Int32Array(els.length).fill(-1);
+  blocks.forEach((l, j) => { blockOf[l.index] = j; });
+  const modeCode = () => { let k = 0; for (let j = 0; j < modes.length; j++) k = k * 5 + modes[j]! + 2; return k; };
   const x = new Float64Array(n), b = new Float64Array(n), scratch = new Float64Array(n);
   const qNow = new Float64Array(els.length), qPrev = new Float64Array(els.length), hist = new Float64Array(els.length);
   const volt = (sol: Float64Array, node: number) => (node > 0 ? sol[node - 1]! : 0);
@@ -86,12 +89,15 @@ export function transient(c: Circuit, plan: TransientPlan): TransientTrace | nul
   };
 
   // Factorisations by (α, modes): a run uses a handful of step sizes, so most steps only back-substitute.
-  const cache = new Map<string, Factor>();
+  const cache = new Map<number, Map<number, Factor>>();
+  let cached = 0;
   const factor = (alpha: number): Factor => {
-    const key = `${alpha}|${modes.join(',')}`;
-    let f = cache.get(key);
+    const code = modeCode();
+    let byMode = cache.get(alpha);
+    let f = byMode?.get(code);
     if (f) return f;
-    if (cache.size > 400) cache.clear();
+    if (cached > 400) { cache.clear(); cached = 0; byMode = undefined; }
+    if (!byMode) { byMode = new Map(); cache.set(alpha, byMode); }
     const A = new Float64Array(n * n);
     stampReal(c, A, false);
     for (const i of dyn) {
@@ -105,7 +111,7 @@ export function transient(c: Circuit, plan: TransientPlan): TransientTrace | nul
         A[k * n + k]! -= e.value * alpha;
       } else {
         // (1 + τα)·y − A0·v_d = τ·hist, or y pinned in a limited mode.
-        const bi = blocks.findIndex((l) => l.index === i);
+        const bi = blockOf[i]!;
         const m = bi >= 0 ? modes[bi]! : 0;
         if (m !== 0 && !(alpha === 0 && Math.abs(m) === 1)) {
           A.fill(0, k * n, k * n + n);
@@ -119,7 +125,8 @@ export function transient(c: Circuit, plan: TransientPlan): TransientTrace | nul
     }
     const piv = new Int32Array(n);
     f = { A, piv, ok: luFactorReal(A, n, piv) };
-    cache.set(key, f);
+    byMode.set(code, f);
+    cached++;
     return f;
   };
 
@@ -139,7 +146,7 @@ export function transient(c: Circuit, plan: TransientPlan): TransientTrace | nul
         } else if (e.kind === 'L') {
           b[k] = b[k]! - e.value * hist[i]!;
         } else {
-          const bi = blocks.findIndex((l) => l.index === i);
+          const bi = blockOf[i]!;
           const m = bi >= 0 ? modes[bi]! : 0;
           const l = bi >= 0 ? blocks[bi]! : null;
           if (l && m === 2) b[k] = l.high;
@@ -203,7 +210,8 @@ export function transient(c: Circuit, plan: TransientPlan): TransientTrace | nul
   let steps = 0;
   while (t < plan.t1 && steps < cap * 16) {
     steps++;
-    const limit = t - lastBp < plan.fineFor ? plan.hFine : t < plan.recordFrom ? plan.hMaxWarm : plan.hMax;
+    // Before the recorded window only the slow state has to come out right: edges are not resolved finely there.
+    const limit = t < plan.recordFrom ? plan.hMaxWarm : t - lastBp < plan.fineFor ? plan.hFine : plan.hMax;
     h = Math.min(h, limit);
     let tn = t + h;
     let hitsBp = false;
@@ -221,7 +229,7 @@ export function transient(c: Circuit, plan: TransientPlan): TransientTrace | nul
       alpha = (1 + 2 * w) / ((1 + w) * hh);
       for (const i of dyn) hist[i] = ((1 + w) * qNow[i]! - ((w * w) / (1 + w)) * qPrev[i]!) / hh;
     }
-    const before = modes.join(',');
+    const before = modeCode();
     // Arriving at a breakpoint the input still has its value from before the jump.
     if (!solveAt(tn, alpha, hitsBp)) return null;
     for (const i of dyn) { qPrev[i] = qNow[i]!; qNow[i] = stateOf(x, i); }
@@ -230,7 +238,7 @@ export function transient(c: Circuit, plan: TransientPlan): TransientTrace | nul
     firstOrder = false;
     if (hitsBp) {
       nextBp++; lastBp = t; firstOrder = true; h = plan.hMin; atSize = 0; hPrev = 0;
-    } else if (modes.join(',') !== before) {
+    } else if (modeCode() !== before) {
       // A block entered or left a limit inside the step: shorten the step to place the corner well.
       h = Math.max(h / 4, plan.hMin); atSize = 0;
     } else if (++atSize >= 2) {

@@ -55,7 +55,8 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
     const v = (x: number) => fmt((e.dc0 ?? 0) + (e.dc1 ?? 0) * x);
     const w = wave.spec;
     // SPICE time runs from the start of the solve (t0 in the report's time).
-    const edge = wave.hMin / 100;
+    // Edges far shorter than anything the circuit resolves, but not below what SPICE can step over the run.
+    const edge = Math.max(wave.hFine / 50, (wave.t1 - wave.t0) * 1e-8);
     if (w.shape === 'step') return ` PWL(0 ${v(w.low)} ${fmt(-wave.t0)} ${v(w.low)} ${fmt(-wave.t0 + edge)} ${v(w.high)})`;
     const T = 1 / w.frequency;
     if (w.shape === 'sine') return ` SIN(${v((w.low + w.high) / 2)} ${fmt((e.dc1 ?? 0) * (w.high - w.low) / 2)} ${fmt(w.frequency)} 0 0 0)`;
