@@ -116,7 +116,7 @@ export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
   const drive = instrumentDrive(design, stage, front, sp.smallSignal);
   const waveformSpec = design.analysis.waveform ?? (opts.defaultWaveform ? stepOverRange(design) : null);
   const wave = waveformSpec ? waveform(design, waveformSpec, circuit, front, dc, clip, sp, opts.waveformSamples ?? 2000) : null;
-  if (waveformSpec && !wave) absent.waveform = 'the time-domain solve failed (singular network)';
+  if (waveformSpec && !wave) absent.waveform = 'the time-domain solve did not finish (a singular network, or more than 400 000 steps)';
   const report: Report = {
     design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, spread: spr, drive,
     waveform: wave, waveformSpec: wave ? waveformSpec : null, calibration: [], warnings, verdicts: [], absent,

@@ -82,7 +82,7 @@ export function stepOverRange(design: Design): MeasurandWaveform {
 /**
  * Chooses the run from the circuit's time constants and the waveform. The step near an edge is τ/20 of
  * the chain's closed-loop time constant (τ = 1/2πf−3dB), or a twentieth of the edge's slew time if that is
- * shorter, for the slew time plus 12τ; elsewhere it is the
+ * shorter (but at most 4000 steps per edge), for the slew time plus 12τ; elsewhere it is the
  * sample spacing (and T/200 while a periodic wave settles). A step's window is 1.2 × (slew time + 10τ)
  * after a tenth of it at rest; a periodic wave runs until its slowest time constant (the low corner of an
  * AC-coupled chain, or τ) has died away six times over (at most 60 periods), then records two periods.
@@ -97,14 +97,15 @@ export function waveformPlan(spec: MeasurandWaveform, sp: Speed, dc: DcPoint, de
     const w = 1.2 * (slewTime + 10 * tau);
     const pre = 0.1 * w;
     const hMax = (w + pre) / (n - 1);
-    const hFine = Math.min(tau / 20, slewTime / 20 || Infinity, hMax);
+    const hFine = Math.min(Math.max(Math.min(tau / 20, slewTime / 20 || Infinity), fineFor / 4000), hMax);
     return { spec, t0: -pre, recordFrom: -pre, t1: w, warmPeriods: 0, samples: n, hMin: hFine / 16, hFine, hMax, hMaxWarm: hMax, fineFor, breakpoints: [0], tau, slewTime };
   }
   const T = 1 / spec.frequency;
   const slow = sp.lowCorner > 0 ? 1 / (2 * Math.PI * sp.lowCorner) : tau;
   const warmPeriods = Math.min(60, Math.max(1, Math.ceil((6 * slow) / T)));
   const hMax = Math.min((2 * T) / (n - 1), T / 200);
-  const hFine = Math.min(tau / 20, slewTime / 20 || Infinity, hMax);
+  // At most 4000 fine steps per edge: a slew that lasts far longer than τ is a straight ramp.
+  const hFine = Math.min(Math.max(Math.min(tau / 20, slewTime / 20 || Infinity), fineFor / 4000), hMax);
   const breakpoints: number[] = [];
   for (let k = -warmPeriods; k <= 2; k++) {
     breakpoints.push(k * T);

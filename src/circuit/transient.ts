@@ -63,7 +63,8 @@ export interface TransientTrace {
 interface Factor { A: Float64Array; piv: Int32Array; ok: boolean }
 
 /**
- * Integrates the circuit from its DC point at x(t0⁻) to t1. Returns null when a matrix is singular.
+ * Integrates the circuit from its DC point at x(t0⁻) to t1. Returns null when a matrix is singular or the
+ * run would take more than 400 000 steps.
  * Example: an RC low-pass (R = 1 kΩ, C = 1 µF) driven by a unit step gives v(1 ms) = 1 − e⁻¹ ≈ 0.632 V.
  */
 export function transient(c: Circuit, plan: TransientPlan): TransientTrace | null {
@@ -185,7 +186,7 @@ export function transient(c: Circuit, plan: TransientPlan): TransientTrace | nul
   if (!solveAt(plan.t0, 0, true)) return null;
   for (const i of dyn) { qNow[i] = stateOf(x, i); qPrev[i] = qNow[i]!; }
 
-  const cap = 1 << 16;
+  const maxSteps = 400_000;
   let tBuf = new Float64Array(1024), vBuf = plan.nodes.map(() => new Float64Array(1024)), mBuf = new Uint8Array(1024);
   let count = 0;
   const push = (t: number) => {
@@ -208,7 +209,7 @@ export function transient(c: Circuit, plan: TransientPlan): TransientTrace | nul
   let t = plan.t0, h = plan.hMin, hPrev = 0, lastBp = plan.t0, atSize = 0;
   let firstOrder = true;
   let steps = 0;
-  while (t < plan.t1 && steps < cap * 16) {
+  while (t < plan.t1 && steps < maxSteps) {
     steps++;
     // Before the recorded window only the slow state has to come out right: edges are not resolved finely there.
     const limit = t < plan.recordFrom ? plan.hMaxWarm : t - lastBp < plan.fineFor ? plan.hFine : plan.hMax;
@@ -245,6 +246,8 @@ export function transient(c: Circuit, plan: TransientPlan): TransientTrace | nul
       h = Math.min(h * 2, Math.max(plan.hMax, plan.hMaxWarm)); atSize = 0;
     }
   }
+  // A run that would need more steps than this is refused rather than left short.
+  if (t < plan.t1) return null;
   return { t: tBuf.slice(0, count), v: vBuf.map((a) => a.slice(0, count)), mode: mBuf.slice(0, count) };
 }
 

@@ -145,3 +145,20 @@ describe('waveform in the report', () => {
     }
   });
 });
+
+describe('waveform at the edges of the inputs', () => {
+  const cases: Array<[string, object, (d: any) => void]> = [
+    ['a 1 V/s slew rate (a ramp far longer than τ)', { shape: 'step', low: -20, high: 20 }, (d) => { d.opamp.slewRate = 1; }],
+    ['a 1 GHz square into a ~100 kHz chain', { shape: 'square', low: -20, high: 20, frequency: 1e9, duty: 0.5 }, () => {}],
+    ['a 1 µHz sine', { shape: 'sine', low: -20, high: 20, frequency: 1e-6 }, () => {}],
+    ['a falling step far past both clip levels', { shape: 'step', low: 1e6, high: -1e6 }, () => {}],
+    ['a triangle with a 0.1 % rise', { shape: 'triangle', low: 0, high: 20, frequency: 1e4, duty: 0.001 }, () => {}],
+  ];
+  it.each(cases)('%s gives finite samples and figures, or an absent reason', (_, w, patch) => {
+    const d = designFrom('generic-sensor', (x) => { patch(x); x.analysis = { waveform: w }; });
+    const r = analyse(d, { spreadTrials: 0 });
+    if (!r.waveform) { expect(r.absent.waveform).toMatch(/did not finish/); return; }
+    for (const a of [r.waveform.t, r.waveform.output, r.waveform.ideal, r.waveform.measurand]) expect(a.every(Number.isFinite)).toBe(true);
+    for (const x of [r.waveform.riseTime, r.waveform.overshoot, r.waveform.settlingTime, r.waveform.droop]) expect(x === null || Number.isFinite(x)).toBe(true);
+  });
+});
