@@ -13,6 +13,6 @@ describe('schematic', () => {
     for (const p of s.prims) if (p.t === 'res') expect(p.value).not.toMatch(/NaN|—/);
   });
   it('draws nothing for a design with no stage', () => {
-    expect(schematic(analyse(designFrom('generic-sensor', (x) => { x.target.scale = 0.005; x.target.zero = 2.5; }), { spreadTrials: 0 }))).toBeNull();
+    expect(schematic(analyse(designFrom('generic-sensor', (x) => { x.target.scale = 0.005; x.target.zero = 2.5; x.target.topology = 'non-inverting'; }), { spreadTrials: 0 }))).toBeNull();
   });
 });
