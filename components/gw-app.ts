@@ -8,7 +8,7 @@ import { archetype } from '../src/index.js';
 import { allCharts, waveformChart, type ChartData } from '../src/index.js';
 import { schematic, type Schematic } from '../src/index.js';
 import { bomCsv, bomRows, type BomRow } from '../src/index.js';
-import { keyFigures, waveformFigures, type FigureRow } from '../src/index.js';
+import { keyFigures, waveformFigures, waveformLine, type FigureRow } from '../src/index.js';
 import { AUTOSAVE_KEY, autosaveEntry, designFromFragment, fileName, restoreAutosave, serialiseDesign, shareFragment } from '../src/index.js';
 import { sensorTemplate } from '../src/index.js';
 import type { SensorType } from '../src/index.js';
@@ -88,6 +88,7 @@ export class GwApp extends LitElement {
       .sheet .wide { grid-column: 1 / -1; }
       .sheet gw-schematic { display: block; max-width: 9.5cm; }
       .sheet section { break-inside: avoid; }
+      .sheet .scope-print { display: grid; grid-template-columns: 3fr 2fr; gap: 0 0.3cm; align-items: start; font-size: 7pt; line-height: 1.2; }
       .sheet .safety { border: 1px solid #000; padding: 0.1rem 0.3rem 0.1rem 1.2rem; }
     }
   `];
@@ -314,11 +315,10 @@ export class GwApp extends LitElement {
       <p>${this._design.notes}</p>
       <div class="grid">
         <section><h2>Schematic</h2><gw-schematic .drawing=${d.drawing}></gw-schematic></section>
-        <section><h2>Safety</h2><ul class="safety">${this._cautions().map((c) => html`<li>${c}</li>`)}</ul></section>
+        <section><h2>Safety</h2><ul class="safety">${this._cautions().map((c) => html`<li>${c}</li>`)}</ul>
+          <h2>What the scope shows</h2><div class="scope-print"><gw-trace .data=${d.wave}></gw-trace><small>${waveformLine(r)}</small></div></section>
         <section class="wide"><h2>Parts list</h2><gw-parts compact .rows=${d.rows}></gw-parts></section>
         <section class="wide"><h2>Calibration</h2><ol class="cal">${r.calibration.map((c) => html`<li>${c.text}</li>`)}</ol></section>
-        <section><h2>What the scope shows</h2><gw-trace .data=${d.wave}></gw-trace></section>
-        <section><h2>&nbsp;</h2><gw-figures caption="Waveform figures" .rows=${d.waveRows}></gw-figures></section>
         <section><h2>Key figures</h2><gw-figures caption="Key figures" .rows=${d.figures.slice(0, half)}></gw-figures></section>
         <section><h2>&nbsp;</h2><gw-figures caption="Key figures, continued" .rows=${d.figures.slice(half)}></gw-figures></section>
       </div>

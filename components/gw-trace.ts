@@ -2,7 +2,7 @@ import { LitElement, svg, html, css, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import { formatEng, traceDrawing, type ChartData } from '../src/index.js';
 
-const W = 600, H = 170;
+const W = 600, H = 110;
 const STROKE: Record<string, string> = { main: '#000', secondary: '#555', limit: '#888', clipped: '#000', range: '#888', source: '#333' };
 const DASH: Record<string, string> = { secondary: '5 3', limit: '2 3', range: '6 3' };
 

@@ -12,7 +12,7 @@ export { bomRows, bomCsv, powerRating } from './present/bom.js';
 export { calibrationSteps } from './present/calibration.js';
 export { allCharts, waveformChart, traceDrawing } from './present/charts.js';
 export { schematic } from './present/schematic.js';
-export { keyFigures, waveformFigures } from './present/figures.js';
+export { keyFigures, waveformFigures, waveformLine } from './present/figures.js';
 export { parseQuantity, formatEng, rkmCode, parseRkm, colourBands, toleranceLetter, setUnitEngine, unitEngineReady } from './model/units.js';
 export { nearest, neighbours, isMember, usualTolerance, valuesInRange, mantissas, SERIES_NAMES, TRIMMER_VALUES } from './model/eseries.js';
 export type { SeriesName } from './model/eseries.js';

@@ -82,3 +82,8 @@ export function waveformFigures(r: Report): FigureRow[] {
   rows.push({ label: 'Clipped', value: w.clipped ? 'yes' : 'no', note: w.clipped ? 'output or sensor at a limit' : '' });
   return rows;
 }
+
+/** The waveform's figures in one line, for the printed sheet: "Measurand: step …; Rise time (10–90 %): 6.40 µs (slew-limited); …". */
+export function waveformLine(r: Report): string {
+  return waveformFigures(r).filter((row) => row.label !== 'Output swings').map((row) => row.label === 'Measurand' ? row.note ?? row.value : `${row.label}: ${row.value}${row.note ? ` (${row.note})` : ''}`).join('; ');
+}

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { analyse } from '../../src/analysis/report.js';
 import { timeUnit, traceDrawing, waveformChart } from '../../src/present/charts.js';
-import { waveformFigures } from '../../src/present/figures.js';
+import { waveformFigures, waveformLine } from '../../src/present/figures.js';
 import { textReport } from '../../src/present/text-report.js';
 import { spiceNetlist } from '../../src/present/spice.js';
 import { groupDefault } from '../../src/present/fields.js';
@@ -48,6 +48,13 @@ describe('waveform presentation', () => {
     expect(by('Slew-limited').value).toBe(step.waveform!.slewLimited ? 'yes' : 'no');
     expect(by('Rise time (10–90 %)').value).toMatch(/s$/);
     for (const r of rows) expect(`${r.value} ${r.note ?? ''}`).not.toMatch(/NaN|Infinity|undefined/);
+  });
+
+  it('waveformLine puts the printed sheet\'s figures in one line, the range first', () => {
+    const line = waveformLine(step);
+    expect(line).toMatch(/^step -20\.0 A → 20\.0 A; Rise time \(10–90 %\): /);
+    expect(line).toMatch(/Slew-limited: (yes|no)/);
+    expect(line).not.toMatch(/Output swings|NaN/);
   });
 
   it('the text report has a waveform section only when there is a waveform', () => {
