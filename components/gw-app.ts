@@ -362,7 +362,7 @@ export class GwApp extends LitElement {
         <section class="area-results" aria-label="Results">
           <div class="panel"><h2>Schematic</h2><gw-schematic .drawing=${d?.drawing ?? null}></gw-schematic></div>
           <div class="panel scroll" id="scope"><h2>What the scope shows</h2><div class="scope">
-            ${d?.wave ? html`<gw-chart data-chart="waveform" .data=${d.wave}></gw-chart>` : html`<p>No waveform: ${r?.absent.waveform ?? r?.absent.all ?? ''}</p>`}
+            ${d?.wave ? html`<gw-chart data-chart="waveform" .data=${d.wave}></gw-chart>` : nothing}
             <gw-figures caption="Waveform figures" .rows=${d?.waveRows ?? []}></gw-figures></div></div>
           <div class="panel"><h2>Plots</h2><div class="charts">${(d?.charts ?? []).map((c) => html`<gw-chart data-chart=${c.id} .data=${c}></gw-chart>`)}</div></div>
           <div class="panel scroll"><h2>Parts list</h2><gw-parts .rows=${d?.rows ?? []} .alternatives=${r?.stage?.alternatives ?? []} .chosen=${r?.stage?.chosen ?? 0} @gw-set=${this._onSet}></gw-parts></div>
