@@ -16,7 +16,7 @@ export { keyFigures, waveformFigures, waveformLine } from './present/figures.js'
 export { parseQuantity, formatEng, rkmCode, parseRkm, colourBands, toleranceLetter, setUnitEngine, unitEngineReady } from './model/units.js';
 export { nearest, neighbours, isMember, usualTolerance, valuesInRange, mantissas, SERIES_NAMES, TRIMMER_VALUES } from './model/eseries.js';
 export type { SeriesName } from './model/eseries.js';
-export { sensorFront, sensorFrontAtRail, gapFieldPerAmp } from './physics/sensors.js';
+export { sensorFront, sensorFrontAtRail, gapFieldPerAmp, gapAreaRatio, gappedCorePerAmp } from './physics/sensors.js';
 export { chooseTopology, idealStage, nonInvertingOutput, invertingOutput } from './physics/topology.js';
 export { solveStage } from './solve/stage.js';
 export { standardTrimmer } from './solve/trimmers.js';

@@ -119,21 +119,20 @@ export function clipping(design: Design, front: SensorFront, dc: DcPoint, positi
   }
   for (const l of front.limits) add(l.kind, [l.low, l.high], l.why);
 
-  // The linear region is where every limit holds at once: the intersection of their intervals, whether or not
-  // it contains zero (a one-sided range such as 0.1…10 A with the output at a rail at zero is a normal design).
+  // The linear region is the intersection of every limit's interval. It need not contain zero: when the zero
+  // itself sits outside it (a sagging rail), each side's limit is still reported.
   let xLo = -Infinity, xHi = Infinity, firstLow: ClipCause | null = null, firstHigh: ClipCause | null = null;
-  let empty = false;
+  let empty: ClipLimit | null = null;
   for (const l of limits) {
-    if (Number.isNaN(l.low) || Number.isNaN(l.high)) { empty = true; firstLow = firstHigh = l.cause; continue; }
+    if (Number.isNaN(l.low) || Number.isNaN(l.high)) { empty ??= l; continue; }
     if (l.low > xLo) { xLo = l.low; firstLow = l.cause; }
     if (l.high < xHi) { xHi = l.high; firstHigh = l.cause; }
   }
-  if (!empty && xLo > xHi) empty = true;
+  if (!empty && xLo > xHi) empty = limits.find((l) => l.cause === (xLo > 0 ? firstLow : firstHigh)) ?? null;
   const linearAtZero = !empty && xLo <= 0 && xHi >= 0;
   if (empty) {
-    // No measurand keeps every limit: the region is a point, at zero, named after the limit that fails there.
-    const bad = limits.find((l) => Number.isNaN(l.low) || l.low > 0 || l.high < 0) ?? limits.find((l) => l.cause === firstLow)!;
-    firstLow = firstHigh = bad.cause;
+    // Nothing is linear anywhere: report the cause at zero measurand.
+    firstLow = firstHigh = empty.cause;
     xLo = xHi = 0;
   }
   const rangePeak = peakRange(design);
@@ -293,7 +292,20 @@ export interface NoiseResult {
   referredDensityAt1kHz: number;
   /** Each source's share of the integrated noise power. */
   shares: Array<{ name: string; rms: number; fraction: number }>;
+  /** Whether the band is the default one (`defaultBand`) rather than the design's own. */
+  bandIsDefault: boolean;
+  /** The 0.1–10 Hz figure that decides how far a DC reading wanders: rms and peak-to-peak at the output, V, and referred. */
+  lowFrequency: { band: [number, number]; rms: number; peakToPeak: number; referredPeakToPeak: number };
 }
+
+/** The low-frequency band whose peak-to-peak noise is quoted for DC work, Hz (common practice: 0.1–10 Hz). */
+export const LOW_FREQUENCY_BAND: readonly [number, number] = [0.1, 10];
+
+/**
+ * Share of a single pole's noise bandwidth (π/2)·f_c that the default band's top, 100 × f_c, holds:
+ * ∫₀^{100 f_c} df/(1 + (f/f_c)²) = f_c·atan(100), over (π/2)·f_c → 0.9936 (derived).
+ */
+export const DEFAULT_BAND_SHARE = Math.atan(100) / (Math.PI / 2);
 
 /** The default noise band: 1 Hz (or a tenth of an AC-coupled chain's low corner) to 100 × the −3 dB frequency. */
 export function defaultBand(sp: Speed): [number, number] {
@@ -313,18 +325,27 @@ export function noise(design: Design, sc: StageCircuit, sp: Speed, points = 201)
     return { name: s.name, rms: Math.sqrt(p), fraction: power > 0 ? p / power : 0 };
   }).sort((a, b) => b.fraction - a.fraction);
   const g = Math.abs(sp.passband) || NaN;
+  const lf = LOW_FREQUENCY_BAND;
+  const lfFreqs = logGrid(lf[0], lf[1], 24);
+  const lfRms = Math.sqrt(integratePower(lfFreqs, noiseSpectrum(sc.circuit, sc.nodes.out, lfFreqs, T).total));
   return {
     spectrum, band, densityAt1kHz: at1k, rms, peakToPeak: peakToPeak(rms), referredRms: rms / g,
-    referredDensityAt1kHz: at1k / g, shares,
+    referredDensityAt1kHz: at1k / g, shares, bandIsDefault: design.analysis.noiseBand === null,
+    lowFrequency: { band: [lf[0], lf[1]], rms: lfRms, peakToPeak: peakToPeak(lfRms), referredPeakToPeak: peakToPeak(lfRms) / g },
   };
 }
 
 export interface ErrorTerm {
   name: string;
-  /** Error in measurand units at the range end. */
+  /** Error in measurand units at the range end the budget is stated at (`ErrorBudget.at`). */
   value: number;
+  /** The same at the low and the high end of the range. */
+  low: number;
+  high: number;
   /** zero: removed by the zero trim; scale: by the gain trim; none: remains after calibration. */
   removedBy: 'zero' | 'scale' | 'both' | 'none';
+  /** A term of the calibration itself (meter, trimmer resolution): it exists only after calibration. */
+  calibration?: boolean;
 }
 
 export interface ErrorBudget {
@@ -333,40 +354,88 @@ export interface ErrorBudget {
   rss: number;
   afterTrim: number;
   afterTrimRss: number;
-  /** Measurand at which the errors are stated (the range end with the larger magnitude). */
+  /** Measurand at which the errors are stated: the range end with the larger worst case after calibration. */
   at: number;
+  /** Worst case after calibration at the low and the high range end. */
+  afterTrimLow: number;
+  afterTrimHigh: number;
 }
 
 /**
- * DC error budget at the range end, in measurand units. Each resistor is moved by its tolerance alone and
- * the scale and zero recomputed from the circuit; offsets and bias currents come from their own DC columns.
+ * Where the span is calibrated, as a fraction of the range end (the calibration steps apply about half the
+ * range end; common practice: large enough to read well, small enough for a bench supply).
+ */
+export const SPAN_CALIBRATION_FRACTION = 0.5;
+
+/**
+ * DC error budget at both range ends, in measurand units. Each resistor and trimmer is moved by its
+ * tolerance alone and the scale and zero recomputed from the circuit; offsets, bias currents and rails come
+ * from their own DC columns. A rail that feeds a ratiometric sensor moves the sensor's zero and sensitivity
+ * with it (the sensor tracks its rail). After calibration the static terms go and what the calibration
+ * itself leaves comes in: the trimmers' settable step and the meter's uncertainty, with the span taken from
+ * the difference of two readings (at the zero and at the calibration point) so that a zero error does not
+ * enter the span.
  */
 export function errorBudget(design: Design, stage: SolvedStage, front: SensorFront, sc: StageCircuit, dc: DcPoint): ErrorBudget {
   const terms: ErrorTerm[] = [];
   const [a, b] = peakRange(design);
-  const xEnd = Math.abs(a) > Math.abs(b) ? a : b;
   const scale = dc.out[1];
   const toUnits = (volts: number) => Math.abs(volts / scale);
+  // A term as an output change dz + ds·x (V), read at both ends in measurand units.
+  const lin = (name: string, dz: number, ds: number, removedBy: ErrorTerm['removedBy'], calibration = false) =>
+    ({ name, value: 0, low: toUnits(dz + ds * a), high: toUnits(dz + ds * b), removedBy, ...(calibration ? { calibration } : {}) });
+  const add = (t: ErrorTerm) => { terms.push(t); };
   const passband = !front.passesDc;
   const zeroTrim = !!stage.network.reference.trim;
   const gainTrim = !!stage.network.gainTrim;
-  const dT = Math.max(Math.abs(design.environment.temperatureMax - design.environment.temperature), Math.abs(design.environment.temperature - design.environment.temperatureMin));
-  const sol = solveDc(sc.circuit, [(e) => e.extra?.vos ?? 0, (e) => (e.extra?.ibp ?? 0) + (e.extra?.ibn ?? 0), (e) => (e.name === 'VSIG' || e.name === 'VQ' ? 1 : 0)], passband);
+  const env = design.environment;
+  const dT = Math.max(Math.abs(env.temperatureMax - env.temperature), Math.abs(env.temperature - env.temperatureMin));
+  const o = sc.nodes.out - 1;
+  const sup = design.supply;
+  const oa = design.opamp;
+  const sol = solveDc(sc.circuit, [
+    (e) => e.extra?.vos ?? 0, (e) => (e.extra?.ibp ?? 0) + (e.extra?.ibn ?? 0), (e) => (e.name === 'VSIG' || e.name === 'VQ' ? 1 : 0),
+    (e) => (e.name === 'VREG' ? 1 : 0), (e) => (e.name === 'VPOS' ? 1 : 0), (e) => (e.name === 'VNEG' ? 1 : 0),
+  ], passband);
   if (sol) {
-    const o = sc.nodes.out - 1;
-    const [cVos, cIb, cVq] = sol.columns as [Float64Array, Float64Array, Float64Array];
-    terms.push({ name: 'op-amp offset voltage', value: toUnits(cVos[o]!), removedBy: 'zero' });
-    terms.push({ name: 'op-amp bias current', value: toUnits(cIb[o]!), removedBy: 'zero' });
-    if (front.quiescentTolerance) terms.push({ name: 'sensor zero tolerance', value: toUnits(cVq[o]! * front.quiescentTolerance), removedBy: 'zero' });
-    const vosPerVolt = Math.abs(cVos[o]! / (design.opamp.offsetVoltage || 1));
-    if (design.opamp.offsetDrift) terms.push({ name: 'op-amp offset drift', value: toUnits(vosPerVolt * design.opamp.offsetDrift * dT), removedBy: 'none' });
-    if (front.quiescentDrift) terms.push({ name: 'sensor zero drift', value: toUnits(cVq[o]! * front.quiescentDrift * dT), removedBy: 'none' });
+    const [cVos, cIb, cVq, cReg, cPos, cNeg] = sol.columns.map((c) => c[o]!) as [number, number, number, number, number, number];
+    add(lin('op-amp offset voltage', cVos, 0, 'zero'));
+    add(lin('op-amp bias current', cIb, 0, 'zero'));
+    if (front.quiescentTolerance) add(lin('sensor zero tolerance', cVq * front.quiescentTolerance, 0, 'zero'));
+    const vosPerVolt = oa.offsetVoltage ? cVos / oa.offsetVoltage : 0;
+    if (oa.offsetDrift) add(lin('op-amp offset drift', vosPerVolt * oa.offsetDrift * dT, 0, 'none'));
+    if (front.quiescentDrift) add(lin('sensor zero drift', cVq * front.quiescentDrift * dT, 0, 'none'));
+    // A relative change ε of a rail: the networks hanging from it (its column) and, for a ratiometric sensor
+    // fed from it, the sensor's zero and sensitivity by the same ε.
+    const railShift = (rail: 'regulated' | 'positive', column: number, volts: number, eps: number): [number, number] => {
+      const tracks = !!front.ratiometricSupply && sup.sensorRail === rail;
+      return [column * volts * eps + (tracks ? cVq * front.quiescent * eps : 0), tracks ? scale * eps : 0];
+    };
+    const reg = sup.regulated;
+    if (reg && sc.rails.regulated >= 0 && (sup.referenceRail === 'regulated' || sup.sensorRail === 'regulated')) {
+      add(lin(`regulated rail tolerance (±${+(reg.tolerance * 100).toPrecision(3)} %)`, ...railShift('regulated', cReg, reg.voltage, reg.tolerance), 'both'));
+      if (reg.drift) add(lin(`regulated rail drift (${+(reg.drift * 1e6).toPrecision(3)} ppm/K over ±${dT.toFixed(0)} K)`, ...railShift('regulated', cReg, reg.voltage, reg.drift * dT), 'none'));
+    }
+    // The op-amp's supply rejection: a change ΔV across its supply moves its offset by ΔV/PSRR.
+    const psrr = 10 ** (-oa.psrrDb / 20);
+    if (sup.battery) {
+      // A battery sags after calibration: its sweep shows the rail's own effect; the offset's share remains.
+      add(lin(`op-amp supply rejection over the battery's sag (${oa.psrrDb} dB)`, vosPerVolt * (sup.battery.fresh - sup.battery.endOfLife) * psrr, 0, 'none'));
+    } else if (sup.tolerance) {
+      const [dzP, dsP] = railShift('positive', cPos, sup.positive, sup.tolerance);
+      const dzN = cNeg * sup.negative * sup.tolerance;
+      const railTerm = { ...lin(`supply rail tolerance (±${+(sup.tolerance * 100).toPrecision(3)} %)`, dzP, dsP, 'both'), low: toUnits(dzP + dsP * a) + toUnits(dzN), high: toUnits(dzP + dsP * b) + toUnits(dzN) };
+      // Nothing may hang from the bench rails (a reference and sensor on a regulator): then there is no term.
+      if (Math.max(railTerm.low, railTerm.high) > 1e-9 * Math.max(Math.abs(a), Math.abs(b))) add(railTerm);
+      add(lin(`op-amp supply rejection of the rail tolerance (${oa.psrrDb} dB)`, vosPerVolt * (sup.positive - sup.negative) * sup.tolerance * psrr, 0, 'zero'));
+    }
   }
-  if (front.sensitivityTolerance) terms.push({ name: 'sensor sensitivity tolerance', value: Math.abs(xEnd) * front.sensitivityTolerance, removedBy: 'scale' });
-  if (front.sensitivityDrift) terms.push({ name: 'sensor sensitivity drift', value: Math.abs(xEnd * front.sensitivityDrift * dT), removedBy: 'none' });
-  // Resistors: each part alone at +tolerance; zero and scale shifts from the circuit.
+  if (front.sensitivityTolerance) add(lin('sensor sensitivity tolerance', 0, scale * front.sensitivityTolerance, 'scale'));
+  if (front.sensitivityDrift) add(lin('sensor sensitivity drift', 0, scale * front.sensitivityDrift * dT, 'none'));
+  // Resistors and trimmers: each part alone at +tolerance; zero and scale shifts from the circuit. A
+  // potentiometer's halves move together (its tolerance and tempco scale the whole track).
   const base0 = dc.out[0], base1 = dc.out[1];
-  let driftSum = 0;
+  const drift = { resistor: { low: 0, high: 0 }, trimmer: { low: 0, high: 0 } };
   for (const p of stage.parts) {
     if (p.kind === 'capacitor') continue;
     const names = sc.circuit.elements.filter((e) => e.kind === 'R' && (e.name === p.ref || e.name === `${p.ref}A` || e.name === `${p.ref}B`)).map((e) => e.name);
@@ -378,29 +447,44 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
       return { dz: d2.out[0] - base0, ds: d2.out[1] - base1 };
     };
     const t = shift(p.tolerance);
-    const removed = p.kind === 'trimmer' ? 'both' : 'both';
-    terms.push({ name: `${p.ref} tolerance (${formatEng(p.ohms, 'Ω', 3)})`, value: toUnits(t.dz + t.ds * xEnd), removedBy: removed });
-    if (design.target.tempco && p.kind === 'resistor') {
-      const d = shift(Math.abs(design.target.tempco) * dT);
-      const v = toUnits(d.dz + d.ds * xEnd);
-      driftSum += v;
+    add(lin(`${p.ref} tolerance (${formatEng(p.ohms, 'Ω', 3)})`, t.dz, t.ds, 'both'));
+    const tc = p.kind === 'trimmer' ? design.target.trimmerTempco : design.target.tempco;
+    if (tc) {
+      const d = shift(Math.abs(tc) * dT);
+      const acc = p.kind === 'trimmer' ? drift.trimmer : drift.resistor;
+      acc.low += toUnits(d.dz + d.ds * a);
+      acc.high += toUnits(d.dz + d.ds * b);
     }
   }
-  if (driftSum > 0) terms.push({ name: `resistor tempco (${(design.target.tempco * 1e6).toFixed(0)} ppm/K over ±${dT.toFixed(0)} K)`, value: driftSum, removedBy: 'none' });
-  const reg = design.supply.regulated;
-  if (reg && design.supply.referenceRail === 'regulated' && sc.rails.regulated >= 0) {
-    const sol2 = solveDc(sc.circuit, [(e) => (e.name === 'VREG' ? reg.voltage * reg.tolerance : 0)], passband);
-    if (sol2) terms.push({ name: 'regulated rail tolerance', value: toUnits(sol2.columns[0]![sc.nodes.out - 1]!), removedBy: 'zero' });
+  if (drift.resistor.low || drift.resistor.high) add({ name: `resistor tempco (${(design.target.tempco * 1e6).toFixed(0)} ppm/K over ±${dT.toFixed(0)} K)`, value: 0, ...drift.resistor, removedBy: 'none' });
+  if (drift.trimmer.low || drift.trimmer.high) add({ name: `trimmer tempco (${(design.target.trimmerTempco * 1e6).toFixed(0)} ppm/K over ±${dT.toFixed(0)} K)`, value: 0, ...drift.trimmer, removedBy: 'none' });
+  // What the calibration itself leaves: the trimmers' settable step and the meter.
+  if (stage.network.reference.trim) add(lin('zero trimmer resolution', stage.network.reference.trim.step, 0, 'none', true));
+  if (stage.network.gainTrim) add(lin('span trimmer resolution', 0, scale * stage.network.gainTrim.step, 'none', true));
+  const cal = design.calibration;
+  const end = Math.max(Math.abs(a), Math.abs(b)) / (design.target.signal === 'ac-rms' ? Math.SQRT2 : 1);
+  const xCal = SPAN_CALIBRATION_FRACTION * end;
+  if (cal.meterRelative || cal.meterDigits) {
+    // Zero: one reading of the output at zero, ±(r·|z| + d). Span: the difference of the readings at the
+    // calibration point and at zero, ±(r·|s·x_cal| + 2d), against the applied measurand read to ±r, so the
+    // relative span error is r + (r·|s·x_cal| + 2d)/|s·x_cal|. An AC span is one rms reading (its zero is
+    // not in it): ±(r·|s·x_cal| + d).
+    const ac = design.target.signal === 'ac-rms';
+    add(lin('calibration meter, zero reading', cal.meterRelative * Math.abs(base0) + cal.meterDigits, 0, 'none', true));
+    const rel = cal.meterRelative + (cal.meterRelative * Math.abs(scale * xCal) + (ac ? 1 : 2) * cal.meterDigits) / Math.abs(scale * xCal);
+    add(lin(ac ? 'calibration meter, span (one rms reading)' : 'calibration meter, span from two readings', 0, scale * rel, 'none', true));
   }
-  // What the trims leave: their settable step.
-  const removedFlag = (t: ErrorTerm) => (t.removedBy === 'zero' && zeroTrim) || (t.removedBy === 'scale' && gainTrim) || (t.removedBy === 'both' && zeroTrim && gainTrim);
-  const after: number[] = terms.filter((t) => !removedFlag(t)).map((t) => t.value);
-  if (stage.network.reference.trim) after.push(toUnits(stage.network.reference.trim.step));
-  if (stage.network.gainTrim) after.push(Math.abs(xEnd) * stage.network.gainTrim.step);
-  const wc = terms.reduce((s, t) => s + t.value, 0);
-  const rss = Math.sqrt(terms.reduce((s, t) => s + t.value ** 2, 0));
+  const removed = (t: ErrorTerm) => (t.removedBy === 'zero' && zeroTrim) || (t.removedBy === 'scale' && gainTrim) || (t.removedBy === 'both' && zeroTrim && gainTrim);
+  const before = terms.filter((t) => !t.calibration);
+  const after = terms.filter((t) => t.calibration || !removed(t));
+  const sum = (ts: ErrorTerm[], k: 'low' | 'high') => ts.reduce((x, t) => x + t[k], 0);
+  const rss = (ts: ErrorTerm[], k: 'low' | 'high') => Math.sqrt(ts.reduce((x, t) => x + t[k] ** 2, 0));
+  const afterLow = sum(after, 'low'), afterHigh = sum(after, 'high');
+  const k: 'low' | 'high' = afterLow > afterHigh ? 'low' : 'high';
+  for (const t of terms) t.value = t[k];
   return {
-    terms, worstCase: wc, rss, afterTrim: after.reduce((s, v) => s + v, 0), afterTrimRss: Math.sqrt(after.reduce((s, v) => s + v * v, 0)), at: xEnd,
+    terms, worstCase: sum(before, k), rss: rss(before, k), afterTrim: Math.max(afterLow, afterHigh), afterTrimRss: rss(after, k),
+    at: k === 'low' ? a : b, afterTrimLow: afterLow, afterTrimHigh: afterHigh,
   };
 }
 
@@ -439,32 +523,78 @@ export interface BatteryStep {
   headroomLow: number;
   headroomHigh: number;
   zeroShift: number;
+  /** Scale at this voltage, V per measurand unit (a ratiometric sensor on a regulator in dropout changes it). */
+  scale: number;
   first: ClipCause | null;
   /** Whether the regulated rail (if any) still holds. */
   regulated: boolean;
 }
 
-/** Sweep of the positive rail from a fresh battery to its end of life: clip points, headroom, zero shift. */
+/**
+ * The stage at one positive-rail voltage: clip points, headroom, zero and scale. A regulator holds while the
+ * rail exceeds its output by its dropout; below that its output follows the rail, dropout below it, and a
+ * ratiometric sensor fed from it scales with it.
+ */
+export function batteryStep(design: Design, stage: SolvedStage, front: SensorFront, zero: number, v: number): BatteryStep | null {
+  const passband = !front.passesDc;
+  const reg = design.supply.regulated;
+  const dropout = reg?.dropout ?? 0;
+  const neg = design.supply.negative;
+  const regulated = !reg || v - neg >= reg.voltage + dropout;
+  const regOut = reg ? (regulated ? reg.voltage : Math.max(v - dropout - neg, 0.01)) : 0;
+  const sensorSupply = design.supply.sensorRail === 'regulated' && reg ? regOut : v;
+  const f2 = atSensorSupply(front, sensorSupply);
+  const d2: Design = reg && !regulated ? { ...design, supply: { ...design.supply, regulated: { ...reg, voltage: regOut } } } : design;
+  const sc = buildCircuit(d2, stage, front, { positive: v, front: f2 });
+  const dc = dcLinear(sc, passband);
+  if (!dc) return null;
+  const c = clipping(d2, f2, dc, v);
+  return { voltage: v, measurandLow: c.measurandLow, measurandHigh: c.measurandHigh, headroomLow: c.headroom.low, headroomHigh: c.headroom.high, zeroShift: dc.out[0] - zero, scale: dc.out[1], first: c.first, regulated };
+}
+
+/** Sweep of the positive rail from a fresh battery to its end of life: clip points, headroom, zero and scale. */
 export function batterySweep(design: Design, stage: SolvedStage, front: SensorFront, zero: number, steps = 9): BatteryStep[] {
   const bat = design.supply.battery;
   if (!bat) return [];
   const out: BatteryStep[] = [];
-  const passband = !front.passesDc;
-  const reg = design.supply.regulated;
   for (let i = 0; i < steps; i++) {
-    const v = bat.fresh + ((bat.endOfLife - bat.fresh) * i) / (steps - 1);
-    // A regulator holds while it has about 0.3 V of headroom (common practice for a low-dropout part).
-    const regulated = !reg || v - design.supply.negative >= reg.voltage + 0.3;
-    const sensorSupply = design.supply.sensorRail === 'regulated' && reg ? (regulated ? reg.voltage : v - 0.3) : v;
-    const f2 = atSensorSupply(front, sensorSupply);
-    const d2: Design = reg && !regulated ? { ...design, supply: { ...design.supply, regulated: { ...reg, voltage: Math.max(v - 0.3 - design.supply.negative, 0.01) } } } : design;
-    const sc = buildCircuit(d2, stage, front, { positive: v, front: f2 });
-    const dc = dcLinear(sc, passband);
-    if (!dc) continue;
-    const c = clipping(d2, f2, dc, v);
-    out.push({ voltage: v, measurandLow: c.measurandLow, measurandHigh: c.measurandHigh, headroomLow: c.headroom.low, headroomHigh: c.headroom.high, zeroShift: dc.out[0] - zero, first: c.first, regulated });
+    const s = batteryStep(design, stage, front, zero, bat.fresh + ((bat.endOfLife - bat.fresh) * i) / (steps - 1));
+    if (s) out.push(s);
   }
   return out;
+}
+
+export interface BatteryClip {
+  /** Highest battery voltage at which the output first clips inside the range, V (null: never, down to end of life). */
+  voltage: number | null;
+  /** Hours from a fresh battery to that voltage and to end of life (null without a current figure). */
+  hoursToClip: number | null;
+  hoursToEnd: number | null;
+}
+
+/**
+ * Where the output first clips inside the range as the battery sags, solved exactly: the smaller headroom is
+ * continuous in the rail voltage (piecewise linear), so its sign change between two sweep points is
+ * bisected to 1 µV. Times assume the battery voltage falls linearly with the charge drawn at a constant
+ * current (t = Q/I, Q the capacity; the straight line from fresh to end of life is our approximation, a
+ * real cell's curve is flatter in the middle).
+ */
+export function batteryClip(design: Design, stage: SolvedStage, front: SensorFront, zero: number, sweep: BatteryStep[], sup: SupplyResult): BatteryClip {
+  const bat = design.supply.battery;
+  const hoursToEnd = sup.batteryLife;
+  if (!bat) return { voltage: null, hoursToClip: null, hoursToEnd: null };
+  const margin = (s: BatteryStep | null) => (s ? Math.min(s.headroomLow, s.headroomHigh) : -Infinity);
+  const hours = (v: number) => (hoursToEnd === null ? null : (hoursToEnd * (bat.fresh - v)) / (bat.fresh - bat.endOfLife));
+  const k = sweep.findIndex((s) => margin(s) < 0);
+  if (k < 0) return { voltage: null, hoursToClip: null, hoursToEnd };
+  if (k === 0) return { voltage: sweep[0]!.voltage, hoursToClip: 0, hoursToEnd };
+  let hi = sweep[k - 1]!.voltage, lo = sweep[k]!.voltage;
+  for (let i = 0; i < 60 && hi - lo > 1e-6; i++) {
+    const m = (hi + lo) / 2;
+    if (margin(batteryStep(design, stage, front, zero, m)) < 0) lo = m; else hi = m;
+  }
+  const v = (hi + lo) / 2;
+  return { voltage: v, hoursToClip: hours(v), hoursToEnd };
 }
 
 export interface SpreadResult {
@@ -481,7 +611,8 @@ export interface SpreadResult {
 
 /**
  * Monte Carlo over part tolerances: each resistor uniform within ±tolerance (trimmers at their setting with
- * ±20 % on their total), the sensor's sensitivity and zero uniform within theirs; seeded so runs repeat.
+ * ±20 % on their whole track, both halves of a potentiometer together), the sensor's sensitivity and zero
+ * uniform within theirs; seeded so runs repeat.
  */
 export function spread(design: Design, front: SensorFront, sc: StageCircuit, dc: DcPoint, trials = design.analysis.spreadTrials, seed = design.analysis.spreadSeed): SpreadResult {
   const rand = mulberry32(seed);
@@ -494,6 +625,12 @@ export function spread(design: Design, front: SensorFront, sc: StageCircuit, dc:
   };
   const nominal = c.elements.map((e) => e.value);
   const tols = c.elements.map(tolOf);
+  // A potentiometer's tolerance scales its whole track: its two halves (RV2A, RV2B) share one draw, so the
+  // wiper ratio holds. Every other part draws on its own.
+  const groupOf = c.elements.map((e, i) => /^(RV\d+)[AB]?$/.exec(e.name)?.[1] ?? `#${i}`);
+  const groups = [...new Set(groupOf)];
+  const groupIdx = Int32Array.from(groupOf, (g) => groups.indexOf(g));
+  const draw = new Float64Array(groups.length);
   const sigIdx = sc.signalIndex;
   const sig = c.elements[sigIdx]!;
   const n = c.size;
@@ -510,9 +647,10 @@ export function spread(design: Design, front: SensorFront, sc: StageCircuit, dc:
   let pass = 0;
   const s0 = dc.out[1], z0 = dc.out[0];
   for (let t = 0; t < trials; t++) {
+    for (let g = 0; g < draw.length; g++) draw[g] = 2 * rand() - 1;
     for (let i = 0; i < c.elements.length; i++) {
       const tol = tols[i]!;
-      if (tol) c.elements[i]!.value = nominal[i]! * (1 + tol * (2 * rand() - 1));
+      if (tol) c.elements[i]!.value = nominal[i]! * (1 + tol * draw[groupIdx[i]!]!);
     }
     b0.set(base0); b1.set(base1);
     const kq = sig.kind === 'V' ? front.quiescentTolerance * (2 * rand() - 1) : 0;
@@ -555,8 +693,14 @@ export interface InstrumentDrive {
   drives50: boolean;
   /** Recommended series isolation resistor, Ω (0 when one is fitted already). */
   isolation: number;
-  /** Instrument probe-ratio setting that reads the measurand directly, or null when none fits. */
+  /** Instrument probe-ratio setting that makes one displayed volt one measurand unit, or null when none fits. */
   probeRatio: number | null;
+  /** Output at zero measurand at a 1 MΩ input, V: what the instrument's offset control must null. */
+  probeOffset: number;
+  /** The same as the instrument shows it with the probe ratio set, in measurand units (0 without a ratio). */
+  probeOffsetShown: number;
+  /** The scale is negative: the channel must be inverted to read the measurand with its sign. */
+  probeInvert: boolean;
 }
 
 /** How the stage drives the instrument: 1 MΩ and 50 Ω inputs, isolation from capacitance, probe ratio. */
@@ -586,9 +730,16 @@ export function instrumentDrive(design: Design, stage: SolvedStage, front: Senso
       isolation = Math.min(Math.max(47, design.opamp.outputResistance), upper);
     }
   }
+  // A probe ratio k shows volts × k: with k = 1/|scale| one displayed unit is one measurand unit, but the
+  // zero is shown too (z·k at no measurand) and a negative scale reads with the wrong sign.
   const scale = Math.abs(design.target.scale);
   const ratio = 1 / scale;
   const ratios = [1, 2, 5, 10, 20, 50, 100, 200, 500, 1000, 2000, 5000, 10000];
   const probeRatio = ratios.find((r) => Math.abs(r / ratio - 1) < 1e-6) ?? null;
-  return { scaleAt1M: m1.dc?.out[1] ?? NaN, scaleAt50: m50.dc?.out[1] ?? NaN, drives50, isolation, probeRatio };
+  const probeOffset = m1.dc?.out[0] ?? design.target.zero;
+  const scaleAt1M = m1.dc?.out[1] ?? NaN;
+  return {
+    scaleAt1M, scaleAt50: m50.dc?.out[1] ?? NaN, drives50, isolation, probeRatio, probeOffset,
+    probeOffsetShown: probeRatio ? probeOffset * probeRatio : 0, probeInvert: (Number.isFinite(scaleAt1M) ? scaleAt1M : design.target.scale) < 0,
+  };
 }

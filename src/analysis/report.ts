@@ -9,8 +9,8 @@ import { solveStage, type SolvedStage } from '../solve/stage.js';
 import type { Part } from '../circuit/network.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
 import {
-  batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, noise, speed, spread, supply, transferAt, transferCurve,
-  type BatteryStep, type ClipResult, type DcPoint, type ErrorBudget, type FrequencyResponse, type InstrumentDrive, type NoiseResult,
+  DEFAULT_BAND_SHARE, batteryClip, batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, noise, speed, spread, supply, transferAt, transferCurve,
+  type BatteryClip, type BatteryStep, type ClipResult, type DcPoint, type ErrorBudget, type FrequencyResponse, type InstrumentDrive, type NoiseResult,
   type Speed, type SpreadResult, type SupplyResult,
 } from './analysis.js';
 import { stepOverRange, waveform, type WaveformResult } from './waveform.js';
@@ -40,6 +40,8 @@ export interface Report {
   errors: ErrorBudget | null;
   supply: SupplyResult | null;
   battery: BatteryStep[];
+  /** Where and when the output first clips inside the range as the battery sags (null without a battery). */
+  batteryClip: BatteryClip | null;
   spread: SpreadResult | null;
   drive: InstrumentDrive | null;
   /** The output for the measurand waveform (the design's, or a step over the range when asked for). */
@@ -72,7 +74,7 @@ export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
   const absent: Record<string, string> = {};
   const empty: Report = {
     design, front, choice, stage: null, circuit: null, dc: null, clip: null, transfer: null, response: null, speed: null, noise: null,
-    errors: null, supply: null, battery: [], spread: null, drive: null, waveform: null, waveformSpec: null, calibration: [], warnings, verdicts: [], absent,
+    errors: null, supply: null, battery: [], batteryClip: null, spread: null, drive: null, waveform: null, waveformSpec: null, calibration: [], warnings, verdicts: [], absent,
   };
   if (!choice.chosen) {
     warnings.push({ code: 'no-topology', level: 'fail', message: `No stage fits: ${choice.why}.` });
@@ -110,6 +112,7 @@ export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
   const errors = errorBudget(design, stage, front, circuit, dc);
   const sup = supply(design, front, circuit, dc);
   const battery = batterySweep(design, stage, front, dc.out[0]);
+  const bClip = design.supply.battery ? batteryClip(design, stage, front, dc.out[0], battery, sup) : null;
   const trials = opts.spreadTrials ?? design.analysis.spreadTrials;
   const spr = trials > 0 ? spread(design, front, circuit, dc, trials) : null;
   if (!spr) absent.spread = 'the tolerance spread was not run';
@@ -118,11 +121,12 @@ export function analyse(design: Design, opts: AnalyseOptions = {}): Report {
   const wave = waveformSpec ? waveform(design, waveformSpec, circuit, front, dc, clip, sp, opts.waveformSamples ?? 2000) : null;
   if (waveformSpec && !wave) absent.waveform = 'the time-domain solve did not finish (a singular network, or more than 400 000 steps)';
   const report: Report = {
-    design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, spread: spr, drive,
+    design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, batteryClip: bClip, spread: spr, drive,
     waveform: wave, waveformSpec: wave ? waveformSpec : null, calibration: [], warnings, verdicts: [], absent,
   };
-  report.calibration = calibrationSteps(report);
+  // Findings first: the calibration steps repeat the instrument advice found there.
   warnings.push(...findings(report));
+  report.calibration = calibrationSteps(report);
   report.verdicts = verdictsOf(report);
   return report;
 }
@@ -179,6 +183,11 @@ function findings(r: Report): Warning[] {
       w.push({ code: 'sensor-load', level: 'info', message: `The input network draws up to ${f3(draw, 'A')} from the sensor's output${r.front.outputDrive > 0 ? ` (it can drive ${f3(r.front.outputDrive, 'A')})` : '; check that the sensor can drive it'}.` });
     }
   }
+  if ((d.opamp.voltageNoise > 0 && !d.opamp.voltageNoiseCorner) || (d.opamp.currentNoise > 0 && !d.opamp.currentNoiseCorner)) {
+    w.push({ code: 'flicker-not-given', level: 'info', message: `The op-amp's 1/f noise corner${!d.opamp.voltageNoiseCorner && !d.opamp.currentNoiseCorner ? 's are' : ' is'} not given (0 Hz): its noise is taken as white down to ${f3(r.noise!.lowFrequency.band[0], 'Hz')}, right for a chopper, optimistic for most other kinds. Give opamp.voltageNoiseCorner and opamp.currentNoiseCorner from the datasheet's noise curve.` });
+  }
+  const advice = r.drive ? probeAdvice(r.drive, m, d.target.signal === 'ac-rms') : null;
+  if (advice) w.push({ code: 'probe-ratio', level: 'info', message: advice });
   if (r.drive) {
     if (!r.drive.drives50) w.push({ code: 'no-50-ohm', level: 'info', message: 'Do not switch the instrument to its 50 Ω input: the op-amp cannot drive it over the range.' });
     if (r.drive.isolation > 0) w.push({ code: 'capacitive-load', level: 'caution', message: `The instrument and cable capacitance sits on the op-amp output unisolated: fit a series resistor of about ${f3(r.drive.isolation, 'Ω')} (output.filter).` });
@@ -187,12 +196,36 @@ function findings(r: Report): Warning[] {
     w.push({ code: 'no-zero-trim', level: 'info', message: 'No zero trimmer could be fitted; the zero depends on part tolerances.' });
   }
   if (r.battery.length) {
-    const firstBad = r.battery.find((s) => s.measurandLow > a || s.measurandHigh < b);
-    if (firstBad) w.push({ code: 'battery-clips', level: 'caution', message: `Once the battery is down to ${f3(firstBad.voltage, 'V')} the output clips inside the range (linear only from ${f3(firstBad.measurandLow, m)} to ${f3(firstBad.measurandHigh, m)}); end of life is ${f3(r.battery[r.battery.length - 1]!.voltage, 'V')}.` });
+    const bc = r.batteryClip;
+    const eol = r.battery[r.battery.length - 1]!;
+    if (bc && bc.voltage !== null) {
+      const hours = bc.hoursToClip !== null && bc.hoursToEnd !== null ? ` A fresh battery gets there after about ${bc.hoursToClip.toFixed(1)} h, of ${bc.hoursToEnd.toFixed(1)} h to end of life (voltage taken as falling linearly with the charge drawn).` : '';
+      w.push({ code: 'battery-clips', level: 'caution', message: `Once the battery is down to ${f3(bc.voltage, 'V')} the output clips inside the range; end of life is ${f3(eol.voltage, 'V')}, where it is linear only from ${f3(eol.measurandLow, m)} to ${f3(eol.measurandHigh, m)}.${hours}` });
+    }
+    const reg = d.supply.regulated;
+    const s0 = r.battery[0]!.scale;
+    const worst = r.battery.reduce((x, s) => (Math.abs(s.scale / s0 - 1) > Math.abs(x.scale / s0 - 1) ? s : x), r.battery[0]!);
+    if (reg && Math.abs(worst.scale / s0 - 1) > d.analysis.scaleLimit) {
+      w.push({ code: 'battery-scale-shift', level: 'caution', message: `Below ${f3(d.supply.negative + reg.voltage + reg.dropout, 'V')} the regulator drops out (${f3(reg.dropout, 'V')} dropout) and the ratiometric sensor on it scales with its falling output: at ${f3(worst.voltage, 'V')} the scale is ${f3(worst.scale, `V/${m}`)}, ${((worst.scale / s0 - 1) * 100).toFixed(1)} % off.` });
+    }
     const shift = Math.max(...r.battery.map((s) => Math.abs(s.zeroShift)));
     if (shift > d.analysis.zeroLimit) w.push({ code: 'battery-zero-shift', level: 'caution', message: `The zero moves by up to ${f3(shift, 'V')} as the battery sags, because the reference is taken from it; feed the reference from a regulated rail.` });
   }
   return w;
+}
+
+/**
+ * How to make the instrument read the measurand: the probe ratio, the offset to null (the zero is displayed
+ * as z × ratio at no measurand) and the sign. Null when no standard ratio fits.
+ */
+function probeAdvice(dr: InstrumentDrive, m: string, ac: boolean): string | null {
+  if (!dr.probeRatio) return null;
+  const k = dr.probeRatio;
+  const invert = dr.probeInvert ? ` The scale is negative: switch on the channel's invert so that a positive ${m} reads positive.` : '';
+  // A zero below a thousandth of a displayed unit needs no nulling.
+  if (Math.abs(dr.probeOffsetShown) < 1e-3) return `Set the instrument's probe ratio to ${k}×: with the zero at 0 V it then reads ${m} directly.${invert}`;
+  const coupling = ac ? ' For an AC reading, AC coupling removes it as well.' : '';
+  return `With the probe ratio at ${k}× one displayed unit is one ${m}, but the zero of ${f3(dr.probeOffset, 'V')} shows as ${f3(dr.probeOffsetShown, m)} when nothing is measured. Null it before reading: set the channel's offset to ${f3(-dr.probeOffsetShown, m)} on screen (${f3(-dr.probeOffset, 'V')} at its input), or subtract a reference channel that sees the probe's zero (its output at zero ${m}, or a ${f3(dr.probeOffset, 'V')} source).${coupling}${invert}`;
 }
 
 /** Largest current the sensor output delivers over the range, A (null when the circuit has no source resistor). */
@@ -250,17 +283,27 @@ export function verdictsOf(r: Report): Verdict[] {
   // caution; DC error after calibration within 1 % passes, within 3 % is a caution.
   const end = Math.max(Math.abs(a), Math.abs(b)) || 1;
   const pp = r.noise.peakToPeak / (Math.abs(r.speed.passband) || 1);
-  v.push({ level: pp <= 0.01 * end ? 'pass' : pp <= 0.05 * end ? 'caution' : 'fail', title: `Noise ${f3(r.noise.referredRms, `${m} rms`)}`, detail: `${f3(r.noise.rms, 'V rms')} at the output over ${f3(r.noise.band[0], 'Hz')}…${f3(r.noise.band[1], 'Hz')}, about ${f3(r.noise.peakToPeak, 'V')} (${f3(pp, m)}) peak-to-peak, ${((pp / end) * 100).toFixed(2)} % of the range end.` });
+  const lf = r.noise.lowFrequency;
+  const ppWorst = Math.max(pp, lf.referredPeakToPeak);
+  const bandWhy = r.noise.bandIsDefault
+    ? ` (the default band: from 1 Hz, below which noise counts as drift, to 100 × the −3 dB bandwidth, which holds ${(DEFAULT_BAND_SHARE * 100).toFixed(1)} % of a single pole's noise bandwidth)`
+    : ' (the design\'s own band)';
+  v.push({
+    level: ppWorst <= 0.01 * end ? 'pass' : ppWorst <= 0.05 * end ? 'caution' : 'fail', title: `Noise ${f3(r.noise.referredRms, `${m} rms`)}`,
+    detail: `${f3(r.noise.rms, 'V rms')} at the output over ${f3(r.noise.band[0], 'Hz')}…${f3(r.noise.band[1], 'Hz')}${bandWhy}, about ${f3(r.noise.peakToPeak, 'V')} (${f3(pp, m)}) peak-to-peak, ${((pp / end) * 100).toFixed(2)} % of the range end. From ${f3(lf.band[0], 'Hz')} to ${f3(lf.band[1], 'Hz')}, how far a ${r.front.passesDc ? 'DC' : 'slow'} reading wanders: ${f3(lf.peakToPeak, 'V')} (${f3(lf.referredPeakToPeak, m)}) peak-to-peak.`,
+  });
   if (r.errors) {
     const e = r.errors.afterTrim / end;
-    v.push({ level: e <= 0.01 ? 'pass' : e <= 0.03 ? 'caution' : 'fail', title: `Error ±${f3(r.errors.afterTrim, m)} after calibration`, detail: `${(e * 100).toFixed(2)} % of the range end, worst case, mostly ${r.errors.terms.filter((t) => t.removedBy === 'none').sort((x, y) => y.value - x.value)[0]?.name ?? 'trim resolution'}; before trimming ±${f3(r.errors.worstCase, m)} (RSS ±${f3(r.errors.rss, m)}) at ${f3(r.errors.at, m)}.` });
+    v.push({ level: e <= 0.01 ? 'pass' : e <= 0.03 ? 'caution' : 'fail', title: `Error ±${f3(r.errors.afterTrim, m)} after calibration`, detail: `${(e * 100).toFixed(2)} % of the range end, worst case (RSS ±${f3(r.errors.afterTrimRss, m)}), mostly ${r.errors.terms.filter((t) => t.removedBy === 'none').sort((x, y) => y.value - x.value)[0]?.name ?? 'nothing'}; before trimming ±${f3(r.errors.worstCase, m)} (RSS ±${f3(r.errors.rss, m)}) at ${f3(r.errors.at, m)}.` });
   }
   if (r.supply) {
     const life = r.supply.batteryLife;
-    v.push({ level: life !== null && life < 4 ? 'caution' : 'pass', title: life !== null ? `Battery life about ${life.toFixed(1)} h` : `Supply current ${f3(r.supply.current, 'A')}`, detail: `Draws ${f3(r.supply.current, 'A')} in total.` });
+    const bc = r.batteryClip;
+    const clipNote = bc && bc.voltage !== null && bc.hoursToClip !== null ? ` The output first clips inside the range after about ${bc.hoursToClip.toFixed(1)} h (at ${f3(bc.voltage, 'V')}; voltage taken as falling linearly with the charge drawn).` : '';
+    v.push({ level: life !== null && life < 4 ? 'caution' : 'pass', title: life !== null ? `Battery life about ${life.toFixed(1)} h to end of life` : `Supply current ${f3(r.supply.current, 'A')}`, detail: `Draws ${f3(r.supply.current, 'A')} in total.${clipNote}` });
   }
   const titles: Record<string, string> = {
-    'battery-clips': 'Clips as the battery runs down', 'battery-zero-shift': 'Zero moves with the battery', 'capacitive-load': 'Capacitive load on the op-amp output',
+    'battery-clips': 'Clips as the battery runs down', 'battery-scale-shift': 'Scale moves as the regulator drops out', 'battery-zero-shift': 'Zero moves with the battery', 'capacitive-load': 'Capacitive load on the op-amp output',
     'slew-limited': 'Slew-limited at full scale', 'gap-critical': 'Gap is critical', 'burden-power': 'Burden overloaded', 'shunt-power': 'Shunt overloaded',
     'ct-no-dc': 'A current transformer passes no DC',
     'gain-trim-short': 'Span trimmer cannot cover the spread', 'zero-trim-short': 'Zero trimmer cannot cover the spread',
@@ -304,18 +347,22 @@ export function reportJson(r: Report): Record<string, unknown> {
     clip: r.clip ? { outputLow: num(r.clip.outputLow), outputHigh: num(r.clip.outputHigh), measurandLow: num(r.clip.measurandLow), measurandHigh: num(r.clip.measurandHigh), first: r.clip.first, firstLow: r.clip.firstLow, firstHigh: r.clip.firstHigh } : null,
     headroom: r.clip ? { low: num(r.clip.headroom.low), high: num(r.clip.headroom.high) } : null,
     bandwidth: r.speed ? { smallSignal: num(r.speed.smallSignal), fullPower: num(r.speed.fullPower), lowCorner: num(r.speed.lowCorner), riseTime: num(r.speed.riseTime), phaseAtCorner: num(r.speed.phaseAtCorner) } : null,
-    noise: r.noise ? { densityAt1kHz: num(r.noise.densityAt1kHz), rms: num(r.noise.rms), band: r.noise.band, referredRms: num(r.noise.referredRms), peakToPeak: num(r.noise.peakToPeak) } : null,
-    errors: r.errors ? { worstCase: num(r.errors.worstCase), rss: num(r.errors.rss), afterTrim: num(r.errors.afterTrim), at: num(r.errors.at) } : null,
+    noise: r.noise ? {
+      densityAt1kHz: num(r.noise.densityAt1kHz), rms: num(r.noise.rms), band: r.noise.band, bandIsDefault: r.noise.bandIsDefault, referredRms: num(r.noise.referredRms), peakToPeak: num(r.noise.peakToPeak),
+      lowFrequency: { band: r.noise.lowFrequency.band, rms: num(r.noise.lowFrequency.rms), peakToPeak: num(r.noise.lowFrequency.peakToPeak), referredPeakToPeak: num(r.noise.lowFrequency.referredPeakToPeak) },
+    } : null,
+    errors: r.errors ? { worstCase: num(r.errors.worstCase), rss: num(r.errors.rss), afterTrim: num(r.errors.afterTrim), afterTrimLow: num(r.errors.afterTrimLow), afterTrimHigh: num(r.errors.afterTrimHigh), at: num(r.errors.at) } : null,
     supply: r.supply ? { current: num(r.supply.current), batteryLife: num(r.supply.batteryLife) } : null,
     spread: r.spread ? { scaleStd: num(r.spread.scaleStd), zeroStd: num(r.spread.zeroStd), yield: num(r.spread.yield), trials: r.spread.trials } : null,
-    drive: r.drive ? { scaleAt1M: num(r.drive.scaleAt1M), scaleAt50: num(r.drive.scaleAt50), drives50: r.drive.drives50, isolation: num(r.drive.isolation), probeRatio: r.drive.probeRatio } : null,
+    drive: r.drive ? { scaleAt1M: num(r.drive.scaleAt1M), scaleAt50: num(r.drive.scaleAt50), drives50: r.drive.drives50, isolation: num(r.drive.isolation), probeRatio: r.drive.probeRatio, probeOffset: num(r.drive.probeOffset), probeOffsetShown: num(r.drive.probeOffsetShown), probeInvert: r.drive.probeInvert } : null,
     waveform: r.waveform ? {
       t: Array.from(r.waveform.t), measurand: Array.from(r.waveform.measurand), output: Array.from(r.waveform.output), ideal: Array.from(r.waveform.ideal),
       riseTime: num(r.waveform.riseTime), overshoot: num(r.waveform.overshoot), settlingTime: num(r.waveform.settlingTime), droop: num(r.waveform.droop),
       slewLimited: r.waveform.slewLimited, clipped: r.waveform.clipped,
     } : null,
     sensor: { sensitivity: num(r.front.sensitivity), figures: r.front.figures.map((f) => ({ key: f.key, label: f.label, value: num(f.value), unit: f.unit })) },
-    battery: r.battery.map((b) => ({ voltage: b.voltage, measurandLow: num(b.measurandLow), measurandHigh: num(b.measurandHigh), headroomLow: num(b.headroomLow), headroomHigh: num(b.headroomHigh), zeroShift: num(b.zeroShift) })),
+    battery: r.battery.map((b) => ({ voltage: b.voltage, measurandLow: num(b.measurandLow), measurandHigh: num(b.measurandHigh), headroomLow: num(b.headroomLow), headroomHigh: num(b.headroomHigh), zeroShift: num(b.zeroShift), scale: num(b.scale), regulated: b.regulated })),
+    batteryClip: r.batteryClip ? { voltage: num(r.batteryClip.voltage), hoursToClip: num(r.batteryClip.hoursToClip), hoursToEnd: num(r.batteryClip.hoursToEnd) } : null,
     alternatives: s ? s.alternatives.map((a, i) => ({ index: i, feedback: a.a.parts, leg: a.b.parts, error: num(a.error), parts: a.parts })) : [],
     calibration: r.calibration.map((c) => c.text),
     warnings: r.warnings.map((w) => ({ code: w.code, level: w.level, message: w.message })),

@@ -111,9 +111,9 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
   // Op-amp macromodel: VOS (offset, voltage noise) in series with the + input, bias and current noise at both inputs.
   const oa = design.opamp;
   const a0 = 10 ** (oa.openLoopGainDb / 20);
-  el({ kind: 'V', name: 'VOS', na: 'inp', nb: 'inpi', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { vos: oa.offsetVoltage }, noise: oa.voltageNoise });
-  el({ kind: 'I', name: 'IBP', na: 'inpi', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibp: oa.biasCurrent }, noise: oa.currentNoise });
-  el({ kind: 'I', name: 'IBN', na: 'inn', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibn: oa.biasCurrent }, noise: oa.currentNoise });
+  el({ kind: 'V', name: 'VOS', na: 'inp', nb: 'inpi', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { vos: oa.offsetVoltage }, noise: oa.voltageNoise, noiseCorner: oa.voltageNoiseCorner });
+  el({ kind: 'I', name: 'IBP', na: 'inpi', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibp: oa.biasCurrent }, noise: oa.currentNoise, noiseCorner: oa.currentNoiseCorner });
+  el({ kind: 'I', name: 'IBN', na: 'inn', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibn: oa.biasCurrent }, noise: oa.currentNoise, noiseCorner: oa.currentNoiseCorner });
   el({ kind: 'E', name: 'EOA', na: 'int', nb: '0', value: a0, pole: oa.gbw / a0, cpn: 'inpi', cnn: 'inn' });
   R('ROUT', 'int', 'pin', Math.max(oa.outputResistance, 1e-3), false);
 

@@ -27,6 +27,8 @@ export interface Element {
   /** Noise: resistors are noisy unless false; sources carry a white density (V/√Hz or A/√Hz). */
   noisy?: boolean;
   noise?: number;
+  /** Sources: 1/f corner of the density, Hz (0 or absent = white): density² = noise²·(1 + f_c/f). */
+  noiseCorner?: number;
   /** E: controlling nodes (+, −) and the dominant pole, Hz (0 = none). */
   cp?: number;
   cn?: number;

@@ -25,14 +25,16 @@ export interface NoiseSpectrum {
 /**
  * Output noise density at node `out` of every noisy element: resistors (4kT/R as a parallel current),
  * voltage sources with a density (op-amp e_n, sensor noise) and current sources with a density (op-amp i_n).
- * Sources are uncorrelated and add in power.
+ * A source with a 1/f corner f_c has density² = white²·(1 + f_c/f) (the usual flicker-plus-white form;
+ * Motchenbacher & Connelly, Low-Noise Electronic System Design, 1993, ch. 1). Sources are uncorrelated and
+ * add in power.
  */
 export function noiseSpectrum(c: Circuit, out: number, freqs: Float64Array, kelvin: number): NoiseSpectrum {
   const ws = workspace(c);
-  const noisy: Array<{ i: number; name: string; psd: number }> = [];
+  const noisy: Array<{ i: number; name: string; psd: number; corner: number }> = [];
   c.elements.forEach((e, i) => {
-    if (e.kind === 'R' && e.value > 0 && e.noisy !== false) noisy.push({ i, name: e.name, psd: (4 * BOLTZMANN * kelvin) / e.value });
-    else if ((e.kind === 'V' || e.kind === 'I') && e.noise && e.noise > 0) noisy.push({ i, name: e.name, psd: e.noise ** 2 });
+    if (e.kind === 'R' && e.value > 0 && e.noisy !== false) noisy.push({ i, name: e.name, psd: (4 * BOLTZMANN * kelvin) / e.value, corner: 0 });
+    else if ((e.kind === 'V' || e.kind === 'I') && e.noise && e.noise > 0) noisy.push({ i, name: e.name, psd: e.noise ** 2, corner: e.noiseCorner ?? 0 });
   });
   const shares = noisy.map((s) => ({ name: s.name, density: new Float64Array(freqs.length) }));
   const total = new Float64Array(freqs.length);
@@ -43,7 +45,8 @@ export function noiseSpectrum(c: Circuit, out: number, freqs: Float64Array, kelv
     let sum = 0;
     for (let s = 0; s < noisy.length; s++) {
       const [hr, hi] = transferFrom(c, noisy[s]!.i, ws);
-      const p = noisy[s]!.psd * (hr * hr + hi * hi);
+      const src = noisy[s]!;
+      const p = src.psd * (src.corner > 0 ? 1 + src.corner / freqs[k]! : 1) * (hr * hr + hi * hi);
       shares[s]!.density[k] = Math.sqrt(p);
       sum += p;
     }

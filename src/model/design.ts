@@ -86,8 +86,17 @@ export interface HallGapCoreSensor extends SensorCommon {
     gap: number;
     /** Saturation flux density of the core material, T. */
     saturation: number;
-    /** User correction for fringing: multiplies the gap field (1 = formula as is). */
+    /**
+     * Fringing factor F = A_g/A_c: the gap's effective area over the core's cross-section (1 = fringing
+     * neglected). Used when width and depth are not given.
+     */
     fringing: number;
+    /**
+     * Optional cross-section of the core at the gap, m × m; when given the gap's effective area is
+     * (width + g)·(depth + g). One alone is taken as a square section.
+     */
+    width?: number;
+    depth?: number;
   };
 }
 
@@ -130,11 +139,24 @@ export interface Supply {
   /** Negative rail, V (0 for a single supply). */
   negative: number;
   /** An optional regulated rail (e.g. a 5 V regulator fed by the battery). */
-  regulated: { voltage: number; tolerance: number; quiescentCurrent: number } | null;
+  regulated: {
+    voltage: number;
+    tolerance: number;
+    quiescentCurrent: number;
+    /** Input-to-output voltage below which the regulator drops out, V (default 0.3, a low-dropout part). */
+    dropout: number;
+    /** Output drift, parts of one per kelvin (default 100 ppm/K). */
+    drift: number;
+  } | null;
   /** Which rail feeds the sensor. */
   sensorRail: Rail;
   /** Which rail the offset reference divider hangs from. */
   referenceRail: Rail;
+  /**
+   * Tolerance of the positive and negative rails of a bench supply, parts of one (default 0.01). Unused with
+   * a battery, whose sag the battery sweep follows.
+   */
+  tolerance: number;
   /** Battery feeding the positive rail (and the regulator), or null for a bench supply. */
   battery: { fresh: number; endOfLife: number; capacity: number } | null;
 }
@@ -162,6 +184,11 @@ export interface OpAmpSpec {
   outputCurrent: number;
   /** Offset drift, V/K. */
   offsetDrift: number;
+  /** Power-supply rejection ratio at DC, dB (default 80): the offset moves by ΔV_supply/PSRR. */
+  psrrDb: number;
+  /** 1/f corners of the voltage and current noise, Hz (0 = white only): density² = white²·(1 + f_c/f). */
+  voltageNoiseCorner: number;
+  currentNoiseCorner: number;
 }
 
 export interface Target {
@@ -181,6 +208,8 @@ export interface Target {
   resistanceMax: number;
   /** Resistor temperature coefficient, 1/K. */
   tempco: number;
+  /** Trimmer temperature coefficient of the whole track, 1/K (default 100 ppm/K). */
+  trimmerTempco: number;
   /** Fit a span (gain) trimmer and a zero trimmer. */
   trim: { gain: boolean; zero: boolean };
   /** Bandwidth the user needs, Hz (0 = none stated). */
@@ -226,6 +255,14 @@ export interface AnalysisOptions {
   waveform: MeasurandWaveform | null;
 }
 
+/** The meter used to calibrate: each reading is uncertain by ±(meterRelative × reading + meterDigits). */
+export interface CalibrationMeter {
+  /** Parts of one of the reading (default 0.005, i.e. 0.5 %). */
+  meterRelative: number;
+  /** The digits' share on a voltage reading, V (default 0.003: 3 counts of 1 mV). */
+  meterDigits: number;
+}
+
 export interface Design {
   format: typeof DESIGN_FORMAT;
   version: typeof DESIGN_VERSION;
@@ -238,6 +275,7 @@ export interface Design {
   output: Output;
   environment: Environment;
   analysis: AnalysisOptions;
+  calibration: CalibrationMeter;
 }
 
 // ---------------------------------------------------------------------------------------------------------
@@ -287,6 +325,8 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
         gap: num('metres', 'positive', { max: 1 }),
         saturation: num('teslas', 'positive', { max: 100 }),
         fringing: opt(num('(factor)', 'positive', { min: 0.1, max: 10 }), 1),
+        width: num('metres', 'positive', { max: 10, optional: true }),
+        depth: num('metres', 'positive', { max: 10, optional: true }),
       },
     },
   },
@@ -327,8 +367,11 @@ const SCHEMA: Spec = {
             voltage: num('volts', 'positive', { max: 1000 }),
             tolerance: opt(num('parts of one', 'fraction'), 0.02),
             quiescentCurrent: opt(num('amperes', 'nonneg', { max: 10 }), 0),
+            dropout: opt(num('volts', 'nonneg', { max: 100 }), 0.3),
+            drift: opt(num('parts of one per kelvin', 'nonneg', { max: 0.01 }), 100e-6),
           },
         },
+        tolerance: opt(num('parts of one', 'fraction'), 0.01),
         sensorRail: { t: 'str', oneOf: ['positive', 'regulated'], def: 'positive' },
         referenceRail: { t: 'str', oneOf: ['positive', 'regulated'], def: 'positive' },
         battery: {
@@ -360,6 +403,9 @@ const SCHEMA: Spec = {
         outputResistance: opt(num('ohms', 'nonneg', { max: 1e6 }), 50),
         outputCurrent: opt(num('amperes', 'positive', { max: 100 }), 0.02),
         offsetDrift: opt(num('volts per kelvin', 'nonneg', { max: 1e-2 }), 0),
+        psrrDb: opt(num('decibels', 'any', { min: 20, max: 200 }), 80),
+        voltageNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9 }), 0),
+        currentNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9 }), 0),
       },
     },
     target: {
@@ -376,6 +422,7 @@ const SCHEMA: Spec = {
         resistanceMin: opt(num('ohms', 'positive', { min: 1, max: 1e9 }), 1e3),
         resistanceMax: opt(num('ohms', 'positive', { min: 1, max: 1e10 }), 1e6),
         tempco: opt(num('parts of one per kelvin', 'any', { maxAbs: 0.01 }), 100e-6),
+        trimmerTempco: opt(num('parts of one per kelvin', 'any', { maxAbs: 0.01 }), 100e-6),
         trim: {
           t: 'obj', def: { gain: true, zero: true },
           fields: { gain: { t: 'bool', def: true }, zero: { t: 'bool', def: true } },
@@ -429,6 +476,14 @@ const SCHEMA: Spec = {
             duty: opt(num('parts of one', 'fraction'), 0.5),
           },
         },
+      },
+    },
+    calibration: {
+      t: 'obj',
+      def: {},
+      fields: {
+        meterRelative: opt(num('parts of one', 'fraction'), 0.005),
+        meterDigits: opt(num('volts', 'nonneg', { max: 100 }), 0.003),
       },
     },
   },

@@ -63,6 +63,35 @@ export function gapFieldPerAmp(turns: number, gap: number, pathLength: number, p
   return (MU0 * turns) / (gap + pathLength / permeability);
 }
 
+/**
+ * Effective area of an air gap with fringing, relative to the core's cross-section, A_g/A_c. With the
+ * cross-section's two dimensions a × b given, fringing is accounted for by adding the gap length to each of
+ * them, A_g = (a + g)·(b + g) (Umans, Fitzgerald & Kingsley's Electric Machinery, 7th ed., ch. 1, the
+ * approximation used in its problems; from memory); without them the user's fringing factor F = A_g/A_c is
+ * taken as given (McLyman's fringing factor, Transformer and Inductor Design Handbook; 1 = no fringing).
+ * `gapAreaRatio({ gap: 1e-3, width: 0.01, depth: 0.01, fringing: 1 })` → 1.21 (derived).
+ */
+export function gapAreaRatio(core: { gap: number; width?: number; depth?: number; fringing: number }): number {
+  // One dimension alone is taken as a square section.
+  const a = core.width ?? core.depth, b = core.depth ?? core.width;
+  if (a && b) return ((a + core.gap) * (b + core.gap)) / (a * b);
+  return core.fringing;
+}
+
+/**
+ * Flux densities per ampere in a gapped core whose gap has an effective area F·A_c (F = A_g/A_c). The
+ * magnetic circuit is two reluctances in series, R_c = l_e/(μ0·μr·A_c) and R_g = g/(μ0·F·A_c), driven by
+ * N·I (Umans, Fitzgerald & Kingsley's Electric Machinery, 7th ed., §1.1, eqs. 1.10–1.13), so
+ *   Φ/I = μ0·N·A_c / (l_e/μr + g/F),   B_core = Φ/A_c,   B_gap = Φ/(F·A_c) = μ0·N / (g + F·l_e/μr).
+ * The Hall sensor is taken to see the gap's mean flux density B_gap (our stated assumption); the core
+ * saturates on B_core = F·B_gap. F = 1 gives `gapFieldPerAmp` for both.
+ * `gappedCorePerAmp(1, 1e-3, 0.06, 2000, 1.21)` → gap 1.2102e-3 T/A, core 1.4644e-3 T/A (derived).
+ */
+export function gappedCorePerAmp(turns: number, gap: number, pathLength: number, permeability: number, areaRatio: number): { gap: number; core: number } {
+  const g = (MU0 * turns) / (gap + (areaRatio * pathLength) / permeability);
+  return { gap: g, core: g * areaRatio };
+}
+
 /** The voltage of the rail that feeds the sensor, V. */
 export function sensorRailVoltage(design: Pick<Design, 'supply'>): number {
   return design.supply.sensorRail === 'regulated' && design.supply.regulated ? design.supply.regulated.voltage : design.supply.positive;
@@ -114,13 +143,14 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
       };
     }
     case 'hall-gap-core': {
-      const { pathLength, permeability, gap, saturation, fringing } = spec.core;
-      const bPerAmp = gapFieldPerAmp(spec.turns, gap, pathLength, permeability) * fringing;
-      const coreBPerAmp = gapFieldPerAmp(spec.turns, gap, pathLength, permeability);
+      const { pathLength, permeability, gap, saturation } = spec.core;
+      const areaRatio = gapAreaRatio(spec.core);
+      const perAmp = (g: number) => gappedCorePerAmp(spec.turns, g, pathLength, permeability, gapAreaRatio({ ...spec.core, gap: g }));
+      const { gap: bPerAmp, core: coreBPerAmp } = perAmp(gap);
       const sensitivity = spec.hallSensitivity * bPerAmp;
       const coreLimit = saturation / coreBPerAmp;
       const linLimit = spec.linearField / bPerAmp;
-      const dGap = gapFieldPerAmp(spec.turns, gap + 1e-4, pathLength, permeability) / gapFieldPerAmp(spec.turns, gap, pathLength, permeability) - 1;
+      const dGap = perAmp(gap + 1e-4).gap / bPerAmp - 1;
       const earth = 50e-6 / bPerAmp; // about 50 µT (common practice)
       const front: SensorFront = {
         ...base,
@@ -134,7 +164,9 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
           { kind: 'sensor', low: -linLimit, high: linLimit, why: `the Hall sensor is linear only to ±${spec.linearField} T` },
         ],
         figures: [
-          { key: 'fieldPerAmp', label: 'Gap field per ampere', value: bPerAmp, unit: 'T/A' },
+          { key: 'fieldPerAmp', label: 'Gap field per ampere (mean over the gap\'s effective area)', value: bPerAmp, unit: 'T/A' },
+          { key: 'coreFieldPerAmp', label: 'Core flux density per ampere', value: coreBPerAmp, unit: 'T/A' },
+          { key: 'gapAreaExcess', label: 'Gap effective area beyond the core cross-section (fringing, A_g/A_c − 1)', value: areaRatio - 1, unit: '' },
           { key: 'sensitivity', label: 'Sensitivity', value: sensitivity, unit: `V/${spec.measurand}` },
           { key: 'coreSaturation', label: 'Core saturates at', value: coreLimit, unit: spec.measurand },
           { key: 'hallLinear', label: 'Hall sensor leaves its linear range at', value: linLimit, unit: spec.measurand },
@@ -142,7 +174,11 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
           { key: 'earthField', label: "Earth's field (about 50 µT) reads as", value: earth, unit: spec.measurand },
         ],
         warnings: [
-          { code: 'fringing-neglected', level: 'info', message: `The gap field uses B = μ0·N·I/(g + l/μr) with fringing neglected (correction factor ${fringing}); calibrate against a known current.` },
+          spec.core.width || spec.core.depth
+            ? { code: 'fringing-model', level: 'info', message: `Fringing: the gap's effective area is the core's cross-section${spec.core.width && spec.core.depth ? '' : ' (taken as square)'} with the gap length added to each side, ${fmt(areaRatio)} × the core's area (Fitzgerald & Kingsley form). The same area sets the core flux (the core carries ${fmt(areaRatio)} × the gap's mean flux density, so it saturates at that much less current) and the field the sensor reads, taken as the gap's mean flux density; calibrate against a known current.` }
+            : areaRatio === 1
+              ? { code: 'fringing-neglected', level: 'info', message: 'Fringing is neglected (fringing factor 1): the gap field is B = μ0·N·I/(g + l/μr) and the core carries the same flux density. Real fringing raises the core flux for the same current; give the core\'s cross-section (sensor.core.width and depth) to model it, and calibrate against a known current.' }
+              : { code: 'fringing-model', level: 'info', message: `Fringing: the gap's effective area is taken as ${fmt(areaRatio)} × the core's cross-section (the fringing factor given). The same area sets the core flux and the field the sensor reads, taken as the gap's mean flux density; calibrate against a known current.` },
           { code: 'remanence', level: 'info', message: 'An overload can leave the core magnetised and shift the zero: re-zero after any overload.' },
           { code: 'earth-field', level: 'info', message: `The Earth's field alone reads as about ${fmt(earth)} ${spec.measurand}: zero the probe where it will be used.` },
         ],
@@ -190,9 +226,13 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
       return front;
     }
     case 'shunt': {
-      const iMax = Math.max(Math.abs(range[0]), Math.abs(range[1])) * peak;
-      const p = iMax ** 2 * spec.resistance;
-      const iRated = Math.sqrt(spec.powerRating / spec.resistance);
+      // Joule heating follows the rms current: P = I_rms²·R. A DC range end is its own rms; an AC range is
+      // given in rms already. The rated current √(P/R) is therefore an rms figure too, and its clip limit
+      // (the range is checked in peaks) is √2 × that for an AC signal.
+      const iEnd = Math.max(Math.abs(range[0]), Math.abs(range[1]));
+      const iMax = iEnd * peak;
+      const p = iEnd ** 2 * spec.resistance;
+      const iRated = Math.sqrt(spec.powerRating / spec.resistance) * peak;
       const front: SensorFront = {
         ...base,
         sensitivity: spec.resistance,
@@ -205,8 +245,8 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
         limits: [{ kind: 'burden', low: -iRated, high: iRated, why: `the shunt reaches its ${spec.powerRating} W rating` }],
         figures: [
           { key: 'sensitivity', label: 'Sensitivity', value: spec.resistance, unit: `V/${spec.measurand}` },
-          { key: 'burdenVoltage', label: 'Burden voltage added to the measured circuit at the range end', value: iMax * spec.resistance, unit: 'V' },
-          { key: 'shuntPower', label: 'Shunt power at the range end', value: p, unit: 'W' },
+          { key: 'burdenVoltage', label: `Burden voltage added to the measured circuit at the range end${peak > 1 ? ' (peak)' : ''}`, value: iMax * spec.resistance, unit: 'V' },
+          { key: 'shuntPower', label: 'Shunt power at the range end (I²rms·R)', value: p, unit: 'W' },
         ],
         commonMode: spec.commonMode ?? null,
         // High side: the + terminal is the supply end itself, the − terminal sits behind the shunt.

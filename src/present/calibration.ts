@@ -70,13 +70,14 @@ export function calibrationSteps(r: Report): CalibrationStep[] {
   const expectSpan = d.target.signal === 'ac-rms' ? Math.abs(scale) * x : zero + scale * x;
   const spanWithin = Math.max((stage.network.gainTrim?.step ?? 0) * Math.abs(scale * x), Math.abs(scale * x) * 1e-3);
   if (gainTrim) {
-    steps.push({ text: `Span: ${applied}${acNote}; turn ${gainTrim.ref} (gain trim) until the output reads ${f(expectSpan, d.target.signal === 'ac-rms' ? 'V rms' : 'V')} within ±${f(spanWithin, 'V')}.`, expect: expectSpan, within: spanWithin, trimmer: gainTrim.ref });
+    steps.push({ text: `Span: ${applied}${acNote}; turn ${gainTrim.ref} (gain trim) until the output reads ${f(expectSpan, d.target.signal === 'ac-rms' ? 'V rms' : 'V')} within ±${f(spanWithin, 'V')}${d.target.signal === 'ac-rms' ? '' : `: judge it by the difference from the zero reading you just took (${f(scale * x, 'V')}), so that a zero error stays out of the span`}.`, expect: expectSpan, within: spanWithin, trimmer: gainTrim.ref });
   } else {
     steps.push({ text: `Span: ${applied}${acNote}; the output should read ${f(expectSpan, 'V')}; note the ratio as a correction (this design has no gain trimmer).`, expect: expectSpan });
   }
   if (zeroTrim && gainTrim) steps.push({ text: `Remove the current and re-check the zero: the span trim moves it slightly in this topology. Repeat zero then span until both land within their tolerances.`, trimmer: zeroTrim.ref });
   if (d.target.signal !== 'ac-rms') steps.push({ text: `Reverse the ${isCurrent ? 'conductor (or the bench supply leads)' : 'measurand'} and check the other polarity: the output should read ${f(zero - scale * x, 'V')}.`, expect: zero - scale * x });
-  if (r.drive?.probeRatio) steps.push({ text: `Set the instrument's probe ratio to ${r.drive.probeRatio}× so that it reads ${m} directly (${f(Math.abs(scale), `V/${m}`)}).` });
+  const probe = r.warnings.find((w) => w.code === 'probe-ratio');
+  if (probe) steps.push({ text: probe.message });
   steps.push({ text: 'Seal the trimmers (a dab of varnish) and write the date, the scale and the zero on the probe.' });
   return steps;
 }

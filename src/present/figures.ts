@@ -36,16 +36,19 @@ export function keyFigures(r: Report): FigureRow[] {
   }
   if (r.errors) {
     rows.push({ label: 'DC error, worst case', value: `±${f(r.errors.worstCase, m)}`, note: `RSS ±${f(r.errors.rss, m)} at ${f(r.errors.at, m)}` });
-    rows.push({ label: 'DC error after calibration', value: `±${f(r.errors.afterTrim, m)}`, note: 'drift and trim resolution remain' });
+    rows.push({ label: 'DC error after calibration', value: `±${f(r.errors.afterTrim, m)}`, note: 'drift, trim resolution and the calibration meter remain' });
   }
   if (r.supply) {
     rows.push({ label: 'Supply current', value: f(r.supply.current, 'A') });
-    if (r.supply.batteryLife !== null) rows.push({ label: 'Battery life', value: `${r.supply.batteryLife.toFixed(1)} h` });
+    if (r.supply.batteryLife !== null) {
+      const bc = r.batteryClip;
+      rows.push({ label: 'Battery life', value: `${r.supply.batteryLife.toFixed(1)} h`, note: bc && bc.voltage !== null && bc.hoursToClip !== null ? `clips inside the range after about ${bc.hoursToClip.toFixed(1)} h (${f(bc.voltage, 'V')})` : 'to end of life' });
+    }
   }
   if (r.spread) rows.push({ label: 'Spread (1σ, before trim)', value: `${f(r.spread.scaleStd, `V/${m}`)} / ${f(r.spread.zeroStd, 'V')}`, note: `${(r.spread.yield * 100).toFixed(1)} % of builds within limits untrimmed` });
   if (r.drive) {
     rows.push({ label: 'Scale at 1 MΩ / 50 Ω', value: `${f(r.drive.scaleAt1M, `V/${m}`, 4)} / ${f(r.drive.scaleAt50, `V/${m}`, 4)}`, note: r.drive.drives50 ? '' : 'cannot drive 50 Ω over the range' });
-    if (r.drive.probeRatio) rows.push({ label: 'Instrument probe ratio', value: `${r.drive.probeRatio}×`, note: `reads ${m} directly` });
+    if (r.drive.probeRatio) rows.push({ label: 'Instrument probe ratio', value: `${r.drive.probeRatio}×`, note: Math.abs(r.drive.probeOffsetShown) < 1e-3 ? `reads ${m} directly${r.drive.probeInvert ? ' (inverted)' : ''}` : `null the ${f(r.drive.probeOffsetShown, m)} zero offset on the instrument${r.drive.probeInvert ? '; invert the channel' : ''}` });
   }
   return rows;
 }

@@ -6,8 +6,10 @@
  * the dominant pole GBW/A0, a unity buffer and the output resistance follow. The current into the RC is
  * limited to ±SR·C (slew rate) and the pole node is held at the output swing (so it recovers at once), the
  * large-signal model the report's waveform uses. Its noise generators are the
- * thermal noise of 1 kΩ resistors scaled by noiseless controlled sources; resistors that are not physical
- * parts (the model's own) carry `noisy=0`.
+ * thermal noise of 1 kΩ resistors scaled by noiseless controlled sources; a generator with a 1/f corner f_c
+ * adds the resistor's flicker noise (ngspice's resistor model: S_i = KF·I^AF/f with 1 mA through it, read
+ * against a noiseless twin carrying the same current so that no DC leaks in), KF set so that the density is
+ * √(4kTR·(1 + f_c/f)); resistors that are not physical parts (the model's own) carry `noisy=0`.
  */
 import { BOLTZMANN } from '../model/constants.js';
 import type { Report } from '../analysis/report.js';
@@ -65,11 +67,22 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
     return ` PULSE(${v(w.low)} ${v(w.high)} 0 ${fmt(w.duty * T)} ${fmt((1 - w.duty) * T - edge)} ${fmt(edge)} ${fmt(T)})`;
   };
   let aux = 0;
-  const noiseGen = (label: string): string => {
+  const noiseGen = (label: string, corner = 0): string => {
     // Node driven only by a 1 kΩ resistor's thermal noise: sqrt(4kTR) V/sqrt(Hz), scaled by the caller.
     const n = `nz_${label}`;
-    lines.push(`RNZ_${label} ${n} 0 ${rn}`);
-    return n;
+    if (!(corner > 0)) {
+      lines.push(`RNZ_${label} ${n} 0 ${rn}`);
+      return `${n} 0`;
+    }
+    // With flicker: KF·I²/f·R² = 4kTR·f_c/f at I = 1 mA; the twin node carries the same DC, noiselessly.
+    const iDc = 1e-3;
+    const kf = (4 * BOLTZMANN * T * corner) / (rn * iDc * iDc);
+    lines.push(`.model RFLK_${label} R(kf=${fmt(kf)} af=2)`);
+    lines.push(`INZ_${label} 0 ${n} DC ${fmt(iDc)}`);
+    lines.push(`RNZ_${label} ${n} 0 ${rn} RFLK_${label}`);
+    lines.push(`INZT_${label} 0 ${n}_t DC ${fmt(iDc)}`);
+    lines.push(`RNZT_${label} ${n}_t 0 ${rn} noisy=0`);
+    return `${n} ${n}_t`;
   };
   c.elements.forEach((e, i) => {
     const a = node(names, e.a), b = node(names, e.b);
@@ -86,9 +99,9 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
       case 'V': {
         if (e.noise && e.noise > 0) {
           const mid = `${a}_nz${aux++}`;
-          const nz = noiseGen(e.name);
+          const nz = noiseGen(e.name, e.noiseCorner);
           lines.push(`${spiceName('V', e.name)} ${mid} ${b} DC ${fmt(e.dc0 ?? 0)} AC ${fmt(e.ac ?? 0)}${tranOf(i)}`);
-          lines.push(`${spiceName('E', `${e.name}_N`)} ${a} ${mid} ${nz} 0 ${fmt(e.noise / enRef)}`);
+          lines.push(`${spiceName('E', `${e.name}_N`)} ${a} ${mid} ${nz} ${fmt(e.noise / enRef)}`);
         } else {
           lines.push(`${spiceName('V', e.name)} ${a} ${b} DC ${fmt(e.dc0 ?? 0)} AC ${fmt(e.ac ?? 0)}${tranOf(i)}`);
         }
@@ -96,8 +109,8 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
       }
       case 'I': {
         if (e.noise && e.noise > 0) {
-          const nz = noiseGen(e.name);
-          lines.push(`${spiceName('G', `${e.name}_N`)} ${a} ${b} ${nz} 0 ${fmt(e.noise / enRef)}`);
+          const nz = noiseGen(e.name, e.noiseCorner);
+          lines.push(`${spiceName('G', `${e.name}_N`)} ${a} ${b} ${nz} ${fmt(e.noise / enRef)}`);
         }
         if ((e.dc0 ?? 0) !== 0 || (e.ac ?? 0) !== 0 || (e.dc1 ?? 0) !== 0) lines.push(`${spiceName('I', e.name)} ${a} ${b} DC ${fmt(e.dc0 ?? 0)} AC ${fmt(e.ac ?? 0)}${tranOf(i)}`);
         break;

@@ -49,12 +49,15 @@ export function textReport(r: Report): string {
   if (r.noise) {
     h('Noise');
     out.push(`  ${f(r.noise.densityAt1kHz, 'V/√Hz')} at 1 kHz (${f(r.noise.referredDensityAt1kHz, `${m}/√Hz`)}); ${f(r.noise.rms, 'V')} rms over ${f(r.noise.band[0], 'Hz')}…${f(r.noise.band[1], 'Hz')} = ${f(r.noise.referredRms, m)} rms, about ${f(r.noise.peakToPeak, 'V')} p-p`);
+    const lf = r.noise.lowFrequency;
+    out.push(`  ${f(lf.band[0], 'Hz')}…${f(lf.band[1], 'Hz')} (how far a slow reading wanders): ${f(lf.rms, 'V')} rms, about ${f(lf.peakToPeak, 'V')} p-p = ${f(lf.referredPeakToPeak, m)} p-p`);
     out.push(`  Largest contributors: ${r.noise.shares.slice(0, 4).map((x) => `${x.name} ${(x.fraction * 100).toFixed(1)} %`).join(', ')}`);
   }
   if (r.errors) {
-    h(`DC error budget at ${f(r.errors.at, m)}`);
-    for (const t of r.errors.terms) out.push(`  ${t.name.padEnd(44)} ±${f(t.value, m)}  ${t.removedBy === 'none' ? '(remains after trim)' : `(trimmed: ${t.removedBy})`}`);
-    out.push(`  Worst case ±${f(r.errors.worstCase, m)}, RSS ±${f(r.errors.rss, m)}; after calibration ±${f(r.errors.afterTrim, m)} (RSS ±${f(r.errors.afterTrimRss, m)})`);
+    const [lo, hi] = r.clip?.rangePeak ?? r.design.target.range;
+    h(`DC error budget at ${f(lo, m)} / ${f(hi, m)}`);
+    for (const t of r.errors.terms) out.push(`  ${t.name.padEnd(44)} ±${f(t.low, m)} / ±${f(t.high, m)}  ${t.calibration ? '(from the calibration)' : t.removedBy === 'none' ? '(remains after trim)' : `(trimmed: ${t.removedBy})`}`);
+    out.push(`  At ${f(r.errors.at, m)}: worst case ±${f(r.errors.worstCase, m)}, RSS ±${f(r.errors.rss, m)}; after calibration ±${f(r.errors.afterTrim, m)} (RSS ±${f(r.errors.afterTrimRss, m)}); after calibration at the other end ±${f(r.errors.at === lo ? r.errors.afterTrimHigh : r.errors.afterTrimLow, m)}`);
   }
   if (r.supply) {
     h('Supply');
@@ -62,8 +65,10 @@ export function textReport(r: Report): string {
     out.push(`  Total ${f(r.supply.current, 'A')}${r.supply.batteryLife !== null ? `; battery life about ${r.supply.batteryLife.toFixed(1)} h` : ''}`);
   }
   if (r.battery.length) {
-    out.push('  Battery sweep (V: linear range, headroom low/high, zero shift):');
-    for (const b of r.battery) out.push(`   ${b.voltage.toFixed(2)} V: ${f(b.measurandLow, m)} … ${f(b.measurandHigh, m)}, ${f(b.headroomLow, 'V')} / ${f(b.headroomHigh, 'V')}, ${f(b.zeroShift, 'V')}${b.regulated ? '' : ' (regulator out of regulation)'}`);
+    out.push('  Battery sweep (V: linear range, headroom low/high, zero shift, scale):');
+    for (const b of r.battery) out.push(`   ${b.voltage.toFixed(2)} V: ${f(b.measurandLow, m)} … ${f(b.measurandHigh, m)}, ${f(b.headroomLow, 'V')} / ${f(b.headroomHigh, 'V')}, ${f(b.zeroShift, 'V')}, ${f(b.scale, `V/${m}`, 4)}${b.regulated ? '' : ' (regulator out of regulation)'}`);
+    const bc = r.batteryClip;
+    if (bc && bc.voltage !== null) out.push(`  Clips inside the range from ${f(bc.voltage, 'V', 4)}${bc.hoursToClip !== null ? `, after about ${bc.hoursToClip.toFixed(1)} h of ${bc.hoursToEnd!.toFixed(1)} h to end of life (voltage taken as linear in the charge drawn)` : ''}`);
   }
   if (r.spread) {
     h(`Tolerance spread (${r.spread.trials} seeded trials)`);
@@ -72,7 +77,8 @@ export function textReport(r: Report): string {
   if (r.drive) {
     h('Driving the instrument');
     out.push(`  Scale at a 1 MΩ input ${f(r.drive.scaleAt1M, `V/${m}`, 4)}, at 50 Ω ${f(r.drive.scaleAt50, `V/${m}`, 4)}${r.drive.drives50 ? '' : ' (the op-amp cannot drive 50 Ω over the range)'}`);
-    if (r.drive.probeRatio) out.push(`  Set the instrument's probe ratio to ${r.drive.probeRatio}× to read ${m} directly`);
+    const probe = r.warnings.find((w) => w.code === 'probe-ratio');
+    if (probe) out.push(`  ${probe.message}`);
   }
   const wave = waveformFigures(r);
   if (wave.length) {

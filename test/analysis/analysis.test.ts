@@ -89,6 +89,98 @@ describe('noise and errors', () => {
   });
 });
 
+describe('rails in the error budget, at both range ends', () => {
+  // A ratiometric sensor and a reference divider both fed from the regulated rail: every source in the
+  // linear stage scales by (1 + ε) with the rail, so by superposition the output does too: Δv(x) = ε·(z + s·x).
+  // Bench clamp, 2 % regulator, z = 4.5 V, s = 0.1 V/A: at +20 A 0.02·6.5/0.1 = 1.30 A, at −20 A 0.02·2.5/0.1 = 0.50 A.
+  it('the regulated-rail term tracks the ratiometric sensor: 1.30 A at +20 A, 0.50 A at −20 A', () => {
+    const r = analyse(design('bench-clamp'), { spreadTrials: 0 });
+    const t = r.errors!.terms.find((x) => x.name.startsWith('regulated rail tolerance'))!;
+    const z = r.dc!.out[0], sc = r.dc!.out[1];
+    expect(t.high).toBeCloseTo((0.02 * (z + sc * 20)) / sc, 2);
+    expect(t.low).toBeCloseTo((0.02 * Math.abs(z - sc * 20)) / sc, 2);
+    expect(t.high).toBeCloseTo(1.3, 2);
+    expect(t.low).toBeCloseTo(0.5, 2);
+    // Its drift (100 ppm/K over ±15 K, ε = 1.5e-3) is the same shape and remains after calibration.
+    const d = r.errors!.terms.find((x) => x.name.startsWith('regulated rail drift'))!;
+    expect(d.high).toBeCloseTo((1.5e-3 * (z + sc * 20)) / sc, 3);
+    expect(d.removedBy).toBe('none');
+  });
+  // Non-inverting stage, reference at the foot of the ground leg (superposition; Franco, summing and
+  // difference amplifiers): v = G·V_s − (G−1)·V_ref with V_ref = G·V_q − z over (G−1) taken from the 9 V rail, so
+  // a 1 % rail moves the zero by (G·V_q − z)·0.01 = (8·2.5 − 4.5)·0.01 = 0.155 V = 1.55 A at 0.1 V/A.
+  it('a 1 % bench rail moves the generic demo\'s zero by (G·Vq − z)·1 % = 1.55 A', () => {
+    const r = analyse(design('generic-sensor'), { spreadTrials: 0 });
+    const t = r.errors!.terms.find((x) => x.name.startsWith('supply rail tolerance'))!;
+    const g = r.stage!.gain, z = r.dc!.out[0], sc = r.dc!.out[1];
+    expect(t.high).toBeCloseTo(((g * 2.5 - z) * 0.01) / sc, 2);
+    expect(t.high).toBeCloseTo(1.55, 2);
+    expect(t.low).toBeCloseTo(t.high, 9); // the sensor is not ratiometric: a pure zero shift
+  });
+  // PSRR (its definition: the input offset moves by ΔV_supply/PSRR; Franco, op-amp DC limitations): 60 dB and
+  // a 1 % change of the 9 V span move V_os by 90 µV, times the noise gain 8 at the output: 0.72 mV = 7.2 mA.
+  it('the op-amp\'s supply rejection turns the rail tolerance into an offset: NG·ΔV/PSRR', () => {
+    const r = analyse(design('generic-sensor', (x) => { x.opamp.psrrDb = 60; }), { spreadTrials: 0 });
+    const t = r.errors!.terms.find((x) => x.name.startsWith('op-amp supply rejection'))!;
+    expect(t.high).toBeCloseTo((r.stage!.gain * 0.09 * 1e-3) / r.dc!.out[1], 4);
+  });
+  it('existing files without the new fields get the defaults (1 % rail, 80 dB, 100 ppm/K trimmers, 0.5 % + 3 mV meter)', () => {
+    const d = design('generic-sensor');
+    expect(d.supply.tolerance).toBe(0.01);
+    expect(d.opamp.psrrDb).toBe(80);
+    expect(d.target.trimmerTempco).toBe(100e-6);
+    expect(d.calibration).toEqual({ meterRelative: 0.005, meterDigits: 0.003 });
+    const b = design('bench-clamp');
+    expect(b.supply.regulated!.dropout).toBe(0.3);
+    expect(b.supply.regulated!.drift).toBe(100e-6);
+  });
+});
+
+describe('after calibration', () => {
+  // A meter reading is uncertain by ±(r·reading + digits) (common practice: 0.5 % + 3 counts of 1 mV).
+  // Zero: one reading of z. Span: the difference of two readings (at zero and at x_cal = half the range end),
+  // ±(r·|s·x_cal| + 2·digits), against an applied measurand read to ±r; the errors add (worst case, GUM
+  // §5.1 with full correlation taken as the bound). Bench clamp: z 4.5 V, s 0.1 V/A, x_cal 10 A.
+  it('carries the calibration meter: zero (r·z + d)/s and span |x|·(r + (r·s·x_cal + 2d)/(s·x_cal))', () => {
+    const r = analyse(design('bench-clamp'), { spreadTrials: 0 });
+    const z = r.dc!.out[0], sc = r.dc!.out[1];
+    const zeroT = r.errors!.terms.find((x) => x.name === 'calibration meter, zero reading')!;
+    const spanT = r.errors!.terms.find((x) => x.name === 'calibration meter, span from two readings')!;
+    expect(zeroT.high).toBeCloseTo((0.005 * z + 0.003) / sc, 6);
+    const rel = 0.005 + (0.005 * sc * 10 + 2 * 0.003) / (sc * 10);
+    expect(spanT.high).toBeCloseTo(20 * rel, 6);
+    expect(spanT.low).toBeCloseTo(20 * rel, 6);
+    // They exist only after calibration; the static terms (rail tolerance) do not.
+    const after = r.errors!.terms.filter((t) => t.calibration || t.removedBy === 'none').reduce((x, t) => x + t.high, 0);
+    expect(r.errors!.afterTrimHigh).toBeCloseTo(after, 9);
+    const before = r.errors!.terms.filter((t) => !t.calibration).reduce((x, t) => x + t.value, 0);
+    expect(r.errors!.worstCase).toBeCloseTo(before, 9);
+    // The steps tell the user to judge the span by that difference.
+    expect(r.calibration.some((c) => /difference from the zero reading/.test(c.text))).toBe(true);
+  });
+  // The trimmers' tempco scales each whole track: the rheostat in the feedback arm moves the gain, the
+  // potentiometer's ratio holds and only its Thevenin resistance moves. Closed form of the bench clamp
+  // (non-inverting, reference at the foot of the ground leg; superposition, ideal op-amp):
+  // v(x) = [G·(V_q + S·x) − (G−1)·V_th]·R_L/(R_L + R_out), G = 1 + R_f/(R_g + R_th).
+  it('trimmer tempco: each trimmer\'s whole track moved by 100 ppm/K × 15 K, from the closed form', () => {
+    const r = analyse(design('bench-clamp'), { spreadTrials: 0 });
+    const part = (role: string) => r.stage!.parts.find((p) => p.role === role)!;
+    const rv1 = part('gain-trim'), rv2 = part('zero-trim');
+    const S = r.front.sensitivity;
+    const out = (k1: number, k2: number, x: number) => {
+      const rt = part('reference-top').ohms + (1 - rv2.setting!) * rv2.ohms * k2, rb = part('reference-bottom').ohms + rv2.setting! * rv2.ohms * k2;
+      const vth = (5 * rb) / (rt + rb), rth = (rt * rb) / (rt + rb);
+      const g = 1 + (part('feedback').ohms + rv1.setting! * rv1.ohms * k1) / (part('ground-leg').ohms + rth);
+      return (g * (2.5 + S * x) - (g - 1) * vth) * (1e6 / (1e6 + part('output-series').ohms));
+    };
+    const k = 1 + 100e-6 * 15;
+    const at = (x: number) => (Math.abs(out(k, 1, x) - out(1, 1, x)) + Math.abs(out(1, k, x) - out(1, 1, x))) / r.dc!.out[1];
+    const t = r.errors!.terms.find((x) => x.name.startsWith('trimmer tempco'))!;
+    expect(t.high / at(20)).toBeCloseTo(1, 2);
+    expect(t.low / at(-20)).toBeCloseTo(1, 2);
+  });
+});
+
 describe('tolerance spread', () => {
   // First-order propagation: for G = 1 + Rf/Rg, ∂lnG/∂lnRf = −∂lnG/∂lnRg = (G−1)/G; a uniform ±t part has
   // σ = t/√3, so σ_G/G = (G−1)/G · t/√3 · √2 (any metrology text, GUM §5.1.2).
@@ -111,6 +203,39 @@ describe('tolerance spread', () => {
     expect(r.spread!.scaleStd / sigma).toBeLessThan(1.06);
     expect(Math.abs(r.spread!.scaleMean - r.dc!.out[1])).toBeLessThan((4 * sigma) / Math.sqrt(4000));
   });
+  // GUM (JCGM 100:2008) §5.1.2 law of propagation: σ_z² = Σ (∂z/∂x_i)²·u(x_i)², u = t/√3 for a part uniform
+  // within ±t (§4.3.7). The zero comes from the non-inverting stage with its reference at the foot of the
+  // ground leg, by superposition (Franco, Design with Operational Amplifiers, summing amplifiers; ideal
+  // op-amp): z = [G·V_q − (G−1)·V_th]·R_L/(R_L + R_out), G = 1 + R_f/(R_g + R_th), the divider's Thevenin
+  // V_th, R_th from its top and bottom with the potentiometer's halves (1−s)·P and s·P. The potentiometer's
+  // ±20 % scales P as a whole, so s holds.
+  it('Monte Carlo σ of the bench clamp\'s zero matches first-order propagation with the pot track moving as one', () => {
+    const r = analyse(design('bench-clamp'), { spreadTrials: 6000 });
+    const part = (role: string) => { const ps = r.stage!.parts.filter((p) => p.role === role); expect(ps.length).toBe(1); return ps[0]!; };
+    const rv1 = part('gain-trim'), rv2 = part('zero-trim');
+    const x0: Record<string, number> = {
+      R1: part('feedback').ohms, R2: part('ground-leg').ohms, R3: part('reference-top').ohms, R4: part('reference-bottom').ohms,
+      R5: part('output-series').ohms, RV1: rv1.ohms, RV2: rv2.ohms, VQ: 2.5,
+    };
+    const s1 = rv1.setting!, s2 = rv2.setting!;
+    const zero = (x: Record<string, number>) => {
+      const rt = x.R3! + (1 - s2) * x.RV2!, rb = x.R4! + s2 * x.RV2!;
+      const vth = (5 * rb) / (rt + rb), rth = (rt * rb) / (rt + rb);
+      const g = 1 + (x.R1! + s1 * x.RV1!) / (x.R2! + rth);
+      return (g * x.VQ! - (g - 1) * vth) * (1e6 / (1e6 + x.R5!));
+    };
+    const u: Record<string, number> = { R1: 0.01, R2: 0.01, R3: 0.01, R4: 0.01, R5: 0.01, RV1: 0.2, RV2: 0.2 };
+    let variance = 0;
+    for (const k of Object.keys(x0)) {
+      const half = k === 'VQ' ? 0.02 : u[k]! * x0[k]!; // the sensor zero: ±20 mV
+      const h = half * 1e-4;
+      const c = (zero({ ...x0, [k]: x0[k]! + h }) - zero({ ...x0, [k]: x0[k]! - h })) / (2 * h);
+      variance += (c * half / Math.sqrt(3)) ** 2;
+    }
+    const sigma = Math.sqrt(variance);
+    expect(r.spread!.zeroStd / sigma).toBeGreaterThan(0.96);
+    expect(r.spread!.zeroStd / sigma).toBeLessThan(1.04);
+  });
   it('is repeatable with the same seed', () => {
     const a = analyse(design('generic-sensor'), { spreadTrials: 300 });
     const b = analyse(design('generic-sensor'), { spreadTrials: 300 });
@@ -128,6 +253,46 @@ describe('battery and instrument', () => {
     // Battery life = capacity / current (565 mAh = 2034 C).
     expect(r.supply!.batteryLife! * r.supply!.current * 3600).toBeCloseTo(2034, 6);
   });
+  // Op-amp output swing (its definition: outputLow above the − rail, outputHigh below the + rail) with the
+  // bench clamp's 100 mV/A around 4.5 V: the low side clips at (0.05 − 4.5)/0.1 = −44.5 A on any battery
+  // voltage, 2.5 − 0.05 = 2.45 V below the −20 A output; at 6.00 V the high side stops at 6.0 − 1.5 = 4.5 V,
+  // the zero itself, 6.5 − 4.5 = 2.0 V short of the +20 A output.
+  it('at end of life (6.00 V) with the zero on the edge, each side\'s limit is still computed', () => {
+    const r = analyse(design('bench-clamp'), { spreadTrials: 0 });
+    const eol = r.battery[r.battery.length - 1]!;
+    expect(eol.voltage).toBe(6);
+    expect(eol.measurandLow).toBeCloseTo(-44.5, 1);
+    expect(eol.headroomLow).toBeCloseTo(2.45, 2);
+    expect(eol.headroomHigh).toBeCloseTo(-2.0, 2);
+    expect(eol.measurandHigh).toBeLessThan(0.1);
+  });
+  // The output reaches the swing limit where V_bat − outputHigh = V_out(+20 A) = 4.5 + 0.1·20 = 6.5 V, so at
+  // V_bat = 8.0 V exactly (not at a sweep point). Time t = Q/I for the charge drawn (definition of capacity),
+  // with the voltage falling linearly in charge from fresh to end of life (our stated approximation):
+  // t = (Q/I)·(9.6 − 8.0)/(9.6 − 6.0).
+  it('solves the battery voltage where clipping starts (8.0 V) and the hours to it', () => {
+    const r = analyse(design('bench-clamp'), { spreadTrials: 0 });
+    const bc = r.batteryClip!;
+    expect(bc.voltage!).toBeCloseTo(8.0, 2);
+    const hoursToEnd = 2034 / r.supply!.current / 3600;
+    expect(bc.hoursToEnd!).toBeCloseTo(hoursToEnd, 9);
+    expect(bc.hoursToClip! / (hoursToEnd * (9.6 - bc.voltage!) / 3.6)).toBeCloseTo(1, 9);
+    expect(r.warnings.find((w) => w.code === 'battery-clips')!.message).toMatch(/8\.00 V/);
+    expect(r.verdicts.find((v) => v.title.startsWith('Battery life'))!.detail).toMatch(/clips inside the range after about/);
+  });
+  // A regulator with 1.7 V dropout (common practice for a small non-LDO linear part, from memory) leaves
+  // regulation below 5 + 1.7 = 6.7 V; at 6.0 V its output is 4.3 V. The sensor and the reference both hang
+  // from it, so the linear stage's output scales with it (superposition: every source ×4.3/5): scale
+  // 0.1·4.3/5 = 86 mV/A and zero 4.5·4.3/5 = 3.87 V.
+  it('a ratiometric sensor on a regulator in dropout changes its scale, and the report says so', () => {
+    const r = analyse(design('bench-clamp', (x) => { x.supply.regulated.dropout = 1.7; }), { spreadTrials: 0 });
+    const eol = r.battery[r.battery.length - 1]!;
+    expect(eol.regulated).toBe(false);
+    expect(eol.scale / (r.dc!.out[1] * 4.3 / 5)).toBeCloseTo(1, 4);
+    expect(eol.zeroShift).toBeCloseTo(r.dc!.out[0] * (4.3 / 5 - 1), 3);
+    expect(r.battery[0]!.regulated).toBe(true);
+    expect(r.warnings.map((w) => w.code)).toContain('battery-scale-shift');
+  });
   it('a reference taken from the battery moves the zero as it sags', () => {
     const r = analyse(design('generic-sensor', (x) => { x.supply.battery = { fresh: 9.6, endOfLife: 7, capacity: 2034 }; }), { spreadTrials: 0 });
     expect(Math.abs(r.battery[r.battery.length - 1]!.zeroShift)).toBeGreaterThan(0.1);
@@ -137,6 +302,36 @@ describe('battery and instrument', () => {
     const r = analyse(design('bench-clamp'), { spreadTrials: 0 });
     expect(r.drive!.scaleAt50 / r.drive!.scaleAt1M).toBeCloseTo(50 / 150, 3);
     expect(r.drive!.probeRatio).toBe(10);
+  });
+});
+
+describe('probe-ratio advice (a probe ratio k displays k × the input volts: common practice)', () => {
+  // Bench clamp: 100 mV/A, so k = 1/0.1 = 10 makes one displayed volt one ampere; its 4.5 V zero then shows
+  // as 4.5 × 10 = 45 A with nothing measured, so the advice must say how to null it.
+  it('with a 4.5 V zero the 10× advice says the zero shows as 45 A and how to null it', () => {
+    const r = analyse(design('bench-clamp'), { spreadTrials: 0 });
+    expect(r.drive!.probeRatio).toBe(10);
+    expect(r.drive!.probeOffset).toBeCloseTo(4.5, 3);
+    expect(r.drive!.probeOffsetShown).toBeCloseTo(45, 2);
+    expect(r.drive!.probeInvert).toBe(false);
+    const w = r.warnings.find((x) => x.code === 'probe-ratio')!;
+    expect(w.message).toMatch(/45\.0 A/);
+    expect(w.message).toMatch(/offset/);
+    expect(w.message).not.toMatch(/reads A directly/);
+    expect(r.calibration.some((c) => c.text === w.message)).toBe(true);
+  });
+  // 0.5 V/A around 0 V: k = 2 reads amperes directly, no offset to null.
+  it('with the zero at 0 V the ratio alone reads the measurand directly', () => {
+    const r = analyse(design('generic-sensor', shuntOnSplitSupply), { spreadTrials: 0 });
+    expect(r.drive!.probeRatio).toBe(2);
+    expect(Math.abs(r.drive!.probeOffsetShown)).toBeLessThan(1e-3);
+    expect(r.warnings.find((x) => x.code === 'probe-ratio')!.message).toMatch(/reads A directly/);
+  });
+  it('a negative scale asks for the channel to be inverted', () => {
+    const r = analyse(design('generic-sensor', (x) => { shuntOnSplitSupply(x); x.target.scale = -0.5; }), { spreadTrials: 0 });
+    expect(r.drive!.probeRatio).toBe(2);
+    expect(r.drive!.probeInvert).toBe(true);
+    expect(r.warnings.find((x) => x.code === 'probe-ratio')!.message).toMatch(/invert/);
   });
 });
 

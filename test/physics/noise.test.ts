@@ -3,6 +3,8 @@ import { enbwSinglePole, integratePower, logGrid, nonInvertingNoise, peakToPeak,
 import { noiseSpectrum } from '../../src/circuit/noise.js';
 import { compile, type Element } from '../../src/circuit/mna.js';
 import { BOLTZMANN } from '../../src/model/constants.js';
+import { analyse } from '../../src/analysis/report.js';
+import { designFrom } from '../helpers.js';
 
 describe('thermal noise (Johnson 1928, Nyquist 1928: e = √(4kTR), k exact per SI 2019)', () => {
   it('uses the exact Boltzmann constant 1.380649e-23 J/K (SI Brochure, 9th ed.)', () => {
@@ -79,5 +81,43 @@ describe('output noise of an inverting stage (same §3.4 form: noise gain 1 + Rf
     const low = noiseSpectrum(c, 5, Float64Array.of(10), 300).total[0]!;
     expect(low / nonInvertingNoise({ en: 10e-9, in: 1e-12, rf: 9000, rg: 1000, rs: 0, kelvin: 300 })).toBeCloseTo(1, 3);
     expect(low / 107.57e-9).toBeCloseTo(1, 3);
+  });
+});
+
+describe('1/f noise (density² = white²·(1 + f_c/f); Motchenbacher & Connelly 1993, ch. 1)', () => {
+  // ∫ e²·(1 + f_c/f) df from f1 to f2 = e²·[(f2 − f1) + f_c·ln(f2/f1)]: over 0.1–10 Hz with e = 10 nV/√Hz
+  // and f_c = 100 Hz, e·√(9.9 + 100·ln 100) = 216.9 nV rms (derived).
+  it('a source with a 100 Hz corner integrates to e·√((f2 − f1) + f_c·ln(f2/f1)) over 0.1–10 Hz', () => {
+    const c = compile(['0', 'n'], [{ kind: 'V', name: 'VN', a: 1, b: 0, value: 0, noise: 10e-9, noiseCorner: 100 }, { kind: 'R', name: 'RL', a: 1, b: 0, value: 1e3, noisy: false }]);
+    const f = logGrid(0.1, 10, 24);
+    const rms = Math.sqrt(integratePower(f, noiseSpectrum(c, 1, f, 300).total));
+    expect(rms / (10e-9 * Math.sqrt(9.9 + 100 * Math.log(100)))).toBeCloseTo(1, 6);
+    expect(rms).toBeCloseTo(216.9e-9, 10);
+  });
+  // The op-amp's e_n sits in series with the + input: at 0.1–10 Hz, far below the corner, it reaches the
+  // output times the noise gain (ECEN 457 eq. 1), so its share there is NG·e_n·√(9.9 + f_c·ln 100).
+  it('the op-amp\'s voltage-noise corner reaches the 0.1–10 Hz figure times the noise gain', () => {
+    const r = analyse(designFrom('generic-sensor', (x) => { x.opamp.voltageNoiseCorner = 100; x.opamp.currentNoise = 0; x.sensor.noiseDensity = 0; }), { spreadTrials: 0 });
+    const f = logGrid(0.1, 10, 24);
+    const s = noiseSpectrum(r.circuit!.circuit, r.circuit!.nodes.out, f, r.design.environment.temperature);
+    const vos = s.sources.find((x) => x.name === 'VOS')!;
+    const expected = r.stage!.gain * 35e-9 * Math.sqrt(9.9 + 100 * Math.log(100));
+    expect(Math.sqrt(integratePower(f, vos.density)) / expected).toBeCloseTo(1, 3);
+    // The report's 0.1–10 Hz figure is that band's total, and its peak-to-peak 6.6 × rms (common practice).
+    const lf = r.noise!.lowFrequency;
+    expect(lf.band).toEqual([0.1, 10]);
+    expect(lf.rms / Math.sqrt(integratePower(f, s.total))).toBeCloseTo(1, 6);
+    expect(lf.peakToPeak).toBeCloseTo(6.6 * lf.rms, 15);
+    expect(lf.referredPeakToPeak).toBeCloseTo(lf.peakToPeak / Math.abs(r.speed!.passband), 12);
+    const white = analyse(designFrom('generic-sensor', (x) => { x.opamp.currentNoise = 0; x.sensor.noiseDensity = 0; }), { spreadTrials: 0 });
+    expect(lf.rms).toBeGreaterThan(3 * white.noise!.lowFrequency.rms);
+    expect(white.warnings.map((w) => w.code)).toContain('flicker-not-given');
+  });
+  it('the noise verdict explains the default band and quotes the 0.1–10 Hz figure', () => {
+    const r = analyse(designFrom('bench-clamp'), { spreadTrials: 0 });
+    const line = r.verdicts.find((v) => v.title.startsWith('Noise'))!;
+    expect(line.detail).toMatch(/default band/);
+    expect(line.detail).toMatch(/100 mHz/);
+    expect(r.noise!.bandIsDefault).toBe(true);
   });
 });

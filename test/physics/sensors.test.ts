@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { atSensorSupply, gapFieldPerAmp, sensorFront } from '../../src/physics/sensors.js';
+import { atSensorSupply, gapAreaRatio, gapFieldPerAmp, gappedCorePerAmp, sensorFront } from '../../src/physics/sensors.js';
 import { analyse } from '../../src/analysis/report.js';
 import { MU0 } from '../../src/model/constants.js';
 import { designFrom } from '../helpers.js';
@@ -45,6 +45,54 @@ describe('magnetic circuit with an air gap (Ampère\'s law; Umans, Fitzgerald & 
   });
 });
 
+describe('gap fringing: effective gap area, same for the sensor field and the core flux', () => {
+  // Umans, Fitzgerald & Kingsley's Electric Machinery (7th ed., ch. 1; from memory): fringing is accounted
+  // for by adding the gap length to each of the two dimensions of the cross-section: 10 mm × 10 mm with a
+  // 1 mm gap → 11 mm × 11 mm, A_g/A_c = 1.21.
+  it('gapAreaRatio adds the gap to each side: 10 × 10 mm with 1 mm → 1.21', () => {
+    expect(gapAreaRatio({ gap: 1e-3, width: 0.01, depth: 0.01, fringing: 1 })).toBeCloseTo(1.21, 12);
+    expect(gapAreaRatio({ gap: 1e-3, fringing: 1.3 })).toBe(1.3);
+  });
+  // Magnetic circuit (Umans §1.1): R_c = l_c/(μ0·μr·A_c), R_g = g/(μ0·A_g), Φ = N·I/(R_c + R_g);
+  // B_core = Φ/A_c, B_gap = Φ/A_g. Numbers: A_c = 100 mm², A_g = 121 mm², l_c 60 mm, μr 2000, g 1 mm, N 1.
+  it('core and gap flux density per ampere follow the two-reluctance circuit', () => {
+    const Ac = 1e-4, Ag = 1.21e-4;
+    const Rc = 0.06 / (MU0 * 2000 * Ac), Rg = 1e-3 / (MU0 * Ag);
+    const phi = 1 / (Rc + Rg);
+    const b = gappedCorePerAmp(1, 1e-3, 0.06, 2000, 1.21);
+    expect(b.core / (phi / Ac)).toBeCloseTo(1, 12);
+    expect(b.gap / (phi / Ag)).toBeCloseTo(1, 12);
+    // Without fringing both reduce to B = μ0·N·I/(g + l/μr).
+    const plain = gappedCorePerAmp(1, 1e-3, 0.06, 2000, 1);
+    expect(plain.core).toBeCloseTo(gapFieldPerAmp(1, 1e-3, 0.06, 2000), 15);
+    expect(plain.gap).toBe(plain.core);
+  });
+  it('the bench clamp with its core cross-section given saturates earlier: I_sat = B_sat·A_c·(R_c + R_g)/N', () => {
+    const d = design('bench-clamp', (x) => { x.sensor.core.width = 0.008; x.sensor.core.depth = 0.005; });
+    const f = sensorFront(d.sensor, d);
+    const Ac = 0.008 * 0.005, Ag = (0.008 + 1.5e-3) * (0.005 + 1.5e-3);
+    const Rc = 0.06 / (MU0 * 2000 * Ac), Rg = 1.5e-3 / (MU0 * Ag);
+    const iSat = (0.35 * Ac * (Rc + Rg)) / 1;
+    expect(f.limits.find((l) => l.kind === 'core')!.high / iSat).toBeCloseTo(1, 12);
+    // The sensor reads the gap's mean flux density Φ/A_g: sensitivity k_H·Φ/(A_g·I).
+    expect(f.sensitivity / (25 / (Ag * (Rc + Rg)))).toBeCloseTo(1, 12);
+    const plain = sensorFront(design('bench-clamp').sensor, design('bench-clamp'));
+    expect(f.limits.find((l) => l.kind === 'core')!.high).toBeLessThan(plain.limits.find((l) => l.kind === 'core')!.high);
+    expect(f.warnings.map((w) => w.code)).toContain('fringing-model');
+    expect(f.figures.find((x) => x.key === 'gapAreaExcess')!.value).toBeCloseTo(Ag / Ac - 1, 12);
+  });
+  it('a fringing factor alone is the same effective area: the core limit falls by it too', () => {
+    const d = design('bench-clamp', (x) => { x.sensor.core.fringing = 1.2; });
+    const f = sensorFront(d.sensor, d);
+    const Ac = 1, Ag = 1.2;
+    const Rc = 0.06 / (MU0 * 2000 * Ac), Rg = 1.5e-3 / (MU0 * Ag);
+    expect(f.limits.find((l) => l.kind === 'core')!.high / (0.35 * Ac * (Rc + Rg))).toBeCloseTo(1, 12);
+  });
+  it('one dimension alone is taken as a square section', () => {
+    expect(gapAreaRatio({ gap: 1e-3, width: 0.01, fringing: 1 })).toBeCloseTo(1.21, 12);
+  });
+});
+
 describe('current transformer (Kusko & Thompson ch. 14: V = I_p·R_B/N)', () => {
   // Derived: N 1000, R_B 100 Ω, 10 A → 1.00 V; A_L 2 µH, R_w 20 Ω → L_m 2 H, corner (R_B + R_w)/(2π·L_m) = 9.55 Hz.
   it('N 1000, burden 100 Ω: 0.1 V/A; A_L 2 µH gives 2 H and a 9.55 Hz corner', () => {
@@ -79,6 +127,15 @@ describe('shunt (Ohm\'s law V = I·R, power I²·R)', () => {
     expect(f.figures.find((x) => x.key === 'shuntPower')!.value).toBeCloseTo(0.25, 12);
     // Rated current √(P/R) = 10 A.
     expect(f.limits[0]!.high).toBeCloseTo(10, 12);
+  });
+  // Joule's law with the rms current, P = I_rms²·R: 10 mΩ at 8 A rms dissipates 0.64 W (not (8√2)²·R = 1.28 W).
+  // A 1 W rating allows √(1/0.01) = 10 A rms, whose sine peak is 14.14 A: the clip limit is in peaks.
+  it('an AC shunt at 8 A rms dissipates I²rms·R = 0.64 W and clips at the rating\'s peak 10√2 A', () => {
+    const d = shunt((x) => { x.target.range = [-8, 8]; x.target.signal = 'ac-rms'; });
+    const f = sensorFront(d.sensor, d);
+    expect(f.figures.find((x) => x.key === 'shuntPower')!.value).toBeCloseTo(0.64, 12);
+    expect(f.limits[0]!.high).toBeCloseTo(10 * Math.SQRT2, 12);
+    expect(f.warnings.map((w) => w.code)).not.toContain('shunt-power');
   });
   it('warns past the power rating and that a high-side shunt is not covered', () => {
     const d = shunt((x) => { x.target.range = [-20, 20]; });
