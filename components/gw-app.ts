@@ -3,12 +3,12 @@ import { customElement, state, query } from 'lit/decorators.js';
 import { validateDesign, parseDesignText, MAX_DESIGN_BYTES, type Design, type Problem } from '../src/index.js';
 import { analyse, SAFETY_CAUTIONS, type Report } from '../src/index.js';
 import { DEMOS, demoDesign } from '../src/index.js';
-import { FIELDS, GROUP_DEFAULTS, parseField, setPath } from '../src/index.js';
+import { FIELDS, GROUP_DEFAULTS, groupDefault, parseField, setPath } from '../src/index.js';
 import { archetype } from '../src/index.js';
-import { allCharts, type ChartData } from '../src/index.js';
+import { allCharts, waveformChart, type ChartData } from '../src/index.js';
 import { schematic, type Schematic } from '../src/index.js';
 import { bomCsv, bomRows, type BomRow } from '../src/index.js';
-import { keyFigures, type FigureRow } from '../src/index.js';
+import { keyFigures, waveformFigures, waveformLine, type FigureRow } from '../src/index.js';
 import { decodeDesignBytes, designFromFragment, fileName, problemWords, serialiseDesign, shareFragment } from '../src/index.js';
 import { sensorTemplate } from '../src/index.js';
 import { base } from './styles.js';
@@ -21,6 +21,7 @@ import './gw-schematic.js';
 import './gw-parts.js';
 import './gw-figures.js';
 import './gw-bench.js';
+import './gw-trace.js';
 
 /** The unit engine (mathjs units) loads after the first render so that it does not delay it. */
 let unitsLoading: Promise<unknown> | null = null;
@@ -38,13 +39,16 @@ interface Derived {
   drawing: Schematic | null;
   rows: BomRow[];
   figures: FigureRow[];
+  /** The scope view and its figures. */
+  wave: ChartData | null;
+  waveRows: FigureRow[];
 }
 
 /** Everything shown that is derived from the design (throws only on a fault of ours). */
 function derive(design: Design, trials: number): Derived {
   performance.mark('gw-analyse-start');
-  const report = analyse(design, { spreadTrials: trials });
-  const derived = { report, charts: allCharts(report), drawing: schematic(report), rows: bomRows(report), figures: keyFigures(report) };
+  const report = analyse(design, { spreadTrials: trials, defaultWaveform: true });
+  const derived = { report, charts: allCharts(report), drawing: schematic(report), rows: bomRows(report), figures: keyFigures(report), wave: waveformChart(report), waveRows: waveformFigures(report) };
   performance.mark('gw-analyse-end');
   performance.measure('gw-analyse', 'gw-analyse-start', 'gw-analyse-end');
   return derived;
@@ -74,6 +78,8 @@ export class GwApp extends LitElement {
     /* On a narrow screen the verdict comes first, then the editor, then the rest. */
     @media (max-width: 860px) { main { grid-template-columns: minmax(0, 1fr); grid-template-areas: 'verdict' 'editor' 'results'; padding: 0.5rem; } .title-input { width: 100%; } }
     .panel { background: var(--gw-paper); border: 1px solid var(--gw-line); border-radius: 6px; padding: 0.7rem 0.9rem; margin-bottom: 1rem; }
+    .scope { display: grid; grid-template-columns: minmax(0, 3fr) minmax(0, 2fr); gap: 0.8rem; align-items: start; }
+    @media (max-width: 1100px) { .scope { grid-template-columns: minmax(0, 1fr); } }
     .charts { display: grid; grid-template-columns: repeat(auto-fit, minmax(min(320px, 100%), 1fr)); gap: 0.8rem; }
     .scroll { overflow-x: auto; }
     main > section { min-width: 0; }
@@ -95,6 +101,7 @@ export class GwApp extends LitElement {
       .sheet .wide { grid-column: 1 / -1; }
       .sheet gw-schematic { display: block; max-width: 9.5cm; }
       .sheet section { break-inside: avoid; }
+      .sheet .scope-print { display: grid; grid-template-columns: 3fr 2fr; gap: 0 0.3cm; align-items: start; font-size: 7pt; line-height: 1.2; }
       .sheet .safety { border: 1px solid #000; padding: 0.1rem 0.3rem 0.1rem 1.2rem; }
     }
   `];
@@ -303,7 +310,7 @@ export class GwApp extends LitElement {
   private _onSet = (e: HTMLElementEventMap['gw-set']): void => {
     const { path, value } = e.detail;
     this._enqueue(() => {
-      if (path in GROUP_DEFAULTS) this._apply(setPath(this._design, path, value ? GROUP_DEFAULTS[path] : null), path);
+      if (path in GROUP_DEFAULTS) this._apply(setPath(this._design, path, value ? groupDefault(path, this._design) : null), path);
       else this._apply(setPath(this._design, path, value), path);
     });
   };
@@ -418,7 +425,9 @@ export class GwApp extends LitElement {
       <div class="grid">
         <section><h2>Schematic</h2><gw-schematic .drawing=${d.drawing}></gw-schematic></section>
         <section><h2>Safety</h2><ul class="safety">${this._cautions().map((c) => html`<li>${c}</li>`)}</ul>
-          <h2>Readings of the built probe</h2><gw-bench mode="sheet" .report=${r}></gw-bench></section>
+          <h2>Readings of the built probe</h2><gw-bench mode="sheet" .report=${r}></gw-bench>
+
+          <h2>What the scope shows</h2><div class="scope-print"><gw-trace .data=${d.wave}></gw-trace><small>${waveformLine(r)}</small></div></section>
         <section class="wide"><h2>Parts list</h2><gw-parts compact .rows=${d.rows}></gw-parts></section>
         <section class="wide"><h2>Calibration</h2><ol class="cal">${r.calibration.map((c) => html`<li>${c.text}</li>`)}</ol></section>
         <section><h2>Key figures</h2><gw-figures caption="Key figures" .rows=${d.figures.slice(0, half)}></gw-figures></section>
@@ -465,6 +474,9 @@ export class GwApp extends LitElement {
         </section>
         <section class="area-results" aria-label="Results">
           <div class="panel"><h2>Schematic</h2><gw-schematic .drawing=${d?.drawing ?? null}></gw-schematic></div>
+          <div class="panel scroll" id="scope"><h2>What the scope shows</h2><div class="scope">
+            ${d?.wave ? html`<gw-chart data-chart="waveform" .data=${d.wave}></gw-chart>` : nothing}
+            <gw-figures caption="Waveform figures" .rows=${d?.waveRows ?? []}></gw-figures></div></div>
           <div class="panel"><h2>Plots</h2><div class="charts">${(d?.charts ?? []).map((c) => html`<gw-chart data-chart=${c.id} .data=${c}></gw-chart>`)}</div></div>
           <div class="panel scroll"><h2>Parts list</h2><gw-parts .rows=${d?.rows ?? []} .alternatives=${r?.stage?.alternatives ?? []} .chosen=${r?.stage?.chosen ?? 0} @gw-set=${this._onSet}></gw-parts></div>
           <div class="panel scroll"><h2>Figures</h2><gw-figures caption="Figures" .rows=${d?.figures ?? []}></gw-figures></div>

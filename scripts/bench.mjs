@@ -17,7 +17,8 @@ const { analyse } = await b('analysis/report.js');
 const A = await b('analysis/analysis.js');
 const { sensorFront } = await b('physics/sensors.js');
 const { chooseTopology } = await b('physics/topology.js');
-const { solveStage } = await b('solve/solver.js');
+const { solveStage } = await b('solve/stage.js');
+const W = await b('analysis/waveform.js');
 const { buildCircuit } = await b('circuit/build.js');
 const { stamp, luFactor, luSolve, workspace } = await b('circuit/mna.js');
 
@@ -88,6 +89,20 @@ console.log('\n2. Full analysis (demo "bench-clamp")');
   line('analyse(): everything but the Monte Carlo, median', ms(whole), 'budget 5 ms');
   line('  of which after the stage solve', ms(whole - time(() => solveStage(d, front, ideal), 100)));
   line('Monte Carlo, 10 000 trials', ms(time(() => A.spread(d, front, sc, dc, 10000), 5)), 'budget 150 ms');
+  // The scope view: the time-domain solve behind the waveform plot, redone on every edit.
+  const clip = A.clipping(d, front, dc);
+  line('waveform, 2000 samples: step over the range', ms(time(() => W.waveform(d, W.stepOverRange(d), sc, front, dc, clip, sp, 2000), 50)), 'budget 50 ms');
+  line('  1 kHz square over the range, two periods', ms(time(() => W.waveform(d, { shape: 'square', low: -20, high: 20, frequency: 1000, duty: 0.5 }, sc, front, dc, clip, sp, 2000), 20)));
+  {
+    const ct = demoDesign('appliance-ct');
+    const f2 = sensorFront(ct.sensor, ct);
+    const st = solveStage(ct, f2, chooseTopology(ct, f2).chosen);
+    const c2 = buildCircuit(ct, st, f2);
+    const dc2 = A.dcLinear(c2, true);
+    const sp2 = A.speed(ct, c2, f2, dc2);
+    const cl2 = A.clipping(ct, f2, dc2);
+    line('  CT demo, 50 Hz square (settles 60 periods first)', ms(time(() => W.waveform(ct, { shape: 'square', low: -10, high: 10, frequency: 50, duty: 0.5 }, c2, f2, dc2, cl2, sp2, 2000), 10)));
+  }
   // Baseline: the same complex solve done with mathjs matrices.
   const math = await import('mathjs');
   const n = sc.circuit.size;

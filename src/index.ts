@@ -3,16 +3,16 @@
  * Import `./units-mathjs.js` once as well to read unit expressions beyond the common forms.
  */
 export { validateDesign, parseDesignText, serialiseDesign, formatProblems, migrate, DESIGN_FORMAT, DESIGN_VERSION, MAX_DESIGN_BYTES } from './model/design.js';
-export type { Design, SensorSpec, SensorType, Supply, OpAmpSpec, Target, Output, Environment, AnalysisOptions, Topology, TopologyChoice, Arrangement, Problem } from './model/design.js';
+export type { Design, SensorSpec, SensorType, Supply, OpAmpSpec, Target, Output, Environment, AnalysisOptions, MeasurandWaveform, Topology, TopologyChoice, Arrangement, Problem } from './model/design.js';
 export { analyse, reportJson, verdictsOf, SAFETY_CAUTIONS } from './analysis/report.js';
 export type { Report, Verdict, AnalyseOptions } from './analysis/report.js';
 export { textReport } from './present/text-report.js';
 export { spiceNetlist } from './present/spice.js';
 export { bomRows, bomCsv, powerRating } from './present/bom.js';
 export { calibrationSteps } from './present/calibration.js';
-export { allCharts } from './present/charts.js';
+export { allCharts, waveformChart, traceDrawing } from './present/charts.js';
 export { schematic } from './present/schematic.js';
-export { keyFigures } from './present/figures.js';
+export { keyFigures, waveformFigures, waveformLine } from './present/figures.js';
 export { parseQuantity, formatEng, rkmCode, parseRkm, colourBands, toleranceLetter, setUnitEngine, unitEngineReady } from './model/units.js';
 export { nearest, neighbours, isMember, usualTolerance, valuesInRange, mantissas, SERIES_NAMES, TRIMMER_VALUES } from './model/eseries.js';
 export type { SeriesName } from './model/eseries.js';
@@ -30,9 +30,9 @@ export { BOLTZMANN, ELEMENTARY_CHARGE, MU0 } from './model/constants.js';
 export type { BomRow } from './present/bom.js';
 export type { PairCandidate } from './solve/search.js';
 export type { Prim, Schematic } from './present/schematic.js';
-export type { ChartData, Series } from './present/charts.js';
+export type { ChartData, Series, TraceDrawing } from './present/charts.js';
 export type { FigureRow } from './present/figures.js';
-export { FIELDS, GROUP_DEFAULTS, parseField, setPath, displayValue, fieldsFor, getPath, SENSOR_TYPES, fieldForPath, problemWords } from './present/fields.js';
+export { FIELDS, GROUP_DEFAULTS, groupDefault, parseField, setPath, displayValue, fieldsFor, getPath, SENSOR_TYPES, fieldForPath, problemWords } from './present/fields.js';
 export type { FieldDef, Section } from './present/fields.js';
 export { AUTOSAVE_KEY, DAMAGED_KEY, HISTORY_KEY, HISTORY_SIZE, autosaveEntry, designFromFragment, fileName, historyText, readHistory, restoreAutosave, shareFragment, withHistory } from './model/persist.js';
 export type { HistoryEntry, RestoreResult } from './model/persist.js';

@@ -96,13 +96,19 @@ function within(a: number, b: number, lo: number, hi: number): [number, number] 
   return [Math.min(x1, x2), Math.max(x1, x2)];
 }
 
+/** The op-amp's output swing on these rails, V: outputLow above the negative rail to outputHigh below the positive. */
+export function opampSwing(design: Design, positive = design.supply.positive): [number, number] {
+  return [design.supply.negative + design.opamp.outputLow, positive - design.opamp.outputHigh];
+}
+
 /** Clipping: every limit as a measurand interval, then the first hit in each direction. */
 export function clipping(design: Design, front: SensorFront, dc: DcPoint, positive = design.supply.positive): ClipResult {
   const neg = design.supply.negative;
   const oa = design.opamp;
   const limits: ClipLimit[] = [];
   const add = (cause: ClipCause, iv: [number, number], why: string) => limits.push({ cause, low: iv[0], high: iv[1], why });
-  add('opamp-output', within(dc.internal[0], dc.internal[1], neg + oa.outputLow, positive - oa.outputHigh), `the op-amp output swings only from ${+(neg + oa.outputLow).toFixed(3)} V to ${+(positive - oa.outputHigh).toFixed(3)} V`);
+  const [swingLo, swingHi] = opampSwing(design, positive);
+  add('opamp-output', within(dc.internal[0], dc.internal[1], swingLo, swingHi), `the op-amp output swings only from ${+swingLo.toFixed(3)} V to ${+swingHi.toFixed(3)} V`);
   add('opamp-current', within(dc.iOut[0], dc.iOut[1], -oa.outputCurrent, oa.outputCurrent), `the op-amp can drive only ±${oa.outputCurrent * 1e3} mA into the feedback network and load`);
   const inLo = neg + oa.inputLow, inHi = positive - oa.inputHigh;
   const ivP = within(dc.inP[0], dc.inP[1], inLo, inHi);

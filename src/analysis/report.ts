@@ -2,7 +2,7 @@
  * The report: a pure function of the design. Solves the stage, builds its circuit and runs every analysis.
  * The app, the CLI and the tests all read this one object.
  */
-import type { Design, Topology } from '../model/design.js';
+import type { Design, MeasurandWaveform, Topology } from '../model/design.js';
 import { sensorFrontAtRail, type SensorFront } from '../physics/sensors.js';
 import { chooseTopology, peakRange, type TopologyChoiceResult } from '../physics/topology.js';
 import { solveStage, type SolvedStage } from '../solve/stage.js';
@@ -13,6 +13,7 @@ import {
   type BatteryClip, type BatteryStep, type ClipResult, type DcPoint, type ErrorBudget, type FrequencyResponse, type InstrumentDrive, type NoiseResult,
   type Speed, type SpreadResult, type SupplyResult,
 } from './analysis.js';
+import { stepOverRange, waveform, type WaveformResult } from './waveform.js';
 import type { Warning } from '../model/findings.js';
 import { formatEng, rkmCode } from '../model/units.js';
 import { significantFigures } from '../model/eseries.js';
@@ -45,6 +46,10 @@ export interface Report {
   batteryClip: BatteryClip | null;
   spread: SpreadResult | null;
   drive: InstrumentDrive | null;
+  /** The output for the measurand waveform (the design's, or a step over the range when asked for). */
+  waveform: WaveformResult | null;
+  /** The measurand waveform solved, or null. */
+  waveformSpec: MeasurandWaveform | null;
   calibration: CalibrationStep[];
   /** The fit of the sensor's bench readings and what the design took from it (null: no readings). */
   readings: SensorFromReadings | null;
@@ -61,6 +66,10 @@ export interface AnalyseOptions {
   spreadTrials?: number;
   /** Points of the AC plot. */
   acPoints?: number;
+  /** When the design names no waveform, solve a step over the wanted range (the app's starting point). */
+  defaultWaveform?: boolean;
+  /** Samples of the waveform (default 2000). */
+  waveformSamples?: number;
 }
 
 /** Analyses a (validated) design. Never throws for a valid design: what cannot be computed is in `absent`. */
@@ -74,7 +83,7 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
   const absent: Record<string, string> = {};
   const empty: Report = {
     design, front, choice, stage: null, circuit: null, dc: null, clip: null, transfer: null, response: null, speed: null, noise: null,
-    errors: null, supply: null, battery: [], batteryClip: null, spread: null, drive: null, calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
+    errors: null, supply: null, battery: [], batteryClip: null, spread: null, drive: null, waveform: null, waveformSpec: null, calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
   };
   // The gain the target asks of the stage: a ratio that is not a finite, non-zero number cannot be built.
   const needed = design.target.scale / front.sensitivity;
@@ -129,9 +138,12 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
   const spr = trials > 0 ? finiteOr(spread(design, front, circuit, dc, trials), 'spread', 'the tolerance spread', absent) : null;
   if (!spr && !absent.spread) absent.spread = 'the tolerance spread was not run';
   const drive = sp ? finiteOr(instrumentDrive(design, stage, front, sp.smallSignal), 'drive', 'the instrument drive', absent) : null;
+  const waveformSpec = design.analysis.waveform ?? (opts.defaultWaveform ? stepOverRange(design) : null);
+  const wave = waveformSpec && clip && sp ? waveform(design, waveformSpec, circuit, front, dc, clip, sp, opts.waveformSamples ?? 2000) : null;
+  if (waveformSpec && !wave) absent.waveform = clip && sp ? 'the time-domain solve did not finish (a singular network, or more than 400 000 steps)' : 'the waveform cannot be computed, because the clipping points or the bandwidth cannot';
   const report: Report = {
     design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, batteryClip: bClip, spread: spr, drive,
-    calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
+    waveform: wave, waveformSpec: wave ? waveformSpec : null, calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
   };
   if (design.probeReadings?.length) report.trim = trimFromReadings({ design, front, stage }, design.probeReadings, design.probeSettings ?? []);
   // Findings first: the calibration steps repeat the instrument advice found there.
@@ -428,6 +440,11 @@ export function reportJson(r: Report): Record<string, unknown> {
     supply: r.supply ? { current: num(r.supply.current), batteryLife: num(r.supply.batteryLife) } : null,
     spread: r.spread ? { scaleStd: num(r.spread.scaleStd), zeroStd: num(r.spread.zeroStd), yield: num(r.spread.yield), trials: r.spread.trials } : null,
     drive: r.drive ? { scaleAt1M: num(r.drive.scaleAt1M), scaleAt50: num(r.drive.scaleAt50), drives50: r.drive.drives50, isolation: num(r.drive.isolation), probeRatio: r.drive.probeRatio, probeOffset: num(r.drive.probeOffset), probeOffsetShown: num(r.drive.probeOffsetShown), probeInvert: r.drive.probeInvert } : null,
+    waveform: r.waveform ? {
+      t: Array.from(r.waveform.t), measurand: Array.from(r.waveform.measurand), output: Array.from(r.waveform.output), ideal: Array.from(r.waveform.ideal),
+      riseTime: num(r.waveform.riseTime), overshoot: num(r.waveform.overshoot), settlingTime: num(r.waveform.settlingTime), droop: num(r.waveform.droop),
+      slewLimited: r.waveform.slewLimited, clipped: r.waveform.clipped,
+    } : null,
     sensor: { sensitivity: num(r.front.sensitivity), figures: r.front.figures.map((f) => ({ key: f.key, label: f.label, value: num(f.value), unit: f.unit })) },
     battery: r.battery.map((b) => ({ voltage: b.voltage, measurandLow: num(b.measurandLow), measurandHigh: num(b.measurandHigh), headroomLow: num(b.headroomLow), headroomHigh: num(b.headroomHigh), zeroShift: num(b.zeroShift), scale: num(b.scale), regulated: b.regulated })),
     batteryClip: r.batteryClip ? { voltage: num(r.batteryClip.voltage), hoursToClip: num(r.batteryClip.hoursToClip), hoursToEnd: num(r.batteryClip.hoursToEnd) } : null,

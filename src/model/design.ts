@@ -245,6 +245,18 @@ export interface Environment {
   temperatureMax: number;
 }
 
+/** A measurand waveform to look at in time (measurand units, hertz). */
+export interface MeasurandWaveform {
+  /** step: low to high at t = 0 after settling at low; sine, square, triangle: periodic between low and high. */
+  shape: 'step' | 'sine' | 'square' | 'triangle';
+  low: number;
+  high: number;
+  /** Repetition frequency, Hz (not used by a step). */
+  frequency: number;
+  /** Square: fraction of the period at high; triangle: fraction of the period rising. */
+  duty: number;
+}
+
 export interface AnalysisOptions {
   /** Band for integrated noise, Hz; null = 1 Hz to 100 × the chain's −3 dB bandwidth. */
   noiseBand: [number, number] | null;
@@ -253,6 +265,8 @@ export interface AnalysisOptions {
   /** Yield limit for the spread: fractional scale error and zero error (V). */
   scaleLimit: number;
   zeroLimit: number;
+  /** Measurand waveform for the time-domain solve (null = none). */
+  waveform: MeasurandWaveform | null;
 }
 
 /** The meter used to calibrate: each reading is uncertain by ±(meterRelative × reading + meterDigits). */
@@ -487,6 +501,16 @@ const SCHEMA: Spec = {
         spreadSeed: opt(num('(seed)', 'nonneg', { max: 2 ** 32, whole: true }), 1),
         scaleLimit: opt(num('parts of one', 'fraction', { minAbs: 1e-9 }), 0.01),
         zeroLimit: opt(num('volts', 'positive', { min: 1e-9, max: 100 }), 0.02),
+        waveform: {
+          t: 'obj', nullable: true, def: null,
+          fields: {
+            shape: { t: 'str', oneOf: ['step', 'sine', 'square', 'triangle'] },
+            low: num('measurand units', 'any', { maxAbs: 1e9, minAbs: 1e-12 }),
+            high: num('measurand units', 'any', { maxAbs: 1e9, minAbs: 1e-12 }),
+            frequency: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
+            duty: opt(num('parts of one', 'fraction', { minAbs: 1e-6 }), 0.5),
+          },
+        },
       },
     },
     calibration: {
@@ -600,6 +624,12 @@ function crossCheck(d: Design, problems: Problem[]): void {
     p('opamp.outputHigh', 'leaves no output swing on these rails (opamp.outputLow + opamp.outputHigh is larger than the supply span): widen the rails or choose an op-amp whose output swings closer to them', ['opamp.outputLow', 'supply.positive']);
   }
   if (d.analysis.noiseBand && d.analysis.noiseBand[0] >= d.analysis.noiseBand[1]) p('analysis.noiseBand[0]', 'must be below analysis.noiseBand[1]', ['analysis.noiseBand[1]']);
+  const w = d.analysis.waveform;
+  if (w) {
+    if (w.low === w.high) p('analysis.waveform.high', 'must differ from analysis.waveform.low');
+    if (w.shape !== 'step' && !(w.frequency > 0)) p('analysis.waveform.frequency', `must be a positive number of hertz for a ${w.shape} wave`);
+    if ((w.shape === 'square' || w.shape === 'triangle') && !(w.duty > 0 && w.duty < 1)) p('analysis.waveform.duty', 'must lie between 0 and 1 (not at either end)');
+  }
   if (s.type === 'voltage-output' || s.type === 'hall-gap-core') {
     const sens = s.type === 'voltage-output' ? s.sensitivity : s.hallSensitivity;
     if (sens === 0) p(`sensor.${s.type === 'voltage-output' ? 'sensitivity' : 'hallSensitivity'}`, 'must not be zero');

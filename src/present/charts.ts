@@ -13,7 +13,7 @@ export interface Series {
 }
 
 export interface ChartData {
-  id: 'transfer' | 'response' | 'noise' | 'battery' | 'spread' | 'residuals';
+  id: 'transfer' | 'response' | 'noise' | 'battery' | 'spread' | 'residuals' | 'waveform';
   title: string;
   x: { label: string; log?: boolean };
   y: { label: string; log?: boolean };
@@ -117,6 +117,57 @@ export function spreadChart(r: Report): ChartData | null {
   };
 }
 
+/** SI prefix for a time span so that the axis reads in 1…1000: [factor, unit]. */
+export function timeUnit(span: number): [number, string] {
+  const units: Array<[number, string]> = [[1, 's'], [1e3, 'ms'], [1e6, 'µs'], [1e9, 'ns']];
+  for (const [k, u] of units) if (span * k >= 1) return [k, u];
+  return units[units.length - 1]!;
+}
+
+/**
+ * The scope view: output and ideal (the DC transfer without delay or limits) against time, with the
+ * levels where the output clips. Time in a prefixed unit chosen from the window.
+ */
+export function waveformChart(r: Report): ChartData | null {
+  const w = r.waveform;
+  if (!w || w.t.length < 2) return null;
+  const [k, unit] = timeUnit(w.t[w.t.length - 1]! - w.t[0]!);
+  const ts = Array.from(w.t, (t) => t * k);
+  const x0 = ts[0]!, x1 = ts[ts.length - 1]!;
+  const series: Series[] = [
+    { label: 'Output at the instrument', role: 'main', points: pts(ts, w.output) },
+    { label: 'Ideal (DC transfer, no delay or limits)', role: 'secondary', points: pts(ts, w.ideal) },
+  ];
+  if (r.clip) {
+    series.push({ label: 'Output clips (high)', role: 'limit', points: [{ x: x0, y: r.clip.outputHigh }, { x: x1, y: r.clip.outputHigh }].filter((p) => Number.isFinite(p.y)) });
+    series.push({ label: 'Output clips (low)', role: 'limit', points: [{ x: x0, y: r.clip.outputLow }, { x: x1, y: r.clip.outputLow }].filter((p) => Number.isFinite(p.y)) });
+  }
+  return { id: 'waveform', title: 'What the scope shows', x: { label: `Time (${unit})` }, y: { label: 'Output (V)' }, series };
+}
+
 export function allCharts(r: Report): ChartData[] {
   return [transferChart(r), responseChart(r), noiseChart(r), batteryChart(r), spreadChart(r)].filter((c): c is ChartData => c !== null);
+}
+
+/** A chart as SVG polylines in a w × h box (for the printed sheet, where a canvas does not print well). */
+export interface TraceDrawing {
+  lines: Array<{ role: Series['role']; label: string; points: string }>;
+  x: [number, number];
+  y: [number, number];
+}
+
+/** Scales every series of a (linear) chart into a w × h box, y upwards; null when there is nothing to draw. */
+export function traceDrawing(d: ChartData, w: number, h: number): TraceDrawing | null {
+  let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity;
+  for (const s of d.series) for (const p of s.points) { x0 = Math.min(x0, p.x); x1 = Math.max(x1, p.x); y0 = Math.min(y0, p.y); y1 = Math.max(y1, p.y); }
+  if (!(x1 > x0) || !Number.isFinite(y0) || !Number.isFinite(y1)) return null;
+  if (!(y1 > y0)) { y0 -= 0.5; y1 += 0.5; }
+  const pad = (y1 - y0) * 0.05;
+  y0 -= pad; y1 += pad;
+  const sx = (x: number) => (((x - x0) / (x1 - x0)) * w).toFixed(1);
+  const sy = (y: number) => (h - ((y - y0) / (y1 - y0)) * h).toFixed(1);
+  return {
+    lines: d.series.filter((s) => s.points.length > 1).map((s) => ({ role: s.role, label: s.label, points: s.points.map((p) => `${sx(p.x)},${sy(p.y)}`).join(' ') })),
+    x: [x0, x1], y: [y0, y1],
+  };
 }

@@ -6,6 +6,7 @@ import { TOPOLOGIES, type Design, type SensorType } from '../model/design.js';
 import { STAGE_NAMES } from './words.js';
 import { formatEng, parseQuantity, type Dimension, type ParseResult } from '../model/units.js';
 import type { Problem } from '../model/validate.js';
+import { stepOverRange } from '../analysis/waveform.js';
 
 export type Section = 'sensor' | 'amplifier' | 'target' | 'output' | 'supply' | 'environment';
 
@@ -154,6 +155,12 @@ export const FIELDS: readonly FieldDef[] = [
   { path: 'analysis.noiseBand', label: 'Own noise band', section: 'environment', kind: 'bool', group: 'analysis.noiseBand' },
   N('environment', 'analysis.noiseBand.0', 'Noise band from', 'Hz', 'Hz', undefined, 'analysis.noiseBand'),
   N('environment', 'analysis.noiseBand.1', 'Noise band to', 'Hz', 'Hz', undefined, 'analysis.noiseBand'),
+  { path: 'analysis.waveform', label: 'Own scope waveform', section: 'environment', kind: 'bool', group: 'analysis.waveform', hint: 'off: a step over the range' },
+  { path: 'analysis.waveform.shape', label: 'Waveform', section: 'environment', kind: 'select', group: 'analysis.waveform', options: [['step', 'Step from low to high'], ['sine', 'Sine'], ['square', 'Square'], ['triangle', 'Triangle (duty = rising part)']] },
+  N('environment', 'analysis.waveform.low', 'Waveform low', '1', '', 'measurand units', 'analysis.waveform'),
+  N('environment', 'analysis.waveform.high', 'Waveform high', '1', '', 'measurand units', 'analysis.waveform'),
+  N('environment', 'analysis.waveform.frequency', 'Waveform frequency', 'Hz', 'Hz', 'not used by a step', 'analysis.waveform'),
+  N('environment', 'analysis.waveform.duty', 'Waveform duty', '1', '%', 'square: time high; triangle: time rising', 'analysis.waveform'),
 ];
 
 /** Default values for optional groups switched on in the editor. */
@@ -162,7 +169,15 @@ export const GROUP_DEFAULTS: Record<string, unknown> = {
   'supply.regulated': { voltage: 5, tolerance: 0.02, quiescentCurrent: 0, dropout: 0.3, drift: 100e-6 },
   'supply.battery': { fresh: 9.6, endOfLife: 6, capacity: 2034 },
   'analysis.noiseBand': [1, 1e5],
+  // Replaced by a step over the design's own range when switched on (groupDefault).
+  'analysis.waveform': { shape: 'step', low: 0, high: 1, frequency: 1000, duty: 0.5 },
 };
+
+/** The value an optional group takes when switched on: the scope waveform starts as a step over the range (a periodic shape gets 1 kHz). */
+export function groupDefault(path: string, design: Design): unknown {
+  if (path === 'analysis.waveform') return { ...stepOverRange(design), frequency: 1000 };
+  return GROUP_DEFAULTS[path];
+}
 
 export function getPath(obj: unknown, path: string): unknown {
   return path.split('.').reduce<unknown>((o, k) => (o === null || o === undefined ? undefined : (o as Record<string, unknown>)[k]), obj);

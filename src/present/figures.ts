@@ -52,3 +52,41 @@ export function keyFigures(r: Report): FigureRow[] {
   }
   return rows;
 }
+
+const SHAPES = { step: 'step', sine: 'sine', square: 'square wave', triangle: 'triangle' } as const;
+
+/** What the measurand waveform is, in words: "step from −20 A to 20 A", "square wave −5 A … 5 A at 200 Hz, 50 % duty". */
+export function waveformTitle(r: Report): string {
+  const w = r.waveformSpec;
+  if (!w) return 'no waveform';
+  const m = r.design.sensor.measurand;
+  if (w.shape === 'step') return `step ${f(w.low, m)} → ${f(w.high, m)}${r.design.analysis.waveform ? '' : ', the range (a start: name your own)'}`;
+  return `${SHAPES[w.shape]} ${f(w.low, m)} … ${f(w.high, m)} at ${f(w.frequency, 'Hz')}${w.shape === 'sine' ? '' : `, ${(w.duty * 100).toFixed(0)} % ${w.shape === 'triangle' ? 'rising' : 'duty'}`}`;
+}
+
+/** The waveform's figures as rows, for the app (beside the plot), the printed sheet and the text report. */
+export function waveformFigures(r: Report): FigureRow[] {
+  const w = r.waveform;
+  if (!w) return r.waveformSpec || r.absent.waveform ? [{ label: 'Waveform', value: 'not solved', note: r.absent.waveform ?? '' }] : [];
+  const pct = (x: number | null) => (x === null ? '—' : `${(x * 100).toFixed(1)} %`);
+  const spec = r.waveformSpec!;
+  const rows: FigureRow[] = [{ label: 'Measurand', value: SHAPES[spec.shape], note: waveformTitle(r) }];
+  const edge = w.riseTime !== null || w.overshoot !== null;
+  if (edge) {
+    rows.push({ label: 'Rise time (10–90 %)', value: f(w.riseTime, 's'), note: w.slewLimited ? 'slew-limited' : `small-signal ${f(r.speed?.riseTime, 's')}` });
+    rows.push({ label: 'Overshoot', value: pct(w.overshoot) });
+    rows.push({ label: 'Settling to 1 %', value: w.settlingTime === null ? 'not within the view' : f(w.settlingTime, 's') });
+  }
+  if (w.droop !== null) rows.push({ label: 'Droop over a half-period', value: pct(w.droop), note: r.front.passesDc ? 'DC-coupled: none' : 'the sensor passes no DC' });
+  let lo = Infinity, hi = -Infinity;
+  for (const v of w.output) { lo = Math.min(lo, v); hi = Math.max(hi, v); }
+  rows.push({ label: 'Output swings', value: `${f(lo, 'V')} … ${f(hi, 'V')}` });
+  rows.push({ label: 'Slew-limited', value: w.slewLimited ? 'yes' : 'no', note: w.slewLimited ? `at ${f(r.design.opamp.slewRate, 'V/s')}` : '' });
+  rows.push({ label: 'Clipped', value: w.clipped ? 'yes' : 'no', note: w.clipped ? 'output or sensor at a limit' : '' });
+  return rows;
+}
+
+/** The waveform's figures in one line, for the printed sheet: "Measurand: step …; Rise time (10–90 %): 6.40 µs (slew-limited); …". */
+export function waveformLine(r: Report): string {
+  return waveformFigures(r).filter((row) => row.label !== 'Output swings').map((row) => row.label === 'Measurand' ? row.note ?? row.value : `${row.label}: ${row.value}${row.note ? ` (${row.note})` : ''}`).join('; ');
+}

@@ -3,7 +3,9 @@
  * report analyses it, so a user can check the design in any simulator.
  *
  * The op-amp is a generic behavioural model: a transconductance into an RC sets the open-loop gain A0 and
- * the dominant pole GBW/A0, a unity buffer and the output resistance follow. Its noise generators are the
+ * the dominant pole GBW/A0, a unity buffer and the output resistance follow. The current into the RC is
+ * limited to ±SR·C (slew rate) and the pole node is held at the output swing (so it recovers at once), the
+ * large-signal model the report's waveform uses. Its noise generators are the
  * thermal noise of 1 kΩ resistors scaled by noiseless controlled sources; a generator with a 1/f corner f_c
  * adds the resistor's flicker noise (ngspice's resistor model: S_i = KF·I^AF/f with 1 mA through it, read
  * against a noiseless twin carrying the same current so that no DC leaks in), KF set so that the density is
@@ -12,6 +14,8 @@
 import { BOLTZMANN } from '../model/constants.js';
 import type { Report } from '../analysis/report.js';
 import { spiceCommentText } from './inert.js';
+import { opampSwing } from '../analysis/analysis.js';
+import { waveformPlan } from '../analysis/waveform.js';
 
 const fmt = (x: number) => (Number.isFinite(x) ? Number(x.toPrecision(9)).toString() : '0');
 const node = (names: string[], i: number) => (i === 0 ? '0' : names[i]!.replace(/[^A-Za-z0-9_]/g, '_'));
@@ -40,13 +44,31 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
   lines.push(`* Gainwright netlist: ${title}`);
   lines.push(`* Exported ${date} (ISO 8601). Topology: ${r.stage?.ideal.topology ?? 'none'}.`);
   lines.push('* Model assumptions: behavioural op-amp with a single pole at GBW/A0, open-loop output resistance, and its');
-  lines.push('* internal output limited to the swing (outputLow above the - rail, outputHigh below the + rail); no slew limit,');
-  lines.push('* no output current limit, offsets and bias currents omitted; trimmers as two resistors at their settings;');
+  lines.push('* internal output limited to the swing (outputLow above the - rail, outputHigh below the + rail) and its slew');
+  lines.push('* rate; no output current limit, offsets and bias currents omitted; trimmers as two resistors at their settings;');
   lines.push('* sensor as an ideal source with its resistance and bandwidth (its own output limits are not modelled).');
   lines.push(`* Measurand ${measurand}: the signal source is ${c.elements[sc.signalIndex]?.name ?? '?'}; its value is quiescent + sensitivity x measurand.`);
   lines.push(`* Output node: ${node(names, sc.nodes.out)}. Temperature ${fmt(tempC)} C.`);
   lines.push('*');
   lines.push(`.temp ${fmt(tempC)}`);
+  const sigIdx = sc.signalIndex;
+  const wave = r.waveformSpec && r.dc ? waveformPlan(r.waveformSpec, r.speed, r.dc, d) : null;
+  /** The transient function of the signal source for the waveform: its value is dc0 + dc1·x(t). */
+  const tranOf = (i: number): string => {
+    if (!wave || i !== sigIdx) return '';
+    const e = c.elements[i]!;
+    const v = (x: number) => fmt((e.dc0 ?? 0) + (e.dc1 ?? 0) * x);
+    const w = wave.spec;
+    // SPICE time runs from the start of the solve (t0 in the report's time).
+    // Edges far shorter than anything the circuit resolves, but not below what SPICE can step over the run.
+    const edge = Math.max(wave.hFine / 50, (wave.t1 - wave.t0) * 1e-8);
+    if (w.shape === 'step') return ` PWL(0 ${v(w.low)} ${fmt(-wave.t0)} ${v(w.low)} ${fmt(-wave.t0 + edge)} ${v(w.high)})`;
+    const T = 1 / w.frequency;
+    if (w.shape === 'sine') return ` SIN(${v((w.low + w.high) / 2)} ${fmt((e.dc1 ?? 0) * (w.high - w.low) / 2)} ${fmt(w.frequency)} 0 0 0)`;
+    if (w.shape === 'square') return ` PULSE(${v(w.low)} ${v(w.high)} 0 ${fmt(edge)} ${fmt(edge)} ${fmt(w.duty * T - edge)} ${fmt(T)})`;
+    // SPICE reads a zero pulse width as "not given" (a default): give it one edge's worth, taken from the fall.
+    return ` PULSE(${v(w.low)} ${v(w.high)} 0 ${fmt(w.duty * T)} ${fmt((1 - w.duty) * T - edge)} ${fmt(edge)} ${fmt(T)})`;
+  };
   let aux = 0;
   const noiseGen = (label: string, corner = 0): string => {
     // Node driven only by a 1 kΩ resistor's thermal noise: sqrt(4kTR) V/sqrt(Hz), scaled by the caller.
@@ -65,7 +87,7 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
     lines.push(`RNZT_${label} ${n}_t 0 ${rn} noisy=0`);
     return `${n} ${n}_t`;
   };
-  c.elements.forEach((e) => {
+  c.elements.forEach((e, i) => {
     const a = node(names, e.a), b = node(names, e.b);
     switch (e.kind) {
       case 'R':
@@ -81,10 +103,10 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
         if (e.noise && e.noise > 0) {
           const mid = `${a}_nz${aux++}`;
           const nz = noiseGen(e.name, e.noiseCorner);
-          lines.push(`${spiceName('V', e.name)} ${mid} ${b} DC ${fmt(e.dc0 ?? 0)} AC ${fmt(e.ac ?? 0)}`);
+          lines.push(`${spiceName('V', e.name)} ${mid} ${b} DC ${fmt(e.dc0 ?? 0)} AC ${fmt(e.ac ?? 0)}${tranOf(i)}`);
           lines.push(`${spiceName('E', `${e.name}_N`)} ${a} ${mid} ${nz} ${fmt(e.noise / enRef)}`);
         } else {
-          lines.push(`${spiceName('V', e.name)} ${a} ${b} DC ${fmt(e.dc0 ?? 0)} AC ${fmt(e.ac ?? 0)}`);
+          lines.push(`${spiceName('V', e.name)} ${a} ${b} DC ${fmt(e.dc0 ?? 0)} AC ${fmt(e.ac ?? 0)}${tranOf(i)}`);
         }
         break;
       }
@@ -93,21 +115,23 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
           const nz = noiseGen(e.name, e.noiseCorner);
           lines.push(`${spiceName('G', `${e.name}_N`)} ${a} ${b} ${nz} ${fmt(e.noise / enRef)}`);
         }
-        if ((e.dc0 ?? 0) !== 0 || (e.ac ?? 0) !== 0 || (e.dc1 ?? 0) !== 0) lines.push(`${spiceName('I', e.name)} ${a} ${b} DC ${fmt(e.dc0 ?? 0)} AC ${fmt(e.ac ?? 0)}`);
+        if ((e.dc0 ?? 0) !== 0 || (e.ac ?? 0) !== 0 || (e.dc1 ?? 0) !== 0) lines.push(`${spiceName('I', e.name)} ${a} ${b} DC ${fmt(e.dc0 ?? 0)} AC ${fmt(e.ac ?? 0)}${tranOf(i)}`);
         break;
       }
       case 'E': {
         const cp = node(names, e.cp ?? 0), cn = node(names, e.cn ?? 0);
         if (e.pole && e.pole > 0) {
-          // A0/(1 + s/ωp): gm = A0 / Rp into Rp ∥ Cp with Rp·Cp = 1/(2π·fp).
+          // A0/(1 + s/ωp): a current gm·v_d − V(p)/Rp (gm = A0/Rp) into Cp, Rp·Cp = 1/(2π·fp), which is
+          // τ·dV(p)/dt + V(p) = A0·v_d. The current is limited to ±SR·Cp, so V(p) slews at most at SR.
           const rp = 1e6, cp2 = 1 / (2 * Math.PI * e.pole * rp);
           const p = `${a}_pole`;
-          lines.push(`${spiceName('G', `${e.name}_GM`)} 0 ${p} ${cp} ${cn} ${fmt(e.value / rp)}`);
-          lines.push(`${spiceName('R', `${e.name}_RP`)} ${p} 0 ${fmt(rp)} noisy=0`);
+          const [lo, hi] = opampSwing(d);
+          const ilim = d.opamp.slewRate * cp2;
+          lines.push(`${spiceName('B', `${e.name}_GM`)} 0 ${p} I=max(${fmt(-ilim)}, min(${fmt(ilim)}, ${fmt(e.value / rp)}*(V(${cp})-V(${cn})) - V(${p})/${fmt(rp)}))`);
           lines.push(`${spiceName('C', `${e.name}_CP`)} ${p} 0 ${fmt(cp2)}`);
+          // The pole node is held at the swing (a stiff conductance past each limit), so it does not wind up.
+          lines.push(`${spiceName('B', `${e.name}_HOLD`)} ${p} 0 I=${fmt(1e4)}*(max(V(${p})-${fmt(hi)}, 0) + min(V(${p})-${fmt(lo)}, 0))`);
           // The internal output clips at the swing limits, as the report's clipping analysis assumes.
-          const lo = d.supply.negative + d.opamp.outputLow;
-          const hi = (r.design.supply.positive) - d.opamp.outputHigh;
           lines.push(`${spiceName('B', e.name)} ${a} ${b} V=max(${fmt(lo)}, min(${fmt(hi)}, V(${p})))`);
         } else {
           lines.push(`${spiceName('E', e.name)} ${a} ${b} ${cp} ${cn} ${fmt(e.value)}`);
@@ -141,6 +165,13 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
   }
   lines.push(`ac dec 40 ${fmt(Math.min(band[0], 1))} ${fmt(Math.max(band[1], r.speed.smallSignal * 10))}`);
   lines.push(`wrdata gainwright-ac.txt vm(${out}) vp(${out})`);
+  if (wave) {
+    // The waveform: the signal source carries it; SPICE time 0 is the report's t0 (the solve's start).
+    const w = wave.spec;
+    lines.push(`* waveform: ${w.shape} from ${fmt(w.low)} to ${fmt(w.high)} ${d.sensor.measurand}${w.shape === 'step' ? '' : ` at ${fmt(w.frequency)} Hz, duty ${fmt(w.duty)}`}; report time t = SPICE time + ${fmt(wave.t0)} s`);
+    lines.push(`tran ${fmt((wave.t1 - wave.recordFrom) / (wave.samples - 1))} ${fmt(wave.t1 - wave.t0)} ${fmt(wave.recordFrom - wave.t0)} ${fmt(wave.hMax)}`);
+    lines.push(`wrdata gainwright-tran.txt v(${out})`);
+  }
   if (sig) {
     lines.push(`noise v(${out}) ${sigName} dec 40 ${fmt(band[0])} ${fmt(band[1])}`);
     lines.push('setplot noise1');

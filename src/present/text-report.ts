@@ -3,6 +3,7 @@ import { partCode, partRole, partValue } from './parts.js';
 import { SAFETY_CAUTIONS, type Report } from '../analysis/report.js';
 import { formatEng } from '../model/units.js';
 import { terminalLine } from './inert.js';
+import { waveformFigures } from './figures.js';
 
 const f = (x: number | null | undefined, u = '', d = 3) => (x === null || x === undefined ? '—' : formatEng(x, u, d));
 const MARK = { pass: 'PASS', caution: 'CAUTION', fail: 'FAIL' } as const;
@@ -79,6 +80,11 @@ export function textReport(r: Report): string {
     out.push(`  Scale at a 1 MΩ input ${f(r.drive.scaleAt1M, `V/${m}`, 4)}, at 50 Ω ${f(r.drive.scaleAt50, `V/${m}`, 4)}${r.drive.drives50 ? '' : ' (the op-amp cannot drive 50 Ω over the range)'}`);
     const probe = r.warnings.find((w) => w.code === 'probe-ratio');
     if (probe) out.push(`  ${probe.message}`);
+  }
+  const wave = waveformFigures(r);
+  if (wave.length) {
+    h('Waveform at the instrument');
+    for (const row of wave) out.push(`  ${row.label}: ${row.value}${row.note ? ` (${row.note})` : ''}`);
   }
   if (r.warnings.length) {
     h('Findings');
