@@ -3,7 +3,7 @@
  * DC transfer and clipping, speed, noise, DC error budget, supply and battery, tolerance spread and
  * instrument drive. Each function is pure; `analyse` in report.ts strings them together.
  */
-import type { Design } from '../model/design.js';
+import { REGULATOR_HEADROOM, type Design } from '../model/design.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
 import { adjointAt, signalTransfer, solveDc, stampReal, luFactorReal, luSolveReal, rhs, workspace, type Element } from '../circuit/mna.js';
 import { integratePower, logGrid, peakToPeak } from '../physics/noise.js';
@@ -440,11 +440,11 @@ export function batterySweep(design: Design, stage: SolvedStage, front: SensorFr
   const reg = design.supply.regulated;
   for (let i = 0; i < steps; i++) {
     const v = bat.fresh + ((bat.endOfLife - bat.fresh) * i) / (steps - 1);
-    // A regulator holds while it has about 0.3 V of headroom (common practice for a low-dropout part).
-    const regulated = !reg || v - design.supply.negative >= reg.voltage + 0.3;
-    const sensorSupply = design.supply.sensorRail === 'regulated' && reg ? (regulated ? reg.voltage : v - 0.3) : v;
+    // A regulator holds while it has its headroom (REGULATOR_HEADROOM, common practice for a low-dropout part).
+    const regulated = !reg || v - design.supply.negative >= reg.voltage + REGULATOR_HEADROOM;
+    const sensorSupply = design.supply.sensorRail === 'regulated' && reg ? (regulated ? reg.voltage : v - REGULATOR_HEADROOM) : v;
     const f2 = atSensorSupply(front, sensorSupply);
-    const d2: Design = reg && !regulated ? { ...design, supply: { ...design.supply, regulated: { ...reg, voltage: Math.max(v - 0.3 - design.supply.negative, 0.01) } } } : design;
+    const d2: Design = reg && !regulated ? { ...design, supply: { ...design.supply, regulated: { ...reg, voltage: Math.max(v - REGULATOR_HEADROOM - design.supply.negative, 0.01) } } } : design;
     const sc = buildCircuit(d2, stage, front, { positive: v, front: f2 });
     const dc = dcLinear(sc, passband);
     if (!dc) continue;

@@ -8,6 +8,12 @@ import type { SeriesName } from './eseries.js';
 
 export const DESIGN_FORMAT = 'gainwright-design';
 export const DESIGN_VERSION = 1;
+/**
+ * Headroom a linear regulator needs between its input and its output to hold its voltage, V: about 0.3 V
+ * for a low-dropout part (common practice). Used for refusing a regulator on a rail no higher than its
+ * output and for the battery sweep.
+ */
+export const REGULATOR_HEADROOM = 0.3;
 /** Largest design document the app and CLI accept, in bytes. */
 export const MAX_DESIGN_BYTES = 1_000_000;
 
@@ -51,6 +57,9 @@ export interface VoltageOutputSensor extends SensorCommon {
   outputMax: number;
   /** If set, sensitivity and quiescent scale with the sensor's supply; they were given at this supply, V. */
   ratiometricSupply: number | null;
+  /** The supply range the sensor is specified for, V (null or absent = not stated). */
+  supplyMin?: number | null;
+  supplyMax?: number | null;
 }
 
 export interface HallGapCoreSensor extends SensorCommon {
@@ -64,6 +73,9 @@ export interface HallGapCoreSensor extends SensorCommon {
   outputMin: number;
   outputMax: number;
   ratiometricSupply: number | null;
+  /** The supply range the Hall sensor is specified for, V (null or absent = not stated). */
+  supplyMin?: number | null;
+  supplyMax?: number | null;
   /** Turns of the measured conductor through the core. */
   turns: number;
   core: {
@@ -238,6 +250,8 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     outputMin: V({ optional: true }),
     outputMax: V({ optional: true }),
     ratiometricSupply: { t: 'num', what: 'volts', check: 'positive', max: 1000, optional: true },
+    supplyMin: { t: 'num', what: 'volts', check: 'positive', max: 1000, optional: true },
+    supplyMax: { t: 'num', what: 'volts', check: 'positive', max: 1000, optional: true },
   },
   'hall-gap-core': {
     ...sensorCommon,
@@ -247,6 +261,8 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     outputMin: V({ optional: true }),
     outputMax: V({ optional: true }),
     ratiometricSupply: { t: 'num', what: 'volts', check: 'positive', max: 1000, optional: true },
+    supplyMin: { t: 'num', what: 'volts', check: 'positive', max: 1000, optional: true },
+    supplyMax: { t: 'num', what: 'volts', check: 'positive', max: 1000, optional: true },
     turns: num('turns', 'positive', { max: 1e6 }),
     core: {
       t: 'obj',
@@ -451,8 +467,8 @@ function crossCheck(d: Design, problems: Problem[]): void {
   if ((d.supply.sensorRail === 'regulated' || d.supply.referenceRail === 'regulated') && !d.supply.regulated) {
     p(d.supply.sensorRail === 'regulated' ? 'supply.sensorRail' : 'supply.referenceRail', 'is "regulated" but supply.regulated is not set');
   }
-  if (d.supply.regulated && d.supply.regulated.voltage > d.supply.positive - d.supply.negative) {
-    p('supply.regulated.voltage', 'must not exceed the supply span (a regulator cannot output more than it is fed)');
+  if (d.supply.regulated && d.supply.regulated.voltage + REGULATOR_HEADROOM > d.supply.positive - d.supply.negative) {
+    p('supply.regulated.voltage', `must be at least ${REGULATOR_HEADROOM} V below the supply span it is fed from (${d.supply.positive - d.supply.negative} V): a regulator needs that much headroom to regulate, so a ${d.supply.regulated.voltage} V regulator on a ${d.supply.positive - d.supply.negative} V rail does nothing; tie the sensor and reference to the rail instead`);
   }
   if (d.opamp.inputLow + d.opamp.inputHigh >= d.supply.positive - d.supply.negative) {
     p('opamp.inputHigh', 'leaves no input common-mode range on these rails (inputLow + inputHigh is larger than the supply span)');
@@ -465,6 +481,7 @@ function crossCheck(d: Design, problems: Problem[]): void {
     const sens = s.type === 'voltage-output' ? s.sensitivity : s.hallSensitivity;
     if (sens === 0) p(`sensor.${s.type === 'voltage-output' ? 'sensitivity' : 'hallSensitivity'}`, 'must not be zero');
     if (s.outputMin !== undefined && s.outputMax !== undefined && s.outputMin >= s.outputMax) p('sensor.outputMin', 'must be below sensor.outputMax');
+    if (typeof s.supplyMin === 'number' && typeof s.supplyMax === 'number' && s.supplyMin >= s.supplyMax) p('sensor.supplyMin', 'must be below sensor.supplyMax');
   }
   if (s.type === 'hall-gap-core' && s.core.gap >= s.core.pathLength) p('sensor.core.gap', 'must be shorter than sensor.core.pathLength');
 }
