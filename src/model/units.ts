@@ -126,6 +126,8 @@ function loneLetter(letter: string, dimension: Dimension): { unit: string } | { 
   if (ownSymbols(dimension).includes(letter)) return { unit: letter === 'G' ? 'gauss' : letter };
   const p = PREFIX_LETTERS[letter];
   if (p) return { exponent: SI_EXPONENT[p]! };
+  const own = ownSymbols(dimension).find((x) => x.toLowerCase() === letter.toLowerCase());
+  if (own) return { unit: own === 'G' ? 'gauss' : own };
   const u = CASE_FREE.get(letter.toLowerCase());
   return u ? { unit: u } : null;
 }
@@ -135,7 +137,7 @@ const SI_EXPONENT: Record<string, number> = { f: -15, p: -12, n: -9, u: -6, m: -
 function unitWord(word: string, dimension: Dimension): string {
   if (FUNCTION_WORDS.has(word)) return word;
   if (dimension === 'K' && /^c$/i.test(word)) return 'degC';
-  if (word === 'G' && ownSymbols(dimension).includes('G')) return 'gauss';
+  if (/^g$/i.test(word) && ownSymbols(dimension).includes('G')) return 'gauss';
   if (UNIT_SYMBOLS.includes(word)) return word;
   const p = PREFIX_LETTERS[word[0]!];
   const rest = word.slice(1);

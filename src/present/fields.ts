@@ -3,7 +3,7 @@
  * words, the dimension a typed value is read as, and how its current value is written back for a person.
  */
 import type { Design, SensorType } from '../model/design.js';
-import { formatEng, parseQuantity, type Dimension, type ParseResult } from '../model/units.js';
+import { clean, formatEng, parseQuantity, type Dimension, type ParseResult } from '../model/units.js';
 import { sensorFrontAtRail } from '../physics/sensors.js';
 
 export type Section = 'sensor' | 'amplifier' | 'target' | 'output' | 'supply' | 'environment';
@@ -249,6 +249,12 @@ export function parseField(f: FieldDef, text: string, design?: Design): ParseRes
       return Number.isFinite(Number(m[1])) ? { ok: true, value: Number(m[1]) * k } : { ok: false, message: `cannot read "${text}"` };
     }
     return { ok: false, message: `cannot read "${text.trim()}" as volts per ${design.sensor.measurand} (e.g. 25 mV/${design.sensor.measurand})` };
+  }
+  // A number followed by exactly the shown unit (also for units the unit tables lack, such as dB).
+  const shownUnit = displayUnit(f, design);
+  if (fixed && shownUnit && text.trim().endsWith(shownUnit)) {
+    const head = text.trim().slice(0, -shownUnit.length);
+    if (BARE_NUMBER.test(head)) return { ok: true, value: clean(bare(Number(head))) };
   }
   return parseQuantity(text, f.dimension, bare);
 }
