@@ -205,9 +205,18 @@ export function chooseTopology(design: Design, front: SensorFront): TopologyChoi
   if (!chosen) {
     const same = Math.sign(design.target.scale) === Math.sign(front.sensitivity);
     const g = Math.abs(design.target.scale / front.sensitivity);
+    // The sign a stage gives: non-inverting keeps the sensor's, inverting flips it (an rms reading has none).
+    const wrongSign = (t: Topology) => design.target.signal !== 'ac-rms' && (t === 'non-inverting') !== same;
+    const other = (t: Topology): Topology => (t === 'non-inverting' ? 'inverting' : 'non-inverting');
+    const m = front.measurand;
+    if (design.target.topology !== 'auto' && wrongSign(design.target.topology)) {
+      const t = design.target.topology;
+      guidance.push(`The polarity is the cause, not the rails: a ${t} stage gives an output that ${(t === 'non-inverting') === (front.sensitivity > 0) ? 'rises' : 'falls'} as the ${m} rises, and the wanted scale asks for the opposite sign. Reverse the conductor through the sensor (or turn the sensor round) to flip its sign, change the scale's sign, or choose the ${other(t)} stage (or let Gainwright choose).`);
+    }
     if (same && g < 1) guidance.push('The target needs attenuation with the sensor\'s own polarity: reverse the conductor through the sensor (or swap the sensor\'s orientation) to flip its sign, then an inverting stage can attenuate.');
-    if (!same && g >= 1 && design.target.topology === 'non-inverting') guidance.push('Reverse the conductor through the sensor to flip its sign, or let Gainwright choose the inverting stage.');
-    guidance.push('Check that the rails leave room for the reference and for the op-amp\'s input range; a rail-to-rail input op-amp or a wider supply may be needed.');
+    // The rails and input range are worth a look only when a stage failed for them, not for its sign or for attenuating.
+    const railBound = considered.some((c) => !wrongSign(c.topology) && !(c.topology === 'non-inverting' && c.gain < 1 - EPS_UNITY));
+    if (railBound) guidance.push('Check that the rails leave room for the reference and for the op-amp\'s input range; a rail-to-rail input op-amp or a wider supply may be needed.');
   }
   const why = chosen
     ? `${chosen.topology}: ${chosen.reasons.join('; ')}`
