@@ -17,6 +17,7 @@ export const ROLE_NAMES: Record<PartRole, string> = {
   'zero-trim': 'zero trim',
   'output-series': 'output series / isolation',
   'output-capacitor': 'output filter capacitor',
+  burden: 'burden across the current transformer secondary (keep it fitted)',
 };
 
 /** Significant figures a part's value is written with: its series' (IEC 60063), two for trimmers and capacitors. */
