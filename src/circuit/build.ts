@@ -141,7 +141,9 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
   const ref = net.reference;
   const railNode = (v: 'top' | 'bottom') => v === 'bottom' ? 'vneg' : ref.topRail === 'regulated' ? 'vreg' : 'vpos';
   if (ref.kind === 'rail') {
-    nm.wire('ref', Math.abs(ref.voltage - ref.railBottom) < Math.abs(ref.voltage - ref.railTop) ? railNode('bottom') : railNode('top'));
+    // A tie goes to the rail (or, on split rails, the ground) the reference sits on.
+    const ties: Array<[number, string]> = [[ref.railBottom, railNode('bottom')], [ref.railTop, railNode('top')], [0, '0']];
+    nm.wire('ref', ties.reduce((b, t) => (Math.abs(ref.voltage - t[0]) < Math.abs(ref.voltage - b[0]) ? t : b))[1]);
   } else if (ref.kind === 'divider') {
     arm(ref.top, 'reference-top', railNode('top'), 'rpt');
     const t = partsFor('zero-trim')[0];

@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { startHarness, watchedPage, type Harness } from './harness.js';
+import { DEMOS } from '../../src/model/demos.js';
 
 let h: Harness;
 beforeAll(async () => { h = await startHarness(); });
@@ -209,15 +210,12 @@ describe('the app in Chromium', () => {
     await page.context().close();
   });
 
-  it('answers an edit within the budget, measured with performance marks', async () => {
+  it('marks each edit for the benchmark (its time is measured by npm run bench, never asserted here)', async () => {
     const { page } = await watchedPage(h);
     await page.goto(h.url);
     await expect.poll(() => partsText(page)).toMatch(/R1/);
     await typeInto(page, 'sensor.hallSensitivity', '27 mV/mT');
     await expect.poll(() => page.evaluate(() => performance.getEntriesByName('gw-edit').length)).toBeGreaterThan(0);
-    const ms = await page.evaluate(() => performance.getEntriesByName('gw-edit').at(-1)!.duration);
-    // Budget 50 ms on this machine (issue 6); the test allows slack for a loaded CI host.
-    expect(ms).toBeLessThan(250);
     await page.context().close();
   });
 
@@ -275,8 +273,9 @@ describe('the app in Chromium', () => {
     await page.goto(h.url);
     for (const demo of ['bench-clamp', 'appliance-ct', 'generic-sensor']) {
       await page.selectOption('select[aria-label="Load a demo"]', demo);
+      const title = DEMOS.find((d) => d.id === demo)!.document.title;
+      await expect.poll(() => page.locator('input[aria-label="Design title"]').inputValue()).toBe(title);
       await expect.poll(() => partsText(page)).toMatch(/R1/);
-      await page.waitForTimeout(300);
       const pdf = (await page.pdf({ format: 'A4' })).toString('latin1');
       const pages = (pdf.match(/\/Type\s*\/Page[^s]/g) ?? []).length;
       expect(pages, demo).toBeGreaterThanOrEqual(1);
