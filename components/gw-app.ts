@@ -3,7 +3,8 @@ import { customElement, state, query } from 'lit/decorators.js';
 import { validateDesign, parseDesignText, formatProblems, MAX_DESIGN_BYTES, type Design, type Problem } from '../src/index.js';
 import { analyse, SAFETY_CAUTIONS, type Report } from '../src/index.js';
 import { DEMOS, demoDesign } from '../src/index.js';
-import { FIELDS, GROUP_DEFAULTS, parseField, setPath } from '../src/index.js';
+import { FIELDS, GROUP_DEFAULTS, readField, setPath } from '../src/index.js';
+import { spiceNetlist } from '../src/index.js';
 import { archetype } from '../src/index.js';
 import { allCharts, type ChartData } from '../src/index.js';
 import { schematic, type Schematic } from '../src/index.js';
@@ -11,23 +12,23 @@ import { bomCsv, bomRows, type BomRow } from '../src/index.js';
 import { keyFigures, type FigureRow } from '../src/index.js';
 import { AUTOSAVE_KEY, autosaveEntry, designFromFragment, fileName, restoreAutosave, serialiseDesign, shareFragment } from '../src/index.js';
 import { sensorTemplate } from '../src/index.js';
-import type { SensorType } from '../src/index.js';
 import { base } from './styles.js';
 import type { FieldInputDetail } from './gw-field.js';
-import type { SetDetail } from './gw-editor.js';
+import type { ArchetypeDetail, SensorTypeDetail, SetDetail } from './gw-editor.js';
+import type { DemoDetail, ToolbarActionDetail } from './gw-toolbar.js';
 import './gw-editor.js';
 import './gw-verdicts.js';
 import './gw-chart.js';
 import './gw-schematic.js';
 import './gw-parts.js';
 import './gw-figures.js';
+import './gw-toolbar.js';
+import './gw-build-sheet.js';
 
 /** The unit engine (mathjs units) loads after the first render so that it does not delay it. */
 let unitsLoading: Promise<unknown> | null = null;
 const loadUnits = () => (unitsLoading ??= import('../src/model/units-mathjs.js'));
 
-/** Monte Carlo trials run on each edit: enough for a stable histogram, quick enough to keep typing smooth. */
-const EDIT_TRIALS = 400;
 
 interface Derived {
   report: Report;
@@ -48,49 +49,43 @@ export class GwApp extends LitElement {
     header { background: #22303f; color: #fff; padding: 0.6rem 1rem; display: flex; flex-wrap: wrap; gap: 0.6rem; align-items: center; }
     header h1 { font-size: 1.15rem; margin: 0 1rem 0 0; letter-spacing: 0.02em; }
     header h1 span { color: #e9a268; }
-    header button, header select { background: #2f4155; color: #fff; border-color: #8fa3b8; }
-    header select { max-width: 100%; }
-    header button:hover { background: #3d5570; }
+    .skip { position: absolute; left: 0.5rem; top: -3rem; background: #fff; color: var(--gw-ink); padding: 0.3rem 0.6rem; border-radius: 4px; z-index: 2; }
+    .skip:focus { top: 0.5rem; }
+    .sr-only { position: absolute; width: 1px; height: 1px; overflow: hidden; clip: rect(0 0 0 0); white-space: nowrap; }
+    .panel:focus { outline: none; }
+    .panel:focus-visible { outline: 3px solid var(--gw-focus); }
     .safety-banner { background: #fff4e0; border-bottom: 2px solid var(--gw-caution); padding: 0.45rem 1rem; font-size: 0.88rem; }
     .notice { background: #e8f0fb; border-bottom: 1px solid #9db4d6; padding: 0.45rem 1rem; font-size: 0.9rem; }
     .notice.bad { background: #fdeaea; border-color: #d9a0a0; }
-    main { display: grid; grid-template-columns: minmax(300px, 430px) 1fr; grid-template-areas: 'editor verdict' 'editor results'; align-items: start; gap: 0 1rem; padding: 1rem; }
+    main { display: grid; grid-template-columns: minmax(300px, 470px) 1fr; grid-template-areas: 'editor verdict' 'editor results'; align-items: start; gap: 0 1rem; padding: 1rem; }
     .area-editor { grid-area: editor; }
     .area-verdict { grid-area: verdict; }
     .area-results { grid-area: results; }
     /* On a narrow screen the verdict comes first, then the editor, then the rest. */
-    @media (max-width: 860px) { main { grid-template-columns: minmax(0, 1fr); grid-template-areas: 'verdict' 'editor' 'results'; padding: 0.5rem; } .title-input { width: 100%; } }
+    @media (max-width: 860px) { main { grid-template-columns: minmax(0, 1fr); grid-template-areas: 'verdict' 'editor' 'results'; padding: 0.5rem; } }
     .panel { background: var(--gw-paper); border: 1px solid var(--gw-line); border-radius: 6px; padding: 0.7rem 0.9rem; margin-bottom: 1rem; }
     .charts { display: grid; grid-template-columns: repeat(auto-fit, minmax(min(320px, 100%), 1fr)); gap: 0.8rem; }
     .scroll { overflow-x: auto; }
     main > section { min-width: 0; }
-    .title-input { font-size: 1rem; width: min(28rem, 100%); }
     .share { width: 100%; font-size: 0.8rem; }
     ol.cal li { margin-bottom: 0.3rem; }
     .sheet { display: none; }
     .safety li { margin-bottom: 0.2rem; }
     @media print {
-      header, main, .notice, .no-print { display: none !important; }
-      :host { background: #fff; }
+      header, main, .notice, .no-print, .skip { display: none !important; }
+      :host { background: #fff; min-height: 0; }
       .safety-banner { display: none; }
-      /* One or two A4 pages: small type, two columns where the content allows. */
-      .sheet { display: block; padding: 0; --gw-font-size: 8.5pt; --gw-cell-pad: 0.05rem 0.25rem; font-size: 8.5pt; line-height: 1.3; }
-      .sheet h1 { font-size: 13pt; margin: 0 0 0.2rem; }
-      .sheet h2 { font-size: 10pt; margin: 0.4rem 0 0.2rem; }
-      .sheet p, .sheet ul, .sheet ol { margin: 0.1rem 0; }
-      .sheet .grid { display: grid; grid-template-columns: 1fr 1fr; gap: 0 0.6cm; }
-      .sheet .wide { grid-column: 1 / -1; }
-      .sheet gw-schematic { display: block; max-width: 9.5cm; }
-      .sheet section { break-inside: avoid; }
-      .sheet .safety { border: 1px solid #000; padding: 0.1rem 0.3rem 0.1rem 1.2rem; }
+      .sheet { display: block; }
     }
   `];
 
   @query('#open-file') private _file!: HTMLInputElement;
+  @query('#verdict') private _verdictPanel!: HTMLElement | null;
 
   @state() private _design: Design = demoDesign();
   @state() private _derived: Derived | null = null;
   @state() private _messages: Record<string, string> = {};
+  @state() private _notes: Record<string, string> = {};
   @state() private _notice: { text: string; bad: boolean } | null = null;
   @state() private _damaged: string | null = null;
   @state() private _shareUrl = '';
@@ -147,20 +142,26 @@ export class GwApp extends LitElement {
   private _adopt(design: Design, notice: string | null, save = true): void {
     this._design = design;
     this._messages = {};
+    this._notes = {};
     this._recompute(0);
-    clearTimeout(this._spreadTimer);
-    this._spreadTimer = window.setTimeout(() => this._recompute(), 50);
+    this._scheduleSpread();
     if (notice) this._notice = { text: notice, bad: false };
     if (save) this._autosave();
   }
 
   private _spreadTimer = 0;
 
+  /** Runs the Monte Carlo spread with the design's own trial count a moment after the quick report. */
+  private _scheduleSpread(): void {
+    clearTimeout(this._spreadTimer);
+    this._spreadTimer = window.setTimeout(() => this._recompute(), 50);
+  }
+
   /**
    * Recomputes the report. The Monte Carlo spread is left to a moment later, so the verdict of the first
    * render (and of a freshly opened design) does not wait for it.
    */
-  private _recompute(trials = EDIT_TRIALS): void {
+  private _recompute(trials = this._design.analysis.spreadTrials): void {
     performance.mark('gw-analyse-start');
     const report = analyse(this._design, { spreadTrials: trials });
     this._derived = { report, charts: allCharts(report), drawing: schematic(report), rows: bomRows(report), figures: keyFigures(report) };
@@ -188,7 +189,8 @@ export class GwApp extends LitElement {
     this._clearFragment();
     this._shareUrl = '';
     performance.mark('gw-edit-start');
-    this._recompute();
+    this._recompute(0);
+    this._scheduleSpread();
     this._autosave();
     this.updateComplete.then(() => {
       performance.mark('gw-edit-end');
@@ -199,7 +201,8 @@ export class GwApp extends LitElement {
   private _reject(problems: Problem[], fieldPath: string | null): void {
     const messages: Record<string, string> = { ...this._messages };
     for (const p of problems) {
-      const known = FIELDS.find((f) => f.path === p.path || p.path.startsWith(`${f.path}.`) || f.path.replace(/\.(\d)$/, '[$1]') === p.path);
+      // The field itself first, else the field holding it (a group switch only when nothing closer matches).
+      const known = FIELDS.find((f) => f.path === p.path) ?? FIELDS.find((f) => p.path.startsWith(`${f.path}.`) || f.path.replace(/\.(\d)$/, '[$1]') === p.path);
       messages[known?.path ?? fieldPath ?? '(design)'] = `${p.message}; the last good design stays in force`;
     }
     this._messages = messages;
@@ -218,16 +221,20 @@ export class GwApp extends LitElement {
       this._apply(setPath(this._design, path, undefined), path);
       return;
     }
-    let parsed = parseField(def, text, this._design);
-    if (!parsed.ok && parsed.pending) {
+    let read = readField(def, text, this._design);
+    if (!read.ok && read.pending) {
       await loadUnits();
-      parsed = parseField(def, text, this._design);
+      read = readField(def, text, this._design);
     }
-    if (!parsed.ok) {
-      this._messages = { ...this._messages, [path]: `${parsed.message}; the last good value stays in force` };
+    if (!read.ok) {
+      this._messages = { ...this._messages, [path]: `${read.message}; the last good value stays in force` };
       return;
     }
-    this._apply(setPath(this._design, path, parsed.value), path);
+    const notes = { ...this._notes };
+    delete notes[path];
+    if (read.readAs) notes[path] = read.readAs;
+    this._notes = notes;
+    this._apply(setPath(this._design, read.path, read.value), path);
   };
 
   private _onSet = (e: CustomEvent<SetDetail>): void => {
@@ -239,11 +246,11 @@ export class GwApp extends LitElement {
     this._apply(setPath(this._design, path, value), path);
   };
 
-  private _onSensorType = (e: CustomEvent<{ type: SensorType }>): void => {
+  private _onSensorType = (e: CustomEvent<SensorTypeDetail>): void => {
     this._apply(sensorTemplate(this._design, e.detail.type), 'sensor.type');
   };
 
-  private _onArchetype = (e: CustomEvent<{ id: string }>): void => {
+  private _onArchetype = (e: CustomEvent<ArchetypeDetail>): void => {
     const a = archetype(e.detail.id);
     if (a) this._apply({ ...this._design, opamp: { ...a.spec } }, null);
   };
@@ -288,66 +295,73 @@ export class GwApp extends LitElement {
     );
   }
 
-  private _loadDemo(e: Event): void {
-    const id = (e.target as HTMLSelectElement).value;
-    if (id) this._adopt(demoDesign(id), `Loaded the demo "${DEMOS.find((d) => d.id === id)?.label}" (a scenario of our own invention).`);
-    (e.target as HTMLSelectElement).value = '';
+  private _onDemo = (e: CustomEvent<DemoDetail>): void => {
+    const id = e.detail.id;
+    this._adopt(demoDesign(id), `Loaded the demo "${DEMOS.find((d) => d.id === id)?.label}" (a scenario of our own invention).`);
+  };
+
+  private _onToolbar = (e: CustomEvent<ToolbarActionDetail>): void => {
+    const r = this._derived?.report;
+    switch (e.detail.action) {
+      case 'open': this._file.click(); break;
+      case 'save': this._save(); break;
+      case 'share': this._share(); break;
+      case 'parts-csv': if (r) this._download(bomCsv(r), fileName(this._design, 'csv'), 'text/csv'); break;
+      case 'spice': {
+        const net = r ? spiceNetlist(r) : null;
+        if (net) this._download(net, fileName(this._design, 'cir'), 'text/plain');
+        else this._notice = { text: 'No SPICE netlist: the design has no working stage to simulate.', bad: true };
+        break;
+      }
+      case 'print': window.print(); break;
+    }
+  };
+
+  /** Dismissing a notice puts focus on the verdict, not on the page body. */
+  private _dismiss(): void {
+    this._notice = null;
+    void this.updateComplete.then(() => this._verdictPanel?.focus());
+  }
+
+  private _skip(e: Event): void {
+    e.preventDefault();
+    this._verdictPanel?.focus();
+  }
+
+  /** One line for the live region: what the verdict now says, announced when it changes. */
+  private _verdictLine(r: Report | undefined): string {
+    if (!r) return '';
+    const count = (l: string) => r.verdicts.filter((v) => v.level === l).length;
+    const worst = r.verdicts[0];
+    return `Verdict: ${count('fail')} fail, ${count('caution')} caution, ${count('pass')} pass${worst && worst.level !== 'pass' ? `; first: ${worst.title}` : ''}.`;
   }
 
   private _cautions(): string[] {
     return [...SAFETY_CAUTIONS, ...(this._derived?.report.front.cautions ?? [])];
   }
 
-  private _sheet() {
-    const d = this._derived;
-    if (!d) return nothing;
-    const r = d.report;
-    const half = Math.ceil(d.figures.length / 2);
-    return html`<div class="sheet" aria-hidden="true">
-      <h1>${this._design.title}</h1>
-      <p>${this._design.notes}</p>
-      <div class="grid">
-        <section><h2>Schematic</h2><gw-schematic .drawing=${d.drawing}></gw-schematic></section>
-        <section><h2>Safety</h2><ul class="safety">${this._cautions().map((c) => html`<li>${c}</li>`)}</ul></section>
-        <section class="wide"><h2>Parts list</h2><gw-parts compact .rows=${d.rows}></gw-parts></section>
-        <section class="wide"><h2>Calibration</h2><ol class="cal">${r.calibration.map((c) => html`<li>${c.text}</li>`)}</ol></section>
-        <section><h2>Key figures</h2><gw-figures caption="Key figures" .rows=${d.figures.slice(0, half)}></gw-figures></section>
-        <section><h2>&nbsp;</h2><gw-figures caption="Key figures, continued" .rows=${d.figures.slice(half)}></gw-figures></section>
-      </div>
-      <p><small>Made with Gainwright from the design's own figures; check them against your parts before building.</small></p>
-    </div>`;
-  }
-
   override render() {
     const d = this._derived;
     const r = d?.report;
     return html`
+      <a class="skip" href="#verdict" @click=${this._skip}>Skip to the verdict</a>
       <header>
         <h1>Gain<span>wright</span></h1>
-        <input class="title-input" aria-label="Design title" .value=${this._design.title}
-          @change=${(e: Event) => this._apply(setPath(this._design, 'title', (e.target as HTMLInputElement).value), 'title')} />
-        <select aria-label="Load a demo" @change=${this._loadDemo}>
-          <option value="">Load a demo…</option>
-          ${DEMOS.map((x) => html`<option value=${x.id}>${x.label}</option>`)}
-        </select>
-        <button @click=${() => this._file.click()}>Open…</button>
+        <gw-toolbar .demos=${DEMOS.map((x) => [x.id, x.label] as [string, string])} @gw-toolbar-action=${this._onToolbar} @gw-demo=${this._onDemo}></gw-toolbar>
         <input id="open-file" type="file" accept=".json,application/json" hidden @change=${this._open} />
-        <button @click=${this._save}>Save</button>
-        <button @click=${this._share}>Share link</button>
-        <button @click=${() => r && this._download(bomCsv(r), fileName(this._design, 'csv'), 'text/csv')}>Parts CSV</button>
-        <button @click=${() => window.print()}>Print build sheet</button>
       </header>
       <div class="safety-banner" role="note"><strong>Safety:</strong> ${this._cautions().join(' ')}</div>
       ${this._notice ? html`<div class="notice ${this._notice.bad ? 'bad' : ''}" role="status">${this._notice.text}
         ${this._damaged ? html` <button @click=${() => this._download(this._damaged!, 'damaged-autosave.txt', 'text/plain')}>Download the damaged text</button>` : nothing}
-        <button aria-label="Dismiss" @click=${() => { this._notice = null; }}>×</button></div>` : nothing}
+        <button aria-label="Dismiss" @click=${this._dismiss}>×</button></div>` : nothing}
+      <div class="sr-only" role="status" aria-live="polite" id="verdict-live">${this._verdictLine(r)}</div>
       ${this._shareUrl ? html`<div class="notice no-print"><label>Share link <input class="share" readonly .value=${this._shareUrl} @focus=${(e: Event) => (e.target as HTMLInputElement).select()} /></label></div>` : nothing}
       <main>
         <section class="area-verdict" aria-label="Verdict">
-          <div class="panel" id="verdict"><h2>Verdict</h2><gw-verdicts .verdicts=${r?.verdicts ?? []}></gw-verdicts></div>
+          <div class="panel" id="verdict" tabindex="-1"><h2>Verdict</h2><gw-verdicts .verdicts=${r?.verdicts ?? []}></gw-verdicts></div>
         </section>
         <section class="area-editor" aria-label="Design">
-          <gw-editor .design=${this._design} .messages=${this._messages}
+          <gw-editor .design=${this._design} .messages=${this._messages} .notes=${this._notes}
             @gw-field-input=${this._onFieldInput} @gw-set=${this._onSet}
             @gw-sensor-type=${this._onSensorType} @gw-opamp-archetype=${this._onArchetype}></gw-editor>
         </section>
@@ -360,7 +374,7 @@ export class GwApp extends LitElement {
           <div class="panel"><h2>Calibration</h2><ol class="cal">${(r?.calibration ?? []).map((c) => html`<li>${c.text}</li>`)}</ol></div>
         </section>
       </main>
-      ${this._sheet()}
+      <gw-build-sheet class="sheet" aria-hidden="true" .report=${r ?? null} .drawing=${d?.drawing ?? null} .rows=${d?.rows ?? []} .figures=${d?.figures ?? []} .cautions=${this._cautions()}></gw-build-sheet>
     `;
   }
 }

@@ -1,12 +1,14 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import type { Design } from '../src/index.js';
-import { displayValue, fieldsFor, getPath, SENSOR_TYPES, type FieldDef, type Section } from '../src/index.js';
+import type { Design, SensorType } from '../src/index.js';
+import { displayValue, fieldHint, fieldsFor, getPath, SENSOR_TYPES, type FieldDef, type Section } from '../src/index.js';
 import { OPAMP_ARCHETYPES } from '../src/index.js';
 import { base } from './styles.js';
 import './gw-field.js';
 
 export interface SetDetail { path: string; value: unknown }
+export interface SensorTypeDetail { type: SensorType }
+export interface ArchetypeDetail { id: string }
 
 const SECTIONS: Array<[Section, string]> = [
   ['sensor', '1 · Sensor'],
@@ -32,7 +34,10 @@ export class GwEditor extends LitElement {
     fieldset { border: 1px solid var(--gw-line); border-radius: 6px; margin: 0 0 0.8rem; padding: 0.5rem 0.7rem 0.7rem; background: var(--gw-paper); }
     legend { font-weight: 700; padding: 0 0.3rem; }
     .row { display: grid; grid-template-columns: minmax(7rem, 1fr) minmax(6rem, 9rem); gap: 0.4rem; align-items: center; margin: 0.15rem 0 0.35rem; font-size: 0.9rem; }
-    select { width: 100%; min-width: 0; }
+    /* A select takes the width its longest choice needs and wraps under its label when the row is narrow. */
+    .row.choice { display: flex; flex-wrap: wrap; justify-content: space-between; column-gap: 0.4rem; row-gap: 0.15rem; }
+    .row.choice > span { flex: 1 1 7rem; }
+    select { flex: 0 1 auto; max-width: 100%; }
     fieldset { min-width: 0; }
     .note { color: var(--gw-muted); font-size: 0.8rem; margin: 0.2rem 0 0.4rem; }
   `];
@@ -41,6 +46,8 @@ export class GwEditor extends LitElement {
   @property({ attribute: false }) design!: Design;
   /** Messages by field path for values that could not be used. */
   @property({ attribute: false }) messages: Record<string, string> = {};
+  /** How the last value typed into a field was read, by field path, when it was typed in another unit. */
+  @property({ attribute: false }) notes: Record<string, string> = {};
 
   private _set(path: string, value: unknown): void {
     this.dispatchEvent(new CustomEvent<SetDetail>('gw-set', { detail: { path, value }, bubbles: true, composed: true }));
@@ -50,7 +57,7 @@ export class GwEditor extends LitElement {
     const path = f.path;
     const value = getPath(this.design, path);
     if (f.kind === 'select') {
-      return html`<label class="row"><span>${f.label}</span>
+      return html`<label class="row choice"><span>${f.label}</span>
         <select data-path=${path} @change=${(e: Event) => this._set(path, f.options![Number((e.target as HTMLSelectElement).value)]![0])}>
           ${f.options!.map(([v, l], i) => html`<option value=${i} ?selected=${JSON.stringify(value) === JSON.stringify(v)}>${l}</option>`)}
         </select></label>`;
@@ -64,7 +71,7 @@ export class GwEditor extends LitElement {
       return html`<gw-field path=${path} label=${f.label} .value=${String(value ?? '')} .message=${this.messages[path] ?? ''}></gw-field>`;
     }
     const label = path.startsWith('target.range') ? `${f.label} (${this.design.sensor.measurand}${this.design.target.signal === 'ac-rms' ? ' rms' : ''})` : f.label;
-    return html`<gw-field path=${path} label=${label} .value=${displayValue(f, value, this.design)} .message=${this.messages[path] ?? ''} .hint=${f.hint ?? ''}></gw-field>`;
+    return html`<gw-field numeric path=${path} label=${label} .value=${displayValue(f, value, this.design)} .message=${this.messages[path] ?? ''} .hint=${fieldHint(f, this.design)} .note=${this.notes[path] ?? ''}></gw-field>`;
   }
 
   override render() {
@@ -74,12 +81,12 @@ export class GwEditor extends LitElement {
     return SECTIONS.map(([section, title]) => html`
       <fieldset>
         <legend>${title}</legend>
-        ${section === 'sensor' ? html`<label class="row"><span>Sensor model</span>
-          <select data-path="sensor.type" @change=${(e: Event) => this.dispatchEvent(new CustomEvent('gw-sensor-type', { detail: { type: (e.target as HTMLSelectElement).value }, bubbles: true, composed: true }))}>
+        ${section === 'sensor' ? html`<label class="row choice"><span>Sensor model</span>
+          <select data-path="sensor.type" @change=${(e: Event) => this.dispatchEvent(new CustomEvent<SensorTypeDetail>('gw-sensor-type', { detail: { type: (e.target as HTMLSelectElement).value as SensorType }, bubbles: true, composed: true }))}>
             ${SENSOR_TYPES.map(([t, l]) => html`<option value=${t} ?selected=${this.design.sensor.type === t}>${l}</option>`)}
           </select></label>` : nothing}
-        ${section === 'amplifier' ? html`<label class="row"><span>Start from an archetype</span>
-          <select data-path="opamp.archetype" @change=${(e: Event) => this.dispatchEvent(new CustomEvent('gw-opamp-archetype', { detail: { id: (e.target as HTMLSelectElement).value }, bubbles: true, composed: true }))}>
+        ${section === 'amplifier' ? html`<label class="row choice"><span>Start from an archetype</span>
+          <select data-path="opamp.archetype" @change=${(e: Event) => this.dispatchEvent(new CustomEvent<ArchetypeDetail>('gw-opamp-archetype', { detail: { id: (e.target as HTMLSelectElement).value }, bubbles: true, composed: true }))}>
             <option value="" ?selected=${!archetype}>— figures as entered —</option>
             ${OPAMP_ARCHETYPES.map((a) => html`<option value=${a.id} ?selected=${archetype?.id === a.id}>${a.label}</option>`)}
           </select></label>
@@ -91,4 +98,9 @@ export class GwEditor extends LitElement {
 
 declare global {
   interface HTMLElementTagNameMap { 'gw-editor': GwEditor; }
+  interface HTMLElementEventMap {
+    'gw-set': CustomEvent<SetDetail>;
+    'gw-sensor-type': CustomEvent<SensorTypeDetail>;
+    'gw-opamp-archetype': CustomEvent<ArchetypeDetail>;
+  }
 }
