@@ -320,7 +320,7 @@ export function reportJson(r: Report): Record<string, unknown> {
     topologyWhy: r.choice.why,
     parts: s ? s.parts.map(part) : [],
     gain: num(s?.gain),
-    noiseGain: num(r.stage ? (s!.ideal.topology === 'non-inverting' ? s!.gain : 1 + s!.gain) : null),
+    noiseGain: num(s?.noiseGain),
     scale: num(r.dc?.out[1]),
     scaleError: num(s?.scaleError),
     zero: num(r.dc?.out[0]),

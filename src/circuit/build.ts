@@ -78,20 +78,35 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
     R('RW', 'sm', 'sens', spec.windingResistance);
     R('RB', 'sens', 'sq', spec.burden);
   } else if (spec.type === 'shunt') {
-    el({ kind: 'I', name: 'ISIG', na: '0', nb: 'sens', value: 0, dc0: 0, dc1: 1, ac: 1 });
-    R('RSH', 'sens', '0', spec.resistance);
+    if (f.commonMode !== null) {
+      // High side: the supply end at the common-mode voltage is the + terminal; the load end, I·R below it, the −.
+      el({ kind: 'V', name: 'VCM', na: 'sens', nb: '0', value: 0, dc0: f.commonMode, dc1: 0, ac: 0 });
+      el({ kind: 'I', name: 'ISIG', na: 'sensn', nb: '0', value: 0, dc0: 0, dc1: 1, ac: 1 });
+      R('RSH', 'sens', 'sensn', spec.resistance);
+    } else {
+      el({ kind: 'I', name: 'ISIG', na: '0', nb: 'sens', value: 0, dc0: 0, dc1: 1, ac: 1 });
+      R('RSH', 'sens', '0', spec.resistance);
+    }
   } else {
-    el({ kind: 'V', name: 'VSIG', na: 'src', nb: '0', value: 0, dc0: f.quiescent, dc1: f.sensitivity, ac: f.sensitivity, noise: f.noiseDensity });
+    // A differential output: its − terminal at the common-mode voltage, the signal on top of it.
+    const low = f.commonMode !== null ? 'cm' : '0';
+    if (f.commonMode !== null) {
+      el({ kind: 'V', name: 'VCM', na: 'cm', nb: '0', value: 0, dc0: f.commonMode, dc1: 0, ac: 0 });
+      R('RSN', 'cm', 'sensn', f.minusResistance, f.sourceNoisy);
+    }
+    el({ kind: 'V', name: 'VSIG', na: 'src', nb: low, value: 0, dc0: f.quiescent, dc1: f.sensitivity, ac: f.sensitivity, noise: f.noiseDensity });
     let node = 'src';
     if (f.bandwidth < 1e8) {
       // Sensor bandwidth as a noiseless RC followed by a unity buffer, so the source resistance stays as given.
       R('RSP', 'src', 'sp', 1000, false);
-      el({ kind: 'C', name: 'CSP', na: 'sp', nb: '0', value: 1 / (2 * Math.PI * 1000 * f.bandwidth) });
-      el({ kind: 'E', name: 'ESP', na: 'sb', nb: '0', value: 1, cpn: 'sp', cnn: '0' });
+      el({ kind: 'C', name: 'CSP', na: 'sp', nb: low, value: 1 / (2 * Math.PI * 1000 * f.bandwidth) });
+      el({ kind: 'E', name: 'ESP', na: 'sb', nb: low, value: 1, cpn: 'sp', cnn: low });
       node = 'sb';
     }
     R('RS', node, 'sens', f.sourceResistance, f.sourceNoisy);
   }
+  // A single-ended sensor's − terminal is the ground.
+  if (f.commonMode === null) nm.wire('sensn', '0');
 
   // Op-amp macromodel: VOS (offset, voltage noise) in series with the + input, bias and current noise at both inputs.
   const oa = design.opamp;
@@ -123,20 +138,46 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
     R(t.ref, from, to, t.ohms * s);
   };
 
-  if (net.topology === 'non-inverting') {
-    nm.wire('sens', 'inp');
-    if (!net.feedback && !net.leg && net.reference.kind === 'none') {
-      nm.wire('pin', 'inn');
-    } else {
-      arm(net.feedback, 'feedback', 'pin', 'fbt');
-      trimRheostat('gain-trim', 'fbt', 'inn');
-      arm(net.leg, 'ground-leg', 'inn', 'ref');
-    }
-  } else {
-    arm(net.leg, 'input', 'sens', 'inn');
+  const feedbackPath = () => {
     arm(net.feedback, 'feedback', 'pin', 'fbt');
     trimRheostat('gain-trim', 'fbt', 'inn');
-    nm.wire('inp', 'ref');
+  };
+  switch (net.topology) {
+    case 'non-inverting':
+      nm.wire('sens', 'inp');
+      if (!net.feedback && !net.leg && net.reference.kind === 'none') {
+        nm.wire('pin', 'inn');
+      } else {
+        feedbackPath();
+        arm(net.leg, 'ground-leg', 'inn', 'ref');
+      }
+      break;
+    case 'inverting':
+      arm(net.leg, 'input', 'sens', 'inn');
+      feedbackPath();
+      nm.wire('inp', 'ref');
+      break;
+    case 'summing-non-inverting':
+      arm(net.plusArm ?? null, 'plus-input', 'sens', 'inp');
+      if (net.offsetArm) arm(net.offsetArm, 'offset', 'ref', 'inp');
+      // K = 1 is a follower of the summed + input.
+      if (!net.feedback && !net.leg) nm.wire('pin', 'inn');
+      else { feedbackPath(); arm(net.leg, 'ground-leg', 'inn', '0'); }
+      break;
+    case 'summing-inverting':
+      arm(net.leg, 'input', 'sens', 'inn');
+      if (net.offsetArm) arm(net.offsetArm, 'offset', 'ref', 'inn');
+      feedbackPath();
+      nm.wire('inp', '0');
+      break;
+    case 'difference': {
+      const [toPlus, toMinus] = net.swapped ? ['sensn', 'sens'] : ['sens', 'sensn'];
+      arm(net.plusArm ?? null, 'plus-input', toPlus, 'inp');
+      arm(net.offsetArm ?? null, 'offset', 'inp', 'ref');
+      arm(net.leg, 'input', toMinus, 'inn');
+      feedbackPath();
+      break;
+    }
   }
   const ref = net.reference;
   const railNode = (v: 'top' | 'bottom') => v === 'bottom' ? 'vneg' : ref.topRail === 'regulated' ? 'vreg' : 'vpos';

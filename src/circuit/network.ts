@@ -17,7 +17,7 @@ export interface Arm {
 
 /** Where a part sits in the stage (the presentation layer names each role in words). */
 export type PartRole =
-  | 'feedback' | 'ground-leg' | 'input' | 'reference-top' | 'reference-bottom'
+  | 'feedback' | 'ground-leg' | 'input' | 'plus-input' | 'offset' | 'reference-top' | 'reference-bottom'
   | 'gain-trim' | 'zero-trim' | 'output-series' | 'output-capacitor'
   /** The current transformer's burden: part of the sensor, listed so that it is bought and fitted. */
   | 'burden';
@@ -56,9 +56,19 @@ export interface StageNetwork {
   /** Fixed feedback arm (null = a wire, for a unity buffer) and its series gain trimmer. */
   feedback: Arm | null;
   gainTrim: Trimmer | null;
-  /** Ground leg (non-inverting, may be null when the divider's Thevenin is the whole leg or for a buffer) or input resistor (inverting). */
+  /**
+   * Ground leg (non-inverting, may be null when the divider's Thevenin is the whole leg or for a buffer; to
+   * ground in the summing non-inverting stage) or input resistor from the sensor to the − input (inverting,
+   * summing inverting, difference).
+   */
   leg: Arm | null;
   reference: ReferenceNetwork;
+  /** Summing non-inverting: sensor to + input (R1); difference: sensor terminal to + input (R3). */
+  plusArm?: Arm | null;
+  /** Summing non-inverting: reference to + input (R2); summing inverting: reference to − input (Roff); difference: + input to reference (R4). */
+  offsetArm?: Arm | null;
+  /** Difference stage: the sensor's − terminal goes to the + input side (a negative scale). */
+  swapped?: boolean;
 }
 
 /** One part of the parts list, with its place in the stage as structured fields. */

@@ -17,7 +17,13 @@ export const REGULATOR_HEADROOM = 0.3;
 /** Largest design document the app and CLI accept, in bytes. */
 export const MAX_DESIGN_BYTES = 1_000_000;
 
-export type Topology = 'non-inverting' | 'inverting';
+/**
+ * The single-op-amp stages (docs/method.md, "Stages"): the four sign cases of Vout = m·Vs + b taught for
+ * single-supply design, plus the four-resistor difference stage.
+ */
+export type Topology = 'non-inverting' | 'inverting' | 'summing-non-inverting' | 'summing-inverting' | 'difference';
+/** Every stage, in the order `auto` considers them. */
+export const TOPOLOGIES: readonly Topology[] = ['non-inverting', 'inverting', 'summing-non-inverting', 'summing-inverting', 'difference'];
 export type TopologyChoice = Topology | 'auto';
 export type Arrangement = 'single' | 'series' | 'parallel';
 export type Rail = 'positive' | 'regulated';
@@ -57,6 +63,11 @@ export interface VoltageOutputSensor extends SensorCommon {
   outputMax: number;
   /** If set, sensitivity and quiescent scale with the sensor's supply; they were given at this supply, V. */
   ratiometricSupply: number | null;
+  /**
+   * A differential output (a bridge): the voltage of the sensor's − output terminal, V; its + terminal sits
+   * at commonMode + quiescent + sensitivity·x. Null: single-ended, the − terminal is the amplifier's ground.
+   */
+  commonMode: number | null;
   /** The supply range the sensor is specified for, V (null or absent = not stated). */
   supplyMin?: number | null;
   supplyMax?: number | null;
@@ -115,6 +126,11 @@ export interface ShuntSensor extends SensorCommon {
   resistance: number;
   /** Shunt power rating, W. */
   powerRating: number;
+  /**
+   * A high-side shunt: the voltage of its supply end, V (the load end sits I·R below it). Null: a low-side
+   * shunt with its lower end on the amplifier's ground.
+   */
+  commonMode: number | null;
 }
 
 export type SensorSpec = VoltageOutputSensor | HallGapCoreSensor | CurrentTransformerSensor | ShuntSensor;
@@ -250,6 +266,7 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     outputMin: V({ optional: true }),
     outputMax: V({ optional: true }),
     ratiometricSupply: { t: 'num', what: 'volts', check: 'positive', max: 1000, optional: true },
+    commonMode: V({ optional: true }),
     supplyMin: { t: 'num', what: 'volts', check: 'positive', max: 1000, optional: true },
     supplyMax: { t: 'num', what: 'volts', check: 'positive', max: 1000, optional: true },
   },
@@ -289,6 +306,7 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     ...sensorCommon,
     resistance: num('ohms', 'positive', { max: 1e9 }),
     powerRating: opt(num('watts', 'positive', { max: 1e6 }), 0.25),
+    commonMode: V({ optional: true }),
   },
 };
 
@@ -353,7 +371,7 @@ const SCHEMA: Spec = {
         zero: V(),
         range: { t: 'tuple', items: [num('measurand units', 'any', { maxAbs: 1e9 }), num('measurand units', 'any', { maxAbs: 1e9 })] },
         signal: { t: 'str', oneOf: ['dc', 'ac-rms'], def: 'dc' },
-        topology: { t: 'str', oneOf: ['auto', 'non-inverting', 'inverting'], def: 'auto' },
+        topology: { t: 'str', oneOf: ['auto', ...TOPOLOGIES], def: 'auto' },
         series: { t: 'str', oneOf: ['E3', 'E6', 'E12', 'E24', 'E48', 'E96', 'E192'], def: 'E96' },
         tolerance: opt(num('parts of one', 'fraction', { min: 1e-5 }), 0.01),
         arrangements: { t: 'list', item: { t: 'str', oneOf: ['single', 'series', 'parallel'] }, def: ['single', 'series', 'parallel'], nonEmpty: true, maxItems: 3 },

@@ -38,6 +38,14 @@ export interface SensorFront extends SensorCommon {
   passesDc: boolean;
   /** Sensor supply at which sensitivity and quiescent were given, if they scale with it. */
   ratiometricSupply: number | null;
+  /**
+   * Null for a single-ended output (its − terminal is the amplifier's ground). For a differential output
+   * (a bridge, a high-side shunt): the voltage of the fixed terminal, V; the signal is the difference
+   * V(+) − V(−) = quiescent + sensitivity·x.
+   */
+  commonMode: number | null;
+  /** Resistance in series with the − terminal, Ω (0 for a single-ended sensor); `sourceResistance` is the + terminal's. */
+  minusResistance: number;
   limits: SensorLimit[];
   figures: SensorFigure[];
   warnings: Warning[];
@@ -84,6 +92,8 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
     sourceNoisy: false,
     lowCorner: 0,
     passesDc: true,
+    commonMode: null as number | null,
+    minusResistance: 0,
     limits: [] as SensorLimit[],
     figures: [] as SensorFigure[],
     warnings: [] as Warning[],
@@ -98,6 +108,9 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
         outputMin: spec.outputMin ?? design.supply.negative,
         outputMax: spec.outputMax ?? sensorRail,
         ratiometricSupply: spec.ratiometricSupply ?? null,
+        commonMode: spec.commonMode ?? null,
+        // A differential output's resistance is shared by its two terminals (a bridge's two arms).
+        ...(spec.commonMode !== null && spec.commonMode !== undefined ? { sourceResistance: spec.sourceResistance / 2, minusResistance: spec.sourceResistance / 2 } : {}),
       };
     }
     case 'hall-gap-core': {
@@ -195,7 +208,12 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
           { key: 'burdenVoltage', label: 'Burden voltage added to the measured circuit at the range end', value: iMax * spec.resistance, unit: 'V' },
           { key: 'shuntPower', label: 'Shunt power at the range end', value: p, unit: 'W' },
         ],
-        warnings: [{ code: 'low-side-only', level: 'info', message: 'The shunt must sit in the low side, on the amplifier ground; a high-side shunt needs a difference stage, which this design does not cover.' }],
+        commonMode: spec.commonMode ?? null,
+        // High side: the + terminal is the supply end itself, the − terminal sits behind the shunt.
+        ...(spec.commonMode !== null && spec.commonMode !== undefined ? { sourceResistance: spec.sourceResistance, minusResistance: spec.resistance } : {}),
+        warnings: spec.commonMode === null || spec.commonMode === undefined
+          ? [{ code: 'low-side-only', level: 'info', message: 'The shunt sits in the low side, on the amplifier ground; for a shunt in the high side give its supply-end voltage (sensor.commonMode) and use the difference stage.' }]
+          : [],
       };
       if (p > spec.powerRating) {
         front.warnings.push({ code: 'shunt-power', level: 'fail', message: `The shunt dissipates ${fmt(p)} W at the range end, above its ${spec.powerRating} W rating.` });

@@ -1,15 +1,27 @@
 /**
- * The two single-op-amp stages Gainwright designs, as ideal closed forms, and the choice between them.
+ * The single-op-amp stages Gainwright designs, as ideal closed forms, and the choice between them. Every
+ * stage gives Vout = m·Vs + b for a sensor voltage Vs (the four sign cases of m and b taught for
+ * single-supply design, e.g. Mancini (ed.), Op Amps for Everyone, Newnes 2003, ch. 4; and the difference
+ * stage, Franco, Design with Operational Amplifiers and Analog Integrated Circuits, 4th ed., §2.3):
  *
- * Non-inverting with a reference Vref at the foot of the ground leg (removes the sensor's offset):
- *   Vout = G·Vs − (G−1)·Vref,   G = 1 + Rf/Rleg
- * Inverting with a reference Vp at the non-inverting input:
- *   Vout = (1+G)·Vp − G·Vs,     G = Rf/Rin
- * Noise gain is 1 + Rf/Rleg (non-inverting) and 1 + Rf/Rin (inverting), the same expression for both
- * (Texas A&M ECEN 457 notes, eqs. 1–2). Rleg includes the reference network's Thevenin resistance and
- * Rin includes the sensor's source resistance.
+ * Non-inverting, reference Vref at the foot of the ground leg (m > 0, b < 0 on a single supply):
+ *   Vout = G·Vs − (G−1)·Vref,                 G = 1 + Rf/Rleg
+ * Inverting, reference Vp at the + input (m < 0, b > 0):
+ *   Vout = (1+G)·Vp − G·Vs,                   G = Rf/Rin
+ * Summing non-inverting: sensor through R1 and reference Vr through R2 into the + input (m > 0, b > 0):
+ *   Vout = K·(α·Vs + (1−α)·Vr),               K = 1 + Rf/Rg, α = R2/(R1 + R2)
+ * Summing inverting: sensor through Rin and reference Vr through Roff into the − input, + input grounded
+ * (m < 0, b < 0):
+ *   Vout = −(Rf/Rin)·Vs − (Rf/Roff)·Vr
+ * Difference: sensor + terminal through R3 to the + input, R4 from there to Vref; − terminal through Rin to
+ * the − input, Rf feedback; with R4/R3 = Rf/Rin = G:
+ *   Vout = G·(V+ − V−) + Vref
+ * Noise gain is 1 + Rf/(everything from the − input to a fixed voltage) (Texas A&M ECEN 457 notes,
+ * eqs. 1–2): G (non-inverting), 1 + G (inverting, difference), K (summing non-inverting), 1 + Rf/Rin +
+ * Rf/Roff (summing inverting). Resistances include the sensor's source resistance and the reference
+ * network's Thevenin resistance where they sit in series.
  */
-import type { Design, Topology } from '../model/design.js';
+import { TOPOLOGIES, type Design, type Topology } from '../model/design.js';
 import type { SensorFront } from './sensors.js';
 
 export interface IdealStage {
@@ -29,6 +41,18 @@ export interface IdealStage {
   feasible: boolean;
   /** Why this topology does or does not fit, in plain words. */
   reasons: string[];
+  /** The offset b of Vout = m·Vs + b wanted at the pin, V. */
+  offset: number;
+  /** How far the output moves per volt at the reference (magnitude, ideal op-amp). */
+  leverage: number;
+  /** d(scale)/scale per dRf/Rf: how hard a feedback trimmer pulls the scale. */
+  feedbackSensitivity: number;
+  /** The feedback pair's ratio: Rf/Rleg (non-inverting), K − 1 = Rf/Rg (summing non-inverting), Rf/Rin (the others). */
+  feedbackRatio: number;
+  /** The second ratio: α = R2/(R1+R2) (summing non-inverting), Rf/Roff (summing inverting), R4/R3 (difference); NaN otherwise. */
+  split: number;
+  /** Difference stage: the sensor's terminals enter swapped (− terminal to the + input) for a negative scale. */
+  swapped: boolean;
 }
 
 /** Non-inverting output for a sensor voltage: Vout = G·Vs − (G−1)·Vref. */
@@ -99,79 +123,134 @@ export function referenceRails(design: Pick<Design, 'supply'>): [number, number]
 
 const EPS_UNITY = 1e-6;
 
+/** Whether a stage keeps the sensor's polarity (+1), flips it (−1), or can do either (0: the difference stage, by swapping its inputs). */
+function naturalSign(topology: Topology): number {
+  return topology === 'non-inverting' || topology === 'summing-non-inverting' ? 1 : topology === 'difference' ? 0 : -1;
+}
+
 /** The ideal stage of one topology for this design, with the reasons it is or is not feasible. */
 export function idealStage(topology: Topology, design: Design, front: SensorFront): IdealStage {
   const k = loadFactor(design);
   const acFree = design.target.signal === 'ac-rms';
   const reasons: string[] = [];
   const sens = front.sensitivity;
-  const natural = topology === 'non-inverting' ? Math.sign(sens) : -Math.sign(sens);
   let pinScale = design.target.scale / k;
   let delivered = design.target.scale;
-  if (Math.sign(pinScale) !== natural) {
-    if (acFree) {
-      pinScale = -pinScale;
-      delivered = -delivered;
-      reasons.push('the output is inverted (180° phase), which does not matter for an rms reading');
-    } else {
-      reasons.push(topology === 'non-inverting'
-        ? 'a non-inverting stage keeps the sensor\'s polarity, and the target asks for the opposite sign'
-        : 'an inverting stage flips the sensor\'s polarity, and the target asks for the same sign');
-      return { topology, gain: NaN, noiseGain: NaN, reference: NaN, needsReference: false, pinScale, pinZero: design.target.zero / k, deliveredScale: delivered, feasible: false, reasons };
-    }
-  }
   const pinZero = design.target.zero / k;
   const vq = front.quiescent;
   const [railLo, railHi] = referenceRails(design);
   const inLo = design.supply.negative + design.opamp.inputLow;
   const inHi = design.supply.positive - design.opamp.inputHigh;
-  if (topology === 'non-inverting') {
-    const g = pinScale / sens;
-    if (g < 1 - EPS_UNITY) {
-      reasons.push(`a non-inverting stage cannot attenuate: the target needs a gain of ${g.toPrecision(3)}`);
-      return { topology, gain: g, noiseGain: g, reference: NaN, needsReference: false, pinScale, pinZero, deliveredScale: delivered, feasible: false, reasons };
-    }
-    const unity = Math.abs(g - 1) < EPS_UNITY;
-    let reference = NaN;
-    let feasible = true;
-    if (unity) {
-      if (Math.abs(pinZero - vq) > 1e-3) {
-        feasible = false;
-        reasons.push(`a unity-gain buffer keeps the sensor's ${vq} V zero and cannot move it to ${pinZero.toPrecision(4)} V`);
-      }
+  const [xLo, xHi] = peakRange(design);
+  const natural = naturalSign(topology) * Math.sign(sens);
+  const out = (o: Partial<IdealStage> & Pick<IdealStage, 'gain' | 'noiseGain' | 'reference' | 'feasible'>): IdealStage => ({
+    topology, needsReference: true, pinScale, pinZero, deliveredScale: delivered, reasons,
+    offset: NaN, leverage: NaN, feedbackSensitivity: 1, feedbackRatio: NaN, split: NaN, swapped: false, ...o,
+  });
+  const infeasible = (why: string, gain = NaN) => { reasons.push(why); return out({ gain, noiseGain: NaN, reference: NaN, needsReference: false, feasible: false }); };
+  if (natural !== 0 && Math.sign(pinScale) !== natural) {
+    if (acFree) {
+      pinScale = -pinScale;
+      delivered = -delivered;
+      reasons.push('the output is inverted (180° phase), which does not matter for an rms reading');
     } else {
-      reference = referenceFor('non-inverting', g, vq, pinZero);
-      if (reference < railLo - 1e-9 || reference > railHi + 1e-9) {
-        feasible = false;
-        reasons.push(`the reference would have to be ${reference.toPrecision(3)} V, outside the ${railLo}…${railHi} V it can be taken from`);
+      return infeasible(natural === Math.sign(sens)
+        ? 'a non-inverting stage keeps the sensor\'s polarity, and the target asks for the opposite sign'
+        : 'an inverting stage flips the sensor\'s polarity, and the target asks for the same sign');
+    }
+  }
+  if (front.commonMode !== null && topology !== 'difference') {
+    return infeasible('the sensor\'s output is differential (its − terminal is not at ground): only the difference stage reads it');
+  }
+  // Vout = m·Vs + b at the pin, for the sensor voltage Vs (its differential voltage for the difference stage).
+  const m = pinScale / sens;
+  const b = pinZero - m * vq;
+  const cm = front.commonMode ?? 0;
+  /** The sensor voltage (at the terminal named) over the range's ends. */
+  const vsAt = (x: number) => vq + sens * x;
+  /** Input voltages over the range for an input that follows f(Vs); a reason when they leave the op-amp's input range. */
+  const checkInputs = (f: (vs: number) => number, what: string): boolean => {
+    const v1 = f(vsAt(xLo)), v2 = f(vsAt(xHi)), v0 = f(vq);
+    const lo = Math.min(v1, v2, v0), hi = Math.max(v1, v2, v0);
+    if (lo < inLo - 1e-9 || hi > inHi + 1e-9) {
+      reasons.push(`${what} ${lo === hi ? `at ${lo.toPrecision(3)} V` : `from ${lo.toPrecision(3)} to ${hi.toPrecision(3)} V`}, outside the op-amp's input range ${inLo.toPrecision(3)}…${inHi.toPrecision(3)} V`);
+      return false;
+    }
+    return true;
+  };
+  const outsideRails = (v: number) => v < railLo - 1e-9 || v > railHi + 1e-9;
+
+  switch (topology) {
+    case 'non-inverting': {
+      const g = m;
+      if (g < 1 - EPS_UNITY) return infeasible(`a non-inverting stage cannot attenuate: the target needs a gain of ${g.toPrecision(3)}`, g);
+      const unity = Math.abs(g - 1) < EPS_UNITY;
+      let reference = NaN;
+      let feasible = true;
+      if (unity) {
+        if (Math.abs(pinZero - vq) > 1e-3) { feasible = false; reasons.push(`a unity-gain buffer keeps the sensor's ${vq} V zero and cannot move it to ${pinZero.toPrecision(4)} V`); }
+      } else {
+        reference = referenceFor('non-inverting', g, vq, pinZero);
+        if (outsideRails(reference)) { feasible = false; reasons.push(`the reference would have to be ${reference.toPrecision(3)} V, outside the ${railLo}…${railHi} V it can be taken from`); }
       }
+      feasible = checkInputs((vs) => vs, 'the inputs follow the sensor') && feasible;
+      if (feasible) reasons.push(unity ? 'a unity buffer: the target equals the sensor\'s own scale and zero' : 'keeps the sensor\'s polarity with a gain of at least 1 and loads the sensor only with the op-amp input');
+      return out({ gain: g, noiseGain: g, reference, needsReference: !unity, feasible, offset: b, leverage: g - 1, feedbackSensitivity: (g - 1) / g, feedbackRatio: g - 1 });
     }
-    // Both inputs follow the sensor's output.
-    const [xLo, xHi] = peakRange(design);
-    const vsLo = vq + sens * xLo;
-    const vsHi = vq + sens * xHi;
-    const vMin = Math.min(vsLo, vsHi);
-    const vMax = Math.max(vsLo, vsHi);
-    if (vMin < inLo - 1e-9 || vMax > inHi + 1e-9) {
-      feasible = false;
-      reasons.push(`the inputs follow the sensor from ${vMin.toPrecision(3)} to ${vMax.toPrecision(3)} V, outside the op-amp's input range ${inLo.toPrecision(3)}…${inHi.toPrecision(3)} V`);
+    case 'inverting': {
+      const g = -m;
+      const vp = referenceFor('inverting', g, vq, pinZero);
+      let feasible = true;
+      if (outsideRails(vp)) { feasible = false; reasons.push(`the + input would have to sit at ${vp.toPrecision(3)} V, outside the ${railLo}…${railHi} V it can be taken from`); }
+      feasible = checkInputs(() => vp, 'the inputs sit') && feasible;
+      if (feasible) reasons.push(g < 1 ? 'an inverting stage can attenuate, which the target needs' : 'an inverting stage gives the opposite polarity the target asks for, with its inputs at a fixed voltage');
+      return out({ gain: g, noiseGain: 1 + g, reference: vp, feasible, offset: b, leverage: 1 + g, feedbackRatio: g });
     }
-    if (feasible) reasons.push(unity ? 'a unity buffer: the target equals the sensor\'s own scale and zero' : 'keeps the sensor\'s polarity with a gain of at least 1 and loads the sensor only with the op-amp input');
-    return { topology, gain: g, noiseGain: g, reference, needsReference: !unity, pinScale, pinZero, deliveredScale: delivered, feasible, reasons };
+    case 'summing-non-inverting': {
+      // Vout = K·(α·Vs + (1−α)·Vr): the reference comes from the rail on the side of b (a wire when it can),
+      // K = m + b/Vr ≥ 1. When that would need K < 1 (an attenuating stage), Vr is lowered to give K = 1.25 − m/4.
+      if (Math.abs(b) < 1e-9 * Math.max(1, Math.abs(pinZero))) {
+        if (m >= 1 - EPS_UNITY) return infeasible('with no offset to add, this is the plain non-inverting stage');
+        const kk = 1;
+        return finishSni(kk, m / kk, 0);
+      }
+      const rail = b > 0 ? railHi : railLo;
+      if (!(Math.sign(rail) === Math.sign(b)) || rail === 0) return infeasible(`the offset ${b.toPrecision(3)} V needs a ${b > 0 ? 'positive' : 'negative'} rail to sum in, and there is none`);
+      let vr = rail;
+      let kk = m + b / vr;
+      if (kk < 1 + 1e-3) { kk = 1.25 - m / 4; vr = b / (kk - m); }
+      return finishSni(kk, m / kk, vr);
+    }
+    case 'summing-inverting': {
+      // Vout = −G1·Vs − G2·Vr with the + input grounded: Vr from the rail on the other side of b.
+      const g1 = -m;
+      if (Math.abs(b) < 1e-9 * Math.max(1, Math.abs(pinZero))) return infeasible('with no offset to add, this is the plain inverting stage with its + input grounded');
+      const rail = b < 0 ? railHi : railLo;
+      if (!(Math.sign(rail) === -Math.sign(b)) || rail === 0) return infeasible(`the offset ${b.toPrecision(3)} V needs a ${b < 0 ? 'positive' : 'negative'} rail to sum in, and there is none`);
+      const g2 = -b / rail;
+      let feasible = checkInputs(() => 0, 'the inputs sit at ground,');
+      if (feasible) reasons.push('sums the sensor and a rail into the − input: opposite polarity with an offset of the same sign');
+      return out({ gain: g1, noiseGain: 1 + g1 + g2, reference: rail, feasible, offset: b, leverage: g2, feedbackRatio: g1, split: g2 });
+    }
+    case 'difference': {
+      const g = Math.abs(m);
+      const swapped = m < 0;
+      const vref = b;
+      let feasible = true;
+      if (g < EPS_UNITY) return infeasible('the target asks for no gain at all');
+      if (outsideRails(vref)) { feasible = false; reasons.push(`the reference would have to be ${vref.toPrecision(3)} V, outside the ${railLo}…${railHi} V it can be taken from`); }
+      // The + input sits at (G·V(terminal at R3) + Vref)/(1 + G); that terminal is + (cm + Vs) or, swapped, − (cm).
+      feasible = checkInputs((vs) => (g * (swapped ? cm : cm + vs) + vref) / (1 + g), 'the inputs sit') && feasible;
+      if (feasible) reasons.push(front.commonMode !== null ? 'reads the sensor\'s differential output and rejects its common-mode voltage' : 'takes the sensor between its two terminals, with the zero set by the reference');
+      return out({ gain: g, noiseGain: 1 + g, reference: vref, feasible, offset: b, leverage: 1, feedbackRatio: g, split: g, swapped });
+    }
   }
-  const g = -pinScale / sens;
-  const vp = referenceFor('inverting', g, vq, pinZero);
-  let feasible = true;
-  if (vp < railLo - 1e-9 || vp > railHi + 1e-9) {
-    feasible = false;
-    reasons.push(`the + input would have to sit at ${vp.toPrecision(3)} V, outside the ${railLo}…${railHi} V it can be taken from`);
+
+  function finishSni(kk: number, alpha: number, vr: number): IdealStage {
+    let feasible = checkInputs((vs) => alpha * vs + (1 - alpha) * vr, 'the inputs follow the summed sensor and reference');
+    if (feasible) reasons.push(m < 1 ? 'keeps the sensor\'s polarity and can attenuate, with the offset summed in at the + input' : 'keeps the sensor\'s polarity with an offset of the same sign, summed in at the + input');
+    return out({ gain: m, noiseGain: kk, reference: vr, needsReference: vr !== 0, feasible, offset: b, leverage: kk * (1 - alpha), feedbackSensitivity: (kk - 1) / kk, feedbackRatio: kk - 1, split: alpha });
   }
-  if (vp < inLo - 1e-9 || vp > inHi + 1e-9) {
-    feasible = false;
-    reasons.push(`the inputs sit at ${vp.toPrecision(3)} V, outside the op-amp's input range ${inLo.toPrecision(3)}…${inHi.toPrecision(3)} V`);
-  }
-  if (feasible) reasons.push(g < 1 ? 'an inverting stage can attenuate, which the target needs' : 'an inverting stage gives the opposite polarity the target asks for, with its inputs at a fixed voltage');
-  return { topology, gain: g, noiseGain: 1 + g, reference: vp, needsReference: true, pinScale, pinZero, deliveredScale: delivered, feasible, reasons };
 }
 
 /** Range of measurand peaks: √2 × an rms range for AC targets (sine), else the range itself. */
@@ -197,7 +276,7 @@ export interface TopologyChoiceResult {
  */
 export function chooseTopology(design: Design, front: SensorFront): TopologyChoiceResult {
   const order: Topology[] = design.target.topology === 'auto'
-    ? ['non-inverting', 'inverting']
+    ? (front.commonMode !== null ? ['difference'] : [...TOPOLOGIES])
     : [design.target.topology];
   const considered = order.map((t) => idealStage(t, design, front));
   const chosen = considered.find((s) => s.feasible) ?? null;
@@ -205,17 +284,20 @@ export function chooseTopology(design: Design, front: SensorFront): TopologyChoi
   if (!chosen) {
     const same = Math.sign(design.target.scale) === Math.sign(front.sensitivity);
     const g = Math.abs(design.target.scale / front.sensitivity);
-    // The sign a stage gives: non-inverting keeps the sensor's, inverting flips it (an rms reading has none).
-    const wrongSign = (t: Topology) => design.target.signal !== 'ac-rms' && (t === 'non-inverting') !== same;
-    const other = (t: Topology): Topology => (t === 'non-inverting' ? 'inverting' : 'non-inverting');
+    // The sign a stage gives (naturalSign): kept, flipped, or either; an rms reading has none.
+    const wrongSign = (t: Topology) => design.target.signal !== 'ac-rms' && naturalSign(t) !== 0 && naturalSign(t) !== (same ? 1 : -1);
+    const other: Partial<Record<Topology, Topology>> = {
+      'non-inverting': 'inverting', inverting: 'non-inverting', 'summing-non-inverting': 'summing-inverting', 'summing-inverting': 'summing-non-inverting',
+    };
     const m = front.measurand;
     if (design.target.topology !== 'auto' && wrongSign(design.target.topology)) {
       const t = design.target.topology;
-      guidance.push(`The polarity is the cause, not the rails: a ${t} stage gives an output that ${(t === 'non-inverting') === (front.sensitivity > 0) ? 'rises' : 'falls'} as the ${m} rises, and the wanted scale asks for the opposite sign. Reverse the conductor through the sensor (or turn the sensor round) to flip its sign, change the scale's sign, or choose the ${other(t)} stage (or let Gainwright choose).`);
+      const rises = naturalSign(t) * Math.sign(front.sensitivity) > 0;
+      guidance.push(`The polarity is the cause, not the rails: a ${t.replace(/-/g, ' ').replace('non inverting', 'non-inverting')} stage gives an output that ${rises ? 'rises' : 'falls'} as the ${m} rises, and the wanted scale asks for the opposite sign. Reverse the conductor through the sensor (or turn the sensor round) to flip its sign, change the scale's sign, or choose the ${(other[t] ?? 'other').replace(/-/g, ' ').replace('non inverting', 'non-inverting')} stage (or let Gainwright choose).`);
     }
     if (same && g < 1) guidance.push('The target needs attenuation with the sensor\'s own polarity: reverse the conductor through the sensor (or swap the sensor\'s orientation) to flip its sign, then an inverting stage can attenuate.');
     // The rails and input range are worth a look only when a stage failed for them, not for its sign or for attenuating.
-    const railBound = considered.some((c) => !wrongSign(c.topology) && !(c.topology === 'non-inverting' && c.gain < 1 - EPS_UNITY));
+    const railBound = considered.some((c) => !c.feasible && !wrongSign(c.topology) && !(c.topology === 'non-inverting' && c.gain < 1 - EPS_UNITY));
     if (railBound) guidance.push('Check that the rails leave room for the reference and for the op-amp\'s input range; a rail-to-rail input op-amp or a wider supply may be needed.');
   }
   const why = chosen

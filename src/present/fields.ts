@@ -2,7 +2,8 @@
  * What the editor shows for each design field: where it lives in the design, its label in the trade's
  * words, the dimension a typed value is read as, and how its current value is written back for a person.
  */
-import type { Design, SensorType } from '../model/design.js';
+import { TOPOLOGIES, type Design, type SensorType } from '../model/design.js';
+import { STAGE_NAMES } from './words.js';
 import { clean, formatEng, parseQuantity, type Dimension, type ParseResult } from '../model/units.js';
 import { sensorFrontAtRail } from '../physics/sensors.js';
 
@@ -44,7 +45,7 @@ const SH: SensorType[] = ['shunt'];
 export const SENSOR_TYPES: Array<[SensorType, string]> = [
   ['hall-gap-core', 'Hall sensor in a gapped core'],
   ['current-transformer', 'Current transformer with burden'],
-  ['shunt', 'Low-side shunt'],
+  ['shunt', 'Shunt (low or high side)'],
   ['voltage-output', 'Any voltage-output sensor'],
 ];
 
@@ -74,6 +75,8 @@ export const FIELDS: readonly FieldDef[] = [
   S('sensor.windingResistance', 'Winding resistance', 'ohm', 'Ω', CT),
   S('sensor.resistance', 'Shunt resistance', 'ohm', 'Ω', SH),
   S('sensor.powerRating', 'Shunt power rating', 'W', 'W', SH),
+  { ...S('sensor.commonMode', 'High side: supply-end voltage', 'V', 'V', SH, 'leave empty for a low-side shunt'), clearable: true },
+  { ...S('sensor.commonMode', 'Differential: − terminal at', 'V', 'V', VOUT, 'leave empty for a single-ended output'), clearable: true },
   S('sensor.sourceResistance', 'Output resistance', 'ohm', 'Ω', [...VOUT, ...HALL]),
   S('sensor.noiseDensity', 'Output noise density', 'V/Hz^0.5', 'nV/√Hz'),
   S('sensor.bandwidth', 'Sensor bandwidth', 'Hz', 'Hz'),
@@ -109,7 +112,7 @@ export const FIELDS: readonly FieldDef[] = [
   N('target', 'target.range.0', 'Range from', '1', ''),
   N('target', 'target.range.1', 'Range to', '1', ''),
   { path: 'target.signal', label: 'Signal', section: 'target', kind: 'select', options: [['dc', 'DC (range is peak values)'], ['ac-rms', 'AC (range is rms)']] },
-  { path: 'target.topology', label: 'Stage', section: 'target', kind: 'select', options: [['auto', 'Choose for me'], ['non-inverting', 'Non-inverting'], ['inverting', 'Inverting']] },
+  { path: 'target.topology', label: 'Stage', section: 'target', kind: 'select', options: [['auto', 'Choose for me'], ...TOPOLOGIES.map((t): [string, string] => [t, STAGE_NAMES[t][0]!.toUpperCase() + STAGE_NAMES[t].slice(1)])] },
   { path: 'target.series', label: 'Resistor series', section: 'target', kind: 'select', options: ['E12', 'E24', 'E48', 'E96', 'E192'].map((s) => [s, s]) },
   { path: 'target.arrangements', label: 'Parts per arm', section: 'target', kind: 'select', options: [[['single', 'series', 'parallel'], 'one, or two in series or parallel'], [['single', 'series'], 'one, or two in series'], [['single', 'parallel'], 'one, or two in parallel'], [['single'], 'one only']] },
   N('target', 'target.tolerance', 'Resistor tolerance (±)', '1', '%'),

@@ -11,6 +11,8 @@ export const ROLE_NAMES: Record<PartRole, string> = {
   feedback: 'feedback',
   'ground-leg': 'ground leg',
   input: 'input',
+  'plus-input': '+ input from the sensor',
+  offset: 'offset from the reference',
   'reference-top': 'reference top',
   'reference-bottom': 'reference bottom',
   'gain-trim': 'gain trim',

@@ -5,6 +5,7 @@
 import type { Report } from '../analysis/report.js';
 import type { Part, PartRole } from '../circuit/network.js';
 import { partValue } from './parts.js';
+import { STAGE_NAMES } from './words.js';
 import { formatEng } from '../model/units.js';
 
 export type Prim =
@@ -41,15 +42,20 @@ export function schematic(r: Report): Schematic | null {
   const parts = s.parts;
   const P: Prim[] = [];
   const W = (...pts: Array<[number, number]>) => P.push({ t: 'wire', pts });
-  const inv = s.ideal.topology === 'inverting';
+  const topo = s.ideal.topology;
+  const inv = topo === 'inverting';
   const railTop = s.network.reference.topRail === 'regulated' ? `+${formatEng(r.design.supply.regulated?.voltage ?? 0, 'V')} reg` : `+${formatEng(r.design.supply.positive, 'V')}`;
   const negLabel = r.design.supply.negative < 0 ? `${formatEng(r.design.supply.negative, 'V')}` : null;
   // Op-amp: − input on top at (300,150), + at (300,190), output at (380,170).
   P.push({ t: 'opamp', x: 340, y: 170, invertingOnTop: true });
-  const sensorLabel = r.design.sensor.type === 'hall-gap-core' ? 'Hall sensor' : r.design.sensor.type === 'current-transformer' ? 'CT + burden' : r.design.sensor.type === 'shunt' ? 'Shunt' : 'Sensor';
-  P.push({ t: 'source', x: 40, y: inv ? 150 : 190, label: sensorLabel });
+  // The burden is a listed part (RB): the CT symbol names it with its value.
+  const burden = parts.find((p) => p.role === 'burden');
+  const sensorLabel = r.design.sensor.type === 'hall-gap-core' ? 'Hall sensor' : r.design.sensor.type === 'current-transformer' ? `CT + ${burden ? `${burden.ref} ${partValue(burden)}` : 'burden'}` : r.design.sensor.type === 'shunt' ? 'Shunt' : 'Sensor';
+  const sensorY = inv || topo === 'summing-inverting' ? 150 : 190;
+  P.push({ t: 'source', x: 40, y: sensorY, label: sensorLabel });
   const fb = arm(parts, 'feedback');
   const gt = parts.find((p) => p.role === 'gain-trim');
+  const follower = !fb && !gt;
   // Feedback path above the op-amp, from the − input node (250,150) to the output node (420,170).
   if (fb || gt) {
     W([250, 150], [250, 80]);
@@ -63,7 +69,31 @@ export function schematic(r: Report): Schematic | null {
   }
   W([250, 150], [300, 150]);
   W([380, 170], [420, 170]);
-  if (!inv) {
+  /** A vertical arm from (x, top) down to the reference node's row, the resistor in its middle part. */
+  const downArm = (x: number, top: number, a: { ref: string; value: string } | null) => {
+    if (!a) { W([x, top], [x, 325]); return; }
+    W([x, top], [x, 220]);
+    P.push({ t: 'res', x, y: 255, vertical: true, ...a, trimmer: false });
+    W([x, 290], [x, 325]);
+  };
+  /** The ground leg from the − node down to ground (summing non-inverting), hopping over the + input's wire. */
+  const legToGround = () => {
+    const leg = arm(parts, 'ground-leg');
+    if (!leg) return;
+    P.push({ t: 'dot', x: 250, y: 150 });
+    W([250, 150], [210, 150], [210, 184]);
+    P.push({ t: 'hop', x: 210, y: 190 });
+    W([210, 196], [210, 200]);
+    P.push({ t: 'res', x: 210, y: 235, vertical: true, ...leg, trimmer: false });
+    W([210, 270], [210, 280]);
+    P.push({ t: 'ground', x: 210, y: 280 });
+  };
+  /** A horizontal arm at height y from the sensor's lead to x = 180, then a wire on to `to`. */
+  const inputArm = (y: number, a: { ref: string; value: string } | null, to: number) => {
+    if (a) { W([70, y], [80, y]); P.push({ t: 'res', x: 130, y, vertical: false, ...a, trimmer: false }); W([180, y], [to, y]); } else W([70, y], [to, y]);
+  };
+  let refX = 210;
+  if (topo === 'non-inverting') {
     // + input from the sensor; ground leg from the − node down to the reference.
     W([70, 190], [300, 190]);
     const leg = arm(parts, 'ground-leg');
@@ -80,7 +110,7 @@ export function schematic(r: Report): Schematic | null {
       P.push({ t: 'hop', x: 210, y: 190 });
       W([210, 196], [210, 325]);
     }
-  } else {
+  } else if (inv) {
     const rin = arm(parts, 'input');
     if (rin) {
       W([70, 150], [110, 150]);
@@ -89,6 +119,41 @@ export function schematic(r: Report): Schematic | null {
     } else W([70, 150], [250, 150]);
     P.push({ t: 'dot', x: 250, y: 150 });
     W([300, 190], [270, 190], [270, 325], [210, 325]);
+  } else if (topo === 'summing-non-inverting') {
+    // Sensor through its arm and the reference through the offset arm meet at the + input; the ground leg
+    // (or, for a follower, a wire) closes the loop from the − input.
+    W([70, 190], [80, 190]);
+    const plus = arm(parts, 'plus-input');
+    if (plus) P.push({ t: 'res', x: 130, y: 190, vertical: false, ...plus, trimmer: false });
+    if (follower) W([180, 190], [300, 190]);
+    else { W([180, 190], [204, 190]); W([216, 190], [300, 190]); legToGround(); }
+    P.push({ t: 'dot', x: 290, y: 190 });
+    refX = 290;
+    downArm(290, 190, arm(parts, 'offset'));
+  } else if (topo === 'summing-inverting') {
+    inputArm(150, arm(parts, 'input'), 250);
+    P.push({ t: 'dot', x: 250, y: 150 });
+    P.push({ t: 'dot', x: 215, y: 150 });
+    refX = 215;
+    W([215, 150], [215, 220]);
+    const off = arm(parts, 'offset');
+    if (off) P.push({ t: 'res', x: 215, y: 255, vertical: true, ...off, trimmer: false });
+    W([215, 290], [215, 325]);
+    W([300, 190], [290, 190], [290, 200]);
+    P.push({ t: 'ground', x: 290, y: 200 });
+  } else {
+    // Difference: one terminal through Rin to the − input, the other through R3 to the + input, R4 from the
+    // + input down to the reference. Which terminal goes where follows the polarity asked for.
+    const swapped = s.network.swapped === true;
+    W([40, 174], [40, 150], [70, 150]);
+    P.push({ t: 'text', x: 50, y: 145, text: swapped ? '+' : '−' });
+    P.push({ t: 'text', x: 50, y: 205, text: swapped ? '−' : '+' });
+    inputArm(150, arm(parts, 'input'), 250);
+    P.push({ t: 'dot', x: 250, y: 150 });
+    inputArm(190, arm(parts, 'plus-input'), 300);
+    P.push({ t: 'dot', x: 260, y: 190 });
+    refX = 260;
+    downArm(260, 190, arm(parts, 'offset'));
   }
   // Reference network below, its node at (210,300).
   const ref = s.network.reference;
@@ -98,21 +163,23 @@ export function schematic(r: Report): Schematic | null {
     const top = arm(parts, 'reference-top');
     const bot = arm(parts, 'reference-bottom');
     const zt = parts.find((p) => p.role === 'zero-trim');
-    P.push({ t: 'dot', x: 210, y: NODE_Y });
+    P.push({ t: 'dot', x: refX, y: NODE_Y });
     P.push({ t: 'rail', x: 120, y: 220, label: railTop });
     if (top) P.push({ t: 'res', x: 120, y: 255, vertical: true, ...top, trimmer: false });
     else W([120, 220], [120, 290]);
     if (zt) {
       P.push({ t: 'res', x: 120, y: 325, vertical: true, ref: zt.ref, value: formatEng(zt.ohms, 'Ω', 2), trimmer: true });
-      W([127, 325], [210, 325]);
-    } else W([120, 290], [120, 360]), W([120, NODE_Y], [210, NODE_Y]);
+      W([127, 325], [refX, 325]);
+    } else W([120, 290], [120, 360]), W([120, NODE_Y], [refX, NODE_Y]);
     if (bot) P.push({ t: 'res', x: 120, y: 395, vertical: true, ...bot, trimmer: false });
     else W([120, 360], [120, 430]);
     if (negLabel) P.push({ t: 'rail', x: 120, y: 430, label: negLabel }); else P.push({ t: 'ground', x: 120, y: 430 });
   } else if (ref.kind === 'rail') {
-    if (Math.abs(ref.voltage - ref.railBottom) < Math.abs(ref.voltage - ref.railTop)) {
-      if (negLabel) P.push({ t: 'rail', x: 210, y: NODE_Y, label: negLabel }); else P.push({ t: 'ground', x: 210, y: NODE_Y });
-    } else P.push({ t: 'rail', x: 210, y: NODE_Y, label: railTop });
+    // The tie goes to the nearest of the two rails and (on split rails) ground, as the circuit wires it.
+    const toGround = ref.voltage === 0 || (ref.railBottom === 0 && Math.abs(ref.voltage - ref.railBottom) < Math.abs(ref.voltage - ref.railTop));
+    if (toGround) P.push({ t: 'ground', x: refX, y: NODE_Y });
+    else if (Math.abs(ref.voltage - ref.railBottom) < Math.abs(ref.voltage - ref.railTop)) P.push({ t: 'rail', x: refX, y: NODE_Y, label: negLabel ?? '0 V' });
+    else P.push({ t: 'rail', x: refX, y: NODE_Y, label: railTop });
   }
   // Output network.
   const os = parts.find((p) => p.role === 'output-series');
@@ -132,7 +199,7 @@ export function schematic(r: Report): Schematic | null {
     W([420, 170], [600, 170]);
   }
   P.push({ t: 'terminal', x: 610, y: 170, label: 'To instrument' });
-  P.push({ t: 'text', x: 330, y: 240, text: `U1 ${inv ? 'inverting' : 'non-inverting'}` });
+  P.push({ t: 'text', x: 400, y: 440, text: `U1 ${STAGE_NAMES[topo]}` });
   return { width: 660, height: 450, prims: P };
 }
 

@@ -18,7 +18,7 @@ export function textReport(r: Report): string {
   h('Stage');
   out.push(`  ${r.choice.why}`);
   if (s && r.dc) {
-    out.push(`  Gain ${s.gain.toFixed(5)} (noise gain ${(s.ideal.topology === 'non-inverting' ? s.gain : 1 + s.gain).toFixed(5)}), reference ${f(s.reference, 'V', 5)}`);
+    out.push(`  Gain ${s.gain.toFixed(5)} (noise gain ${s.noiseGain.toFixed(5)}), reference ${f(s.reference, 'V', 5)}`);
     out.push(`  Scale ${f(r.dc.out[1], `V/${m}`, 5)} (target ${f(d.target.scale, `V/${m}`, 5)}, ${(s.scaleError * 100).toFixed(4)} % before trim), zero ${f(r.dc.out[0], 'V', 5)} (target ${f(d.target.zero, 'V', 5)})`);
     h('Parts');
     for (const p of s.parts) {

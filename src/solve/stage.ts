@@ -19,52 +19,21 @@
  *    the output span off with no trimmer to fix it, is a failure with what to change, never a caution.
  */
 import type { Design } from '../model/design.js';
-import { TRIMMER_VALUES, usualTolerance } from '../model/eseries.js';
+import { TRIMMER_VALUES } from '../model/eseries.js';
 import type { Warning as Finding } from '../model/findings.js';
-import type { Arm, Part, PartRole, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
+import type { Arm, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
 import type { SensorFront } from '../physics/sensors.js';
 import { aimedGain, loopFactor, noiseGain, peakRange, referenceFor, referenceLeverage, type IdealStage } from '../physics/topology.js';
 import { armTable, searchPairs, type PairCandidate, type PairResult } from './search.js';
 import { fixedDivider, nearestArm, noReference, railTie, referenceSpan, resetWiper, trimmedDivider } from './reference.js';
+import { COVERAGE, SETTABILITY, feedbackSensitivity, gainTrimHalfSpan, scaleStack, zeroStack } from './trimmers.js';
 import {
-  COVERAGE, SETTABILITY, TRIMMER_TOLERANCE, feedbackForCoverage, feedbackSensitivity, gainTrimHalfSpan, scaleStack, zeroStack,
-} from './trimmers.js';
+  ACCEPT_OF_TOLERANCE, FLOOR_OF_TOLERANCE, MAX_OVERSIZE, fmtOhms, gainOptions, partsOf, preferredFeedback, type GainOption, type SolvedStage,
+} from './common.js';
+import { solveOffsetStage } from './offset-stages.js';
 
-export interface SolvedStage {
-  ideal: IdealStage;
-  network: StageNetwork;
-  parts: Part[];
-  /** Gain alternatives for the reference network built, ranked; `chosen` is the index built. */
-  alternatives: PairCandidate[];
-  chosen: number;
-  /** The smallest gain error the search found for the network built (the optimum). */
-  bestError: number;
-  /** Ideal-op-amp gain and reference from the real parts, trimmers at their settings. */
-  gain: number;
-  reference: number;
-  /** Relative scale error before trimming at the op-amp pin, finite open-loop gain included (trimmers at their settings). */
-  scaleError: number;
-  /** Zero error before trimming at the op-amp pin, V (finite open-loop gain included). */
-  zeroError: number;
-  warnings: Finding[];
-}
-
-/** A built scale may differ from the target by at most this fraction of the resistor tolerance (1 % parts → 0.1 %). */
-export const ACCEPT_OF_TOLERANCE = 0.1;
-/** Errors below this fraction of the resistor tolerance rank as equal (then parts and preference decide). */
-export const FLOOR_OF_TOLERANCE = 0.05;
-/** A trimmer may cover at most this many times what it must (one 1-2-5 step and part rounding: 2.5 × 1.3), so its setting stays fine. */
-export const MAX_OVERSIZE = 3.25;
-
-/**
- * Preferred feedback resistance: 100 kΩ (10 kΩ–100 kΩ is the usual range for general-purpose op-amps: low
- * enough for noise and bias-current error, high enough not to load the output or drain a battery; common
- * practice), kept inside the window. It only ranks; the whole window is searched.
- */
-export function preferredFeedback(design: Design): number {
-  const { resistanceMin: lo, resistanceMax: hi } = design.target;
-  return Math.min(Math.max(100e3, lo * 10), hi / 2);
-}
+export type { SolvedStage } from './common.js';
+export { ACCEPT_OF_TOLERANCE, FLOOR_OF_TOLERANCE, MAX_OVERSIZE, preferredFeedback, partsOf } from './common.js';
 
 /** Ideal-op-amp gain, noise gain and reference of a realised network (trimmers at their settings). */
 export function networkGain(net: StageNetwork, sourceResistance: number): { gain: number; noiseGain: number; reference: number } {
@@ -95,16 +64,6 @@ function referenceAimed(ideal: IdealStage, g: number, front: SensorFront, a0: nu
   return referenceFor(ideal.topology, g, front.quiescent, ideal.pinZero / k);
 }
 
-interface GainOption {
-  /** Gain trimmer, Ω (0 = none). */
-  trim: number;
-  /** Window of the fixed feedback arm. */
-  aMin: number;
-  aMax: number;
-  /** Whether the trimmer covers the stack anywhere in the window. */
-  covers: boolean;
-}
-
 interface Candidate {
   network: StageNetwork;
   ranked: PairCandidate[];
@@ -127,8 +86,10 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   if (ideal.topology === 'non-inverting' && !ideal.needsReference) {
     const network: StageNetwork = { topology: 'non-inverting', feedback: null, gainTrim: null, leg: null, reference: noReference(design) };
     if (target.trim.gain || target.trim.zero) w('buffer-no-trim', 'info', 'A unity buffer has no gain or zero to trim; the sensor\'s own scale and zero pass straight through.');
-    return { ideal, network, parts: partsOf(network, design), alternatives: [], chosen: 0, bestError: 0, gain: 1, reference: NaN, scaleError: 0, zeroError: 0, warnings };
+    return { ideal, network, parts: partsOf(network, design), alternatives: [], chosen: 0, bestError: 0, gain: 1, noiseGain: 1, reference: NaN, scaleError: 0, zeroError: 0, warnings };
   }
+
+  if (ideal.topology !== 'non-inverting' && ideal.topology !== 'inverting') return solveOffsetStage(design, front, ideal);
 
   const table = armTable(target.series, target.resistanceMin, target.resistanceMax, target.arrangements);
   // Single parts beside a zero pot are usually enough (its wiper absorbs their rounding): offered as well.
@@ -139,7 +100,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   const fail = (code: string, message: string): SolvedStage => {
     w(code, 'fail', message);
     const network: StageNetwork = { topology: top, feedback: null, gainTrim: null, leg: null, reference: noReference(design) };
-    return { ideal, network, parts: [], alternatives: [], chosen: 0, bestError: NaN, gain: NaN, reference: NaN, scaleError: NaN, zeroError: NaN, warnings };
+    return { ideal, network, parts: [], alternatives: [], chosen: 0, bestError: NaN, gain: NaN, noiseGain: NaN, reference: NaN, scaleError: NaN, zeroError: NaN, warnings };
   };
   if (!Number.isFinite(gAim) || gAim <= 0) {
     return fail('gain-beyond-loop', `A gain of ${ideal.gain.toPrecision(4)} is beyond what the op-amp's open-loop gain (${design.opamp.openLoopGainDb} dB) can hold: use two stages or an op-amp with more open-loop gain.`);
@@ -159,23 +120,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   const tableMin = table.value[0]!, tableMax = table.value[table.size - 1]!;
   const rs = top === 'inverting' ? front.sourceResistance : 0;
 
-  // Gain trimmer options: each standard value with the band of fixed feedback arms over which it covers the
-  // stack (COVERAGE) without wasting resolution (at most MAX_OVERSIZE × that), and no larger than the arm.
-  const options: GainOption[] = [];
-  if (target.trim.gain) {
-    for (const t of TRIMMER_VALUES) {
-      const aMax = Math.min(feedbackForCoverage(t, sens, sStack), tableMax);
-      const aMin = Math.max(feedbackForCoverage(t, sens, sStack * MAX_OVERSIZE), t, tableMin);
-      if (aMax >= aMin) options.push({ trim: t, aMin, aMax, covers: true });
-    }
-    // None covers (little leverage near unity gain): the largest trimmer no larger than the preferred arm.
-    if (!options.length) {
-      const t = [...TRIMMER_VALUES].reverse().find((v) => v <= Math.max(rfPref, tableMin)) ?? TRIMMER_VALUES[0]!;
-      options.push({ trim: t, aMin: Math.max(t, tableMin), aMax: tableMax, covers: false });
-    }
-  } else {
-    options.push({ trim: 0, aMin: tableMin, aMax: tableMax, covers: true });
-  }
+  const options: GainOption[] = gainOptions(target.trim.gain, sens, sStack, tableMin, tableMax, rfPref);
 
   const prefFactor = (a: number) => 1 + Math.abs(Math.log10(a / rfPref));
   // Loading: the current the divider and the feedback network draw, against the op-amp's own quiescent
@@ -328,43 +273,5 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     w('zero-trim-off-centre', 'info', `The reference sits near a rail, so the zero trimmer starts at ${(net.reference.trim.setting * 100).toFixed(0)} % of its travel.`);
   }
   const real = realised(net, ideal, front, a0);
-  return { ideal, network: net, parts: partsOf(net, design), alternatives: best.ranked, chosen: Math.max(best.chosen, 0), bestError: best.best, gain: real.gain, reference: real.reference, scaleError: real.scaleError, zeroError: real.zeroError, warnings };
-}
-
-function fmtOhms(ohms: number): string {
-  const p = [[1e6, 'MΩ'], [1e3, 'kΩ'], [1, 'Ω']] as const;
-  const [m, u] = p.find(([m]) => ohms >= m) ?? [1, 'Ω'];
-  return `${+(ohms / m).toPrecision(3)} ${u}`;
-}
-
-/** Numbers the parts R1, R2 … and RV1, RV2 … in signal-path order. */
-export function partsOf(net: StageNetwork, design: Design): Part[] {
-  const { series, tolerance } = design.target;
-  const tol = tolerance ?? usualTolerance(series);
-  const parts: Part[] = [];
-  let r = 0, rv = 0;
-  const addArm = (arm: Arm | null, role: PartRole) => {
-    if (!arm) return;
-    for (const ohms of arm.parts) parts.push({ ref: `R${++r}`, role, kind: 'resistor', ohms, series, tolerance: tol, arrangement: arm.arrangement });
-  };
-  const addTrim = (t: Trimmer | null, role: PartRole) => {
-    if (!t) return;
-    parts.push({ ref: `RV${++rv}`, role, kind: 'trimmer', ohms: t.ohms, series: 'trimmer', tolerance: TRIMMER_TOLERANCE, arrangement: 'single', setting: t.setting });
-  };
-  addArm(net.feedback, 'feedback');
-  addTrim(net.gainTrim, 'gain-trim');
-  addArm(net.leg, net.topology === 'non-inverting' ? 'ground-leg' : 'input');
-  if (net.reference.kind === 'divider') {
-    addArm(net.reference.top, 'reference-top');
-    addTrim(net.reference.trim, 'zero-trim');
-    addArm(net.reference.bottom, 'reference-bottom');
-  }
-  // The burden belongs to the sensor but is a part to buy; its ref matches the circuit's element (RB).
-  if (design.sensor.type === 'current-transformer') parts.push({ ref: 'RB', role: 'burden', kind: 'resistor', ohms: design.sensor.burden, series, tolerance: tol, arrangement: 'single' });
-  const f = design.output.filter;
-  if (f) {
-    parts.push({ ref: `R${++r}`, role: 'output-series', kind: 'resistor', ohms: f.resistance, series, tolerance: tol, arrangement: 'single' });
-    if (f.capacitance > 0) parts.push({ ref: 'C1', role: 'output-capacitor', kind: 'capacitor', ohms: 0, farads: f.capacitance, series: 'capacitor', tolerance: 0.1, arrangement: 'single' });
-  }
-  return parts;
+  return { ideal, network: net, parts: partsOf(net, design), alternatives: best.ranked, chosen: Math.max(best.chosen, 0), bestError: best.best, gain: real.gain, noiseGain: networkGain(net, front.sourceResistance).noiseGain, reference: real.reference, scaleError: real.scaleError, zeroError: real.zeroError, warnings };
 }

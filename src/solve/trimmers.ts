@@ -8,7 +8,7 @@
 import type { Design, Topology } from '../model/design.js';
 import { TRIMMER_VALUES } from '../model/eseries.js';
 import type { SensorFront } from '../physics/sensors.js';
-import { referenceLeverage, referenceRails, type IdealStage } from '../physics/topology.js';
+import { referenceRails, type IdealStage } from '../physics/topology.js';
 
 /** Trim half-span must be at least this many times the worst-case stack it absorbs (our margin). */
 export const COVERAGE = 1.5;
@@ -52,13 +52,33 @@ export function feedbackForCoverage(trimOhms: number, sensitivity: number, need:
   return (RHEOSTAT_USABLE * trimOhms * sensitivity) / (COVERAGE * Math.max(need, 1e-12)) - trimOhms / 2;
 }
 
-/** Worst-case relative scale error the gain trim must absorb: sensor spread, resistor pair, regulated rail of a ratiometric sensor. */
+/**
+ * Worst-case relative scale error the gain trim must absorb: sensor spread, the resistors that set the scale,
+ * the regulated rail of a ratiometric sensor. The resistors' share (each ±tol, worst case, from the closed
+ * forms in src/physics/topology.ts): non-inverting 2·tol·(G−1)/G; summing non-inverting 2·tol·((K−1)/K + 1 − α);
+ * inverting, summing inverting and difference 2·tol.
+ */
 export function scaleStack(design: Design, front: SensorFront, ideal: IdealStage): number {
   const tol = design.target.tolerance;
-  const g = ideal.gain;
-  const resistors = ideal.topology === 'non-inverting' ? (2 * tol * (g - 1)) / g : 2 * tol;
+  const resistors = ideal.topology === 'non-inverting' ? 2 * tol * ideal.feedbackSensitivity
+    : ideal.topology === 'summing-non-inverting' ? 2 * tol * (ideal.feedbackSensitivity + 1 - ideal.split)
+    : 2 * tol;
   const rail = front.ratiometricSupply && design.supply.sensorRail === 'regulated' && design.supply.regulated ? design.supply.regulated.tolerance : 0;
   return front.sensitivityTolerance + resistors + rail;
+}
+
+/**
+ * How far the zero moves, V, per unit of fractional scale change made by the span trim: the non-inverting and
+ * inverting stages pivot about the reference, (Vref − Vq)·G; the summing stages scale the whole output, |zero|;
+ * the difference stage moves its sensor term and the reference's share, |m·Vq| + |Vref|.
+ */
+function zeroPerSpan(ideal: IdealStage, quiescent: number): number {
+  const ref = Number.isFinite(ideal.reference) ? ideal.reference : 0;
+  switch (ideal.topology) {
+    case 'non-inverting': case 'inverting': return Math.abs(ref - quiescent) * ideal.gain;
+    case 'summing-non-inverting': case 'summing-inverting': return Math.abs(ideal.pinZero);
+    case 'difference': return Math.abs(ideal.gain * quiescent) + Math.abs(ref);
+  }
 }
 
 /**
@@ -68,14 +88,12 @@ export function scaleStack(design: Design, front: SensorFront, ideal: IdealStage
  */
 export function zeroStack(design: Design, front: SensorFront, ideal: IdealStage, gainTrimSpan: number, feedbackOhms: number): number {
   const { opamp, target } = design;
-  const g = ideal.gain;
   const [lo, hi] = referenceRails(design);
   const vspan = hi - lo;
   const ref = Number.isFinite(ideal.reference) ? ideal.reference : 0;
   const r = (ref - lo) / vspan;
   const dividerTol = vspan * Math.max(r * (1 - r), 0) * 2 * target.tolerance;
   const railTol = design.supply.referenceRail === 'regulated' && design.supply.regulated ? Math.abs(ref - lo) * design.supply.regulated.tolerance : 0;
-  const fromSpanTrim = Math.abs(ref - front.quiescent) * g * gainTrimSpan;
-  return g * front.quiescentTolerance + ideal.noiseGain * opamp.offsetVoltage + Math.abs(opamp.biasCurrent) * feedbackOhms
-    + referenceLeverage(ideal.topology, g) * (dividerTol + railTol) + fromSpanTrim;
+  return ideal.gain * front.quiescentTolerance + ideal.noiseGain * opamp.offsetVoltage + Math.abs(opamp.biasCurrent) * feedbackOhms
+    + ideal.leverage * (dividerTol + railTol) + zeroPerSpan(ideal, front.quiescent) * gainTrimSpan;
 }

@@ -15,8 +15,15 @@ describe('edge designs', () => {
     expect(r.warnings.map((w) => w.code)).toContain('buffer-no-trim');
     expect(finite(reportJson(r))).toBe(true);
   });
-  it('a gain below 1 with the sensor\'s polarity explains how to get there', () => {
+  it('a gain below 1 with the sensor\'s polarity is built by the summing non-inverting stage at the scale asked', () => {
     const r = analyse(design((d) => { d.target.scale = 0.005; d.target.zero = 2.5; }), { spreadTrials: 0 });
+    expect(r.stage!.ideal.topology).toBe('summing-non-inverting');
+    // The circuit's own DC solution (MNA), not the solver's closed form: scale and zero within 0.1 % of the span.
+    expect(Math.abs(r.dc!.out[1] / 0.005 - 1)).toBeLessThan(1e-3);
+    expect(Math.abs(r.dc!.out[0] - 2.5)).toBeLessThan(1e-3 * 0.005 * 40);
+  });
+  it('a gain below 1 asked of the non-inverting stage explains how to get there', () => {
+    const r = analyse(design((d) => { d.target.scale = 0.005; d.target.zero = 2.5; d.target.topology = 'non-inverting'; }), { spreadTrials: 0 });
     expect(r.stage).toBeNull();
     expect(r.warnings.find((w) => w.code === 'guidance')!.message).toMatch(/reverse the conductor/i);
     expect(r.verdicts[0]!.level).toBe('fail');

@@ -50,4 +50,31 @@ export const CROSSCHECK_DESIGNS: Array<[string, Design]> = [
     d.target = { ...d.target, scale: 0.2, zero: 0, topology: 'non-inverting', trim: { gain: false, zero: false } };
     d.output = { filter: null, load: { resistance: 1e6, capacitance: 15e-12 } };
   })],
+  // The stages that sum an offset through their own resistor, and the difference stage (two designs each).
+  ['summing non-inverting: low-side shunt on 5 V, zero 0.5 V above ground, trims', from('generic-sensor', (d) => {
+    d.sensor = { type: 'shunt', measurand: 'A', resistance: 0.01, powerRating: 5 };
+    d.supply = { positive: 5, negative: 0 }; d.opamp = arche('cmos-rail-to-rail');
+    d.target = { ...d.target, scale: 0.2, zero: 0.5, range: [-2, 20] };
+  })],
+  ['summing non-inverting: attenuating a 12.5 mV/A sensor to 5 mV/A, no trims', from('generic-sensor', (d) => {
+    d.target = { ...d.target, scale: 0.005, zero: 2.5, trim: { gain: false, zero: false } };
+  })],
+  ['summing inverting: ±5 V, zero −2 V for a positive sensor swing', from('generic-sensor', (d) => {
+    d.supply = { positive: 5, negative: -5 }; d.opamp = arche('cmos-rail-to-rail');
+    d.target = { ...d.target, scale: -0.1, zero: -2, range: [-10, 10], topology: 'summing-inverting' };
+  })],
+  ['summing inverting: ±12 V, no trims, RC output filter', from('generic-sensor', (d) => {
+    d.supply = { positive: 12, negative: -12 };
+    d.target = { ...d.target, scale: -0.2, zero: -3, range: [-20, 20], topology: 'summing-inverting', trim: { gain: false, zero: false } };
+    d.output = { filter: { resistance: 470, capacitance: 1e-9 }, load: { resistance: 1e6, capacitance: 15e-12 } };
+  })],
+  ['difference: bridge with a 2.5 V common mode on 9 V', from('generic-sensor', (d) => {
+    d.sensor.commonMode = 2.5; d.sensor.quiescent = 0; d.sensor.sourceResistance = 1000; d.sensor.outputMin = -5; d.sensor.outputMax = 5;
+    d.target = { ...d.target, scale: 0.1, zero: 4.5, range: [-20, 20] };
+  })],
+  ['difference: high-side shunt at 12 V on 15 V, negative scale, no trims', from('generic-sensor', (d) => {
+    d.sensor = { type: 'shunt', measurand: 'A', resistance: 0.01, powerRating: 5, commonMode: 12 };
+    d.supply = { positive: 15, negative: 0 };
+    d.target = { ...d.target, scale: -0.1, zero: 12, range: [0, 10], topology: 'difference', trim: { gain: false, zero: false } };
+  })],
 ];

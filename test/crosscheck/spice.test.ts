@@ -13,6 +13,7 @@ import { analyse, type Report } from '../../src/analysis/report.js';
 import { spiceNetlist } from '../../src/present/spice.js';
 import { transferAt } from '../../src/analysis/analysis.js';
 import { CROSSCHECK_DESIGNS } from './designs.js';
+import { TOPOLOGIES } from '../../src/model/design.js';
 
 const hasNgspice = spawnSync('sh', ['-c', 'command -v ngspice'], { stdio: 'ignore' }).status === 0;
 if (!hasNgspice && process.env.CI === 'true') throw new Error('ngspice is required under CI=true (apt-get install -y ngspice)');
@@ -75,10 +76,11 @@ describe.skipIf(!hasNgspice)('cross-check against ngspice', () => {
     for (const [k, v] of Object.entries(worst)) console.log(`  ${k}: ${v.value.toPrecision(3)} (${v.design})`);
   });
 
-  it('has at least 12 designs covering both topologies, every sensor type, single and split supplies', () => {
+  it('has at least 18 designs covering every stage (two of each new one), every sensor type, single and split supplies', () => {
     const reps = CROSSCHECK_DESIGNS.map(([, d]) => analyse(d, { spreadTrials: 0 }));
-    expect(reps.length).toBeGreaterThanOrEqual(12);
-    expect(new Set(reps.map((r) => r.stage?.ideal.topology))).toEqual(new Set(['non-inverting', 'inverting']));
+    expect(reps.length).toBeGreaterThanOrEqual(18);
+    for (const t of ['summing-non-inverting', 'summing-inverting', 'difference']) expect(reps.filter((r) => r.stage?.ideal.topology === t).length, t).toBeGreaterThanOrEqual(2);
+    expect(new Set(reps.map((r) => r.stage?.ideal.topology))).toEqual(new Set(TOPOLOGIES));
     expect(new Set(reps.map((r) => r.design.sensor.type)).size).toBe(4);
     expect(reps.some((r) => r.design.supply.negative < 0)).toBe(true);
     expect(reps.some((r) => r.design.supply.negative === 0)).toBe(true);

@@ -48,8 +48,19 @@ describe('idealStage and chooseTopology', () => {
     expect(text).toMatch(/non-inverting stage/);
     expect(text).not.toMatch(/rail-to-rail/);
   });
-  it('a gain below 1 with the same polarity fits neither and gives guidance', () => {
+  it('a gain below 1 with the same polarity is met by the summing non-inverting stage, which attenuates', () => {
     const d = design((x) => { x.target.scale = 0.005; x.target.zero = 2.5; });
+    const c = chooseTopology(d, sensorFront(d.sensor, d));
+    expect(c.chosen!.topology).toBe('summing-non-inverting');
+    // m = 0.005/0.0125 = 0.4, b = 2.5 − 0.4·2.5 = 1.5 V; from the 9 V rail K = 0.4 + 1.5/9 < 1, so the
+    // reference is lowered to give K = 1.25 − m/4 = 1.15, α = m/K (closed form in src/physics/topology.ts).
+    expect(c.chosen!.gain).toBeCloseTo(0.4, 12);
+    expect(c.chosen!.noiseGain).toBeCloseTo(1.15, 12);
+    expect(c.chosen!.split).toBeCloseTo(0.4 / 1.15, 12);
+    expect(c.chosen!.reference).toBeCloseTo(1.5 / (1.15 - 0.4), 12);
+  });
+  it('a gain below 1 with the same polarity asked of the non-inverting stage fits nothing and gives guidance', () => {
+    const d = design((x) => { x.target.scale = 0.005; x.target.zero = 2.5; x.target.topology = 'non-inverting'; });
     const c = chooseTopology(d, sensorFront(d.sensor, d));
     expect(c.chosen).toBeNull();
     expect(c.guidance.join(' ')).toMatch(/reverse the conductor/i);

@@ -14,7 +14,7 @@ describe('text report and key figures', () => {
     for (const row of keyFigures(r)) expect(`${row.value} ${row.note ?? ''}`).not.toMatch(/NaN|Infinity/);
   });
   it('a design with no stage still prints its verdict, guidance and the cautions', () => {
-    const t = textReport(analyse(designFrom('generic-sensor', (x) => { x.target.scale = 0.005; x.target.zero = 2.5; }), { spreadTrials: 0 }));
+    const t = textReport(analyse(designFrom('generic-sensor', (x) => { x.target.scale = 0.005; x.target.zero = 2.5; x.target.topology = 'non-inverting'; }), { spreadTrials: 0 }));
     expect(t).toMatch(/\[FAIL\]/);
     expect(t).toMatch(/reverse the conductor/i);
     expect(t).toMatch(/insulated conductors/);
