@@ -234,6 +234,8 @@ describe('the app in Chromium', () => {
       return text.join('\n');
     });
     expect(await all()).not.toMatch(/NaN|Infinity/);
+    // The summing stage now attenuates; asked for a plain non-inverting stage, 5 mV/A from 12.5 mV/A has none.
+    await page.selectOption('select[data-path="target.topology"]', { label: 'Non-inverting' });
     await typeInto(page, 'target.scale', '5 mV/A');
     await expect.poll(() => verdictText(page)).toMatch(/No design/);
     expect(await page.locator('gw-app').locator('li[data-code="guidance"]').first().innerText()).toMatch(/reverse the conductor/i);

@@ -199,6 +199,8 @@ describe('the build sheet tells the truth', () => {
   it('a failing design prints its verdict and findings first and is marked failed in the head every page repeats', async () => {
     const { page } = await watchedPage(h);
     await openDemo(page, 'generic-sensor');
+    // A non-inverting stage cannot attenuate: 5 mV/A from a 12.5 mV/A sensor has no stage.
+    await page.selectOption('select[data-path="target.topology"]', { label: 'Non-inverting' });
     await typeInto(page, 'target.scale', '5 mV/A');
     await expect.poll(() => verdictText(page)).toMatch(/No design/);
     await page.emulateMedia({ media: 'print' });
@@ -297,6 +299,7 @@ describe('access for everyone', () => {
     await openDemo(page, 'generic-sensor');
     const live = page.locator('[aria-live="polite"]#verdict-live');
     await expect.poll(() => live.textContent()).toMatch(/^Verdict: 0 fail/);
+    await page.selectOption('select[data-path="target.topology"]', { label: 'Non-inverting' });
     await typeInto(page, 'target.scale', '5 mV/A');
     await expect.poll(() => live.textContent()).toMatch(/^Verdict: 1 fail.*first: No design/);
     await page.context().close();
