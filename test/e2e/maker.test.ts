@@ -190,7 +190,7 @@ describe('calibration steps follow the sensor', () => {
     const cal = await panel(page, 'Calibration').innerText();
     expect(cal).toMatch(/turns of insulated wire through the core/);
     expect(cal).toMatch(/zero and span do not interact/);
-    expect(cal).toMatch(/set RV1 \(gain trim\) to \d+ %/);
+    expect(cal).toMatch(/set RV1 \(span trimmer\) to \d+ %/);
     await page.context().close();
   });
 });
@@ -231,7 +231,7 @@ describe('the build sheet tells the truth', () => {
     expect(text).toMatch(/Error budget at the range end/);
     expect(text).toMatch(/op-amp offset voltage/);
     expect(text).toMatch(/Trimmer start positions/);
-    expect(text).toMatch(/RV1\s+100 kΩ\s+gain trim\s+\d+ %/);
+    expect(text).toMatch(/RV1\s+100 kΩ\s+span trimmer\s+\d+ %/);
     // Label type in the schematic prints at 6 pt or more (11 drawing units scaled by the drawn width).
     const pt = await sheet.locator('gw-schematic').evaluate((el) => {
       const svg = el.shadowRoot!.querySelector('svg')!;

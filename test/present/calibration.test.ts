@@ -24,7 +24,7 @@ describe('calibration', () => {
     // No turns for a sensor with its own current path: 2 A from the bench → the output rises by scale × 2 A.
     expect(r.calibration[span]!.expect).toBeCloseTo(r.dc!.out[1] * 2, 9);
     expect(r.calibration[span]!.text).toMatch(/zero and span do not interact/);
-    expect(r.calibration.map((c) => c.text).join(' ')).toMatch(/set RV\d \(gain trim\) to \d+ %/);
+    expect(r.calibration.map((c) => c.text).join(' ')).toMatch(/set RV\d \(span trimmer\) to \d+ %/);
   });
   it('a shunt is never wound through a probe nor clamped; a DC design on a split supply checks the reverse', () => {
     const r = analyse(designFrom('generic-sensor', shuntOnSplitSupply), { spreadTrials: 0 });

@@ -9,7 +9,7 @@ describe('text report and key figures', () => {
   it.each(DEMOS.map((d) => d.id))('%s: every section, no NaN or Infinity', (id) => {
     const r = analyse(designFrom(id), { spreadTrials: 100 });
     const t = textReport(r);
-    for (const h of ['Verdict', 'Stage', 'Parts', 'Range and clipping', 'Speed', 'Noise', 'DC error budget', 'Supply', 'Calibration', 'Safety']) expect(t).toContain(h);
+    for (const h of ['Verdict', 'Stage', 'Parts', 'Range and clipping', 'Bandwidth', 'Noise', 'DC error budget', 'Supply', 'Calibration', 'Safety']) expect(t).toContain(h);
     expect(t).not.toMatch(/NaN|Infinity/);
     for (const row of keyFigures(r)) expect(`${row.value} ${row.note ?? ''}`).not.toMatch(/NaN|Infinity/);
   });
