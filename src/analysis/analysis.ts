@@ -83,7 +83,10 @@ export interface ClipResult {
   headroom: { low: number; high: number; lowPercent: number; highPercent: number };
   /** Outputs at the range ends, V. */
   rangeOutput: [number, number];
+  /** Whether zero measurand lies inside the linear region. */
   linearAtZero: boolean;
+  /** Whether any measurand is linear at all (false: measurandLow = measurandHigh = 0, named by the failing limit). */
+  linear: boolean;
 }
 
 /** Interval of x where a + b·x stays within [lo, hi]. */
@@ -110,16 +113,20 @@ export function clipping(design: Design, front: SensorFront, dc: DcPoint, positi
   }
   for (const l of front.limits) add(l.kind, [l.low, l.high], l.why);
 
+  // The linear region is where every limit holds at once: the intersection of their intervals, whether or not
+  // it contains zero (a one-sided range such as 0.1…10 A with the output at a rail at zero is a normal design).
   let xLo = -Infinity, xHi = Infinity, firstLow: ClipCause | null = null, firstHigh: ClipCause | null = null;
-  let linearAtZero = true;
+  let empty = false;
   for (const l of limits) {
-    if (!Number.isFinite(l.low) && Number.isNaN(l.low)) { linearAtZero = false; continue; }
-    if (l.low > 0 || l.high < 0) linearAtZero = false;
+    if (Number.isNaN(l.low) || Number.isNaN(l.high)) { empty = true; firstLow = firstHigh = l.cause; continue; }
     if (l.low > xLo) { xLo = l.low; firstLow = l.cause; }
     if (l.high < xHi) { xHi = l.high; firstHigh = l.cause; }
   }
-  if (!linearAtZero) {
-    const bad = limits.find((l) => Number.isNaN(l.low) || l.low > 0 || l.high < 0)!;
+  if (!empty && xLo > xHi) empty = true;
+  const linearAtZero = !empty && xLo <= 0 && xHi >= 0;
+  if (empty) {
+    // No measurand keeps every limit: the region is a point, at zero, named after the limit that fails there.
+    const bad = limits.find((l) => Number.isNaN(l.low) || l.low > 0 || l.high < 0) ?? limits.find((l) => l.cause === firstLow)!;
     firstLow = firstHigh = bad.cause;
     xLo = xHi = 0;
   }
@@ -141,7 +148,7 @@ export function clipping(design: Design, front: SensorFront, dc: DcPoint, positi
   return {
     measurandLow: xLo, measurandHigh: xHi, outputLow: oLo, outputHigh: oHi, firstLow, firstHigh, first, limits, rangePeak,
     headroom: { low: lowFix, high: hHigh, lowPercent: (lowFix / span) * 100, highPercent: (hHigh / span) * 100 },
-    rangeOutput: [yA, yB], linearAtZero,
+    rangeOutput: [yA, yB], linearAtZero, linear: !empty,
   };
 }
 

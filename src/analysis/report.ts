@@ -125,9 +125,10 @@ function findings(r: Report): Warning[] {
   const clip = r.clip!, sp = r.speed!;
   const [a, b] = clip.rangePeak;
   if (d.target.signal === 'ac-rms') w.push({ code: 'ac-peak', level: 'info', message: `The range is rms: headroom is checked at the sine peak, ±${f3(Math.max(Math.abs(a), Math.abs(b)), m)} (√2 × rms).` });
-  if (!clip.linearAtZero) {
-    w.push({ code: 'not-linear-at-zero', level: 'fail', message: `At zero ${m} the stage is already out of its linear region (${clip.limits.find((l) => l.cause === clip.first)?.why ?? 'a limit is exceeded'}).` });
+  if (!clip.linear) {
+    w.push({ code: 'not-linear-at-zero', level: 'fail', message: `No ${m} value keeps the stage linear: ${clip.limits.find((l) => l.cause === clip.first)?.why ?? 'a limit is exceeded'}.` });
   } else {
+    if (!clip.linearAtZero) w.push({ code: 'zero-outside-linear', level: clip.measurandLow <= a && clip.measurandHigh >= b ? 'info' : 'caution', message: `At zero ${m} the stage sits outside its linear region, which runs from ${f3(clip.measurandLow, m)} to ${f3(clip.measurandHigh, m)}${clip.measurandLow <= a && clip.measurandHigh >= b ? ' and covers the range' : ''}.` });
     const fix = (cause: string | null) => cause === 'opamp-output' || cause === 'opamp-current'
       ? ' To fit, move the zero (target.zero) towards the middle of the swing, lower the scale, use a split supply, or an op-amp whose output swings closer to the rails.'
       : cause === 'opamp-input' ? ' An op-amp whose input range includes the rail, a lower sensor offset, or the inverting stage (its inputs sit still) would fit.'
@@ -255,7 +256,7 @@ export function verdictsOf(r: Report): Verdict[] {
   }
   const c = r.clip;
   const [a, b] = c.rangePeak;
-  const inRange = c.linearAtZero && c.measurandLow <= a && c.measurandHigh >= b;
+  const inRange = c.linear && c.measurandLow <= a && c.measurandHigh >= b;
   v.push({
     level: inRange ? (Math.min(c.headroom.lowPercent, c.headroom.highPercent) < 5 ? 'caution' : 'pass') : 'fail',
     title: inRange ? 'Covers the range without clipping' : 'Clips inside the range',

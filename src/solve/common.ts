@@ -62,10 +62,10 @@ export interface GainOption {
 /**
  * The gain-trimmer options: each standard value with the band of fixed feedback arms over which it covers the
  * stack (COVERAGE) without wasting resolution (at most MAX_OVERSIZE × that), and no larger than the arm; when
- * none covers (little leverage near unity gain), the largest trimmer no larger than the preferred arm. Without a
+ * none covers (little leverage near unity gain), every trimmer and none, marked short. Without a
  * gain trim, one option: no trimmer, the whole window.
  */
-export function gainOptions(wantTrim: boolean, sensitivity: number, stack: number, tableMin: number, tableMax: number, rfPref: number): GainOption[] {
+export function gainOptions(wantTrim: boolean, sensitivity: number, stack: number, tableMin: number, tableMax: number): GainOption[] {
   if (!wantTrim) return [{ trim: 0, aMin: tableMin, aMax: tableMax, covers: true }];
   const options: GainOption[] = [];
   for (const t of TRIMMER_VALUES) {
@@ -74,8 +74,10 @@ export function gainOptions(wantTrim: boolean, sensitivity: number, stack: numbe
     if (aMax >= aMin) options.push({ trim: t, aMin, aMax, covers: true });
   }
   if (!options.length) {
-    const t = [...TRIMMER_VALUES].reverse().find((v) => v <= Math.max(rfPref, tableMin)) ?? TRIMMER_VALUES[0]!;
-    options.push({ trim: t, aMin: Math.max(t, tableMin), aMax: tableMax, covers: false });
+    // None covers: every trimmer no larger than its arm, and no trimmer at all, each marked short (the search
+    // then takes whichever lands the gain, and the report says the trim falls short).
+    for (const t of TRIMMER_VALUES) if (t <= tableMax) options.push({ trim: t, aMin: Math.max(t, tableMin), aMax: tableMax, covers: false });
+    options.push({ trim: 0, aMin: tableMin, aMax: tableMax, covers: false });
   }
   return options;
 }

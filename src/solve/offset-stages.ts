@@ -22,7 +22,7 @@ import { armTable, searchPairs, type ArmTable, type PairCandidate, type PairResu
 import { dividerAt, fixedDivider, nearestArm, noReference, railTie, referenceSpan, trimmedDivider, WIPER_MAX, WIPER_MIN } from './reference.js';
 import { COVERAGE, SETTABILITY, gainTrimHalfSpan, scaleStack, zeroStack } from './trimmers.js';
 import { ACCEPT_OF_TOLERANCE, FLOOR_OF_TOLERANCE, MAX_OVERSIZE, fmtOhms, gainOptions, partsOf, preferredFeedback, type GainOption, type SolvedStage } from './common.js';
-import { networkTransfer } from './transfer.js';
+import { networkTransfer, openLoopOf } from './transfer.js';
 
 interface Candidate {
   network: StageNetwork;
@@ -53,7 +53,8 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
   const table = armTable(target.series, target.resistanceMin, target.resistanceMax, target.arrangements);
   if (table.size === 0) return fail('gain-unrealisable', `No ${target.series} part lies within the resistance window: widen it.`);
   const singles = target.arrangements.includes('single') ? armTable(target.series, target.resistanceMin, target.resistanceMax, ['single']) : table;
-  const a0 = 10 ** (design.opamp.openLoopGainDb / 20);
+  const ol = openLoopOf(design);
+  const a0 = ol.a0;
   const tol = target.tolerance;
   const floor = tol * FLOOR_OF_TOLERANCE;
   const accept = tol * ACCEPT_OF_TOLERANCE;
@@ -66,7 +67,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
   const b = ideal.offset;
   const outSpan = Math.max(Math.abs(ideal.pinScale * (xHi - xLo)), 1e-9);
   const sStack = scaleStack(design, front, ideal);
-  const options = ideal.feedbackRatio > 0 ? gainOptions(target.trim.gain, ideal.feedbackSensitivity, sStack, tableMin, tableMax, rfPref) : [{ trim: 0, aMin: tableMin, aMax: tableMax, covers: true }];
+  const options = ideal.feedbackRatio > 0 ? gainOptions(target.trim.gain, ideal.feedbackSensitivity, sStack, tableMin, tableMax) : [{ trim: 0, aMin: tableMin, aMax: tableMax, covers: true }];
   const zOut = zeroStack(design, front, ideal, target.trim.gain ? sStack : 0, rfPref);
   const iq = Math.max(design.opamp.supplyCurrent, 1e-6);
   const outMax = Math.max(Math.abs(ideal.pinZero), Math.abs(ideal.pinZero + ideal.pinScale * xLo), Math.abs(ideal.pinZero + ideal.pinScale * xHi), 1e-3);
@@ -120,7 +121,8 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
   // rail the reference sits on, else fixed dividers.
   if (target.trim.zero) dividers(true);
   if (!refs.length && tie) addRef(tie);
-  if (!refs.length) dividers(false);
+  // Fixed dividers beside a wire give the summing stages a free reference voltage, so both ratios can land.
+  if (!target.trim.zero || !refs.length) dividers(false);
   if (!refs.length) {
     return fail('reference-unrealisable', `No reference network of ${target.series} parts within ${fmtOhms(target.resistanceMin)}…${fmtOhms(target.resistanceMax)} gives the ${ideal.reference.toPrecision(3)} V this stage needs: widen the resistance window or choose a finer series.`);
   }
@@ -145,7 +147,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
       if (!solved) return;
       net = solved;
     }
-    const t = networkTransfer(net, front, a0);
+    const t = networkTransfer(net, front, ol);
     const scaleError = t.scale / m - 1;
     const zeroError = t.scale * front.quiescent + t.offset - ideal.pinZero;
     if (!Number.isFinite(scaleError) || !Number.isFinite(zeroError)) return;
@@ -168,7 +170,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
       return { ...net, reference: { ...ref, voltage: d.voltage, thevenin: d.thevenin, trim: { ...ref.trim!, setting: s } } };
     };
     const err = (s: number) => {
-      const tr = networkTransfer(at(s), front, a0);
+      const tr = networkTransfer(at(s), front, ol);
       return tr.scale * front.quiescent + tr.offset - ideal.pinZero;
     };
     let s0 = WIPER_MIN, s1 = WIPER_MAX;
@@ -227,7 +229,9 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
         const kAim = kk0 / (1 - kk0 / a0);
         if (!(kAim >= 1 - 1e-9)) continue;
         const follower = kAim < 1 + 1e-6;
-        const feedbacks: Array<PairCandidate | null> = follower ? [null] : feedbackSearch(`${vr}`, opt, { cA: half, cB: 0, k: kAim - 1, m: (kAim - 1) / kAim }).ranked;
+        // K's error moves the scale and, with no pot, the zero's offset part in proportion.
+        const kLever = ((kAim - 1) / kAim) * (1 + (target.trim.zero ? 0 : Math.abs(b) / outSpan));
+        const feedbacks: Array<PairCandidate | null> = follower ? [null] : feedbackSearch(`${vr}`, opt, { cA: half, cB: 0, k: kAim - 1, m: kLever }).ranked;
         const fres = follower ? [] : (feedbacks as PairCandidate[]);
         for (const fb of feedbacks) {
           if (follower && opt.trim) continue;
@@ -242,7 +246,9 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
           const r2Lo = Math.max(tableMin, (tableMin + rsPlus) * rho * 1.15 - rth), r2Hi = Math.min(tableMax, (tableMax + rsPlus) * rho / 1.15 - rth);
           if (!(r2Hi >= r2Lo)) continue;
           const pref = Math.min(Math.max(rfPref / 2, 10 * rth, r2Lo * 1.1), r2Hi / 1.1);
-          const sres = search(table, { cA: rth, cB: rsPlus, k: alpha / (1 - alpha), m: 1 - alpha }, pref, Math.max(tableMin, pref / 1.1), Math.min(tableMax, pref * 1.1), 2);
+          // A ratio error ε moves the scale by (1−α)·ε and, with no pot to absorb it, the zero by α·|b|·ε.
+          const zeroLever = ref.trim ? 0 : (alpha * Math.abs(b)) / outSpan;
+          const sres = search(table, { cA: rth, cB: rsPlus, k: alpha / (1 - alpha), m: 1 - alpha + zeroLever }, pref, Math.max(tableMin, pref / 1.1), Math.min(tableMax, pref * 1.1), 2);
           for (const sp of sres.ranked) {
             const network: StageNetwork = { topology: top, feedback: fb ? fb.a : null, gainTrim: fb ? gainTrimOf(opt, fb.a) : null, leg: fb ? fb.b : null, reference: ref, plusArm: sp.b, offsetArm: sp.a };
             consider(network, opt, fres, fb);
@@ -291,13 +297,15 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
     return fail('scale-off-target', `The nearest network of ${target.series} parts gives a scale ${(found.scaleError * 100).toFixed(3)} % off target, more than the ${(accept * 100).toFixed(2)} % a ${(tol * 100).toFixed(1)} % part tolerance allows: widen the resistance window, allow two-part arms, or choose a finer series.`);
   }
   if (!found.network.reference.trim && Math.abs(found.zeroError) > accept * outSpan) {
-    return fail('zero-off-target', `The nearest networks of ${target.series} parts put the zero ${(found.zeroError * 1e3).toPrecision(3)} mV off at the output: allow a zero trimmer or two-part arms, or choose a finer series.`);
+    return fail('zero-off-target', `The nearest networks of ${target.series} parts put the zero ${(found.zeroError * 1e3).toPrecision(3)} mV off at the output, more than 0.1 % of the ${(outSpan * 1e3).toPrecision(3)} mV the range spans there${target.trim.zero ? ', and no zero trimmer can centre on a reference this near a rail' : ''}: ${target.trim.zero ? 'move the zero away from where the reference meets the rail, or widen the range' : 'allow a zero trimmer'}, allow two-part arms, or choose a finer series.`);
   }
   const net = found.network;
   if (net.gainTrim && !found.opt.covers) {
     w('gain-trim-short', 'caution', `The gain trimmer covers ±${(net.gainTrim.halfSpan * 100).toFixed(2)} %, less than ${COVERAGE} × the ±${(sStack * 100).toFixed(2)} % worst-case stack.`);
   }
-  if (target.trim.gain && !net.gainTrim) {
+  if (target.trim.gain && !net.gainTrim && net.feedback) {
+    w('gain-trim-short', 'caution', 'No standard gain trimmer fits this feedback network, so the span is set by the parts alone: calibrate the scale at the instrument.');
+  } else if (target.trim.gain && !net.gainTrim) {
     w('buffer-no-trim', 'info', 'The stage is a follower of the summed input (K = 1): there is no feedback arm to trim the span with; the sensor\'s spread passes through.');
   }
   if (target.trim.zero && !net.reference.trim) {
@@ -307,7 +315,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
   } else if (net.reference.trim && Math.abs(net.reference.trim.setting - 0.5) > 0.3) {
     w('zero-trim-off-centre', 'info', `The reference sits near a rail, so the zero trimmer starts at ${(net.reference.trim.setting * 100).toFixed(0)} % of its travel.`);
   }
-  const t = networkTransfer(net, front, a0);
+  const t = networkTransfer(net, front, ol);
   const chosen = found.pick ? Math.max(found.ranked.findIndex((c) => c.a.ohms === found.pick!.a.ohms && c.b.ohms === found.pick!.b.ohms), 0) : 0;
   return {
     ideal, network: net, parts: partsOf(net, design), alternatives: found.ranked, chosen, bestError: Math.abs(found.scaleError),

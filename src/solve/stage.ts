@@ -31,6 +31,7 @@ import {
   ACCEPT_OF_TOLERANCE, FLOOR_OF_TOLERANCE, MAX_OVERSIZE, fmtOhms, gainOptions, partsOf, preferredFeedback, type GainOption, type SolvedStage,
 } from './common.js';
 import { solveOffsetStage } from './offset-stages.js';
+import { networkTransfer, openLoopOf, type OpenLoop } from './transfer.js';
 
 export type { SolvedStage } from './common.js';
 export { ACCEPT_OF_TOLERANCE, FLOOR_OF_TOLERANCE, MAX_OVERSIZE, preferredFeedback, partsOf } from './common.js';
@@ -48,19 +49,15 @@ export function networkGain(net: StageNetwork, sourceResistance: number): { gain
   return { gain: g, noiseGain: 1 + g, reference: net.reference.voltage };
 }
 
-/** What the closed loop really gives for a network: scale and zero at the pin with Black's factor, relative to the ideal stage. */
-function realised(net: StageNetwork, ideal: IdealStage, front: SensorFront, a0: number): { gain: number; reference: number; scaleError: number; zeroError: number } {
-  const n = networkGain(net, front.sourceResistance);
-  const k = loopFactor(n.noiseGain, a0);
-  const lev = referenceLeverage(ideal.topology, n.gain);
-  // Non-inverting: Vout = k(G·Vs − (G−1)·Vref); inverting: Vout = k((1+G)·Vp − G·Vs).
-  const zero = ideal.topology === 'non-inverting' ? k * (n.gain * front.quiescent - lev * n.reference) : k * (lev * n.reference - n.gain * front.quiescent);
-  return { gain: n.gain, reference: n.reference, scaleError: (k * n.gain) / ideal.gain - 1, zeroError: zero - ideal.pinZero };
+/** What the closed loop really gives for a network: scale and zero at the pin (src/solve/transfer.ts), relative to the ideal stage. */
+function realised(net: StageNetwork, ideal: IdealStage, front: SensorFront, ol: OpenLoop): { gain: number; reference: number; scaleError: number; zeroError: number } {
+  const t = networkTransfer(net, front, ol);
+  const m = ideal.pinScale / front.sensitivity;
+  return { gain: t.gain, reference: net.reference.kind === 'none' ? NaN : net.reference.voltage, scaleError: t.scale / m - 1, zeroError: t.scale * front.quiescent + t.offset - ideal.pinZero };
 }
 
-/** The reference that puts the zero where wanted for an ideal-op-amp gain G with Black's factor applied. */
-function referenceAimed(ideal: IdealStage, g: number, front: SensorFront, a0: number): number {
-  const k = loopFactor(noiseGain(ideal.topology, g), a0);
+/** The reference that puts the zero where wanted for an ideal-op-amp gain G with a loop factor k applied. */
+function referenceAimed(ideal: IdealStage, g: number, front: SensorFront, k: number): number {
   return referenceFor(ideal.topology, g, front.quiescent, ideal.pinZero / k);
 }
 
@@ -94,7 +91,8 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   const table = armTable(target.series, target.resistanceMin, target.resistanceMax, target.arrangements);
   // Single parts beside a zero pot are usually enough (its wiper absorbs their rounding): offered as well.
   const singles = target.arrangements.includes('single') ? armTable(target.series, target.resistanceMin, target.resistanceMax, ['single']) : table;
-  const a0 = 10 ** (design.opamp.openLoopGainDb / 20);
+  const ol = openLoopOf(design);
+  const a0 = ol.a0;
   const top = ideal.topology;
   const gAim = aimedGain(top, ideal.gain, a0);
   const fail = (code: string, message: string): SolvedStage => {
@@ -120,7 +118,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   const tableMin = table.value[0]!, tableMax = table.value[table.size - 1]!;
   const rs = top === 'inverting' ? front.sourceResistance : 0;
 
-  const options: GainOption[] = gainOptions(target.trim.gain, sens, sStack, tableMin, tableMax, rfPref);
+  const options: GainOption[] = gainOptions(target.trim.gain, sens, sStack, tableMin, tableMax);
 
   const prefFactor = (a: number) => 1 + Math.abs(Math.log10(a / rfPref));
   // Loading: the current the divider and the feedback network draw, against the op-amp's own quiescent
@@ -133,9 +131,12 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   const prefBound = (lo: number, hi: number) => prefFactor(Math.min(Math.max(rfPref, lo), hi));
 
   /** The gain pair search for a given reference network and gain option. */
-  const searchGain = (opt: GainOption, rth: number, aFrom: number, keep: number): PairResult => {
+  const searchGain = (opt: GainOption, rth: number, aFrom: number, keep: number, fixedRef: ReferenceNetwork | null = null): PairResult => {
     const half = opt.trim / 2;
-    const ratio = top === 'non-inverting' ? { cA: half, cB: rth, k: gAim - 1, m: (gAim - 1) / gAim } : { cA: half, cB: rs, k: gAim, m: 1 };
+    // Non-inverting with a reference no pot can move: a gain error ε (of the ratio) moves the zero by
+    // (Vq − Vref)·(G−1)·ε, ranked against the output span beside the scale's (G−1)/G·ε.
+    const zeroLever = fixedRef && !fixedRef.trim && fixedRef.kind !== 'none' ? (Math.abs(front.quiescent - fixedRef.voltage) * (gAim - 1)) / outSpan : 0;
+    const ratio = top === 'non-inverting' ? { cA: half, cB: rth, k: gAim - 1, m: (gAim - 1) / gAim + zeroLever } : { cA: half, cB: rs, k: gAim, m: 1 };
     return searchPairs(table, table, { preferredA: rfPref, floor, aMin: Math.max(opt.aMin, aFrom), aMax: opt.aMax, ratio }, keep);
   };
   /**
@@ -156,15 +157,17 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     // machine precision in a few steps.
     if (ref.kind === 'divider' && ref.trim) {
       for (let i = 0; i < 8; i++) {
+        // Newton on the exact transfer: the zero moves by −(G−1) (non-inverting) or (1+G) (inverting) per volt.
         const g = networkGain(network, front.sourceResistance).gain;
-        const moved = resetWiper(network.reference, referenceAimed(ideal, g, front, a0));
+        const zeroErr = realised(network, ideal, front, ol).zeroError;
+        const moved = resetWiper(network.reference, network.reference.voltage - zeroErr / (top === 'non-inverting' ? -(g - 1) : 1 + g));
         if (!moved) return null;
         const delta = Math.abs(moved.voltage - network.reference.voltage);
         network = { ...network, reference: moved };
         if (delta <= 1e-12 * vspan) break;
       }
     }
-    const real = realised(network, ideal, front, a0);
+    const real = realised(network, ideal, front, ol);
     const parts = fixedParts(feedback) + fixedParts(network.leg) + fixedParts(ref.top) + fixedParts(ref.bottom);
     const zeroErr = ref.trim ? 0 : Math.abs(real.zeroError) / outSpan;
     const legOhms = top === 'non-inverting' ? (network.leg?.ohms ?? 0) + network.reference.thevenin : (network.leg?.ohms ?? 0) + rs;
@@ -173,13 +176,15 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     return { network, ranked: pick ? [pick] : [], best: Math.abs(real.scaleError), chosen: 0, score, scaleError: real.scaleError, zeroError: real.zeroError };
   };
 
-  const vref0 = referenceAimed(ideal, gAim, front, a0);
+  const vref0 = referenceAimed(ideal, gAim, front, loopFactor(noiseGain(top, gAim), a0));
   const r0 = (vref0 - lo) / vspan;
   const lev = referenceLeverage(top, gAim);
   const tie = railTie(design, vref0, 1e-6 * vspan);
   const zeroAtRail = tie !== null && tie.voltage !== 0;
   // A zero at a rail (or at ground on split rails) is a wire; a zero trimmer can straddle ground but not a rail.
-  const tied = tie !== null && (!target.trim.zero || zeroAtRail);
+  // A reference at ground on split rails is a wire too when nothing but the op-amp's own offset would need
+  // the trimmer (a sensor with no quiescent spread, a shunt): no divider, nothing to drift.
+  const tied = tie !== null && (!target.trim.zero || zeroAtRail || front.quiescentTolerance === 0);
   const zNeedAt = (rf: number) => zeroStack(design, front, ideal, target.trim.gain ? sStack : 0, rf) / lev;
 
   // Every (gain option, reference network) pair with a lower bound on the score it can reach; visited best
@@ -195,14 +200,24 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
       // Thevenin grid, eight per decade, from a quarter of the smallest arm up to the most any ground leg can hold.
       const legMax = (tableMax + TRIMMER_VALUES[TRIMMER_VALUES.length - 1]! / 2) / (gAim - 1);
       const zNeed = zNeedAt(rfPref);
-      for (let e = Math.ceil(8 * Math.log10(tableMin / 4)); 10 ** (e / 8) <= legMax; e++) {
-        const rth = 10 ** (e / 8);
-        const made = target.trim.zero
-          ? [trimmedDivider(design, singles, r0, rth, zNeed, lev, MAX_OVERSIZE), trimmedDivider(design, table, r0, rth, zNeed, lev, MAX_OVERSIZE)]
-          : [fixedDivider(design, table, r0, rth, lev, floor * outSpan)];
-        for (const ref of made) {
-          if (ref && !refs.some((x) => x.top?.ohms === ref.top?.ohms && x.bottom?.ohms === ref.bottom?.ohms && x.trim?.ohms === ref.trim?.ohms)) refs.push(ref);
+      const grid = (withPot: boolean) => {
+        for (let e = Math.ceil(8 * Math.log10(tableMin / 4)); 10 ** (e / 8) <= legMax; e++) {
+          const rth = 10 ** (e / 8);
+          const made = withPot
+            ? [trimmedDivider(design, singles, r0, rth, zNeed, lev, MAX_OVERSIZE), trimmedDivider(design, table, r0, rth, zNeed, lev, MAX_OVERSIZE)]
+            : [fixedDivider(design, table, r0, rth, lev, floor * outSpan)];
+          for (const ref of made) {
+            if (ref && !refs.some((x) => x.top?.ohms === ref.top?.ohms && x.bottom?.ohms === ref.bottom?.ohms && x.trim?.ohms === ref.trim?.ohms)) refs.push(ref);
+          }
         }
+      };
+      grid(target.trim.zero);
+      // No pot can centre here (a reference within a hair of a rail): fixed dividers, and the rail itself when
+      // the zero it leaves is what the scoring will judge.
+      if (!refs.length && target.trim.zero) grid(false);
+      if (!refs.length) {
+        const near = railTie(design, vref0, 0.01 * vspan);
+        if (near) refs.push(near);
       }
     }
     for (const opt of options) {
@@ -231,7 +246,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
       const pick = res.ranked[Math.min(target.alternative, res.ranked.length - 1)];
       if (!pick) continue;
       const rf = pick.a.ohms + opt.trim / 2, rin = pick.b.ohms + rs;
-      const r = (referenceAimed(ideal, rf / rin, front, a0) - lo) / vspan;
+      const r = (referenceAimed(ideal, rf / rin, front, loopFactor(noiseGain(top, rf / rin), a0)) - lo) / vspan;
       const rth = (rf * rin) / (rf + rin);
       const built = tied ? tie
         : (target.trim.zero ? trimmedDivider(design, singles, r, rth, zNeedAt(rf), lev, MAX_OVERSIZE) ?? trimmedDivider(design, table, r, rth, zNeedAt(rf), lev, MAX_OVERSIZE) ?? trimmedDivider(design, table, r, rth, zNeedAt(rf), lev) : railTie(design, lo + r * vspan, 1e-6 * vspan))
@@ -239,9 +254,12 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
       if (built) consider(finish(opt, built, pick, null), opt, res, pick);
       continue;
     }
-    const res = searchGain(opt, ref.thevenin, aFromRef(opt, ref), 10);
+    const res = searchGain(opt, ref.thevenin, aFromRef(opt, ref), 10, ref);
     const pick = res.ranked[Math.min(target.alternative, res.ranked.length - 1)] ?? null;
     if (pick) consider(finish(opt, ref, pick, null), opt, res, pick);
+    // With a reference no pot can move, the zero rests on the pair too: every ranked pair is scored on the
+    // scale and zero it really gives (the top alternative only; a picked alternative is built as asked).
+    if (!ref.trim && target.alternative === 0) for (const p of res.ranked.slice(1)) consider(finish(opt, ref, p, null), opt, res, p);
     // A fixed divider's Thevenin may be the whole leg (no Rg): Rf = (G−1)·Rth − Rt/2.
     if (ref.kind === 'divider' && !ref.trim && target.alternative === 0) {
       const aIdeal = (gAim - 1) * ref.thevenin - opt.trim / 2;
@@ -258,20 +276,24 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     return fail('scale-off-target', `The nearest network of ${target.series} parts gives a scale ${(best.scaleError * 100).toFixed(3)} % off target, more than the ${(accept * 100).toFixed(2)} % a ${(tol * 100).toFixed(1)} % part tolerance allows: widen the resistance window, allow two-part arms, or choose a finer series.`);
   }
   if (!best.network.reference.trim && Math.abs(best.zeroError) > accept * outSpan) {
-    return fail('zero-off-target', `The nearest reference divider of ${target.series} parts puts the zero ${(best.zeroError * 1e3).toPrecision(3)} mV off at the output: allow a zero trimmer or two-part arms, or choose a finer series.`);
+    return fail('zero-off-target', `The nearest reference divider of ${target.series} parts puts the zero ${(best.zeroError * 1e3).toPrecision(3)} mV off at the output, more than 0.1 % of the ${(outSpan * 1e3).toPrecision(3)} mV the range spans there${target.trim.zero ? ', and no zero trimmer can centre on a reference this near a rail' : ''}: ${target.trim.zero ? 'move the zero away from where the reference meets the rail, or widen the range' : 'allow a zero trimmer'}, allow two-part arms, or choose a finer series.`);
   }
   const net = best.network;
-  if (net.gainTrim && !bestOpt.covers) {
+  if (target.trim.gain && !net.gainTrim) {
+    w('gain-trim-short', 'caution', `No standard gain trimmer fits this feedback network (near unity gain the span trim has little leverage, (G−1)/G = ${sens.toFixed(3)}), so the span is set by the parts alone: calibrate the scale at the instrument, or pick more gain and a smaller sensor sensitivity.`);
+  } else if (net.gainTrim && !bestOpt.covers) {
     const why = top === 'non-inverting' && ideal.gain < 1.5 ? ` Near unity gain the span trim has little leverage ((G−1)/G = ${sens.toFixed(2)}): pick a sensor setup with less spread, or more gain and a smaller sensitivity (fewer turns, a longer gap).` : '';
     w('gain-trim-short', 'caution', `The gain trimmer covers ±${(net.gainTrim.halfSpan * 100).toFixed(2)} %, less than ${COVERAGE} × the ±${(sStack * 100).toFixed(2)} % worst-case stack.${why}`);
   }
-  if (target.trim.zero && !net.reference.trim) {
+  if (target.trim.zero && !net.reference.trim && net.reference.kind === 'rail' && net.reference.voltage === 0 && !zeroAtRail) {
+    w('zero-by-wire', 'info', `The reference is ground itself, so the leg is tied to it with no divider and no zero trimmer: what remains is the op-amp's offset, about ±${(ideal.noiseGain * design.opamp.offsetVoltage * 1e3).toPrecision(2)} mV at the output; null it at the instrument.`);
+  } else if (target.trim.zero && !net.reference.trim) {
     w('zero-trim-short', 'caution', zeroAtRail
       ? `The zero needs the reference on the rail itself (${net.reference.voltage} V), where a trimmer cannot straddle it, so the leg is tied to the rail: null the zero at the instrument, or choose a zero away from the rail.`
       : `No standard zero trimmer covers ${COVERAGE} × the worst-case zero stack from a reference this near a rail, so the divider is fixed: null the zero at the instrument, or move the zero.`);
   } else if (net.reference.trim && Math.abs(net.reference.trim.setting - 0.5) > 0.3) {
     w('zero-trim-off-centre', 'info', `The reference sits near a rail, so the zero trimmer starts at ${(net.reference.trim.setting * 100).toFixed(0)} % of its travel.`);
   }
-  const real = realised(net, ideal, front, a0);
+  const real = realised(net, ideal, front, ol);
   return { ideal, network: net, parts: partsOf(net, design), alternatives: best.ranked, chosen: Math.max(best.chosen, 0), bestError: best.best, gain: real.gain, noiseGain: networkGain(net, front.sourceResistance).noiseGain, reference: real.reference, scaleError: real.scaleError, zeroError: real.zeroError, warnings };
 }

@@ -5,9 +5,49 @@
  * those of src/physics/topology.ts with every series resistance folded in (the sensor's terminal
  * resistances, the reference network's Thevenin resistance).
  */
+import type { Design } from '../model/design.js';
 import type { StageNetwork } from '../circuit/network.js';
 import type { SensorFront } from '../physics/sensors.js';
-import { loopFactor } from '../physics/topology.js';
+
+/** The op-amp's DC open loop as the transfer needs it: gain A0, open-loop output resistance, and the load outside the network. */
+export interface OpenLoop { a0: number; rout: number; load: number }
+
+/** The open loop of a design's op-amp into its instrument load (through the output filter's resistor). */
+export function openLoopOf(design: Design): OpenLoop {
+  return {
+    a0: 10 ** (design.opamp.openLoopGainDb / 20),
+    rout: Math.max(design.opamp.outputResistance, 1e-3),
+    load: design.output.load.resistance + (design.output.filter?.resistance ?? 0),
+  };
+}
+
+const par = (a: number, b: number) => (Number.isFinite(a) ? (Number.isFinite(b) ? (a * b) / (a + b) : a) : b);
+
+/**
+ * The resistance the feedback network presents at the op-amp pin, Ω (Infinity for a follower): the feedback
+ * arm and trimmer in series with what the − input sees to fixed voltages (sources and rails count as ground).
+ */
+export function feedbackLoad(net: StageNetwork, front: SensorFront): number {
+  const rf = (net.feedback?.ohms ?? 0) + (net.gainTrim ? net.gainTrim.ohms * net.gainTrim.setting : 0);
+  const rth = net.reference.kind === 'divider' ? net.reference.thevenin : 0;
+  switch (net.topology) {
+    case 'non-inverting': return !net.feedback && !net.leg && net.reference.kind === 'none' ? Infinity : rf + (net.leg?.ohms ?? 0) + rth;
+    case 'inverting': return rf + (net.leg?.ohms ?? 0) + front.sourceResistance;
+    case 'summing-non-inverting': return net.feedback || net.leg ? rf + (net.leg?.ohms ?? 0) : Infinity;
+    case 'summing-inverting': return rf + par((net.leg?.ohms ?? 0) + front.sourceResistance, net.offsetArm ? net.offsetArm.ohms + rth : Infinity);
+    case 'difference': return rf + (net.leg?.ohms ?? 0) + (net.swapped ? front.sourceResistance : front.minusResistance);
+  }
+}
+
+/**
+ * The open-loop gain the loop really has: the output resistance and everything the pin drives form a divider
+ * inside the loop, A = A0·R_L/(R_L + R_out) with R_L the network's load in parallel with the instrument's.
+ * Example: A0 = 10⁵, R_out = 50 Ω, R_L = 4.95 kΩ → 0.99·10⁵.
+ */
+export function loadedOpenLoopGain(net: StageNetwork, front: SensorFront, ol: OpenLoop): number {
+  const rl = par(feedbackLoad(net, front), ol.load);
+  return Number.isFinite(rl) ? (ol.a0 * rl) / (rl + ol.rout) : ol.a0;
+}
 
 export interface NetworkTransfer {
   /** Pin volts per sensor volt, signed, finite A0 included. */
@@ -19,57 +59,78 @@ export interface NetworkTransfer {
   noiseGain: number;
 }
 
-/**
- * The transfer of a network. Example: summing non-inverting, Rf = Rg (K = 2), R1 = R2 (α = ½), Vr = 5 V,
- * ideal op-amp: scale 1, offset 5 V.
- */
-export function networkTransfer(net: StageNetwork, front: SensorFront, a0: number): NetworkTransfer {
-  const rf = (net.feedback?.ohms ?? 0) + (net.gainTrim ? net.gainTrim.ohms * net.gainTrim.setting : 0);
+/** What the − input sees apart from the feedback arm, and what the + input sits at, for a sensor voltage Vs. */
+interface Sides {
+  /** Thevenin voltage and resistance of everything on the − input but the feedback arm (Infinity: nothing). */
+  minusV: (vs: number) => number;
+  minusR: number;
+  plusV: (vs: number) => number;
+}
+
+function sidesOf(net: StageNetwork, front: SensorFront): Sides {
   const ref = net.reference;
   const rth = ref.kind === 'divider' ? ref.thevenin : 0;
   const vr = ref.kind === 'none' ? 0 : ref.voltage;
+  const cm = front.commonMode ?? 0;
   switch (net.topology) {
     case 'non-inverting': {
-      if (!net.leg && ref.kind === 'none') return { scale: loopFactor(1, a0), offset: 0, gain: 1, noiseGain: 1 };
-      const g = 1 + rf / ((net.leg?.ohms ?? 0) + rth);
-      const k = loopFactor(g, a0);
-      return { scale: k * g, offset: -k * (g - 1) * vr, gain: g, noiseGain: g };
+      const follower = !net.feedback && !net.leg && ref.kind === 'none';
+      return { minusV: () => vr, minusR: follower ? Infinity : (net.leg?.ohms ?? 0) + rth, plusV: (vs) => vs };
     }
-    case 'inverting': {
-      const g = rf / ((net.leg?.ohms ?? 0) + front.sourceResistance);
-      const k = loopFactor(1 + g, a0);
-      return { scale: -k * g, offset: k * (1 + g) * vr, gain: g, noiseGain: 1 + g };
-    }
+    case 'inverting':
+      return { minusV: (vs) => vs, minusR: (net.leg?.ohms ?? 0) + front.sourceResistance, plusV: () => vr };
     case 'summing-non-inverting': {
-      const kk = net.feedback || net.leg ? 1 + rf / (net.leg?.ohms ?? 0) : 1;
       const r1 = (net.plusArm?.ohms ?? 0) + front.sourceResistance;
       const r2 = net.offsetArm ? net.offsetArm.ohms + rth : Infinity;
       const alpha = Number.isFinite(r2) ? r2 / (r1 + r2) : 1;
-      const k = loopFactor(kk, a0);
-      return { scale: k * kk * alpha, offset: k * kk * (1 - alpha) * vr, gain: kk * alpha, noiseGain: kk };
+      const follower = !net.feedback && !net.leg;
+      return { minusV: () => 0, minusR: follower ? Infinity : (net.leg?.ohms ?? 0), plusV: (vs) => alpha * vs + (1 - alpha) * vr };
     }
     case 'summing-inverting': {
-      const g1 = rf / ((net.leg?.ohms ?? 0) + front.sourceResistance);
-      const g2 = net.offsetArm ? rf / (net.offsetArm.ohms + rth) : 0;
-      const k = loopFactor(1 + g1 + g2, a0);
-      return { scale: -k * g1, offset: -k * g2 * vr, gain: g1, noiseGain: 1 + g1 + g2 };
+      const rin = (net.leg?.ohms ?? 0) + front.sourceResistance;
+      const roff = net.offsetArm ? net.offsetArm.ohms + rth : Infinity;
+      const minusR = par(rin, roff);
+      return { minusV: (vs) => (Number.isFinite(roff) ? (vs * roff + vr * rin) / (rin + roff) : vs), minusR, plusV: () => 0 };
     }
     case 'difference': {
-      // + input: β·V(terminal at R3) + (1−β)·Vref; Vout = k·((1+G)·V+ − G·V(terminal at Rin)).
       const swapped = net.swapped === true;
       const rsPlus = swapped ? front.minusResistance : front.sourceResistance;
       const rsMinus = swapped ? front.sourceResistance : front.minusResistance;
-      const g = rf / ((net.leg?.ohms ?? 0) + rsMinus);
       const r3 = (net.plusArm?.ohms ?? 0) + rsPlus, r4 = (net.offsetArm?.ohms ?? 0) + rth;
       const beta = r4 / (r3 + r4);
-      const k = loopFactor(1 + g, a0);
-      const cm = front.commonMode ?? 0;
-      // The terminal voltages are cm + Vs (the + terminal) and cm (the − terminal).
-      const scale = swapped ? -k * g : k * (1 + g) * beta;
-      const offset = k * ((1 + g) * (1 - beta) * vr + ((1 + g) * beta - g) * cm);
-      return { scale, offset, gain: g, noiseGain: 1 + g };
+      // The + terminal sits at cm + Vs, the − terminal at cm; swapped, the − terminal feeds the + input.
+      const atPlus = (vs: number) => (swapped ? cm : cm + vs), atMinus = (vs: number) => (swapped ? cm + vs : cm);
+      return { minusV: atMinus, minusR: (net.leg?.ohms ?? 0) + rsMinus, plusV: (vs) => beta * atPlus(vs) + (1 - beta) * vr };
     }
   }
+}
+
+/**
+ * The transfer of a network, solved exactly for the DC loop: the internal output Vint = A0·(V+ − V−) drives the
+ * pin through R_out; the pin feeds the instrument load and the feedback arm Rf' to the − input, whose other
+ * side is a Thevenin source (Vm, Rm). With β = Rm/(Rf' + Rm) and c = Vm·Rf'/(Rf' + Rm) (so V− = β·Vpin + c),
+ * Kirchhoff's current law at the pin gives
+ *   Vpin = [G_o·A0·(V+ − c) + Vm/(Rf' + Rm)] / [G_o·(1 + A0·β) + 1/(Rf' + Rm) + 1/R_load],  G_o = 1/R_out,
+ * which for R_out → 0 is Black's formula Vpin = A0·(V+ − c)/(1 + A0·β). Scale and offset are read at Vs = 0 and 1.
+ * Example: summing non-inverting, Rf = Rg (K = 2), R1 = R2 (α = ½), Vr = 5 V, ideal op-amp: scale 1, offset 5 V.
+ */
+export function networkTransfer(net: StageNetwork, front: SensorFront, ol: OpenLoop): NetworkTransfer {
+  const rf = (net.feedback?.ohms ?? 0) + (net.gainTrim ? net.gainTrim.ohms * net.gainTrim.setting : 0);
+  const sd = sidesOf(net, front);
+  const follower = !Number.isFinite(sd.minusR);
+  const beta = follower ? 1 : sd.minusR / (rf + sd.minusR);
+  const rNet = follower ? Infinity : rf + sd.minusR;
+  const go = 1 / ol.rout;
+  const at = (vs: number, a0: number) => {
+    const vm = sd.minusV(vs);
+    const c = follower ? 0 : (vm * rf) / (rf + sd.minusR);
+    const fromNet = follower ? 0 : vm / rNet;
+    const den = Number.isFinite(a0) ? go * (1 + a0 * beta) + (follower ? 0 : 1 / rNet) + 1 / ol.load : beta;
+    return Number.isFinite(a0) ? (go * a0 * (sd.plusV(vs) - c) + fromNet) / den : (sd.plusV(vs) - c) / den;
+  };
+  const v0 = at(0, ol.a0), v1 = at(1, ol.a0);
+  const ideal = at(1, Infinity) - at(0, Infinity);
+  return { scale: v1 - v0, offset: v0, gain: Math.abs(ideal), noiseGain: 1 / beta };
 }
 
 /**
@@ -77,9 +138,9 @@ export function networkTransfer(net: StageNetwork, front: SensorFront, a0: numbe
  * terminals together, k·((1+G)·β − G); zero for a matched pair (R4/R3 = Rf/Rin). Example: G = 10 with R4 1 %
  * high → about 0.0091 (Franco, §2.3: A_cm for an imbalance ε is about G·ε/(1+G)).
  */
-export function commonModeGain(net: StageNetwork, front: SensorFront, a0: number): number {
+export function commonModeGain(net: StageNetwork, front: SensorFront, ol: OpenLoop): number {
   if (net.topology !== 'difference') return 0;
-  const t0 = networkTransfer(net, { ...front, commonMode: 0 }, a0);
-  const t1 = networkTransfer(net, { ...front, commonMode: 1 }, a0);
+  const t0 = networkTransfer(net, { ...front, commonMode: 0 }, ol);
+  const t1 = networkTransfer(net, { ...front, commonMode: 1 }, ol);
   return t1.offset - t0.offset;
 }

@@ -211,12 +211,16 @@ describe('reachable targets are solved', () => {
       const r = analyse(v.design, { spreadTrials: 0 });
       if (!r.choice.chosen) return; // unreachable on these rails: guidance, checked elsewhere
       const codes = r.warnings.map((w) => w.code);
+      // Over this narrow range (±0.1) the output spans a few mV; a reference within a hair of a rail (no pot can
+      // centre there) may leave a zero just off by more than 0.1 % of it: a refusal that says what to change.
+      const zeroOff = r.warnings.find((w) => w.code === 'zero-off-target');
+      if (zeroOff) { expect(zeroOff.message).toMatch(/move the zero|widen the range|zero trimmer/); return; }
       expect(codes, JSON.stringify(t)).not.toContain('gain-unrealisable');
       expect(codes).not.toContain('reference-unrealisable');
       // Near unity a span trimmer has little leverage ((G−1)/G per unit of Rf): where covering the stack would
       // take a trimmer of most of Rf's own size (capped there), the stage honestly reports it falls short.
       const st = r.stage!;
-      const leverage = st.ideal.topology === 'non-inverting' ? (st.ideal.gain - 1) / st.ideal.gain : 1;
+      const leverage = st.ideal.feedbackSensitivity;
       const trimOverRf = (COVERAGE * scaleStack(v.design, r.front, st.ideal)) / (leverage * (0.5 - TRIMMER_TOLERANCE));
       if (trimOverRf < 0.5) expect(codes).not.toContain('gain-trim-short');
       expect(Math.abs(r.stage!.scaleError)).toBeLessThan(0.01);
@@ -230,5 +234,5 @@ describe('reachable targets are solved', () => {
       solved++;
     }), { numRuns: Math.max(400, Math.floor(RUNS / 10)), seed: SEED });
     expect(solved).toBeGreaterThan(100);
-  });
+  }, 900_000);
 });
