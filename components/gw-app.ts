@@ -3,7 +3,8 @@ import { customElement, state, query } from 'lit/decorators.js';
 import { validateDesign, parseDesignText, MAX_DESIGN_BYTES, type Design, type Problem } from '../src/index.js';
 import { analyse, SAFETY_CAUTIONS, type Report } from '../src/index.js';
 import { DEMOS, demoDesign } from '../src/index.js';
-import { FIELDS, GROUP_DEFAULTS, groupDefault, parseField, setPath } from '../src/index.js';
+import { FIELDS, GROUP_DEFAULTS, groupDefault, readField, setPath } from '../src/index.js';
+import { spiceNetlist } from '../src/index.js';
 import { archetype } from '../src/index.js';
 import { allCharts, waveformChart, type ChartData } from '../src/index.js';
 import { schematic, type Schematic } from '../src/index.js';
@@ -12,8 +13,8 @@ import { keyFigures, waveformFigures, waveformLine, type FigureRow } from '../sr
 import { decodeDesignBytes, designFromFragment, fileName, problemWords, serialiseDesign, shareFragment } from '../src/index.js';
 import { sensorTemplate } from '../src/index.js';
 import { base } from './styles.js';
-import { live } from 'lit/directives/live.js';
 import { PersistController } from './persist-controller.js';
+import type { ToolbarActionDetail } from './gw-toolbar.js';
 import './gw-editor.js';
 import './gw-verdicts.js';
 import './gw-chart.js';
@@ -22,13 +23,13 @@ import './gw-parts.js';
 import './gw-figures.js';
 import './gw-bench.js';
 import './gw-trace.js';
+import './gw-toolbar.js';
+import './gw-build-sheet.js';
 
 /** The unit engine (mathjs units) loads after the first render so that it does not delay it. */
 let unitsLoading: Promise<unknown> | null = null;
 const loadUnits = () => (unitsLoading ??= import('../src/model/units-mathjs.js'));
 
-/** Monte Carlo trials run on each edit: enough for a stable histogram, quick enough to keep typing smooth. */
-const EDIT_TRIALS = 400;
 
 /** A line above the work area; `undo` offers to undo the replacement it reports. */
 interface Notice { text: string; bad: boolean; undo?: boolean }
@@ -65,32 +66,34 @@ export class GwApp extends LitElement {
     header { background: #22303f; color: #fff; padding: 0.6rem 1rem; display: flex; flex-wrap: wrap; gap: 0.6rem; align-items: center; }
     header h1 { font-size: 1.15rem; margin: 0 1rem 0 0; letter-spacing: 0.02em; }
     header h1 span { color: #e9a268; }
-    header button, header select { background: #2f4155; color: #fff; border-color: #8fa3b8; }
-    header select { max-width: 100%; }
-    header button:hover { background: #3d5570; }
+    header gw-toolbar { flex: 1 1 20rem; min-width: 0; }
+    .skip { position: absolute; left: 0.5rem; top: -3rem; background: #fff; color: var(--gw-ink); padding: 0.3rem 0.6rem; border-radius: 4px; z-index: 2; }
+    .skip:focus { top: 0.5rem; }
+    .sr-only { position: absolute; width: 1px; height: 1px; overflow: hidden; clip: rect(0 0 0 0); white-space: nowrap; }
+    .panel:focus { outline: none; }
+    .panel:focus-visible { outline: 3px solid var(--gw-focus); }
     .safety-banner { background: #fff4e0; border-bottom: 2px solid var(--gw-caution); padding: 0.45rem 1rem; font-size: 0.88rem; }
     .notice { background: #e8f0fb; border-bottom: 1px solid #9db4d6; padding: 0.45rem 1rem; font-size: 0.9rem; }
     .notice.bad { background: #fdeaea; border-color: #d9a0a0; }
-    main { display: grid; grid-template-columns: minmax(300px, 430px) 1fr; grid-template-areas: 'editor verdict' 'editor results'; align-items: start; gap: 0 1rem; padding: 1rem; }
+    main { display: grid; grid-template-columns: minmax(300px, 470px) 1fr; grid-template-areas: 'editor verdict' 'editor results'; align-items: start; gap: 0 1rem; padding: 1rem; }
     .area-editor { grid-area: editor; }
     .area-verdict { grid-area: verdict; }
     .area-results { grid-area: results; }
     /* On a narrow screen the verdict comes first, then the editor, then the rest. */
-    @media (max-width: 860px) { main { grid-template-columns: minmax(0, 1fr); grid-template-areas: 'verdict' 'editor' 'results'; padding: 0.5rem; } .title-input { width: 100%; } }
+    @media (max-width: 860px) { main { grid-template-columns: minmax(0, 1fr); grid-template-areas: 'verdict' 'editor' 'results'; padding: 0.5rem; } }
     .panel { background: var(--gw-paper); border: 1px solid var(--gw-line); border-radius: 6px; padding: 0.7rem 0.9rem; margin-bottom: 1rem; }
     .scope { display: grid; grid-template-columns: minmax(0, 3fr) minmax(0, 2fr); gap: 0.8rem; align-items: start; }
     @media (max-width: 1100px) { .scope { grid-template-columns: minmax(0, 1fr); } }
     .charts { display: grid; grid-template-columns: repeat(auto-fit, minmax(min(320px, 100%), 1fr)); gap: 0.8rem; }
     .scroll { overflow-x: auto; }
     main > section { min-width: 0; }
-    .title-input { font-size: 1rem; width: min(28rem, 100%); }
     .share { width: 100%; font-size: 0.8rem; }
     ol.cal li { margin-bottom: 0.3rem; }
     .sheet { display: none; }
     .safety li { margin-bottom: 0.2rem; }
     @media print {
-      header, main, .notice, .no-print { display: none !important; }
-      :host { background: #fff; }
+      header, main, .notice, .no-print, .skip { display: none !important; }
+      :host { background: #fff; min-height: 0; }
       .safety-banner { display: none; }
       /* One or two A4 pages: small type, two columns where the content allows. */
       .sheet { display: block; padding: 0; --gw-font-size: 8.5pt; --gw-cell-pad: 0.05rem 0.25rem; font-size: 8.5pt; line-height: 1.3; }
@@ -107,12 +110,14 @@ export class GwApp extends LitElement {
   `];
 
   @query('#open-file') private _file!: HTMLInputElement;
+  @query('#verdict') private _verdictPanel!: HTMLElement | null;
 
   @state() private _design: Design = demoDesign();
   @state() private _derived: Derived | null = null;
   /** Refusals in a person's words, by the field path they are shown at. */
   @state() private _messages: Record<string, string> = {};
   @state() private _notice: Notice | null = null;
+  @state() private _notes: Record<string, string> = {};
   @state() private _shareUrl = '';
   /** Edits not yet saved to a file (a replacement asks first). */
   @state() private _unsaved = false;
@@ -187,7 +192,7 @@ export class GwApp extends LitElement {
    * Makes `design` the one in force, if it can be analysed: the last line of defence. A fault of ours while
    * analysing keeps the design in force as it was and says so, instead of leaving an empty page.
    */
-  private _setDesign(design: Design, trials = EDIT_TRIALS): boolean {
+  private _setDesign(design: Design, trials = design.analysis.spreadTrials): boolean {
     let derived: Derived;
     try {
       derived = derive(design, trials);
@@ -199,7 +204,8 @@ export class GwApp extends LitElement {
     this._derived = derived;
     clearTimeout(this._spreadTimer);
     // The Monte Carlo spread a moment later, so that the verdict of the first render does not wait for it.
-    if (trials === 0) this._spreadTimer = window.setTimeout(() => { try { this._derived = derive(this._design, EDIT_TRIALS); } catch (e) { this._fault(e); } }, 50);
+    // The design's own trial count (analysis.spreadTrials).
+    if (trials === 0) this._spreadTimer = window.setTimeout(() => { try { this._derived = derive(this._design, this._design.analysis.spreadTrials); } catch (e) { this._fault(e); } }, 50);
     return true;
   }
 
@@ -294,16 +300,21 @@ export class GwApp extends LitElement {
       if (!def) return;
       if (def.kind === 'text') return this._apply(setPath(this._design, path, text), path);
       if (text.trim() === '' && def.clearable) return this._apply(setPath(this._design, path, undefined), path);
-      let parsed = parseField(def, text, this._design);
-      if (!parsed.ok && parsed.pending) {
+      let read = readField(def, text, this._design);
+      if (!read.ok && read.pending) {
         await loadUnits();
-        parsed = parseField(def, text, this._design);
+        read = readField(def, text, this._design);
       }
-      if (!parsed.ok) {
-        this._messages = { ...this._messages, [path]: `${def.label}: ${parsed.message}; the value in force stays` };
+      if (!read.ok) {
+        this._messages = { ...this._messages, [path]: `${def.label}: ${read.message}; the value in force stays` };
         return;
       }
-      this._apply(setPath(this._design, path, parsed.value), path);
+      // How the value was read, when it was not typed in the unit the field shows.
+      const notes = { ...this._notes };
+      delete notes[path];
+      if (read.readAs) notes[path] = read.readAs;
+      this._notes = notes;
+      this._apply(setPath(this._design, read.path, read.value), path);
     });
   };
 
@@ -370,13 +381,11 @@ export class GwApp extends LitElement {
     );
   }
 
-  private _loadDemo(e: Event): void {
-    const select = e.target as HTMLSelectElement;
-    const id = select.value;
-    select.value = '';
+  private _onDemo = (e: HTMLElementEventMap['gw-demo']): void => {
+    const id = e.detail.id;
     const demo = DEMOS.find((d) => d.id === id);
     if (demo) this._requestReplace(demoDesign(id), `replaced by the demo "${demo.label}"`, `Loaded the demo "${demo.label}" (a scenario of our own invention).`);
-  }
+  };
 
   private _loadRecent(e: Event): void {
     const select = e.target as HTMLSelectElement;
@@ -406,69 +415,74 @@ export class GwApp extends LitElement {
         <button @click=${() => { this._confirm = null; }}>Keep mine</button></div>` : nothing}
       ${this._notice ? html`<div class="notice ${this._notice.bad ? 'bad' : ''}" role="status" data-notice="message">${this._notice.text}
         ${this._undo && this._notice.undo ? html` <button @click=${this._undoReplace}>Undo</button>` : nothing}
-        ${dismiss(() => { this._notice = null; })}</div>` : nothing}
+        ${dismiss(() => this._dismiss())}</div>` : nothing}
     `;
+  }
+
+  private _onToolbar = (e: CustomEvent<ToolbarActionDetail>): void => {
+    const r = this._derived?.report;
+    switch (e.detail.action) {
+      case 'open': this._file.click(); break;
+      case 'save': this._save(); break;
+      case 'share': this._share(); break;
+      case 'parts-csv': if (r) this._download(bomCsv(r), fileName(this._design, 'csv'), 'text/csv'); break;
+      case 'spice': {
+        const net = r ? spiceNetlist(r) : null;
+        if (net) this._download(net, fileName(this._design, 'cir'), 'text/plain');
+        else this._notice = { text: 'No SPICE netlist: the design has no working stage to simulate.', bad: true };
+        break;
+      }
+      case 'print': window.print(); break;
+    }
+  };
+
+  /** Dismissing a notice puts focus on the verdict, not on the page body. */
+  private _dismiss(): void {
+    this._notice = null;
+    void this.updateComplete.then(() => this._verdictPanel?.focus());
+  }
+
+  private _skip(e: Event): void {
+    e.preventDefault();
+    this._verdictPanel?.focus();
+  }
+
+  /** One line for the live region: what the verdict now says, announced when it changes. */
+  private _verdictLine(r: Report | undefined): string {
+    if (!r) return '';
+    const count = (l: string) => r.verdicts.filter((v) => v.level === l).length;
+    const worst = r.verdicts[0];
+    return `Verdict: ${count('fail')} fail, ${count('caution')} caution, ${count('pass')} pass${worst && worst.level !== 'pass' ? `; first: ${worst.title}` : ''}.`;
   }
 
   private _cautions(): string[] {
     return [...SAFETY_CAUTIONS, ...(this._derived?.report.front.cautions ?? [])];
   }
 
-  private _sheet() {
-    const d = this._derived;
-    if (!d) return nothing;
-    const r = d.report;
-    const half = Math.ceil(d.figures.length / 2);
-    return html`<div class="sheet" aria-hidden="true">
-      <h1>${this._design.title}</h1>
-      <p>${this._design.notes}</p>
-      <div class="grid">
-        <section><h2>Schematic</h2><gw-schematic .drawing=${d.drawing}></gw-schematic></section>
-        <section><h2>Safety</h2><ul class="safety">${this._cautions().map((c) => html`<li>${c}</li>`)}</ul>
-          <h2>Readings of the built probe</h2><gw-bench mode="sheet" .report=${r}></gw-bench>
-
-          <h2>What the scope shows</h2><div class="scope-print"><gw-trace .data=${d.wave}></gw-trace><small>${waveformLine(r)}</small></div></section>
-        <section class="wide"><h2>Parts list</h2><gw-parts compact .rows=${d.rows}></gw-parts></section>
-        <section class="wide"><h2>Calibration</h2><ol class="cal">${r.calibration.map((c) => html`<li>${c.text}</li>`)}</ol></section>
-        <section><h2>Key figures</h2><gw-figures caption="Key figures" .rows=${d.figures.slice(0, half)}></gw-figures></section>
-        <section><h2>&nbsp;</h2><gw-figures caption="Key figures, continued" .rows=${d.figures.slice(half)}></gw-figures></section>
-      </div>
-      <p><small>Made with Gainwright from the design's own figures; check them against your parts before building.</small></p>
-    </div>`;
-  }
-
   override render() {
     const d = this._derived;
     const r = d?.report;
     return html`
+      <a class="skip" href="#verdict" @click=${this._skip}>Skip to the verdict</a>
       <header>
         <h1>Gain<span>wright</span></h1>
-        <input class="title-input" aria-label="Design title" .value=${live(this._design.title)}
-          @change=${(e: Event) => { const t = (e.target as HTMLInputElement).value; this._enqueue(() => this._apply(setPath(this._design, 'title', t), 'title')); }} />
-        <select aria-label="Load a demo" @change=${this._loadDemo}>
-          <option value="">Load a demo…</option>
-          ${DEMOS.map((x) => html`<option value=${x.id}>${x.label}</option>`)}
-        </select>
+        <gw-toolbar .demos=${DEMOS.map((x) => [x.id, x.label] as [string, string])} @gw-toolbar-action=${this._onToolbar} @gw-demo=${this._onDemo}></gw-toolbar>
         <select aria-label="Recent designs" @change=${this._loadRecent} ?disabled=${!this._persist.history.length}>
           <option value="">Recent designs…</option>
           ${this._persist.history.map((h, i) => html`<option value=${i}>${h.design.title} (${h.why}${h.savedAt ? `, ${h.savedAt.slice(0, 16).replace('T', ' ')}` : ''})</option>`)}
         </select>
-        <button @click=${() => this._file.click()}>Open…</button>
         <input id="open-file" type="file" accept=".json,application/json" hidden @change=${this._open} />
-        <button @click=${this._save}>Save</button>
-        <button @click=${this._share}>Share link</button>
-        <button @click=${() => r && this._download(bomCsv(r), fileName(this._design, 'csv'), 'text/csv')}>Parts CSV</button>
-        <button @click=${() => window.print()}>Print build sheet</button>
       </header>
       <div class="safety-banner" role="note"><strong>Safety:</strong> ${this._cautions().join(' ')}</div>
       ${this._notices()}
+      <div class="sr-only" role="status" aria-live="polite" id="verdict-live">${this._verdictLine(r)}</div>
       ${this._shareUrl ? html`<div class="notice no-print"><label>Share link <input class="share" readonly .value=${this._shareUrl} @focus=${(e: Event) => (e.target as HTMLInputElement).select()} /></label></div>` : nothing}
       <main>
         <section class="area-verdict" aria-label="Verdict">
-          <div class="panel" id="verdict"><h2>Verdict</h2><gw-verdicts .verdicts=${r?.verdicts ?? []}></gw-verdicts></div>
+          <div class="panel" id="verdict" tabindex="-1"><h2>Verdict</h2><gw-verdicts .verdicts=${r?.verdicts ?? []}></gw-verdicts></div>
         </section>
         <section class="area-editor" aria-label="Design">
-          <gw-editor .design=${this._design} .messages=${this._messages}
+          <gw-editor .design=${this._design} .messages=${this._messages} .notes=${this._notes}
             @gw-field-input=${this._onFieldInput} @gw-set=${this._onSet}
             @gw-sensor-type=${this._onSensorType} @gw-opamp-archetype=${this._onArchetype}></gw-editor>
         </section>
@@ -486,7 +500,10 @@ export class GwApp extends LitElement {
           <div class="panel" id="sensor-readings"><h2>Sensor from bench readings</h2><gw-bench mode="sensor" .report=${r ?? null} @gw-set=${this._onSet}></gw-bench></div>
         </section>
       </main>
-      ${this._sheet()}
+      <gw-build-sheet class="sheet" aria-hidden="true" .report=${r ?? null} .drawing=${d?.drawing ?? null} .rows=${d?.rows ?? []} .figures=${d?.figures ?? []} .cautions=${this._cautions()}>
+        ${r ? html`<section><h2>What the scope shows</h2><div class="scope-print"><gw-trace .data=${d?.wave ?? null}></gw-trace><small>${waveformLine(r)}</small></div></section>
+        <section><h2>Readings of the built probe</h2><gw-bench mode="sheet" .report=${r}></gw-bench></section>` : nothing}
+      </gw-build-sheet>
     `;
   }
 }

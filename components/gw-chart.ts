@@ -1,18 +1,26 @@
-import { LitElement, html, css } from 'lit';
+import { LitElement, html, css, nothing } from 'lit';
 import { customElement, property, query } from 'lit/decorators.js';
 import type { ChartData } from '../src/index.js';
+import { chartText } from '../src/index.js';
+import { base } from './styles.js';
 import { ChartController } from './chart-controller.js';
 
 /**
- * One plot. The data come ready-made from the core (src/present/charts.ts); this element only draws them.
+ * One plot. The data come ready-made from the core (src/present/charts.ts); this element only draws them,
+ * with a text alternative: a short summary under the plot and the data as a table on request.
  * @cssproperty --gw-chart-height - plot height (default 260px).
  */
 @customElement('gw-chart')
 export class GwChart extends LitElement {
-  static override styles = css`
-    :host { display: block; position: relative; height: var(--gw-chart-height, 260px); }
+  static override styles = [base, css`
+    :host { display: block; }
+    .plot { position: relative; height: var(--gw-chart-height, 260px); }
     canvas { width: 100%; height: 100%; }
-  `;
+    .summary { color: var(--gw-muted); font-size: 0.8rem; margin: 0.2rem 0; }
+    details { font-size: 0.8rem; }
+    details table { font-size: 0.78rem; }
+    .rows { max-height: 16rem; overflow: auto; }
+  `];
 
   @query('canvas') canvas!: HTMLCanvasElement | null;
 
@@ -25,7 +33,14 @@ export class GwChart extends LitElement {
   }
 
   override render() {
-    return html`<canvas role="img" aria-label=${this.data?.title ?? 'chart'}></canvas>`;
+    const d = this.data;
+    const text = d ? chartText(d) : null;
+    return html`<div class="plot"><canvas role="img" aria-label=${d?.title ?? 'chart'} aria-describedby="summary"></canvas></div>
+      ${text ? html`<p class="summary" id="summary">${text.summary}</p>
+      <details><summary>${d!.title}: the data as a table</summary>
+        <div class="rows"><table aria-label=${`${d!.title}: data`}><thead><tr>${text.head.map((h) => html`<th scope="col">${h}</th>`)}</tr></thead>
+        <tbody>${text.rows.map((row) => html`<tr>${row.map((c) => html`<td>${c}</td>`)}</tr>`)}</tbody></table></div>
+      </details>` : nothing}`;
   }
 }
 

@@ -2,7 +2,7 @@ import { LitElement, html, css, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import { live } from 'lit/directives/live.js';
 import type { Design, SensorType } from '../src/index.js';
-import { displayValue, fieldsFor, getPath, SENSOR_TYPES, type FieldDef, type Section } from '../src/index.js';
+import { displayValue, fieldHint, fieldsFor, getPath, SENSOR_TYPES, type FieldDef, type Section } from '../src/index.js';
 import { OPAMP_ARCHETYPES } from '../src/index.js';
 import { base } from './styles.js';
 import './gw-field.js';
@@ -35,7 +35,10 @@ export class GwEditor extends LitElement {
     fieldset { border: 1px solid var(--gw-line); border-radius: 6px; margin: 0 0 0.8rem; padding: 0.5rem 0.7rem 0.7rem; background: var(--gw-paper); }
     legend { font-weight: 700; padding: 0 0.3rem; }
     .row { display: grid; grid-template-columns: minmax(7rem, 1fr) minmax(6rem, 9rem); gap: 0.4rem; align-items: center; margin: 0.15rem 0 0.35rem; font-size: 0.9rem; }
-    select { width: 100%; min-width: 0; }
+    /* A select takes the width its longest choice needs and wraps under its label when the row is narrow. */
+    .row.choice { display: flex; flex-wrap: wrap; justify-content: space-between; column-gap: 0.4rem; row-gap: 0.15rem; }
+    .row.choice > span { flex: 1 1 7rem; }
+    select { flex: 0 1 auto; max-width: 100%; }
     fieldset { min-width: 0; }
     .note { color: var(--gw-muted); font-size: 0.8rem; margin: 0.2rem 0 0.4rem; }
   `];
@@ -44,6 +47,8 @@ export class GwEditor extends LitElement {
   @property({ attribute: false }) design!: Design;
   /** Messages by field path for values that could not be used. */
   @property({ attribute: false }) messages: Record<string, string> = {};
+  /** How the last value typed into a field was read, by field path, when it was typed in another unit. */
+  @property({ attribute: false }) notes: Record<string, string> = {};
 
   private _set(path: string, value: unknown): void {
     this.dispatchEvent(new CustomEvent<SetDetail>('gw-set', { detail: { path, value }, bubbles: true, composed: true }));
@@ -53,7 +58,7 @@ export class GwEditor extends LitElement {
     const path = f.path;
     const value = getPath(this.design, path);
     if (f.kind === 'select') {
-      return html`<label class="row"><span>${f.label}</span>
+      return html`<label class="row choice"><span>${f.label}</span>
         <select data-path=${path} .value=${live(String(Math.max(0, f.options!.findIndex(([v]) => JSON.stringify(v) === JSON.stringify(value)))))} @change=${(e: Event) => this._set(path, f.options![Number((e.target as HTMLSelectElement).value)]![0])}>
           ${f.options!.map(([v, l], i) => html`<option value=${i} ?selected=${JSON.stringify(value) === JSON.stringify(v)}>${l}</option>`)}
         </select></label>`;
@@ -67,7 +72,7 @@ export class GwEditor extends LitElement {
       return html`<gw-field path=${path} label=${f.label} .value=${String(value ?? '')} .message=${this.messages[path] ?? ''}></gw-field>`;
     }
     const label = path.startsWith('target.range') ? `${f.label} (${this.design.sensor.measurand}${this.design.target.signal === 'ac-rms' ? ' rms' : ''})` : f.label;
-    return html`<gw-field path=${path} label=${label} .value=${displayValue(f, value, this.design)} .message=${this.messages[path] ?? ''} .hint=${f.hint ?? ''}></gw-field>`;
+    return html`<gw-field numeric path=${path} label=${label} .value=${displayValue(f, value, this.design)} .message=${this.messages[path] ?? ''} .hint=${fieldHint(f, this.design)} .note=${this.notes[path] ?? ''}></gw-field>`;
   }
 
   override render() {
@@ -77,11 +82,11 @@ export class GwEditor extends LitElement {
     return SECTIONS.map(([section, title]) => html`
       <fieldset>
         <legend>${title}</legend>
-        ${section === 'sensor' ? html`<label class="row"><span>Sensor model</span>
+        ${section === 'sensor' ? html`<label class="row choice"><span>Sensor model</span>
           <select data-path="sensor.type" .value=${live(this.design.sensor.type)} @change=${(e: Event) => this.dispatchEvent(new CustomEvent<SensorTypeDetail>('gw-sensor-type', { detail: { type: (e.target as HTMLSelectElement).value as SensorType }, bubbles: true, composed: true }))}>
             ${SENSOR_TYPES.map(([t, l]) => html`<option value=${t} ?selected=${this.design.sensor.type === t}>${l}</option>`)}
           </select></label>` : nothing}
-        ${section === 'amplifier' ? html`<label class="row"><span>Start from an archetype</span>
+        ${section === 'amplifier' ? html`<label class="row choice"><span>Start from an archetype</span>
           <select data-path="opamp.archetype" .value=${live(archetype?.id ?? '')} @change=${(e: Event) => this.dispatchEvent(new CustomEvent<ArchetypeDetail>('gw-opamp-archetype', { detail: { id: (e.target as HTMLSelectElement).value }, bubbles: true, composed: true }))}>
             <option value="" ?selected=${!archetype}>— figures as entered —</option>
             ${OPAMP_ARCHETYPES.map((a) => html`<option value=${a.id} ?selected=${archetype?.id === a.id}>${a.label}</option>`)}

@@ -1,4 +1,4 @@
-import { LitElement, html, css } from 'lit';
+import { LitElement, html, css, nothing } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
 import { base } from './styles.js';
 
@@ -23,6 +23,7 @@ export class GwField extends LitElement {
     input[aria-invalid='true'] { border-color: var(--gw-fail); background: #fff3f3; }
     .msg { color: var(--gw-fail); font-size: 0.8rem; margin: 0.1rem 0 0.3rem; }
     .hint { color: var(--gw-muted); font-size: 0.75rem; }
+    .read-as { color: var(--gw-accent); font-size: 0.78rem; }
   `];
 
   @state() private _draft: string | null = null;
@@ -37,11 +38,15 @@ export class GwField extends LitElement {
   @property() message = '';
   /** Short help under the field. */
   @property() hint = '';
+  /** How the last value typed was read, when it was typed otherwise than the field shows it ("read as 1.5 mm"). */
+  @property() note = '';
+  /** A number field: offers the decimal keypad on touch screens (text fields such as the title do not). */
+  @property({ type: Boolean }) numeric = false;
 
   override willUpdate(changed: Map<string, unknown>): void {
     // A message keeps what was typed on screen, marked invalid; once there is no message, the field shows
     // the value in force again (a new good value, or the refusal withdrawn), never a typed text not in force.
-    if ((changed.has('value') || changed.has('message')) && !this.message) this._draft = null;
+    if ((changed.has('value') || changed.has('message') || changed.has('note')) && !this.message) this._draft = null;
   }
 
   private _commit(e: Event): void {
@@ -55,7 +60,7 @@ export class GwField extends LitElement {
     return html`
       <label for=${id}>
         <span class="name">${this.label}</span>
-        <input id=${id} type="text" inputmode="decimal" spellcheck="false" autocomplete="off"
+        <input id=${id} type="text" inputmode=${this.numeric ? 'decimal' : 'text'} spellcheck="false" autocomplete="off"
           data-path=${this.path}
           .value=${this._draft ?? this.value}
           aria-invalid=${this.message ? 'true' : 'false'}
@@ -63,6 +68,7 @@ export class GwField extends LitElement {
           @change=${this._commit} />
       </label>
       <div id=${`${id}-msg`} class=${this.message ? 'msg' : 'hint'} role=${this.message ? 'alert' : 'note'}>${this.message || this.hint}</div>
+      ${this.note && !this.message ? html`<div class="read-as" role="status">read as ${this.note}</div>` : nothing}
     `;
   }
 }

@@ -1,13 +1,17 @@
 import { LitElement, css, svg, html, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import type { Prim, Schematic } from '../src/index.js';
+import { drawingBounds } from '../src/index.js';
 
-/** Draws the stage's schematic primitives as SVG; text goes in as text nodes, never as markup. */
+/**
+ * Draws the stage's schematic primitives as SVG; text goes in as text nodes, never as markup.
+ * @cssproperty --gw-schematic-max-height - tallest the drawing may be (default 360px; the printed sheet lifts it).
+ */
 @customElement('gw-schematic')
 export class GwSchematic extends LitElement {
   static override styles = css`
     :host { display: block; }
-    svg { width: 100%; height: auto; max-height: 360px; font: 11px system-ui, sans-serif; }
+    svg { width: 100%; height: auto; max-height: var(--gw-schematic-max-height, 360px); font: 11px system-ui, sans-serif; }
     .w { fill: none; stroke: #1d2430; stroke-width: 1.6; }
     .b { fill: #fff; stroke: #1d2430; stroke-width: 1.6; }
     .ref { font-weight: 700; fill: #1d2430; }
@@ -50,7 +54,8 @@ export class GwSchematic extends LitElement {
   override render() {
     const d = this.drawing;
     if (!d) return html`<p>No schematic: the design has no stage.</p>`;
-    return html`<svg viewBox="0 0 ${d.width} ${d.height}" role="img" aria-label="Schematic of the designed stage">${d.prims.map((p) => this._prim(p))}</svg>`;
+    const b = drawingBounds(d);
+    return html`<svg viewBox="${b.x} ${b.y} ${b.width} ${b.height}" role="img" aria-label="Schematic of the designed stage">${d.prims.map((p) => this._prim(p))}</svg>`;
   }
 }
 

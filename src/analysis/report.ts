@@ -79,7 +79,7 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
   const design = fromReadings.design;
   const front = frontWithReadings(sensorFrontAtRail(design.sensor, design), fromReadings.readings, design.sensor.measurand);
   const choice = chooseTopology(design, front);
-  const warnings: Warning[] = [...front.warnings, ...fromReadings.warnings];
+  const warnings: Warning[] = [...front.warnings, ...fromReadings.warnings, ...sensorSupplyFindings(design)];
   const absent: Record<string, string> = {};
   const empty: Report = {
     design, front, choice, stage: null, circuit: null, dc: null, clip: null, transfer: null, response: null, speed: null, noise: null,
@@ -285,7 +285,43 @@ function findings(r: Report): Warning[] {
       w.push({ code: 'battery-scale-shift', level: 'caution', message: `Below ${f3(d.supply.negative + reg.voltage + reg.dropout, 'V')} the regulator drops out (${f3(reg.dropout, 'V')} dropout) and the ratiometric sensor on it scales with its falling output: at ${f3(worst.voltage, 'V')} the scale is ${f3(worst.scale, `V/${m}`)}, ${((worst.scale / s0 - 1) * 100).toFixed(1)} % off.` });
     }
     const shift = Math.max(...r.battery.map((s) => Math.abs(s.zeroShift)));
-    if (shift > d.analysis.zeroLimit) w.push({ code: 'battery-zero-shift', level: 'caution', message: `The zero moves by up to ${f3(shift, 'V')} as the battery sags, because the reference is taken from it; feed the reference from a regulated rail.` });
+    if (shift > d.analysis.zeroLimit) {
+      // Say the cause that applies: advice to regulate what is already regulated helps nobody.
+      const reg = d.supply.regulated;
+      const dropout = r.battery.find((s) => !s.regulated);
+      const cause = d.supply.referenceRail !== 'regulated' || !reg
+        ? 'because the reference is taken from it; feed the reference from a regulated rail'
+        : r.front.ratiometricSupply && d.supply.sensorRail !== 'regulated'
+          ? 'because the ratiometric sensor is fed from it and its zero follows its supply; feed the sensor from the regulated rail too'
+          : dropout
+            ? `because the ${f3(reg.voltage, 'V')} regulator loses regulation below about ${f3(dropout.voltage, 'V')}; a lower regulated voltage keeps it in regulation to the end`
+            : 'through what is still fed from the battery';
+      w.push({ code: 'battery-zero-shift', level: 'caution', message: `The zero moves by up to ${f3(shift, 'V')} as the battery sags, ${cause}.` });
+    }
+  }
+  return w;
+}
+
+/** Lowest and highest voltage the sensor is fed with (from 0 V): the regulated rail within its tolerance, or the positive rail over the battery's life. */
+export function sensorSupplyRange(d: Design): [number, number] {
+  const reg = d.supply.regulated;
+  if (d.supply.sensorRail === 'regulated' && reg) return [reg.voltage * (1 - reg.tolerance), reg.voltage * (1 + reg.tolerance)];
+  const bat = d.supply.battery;
+  return [Math.min(d.supply.positive, bat?.endOfLife ?? Infinity), Math.max(d.supply.positive, bat?.fresh ?? -Infinity)];
+}
+
+/** The sensor's supply against the range it is specified for (sensor.supplyMin / supplyMax, when stated). */
+function sensorSupplyFindings(d: Design): Warning[] {
+  if (d.sensor.type !== 'voltage-output' && d.sensor.type !== 'hall-gap-core') return [];
+  const [lo, hi] = sensorSupplyRange(d);
+  const from = d.supply.sensorRail === 'regulated' && d.supply.regulated ? 'the regulated rail' : d.supply.battery ? 'the battery' : 'the positive rail';
+  const w: Warning[] = [];
+  const { supplyMin, supplyMax } = d.sensor;
+  if (typeof supplyMax === 'number' && hi > supplyMax) {
+    w.push({ code: 'sensor-over-voltage', level: 'fail', message: `The sensor is fed up to ${f3(hi, 'V')} from ${from}, above the ${f3(supplyMax, 'V')} it is specified for: it may be damaged. Feed it from a regulated rail (Supply: regulated rail, sensor fed from it) or use a sensor specified for this supply.` });
+  }
+  if (typeof supplyMin === 'number' && lo < supplyMin) {
+    w.push({ code: 'sensor-under-voltage', level: 'caution', message: `The sensor is fed down to ${f3(lo, 'V')} from ${from}, below the ${f3(supplyMin, 'V')} it is specified for: its output is not specified there.` });
   }
   return w;
 }
@@ -393,6 +429,7 @@ export function verdictsOf(r: Report): Verdict[] {
     'gain-trim-short': 'Span trimmer cannot cover the spread', 'zero-trim-short': 'Zero trimmer cannot cover the spread',
     'sensor-drive': 'Sensor cannot drive the input', 'ac-low-frequency': 'Reads low at 50 Hz',
     'readings-too-few': 'Too few sensor readings to fit', 'readings-implausible': 'Sensor readings do not fit this core',
+    'sensor-over-voltage': 'Sensor fed above its rated supply', 'sensor-under-voltage': 'Sensor fed below its rated supply',
   };
   for (const w of r.warnings.filter((x) => (x.level === 'fail' || x.level === 'caution') && !x.code.startsWith('clips-in-range') && x.code !== 'bandwidth-short')) {
     v.push({ level: w.level === 'fail' ? 'fail' : 'caution', title: titles[w.code] ?? w.code, detail: w.message });

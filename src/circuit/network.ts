@@ -18,7 +18,9 @@ export interface Arm {
 /** Where a part sits in the stage (the presentation layer names each role in words). */
 export type PartRole =
   | 'feedback' | 'ground-leg' | 'input' | 'plus-input' | 'offset' | 'reference-top' | 'reference-bottom'
-  | 'gain-trim' | 'zero-trim' | 'output-series' | 'output-capacitor';
+  | 'gain-trim' | 'zero-trim' | 'output-series' | 'output-capacitor'
+  /** The current transformer's burden: part of the sensor, listed so that it is bought and fitted. */
+  | 'burden';
 
 export interface Trimmer {
   ohms: number;

@@ -76,6 +76,9 @@ export interface VoltageOutputSensor extends SensorCommon {
    * at commonMode + quiescent + sensitivity·x. Null: single-ended, the − terminal is the amplifier's ground.
    */
   commonMode: number | null;
+  /** The supply range the sensor is specified for, V (null or absent = not stated). */
+  supplyMin?: number | null;
+  supplyMax?: number | null;
 }
 
 export interface HallGapCoreSensor extends SensorCommon {
@@ -89,6 +92,9 @@ export interface HallGapCoreSensor extends SensorCommon {
   outputMin: number;
   outputMax: number;
   ratiometricSupply: number | null;
+  /** The supply range the Hall sensor is specified for, V (null or absent = not stated). */
+  supplyMin?: number | null;
+  supplyMax?: number | null;
   /** Turns of the measured conductor through the core. */
   turns: number;
   core: {
@@ -340,6 +346,8 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     outputMax: V({ optional: true }),
     ratiometricSupply: { t: 'num', what: 'volts', check: 'positive', min: 0.1, max: 1000, optional: true },
     commonMode: V({ optional: true }),
+    supplyMin: { t: 'num', what: 'volts', check: 'positive', min: 0.1, max: 1000, optional: true },
+    supplyMax: { t: 'num', what: 'volts', check: 'positive', min: 0.1, max: 1000, optional: true },
   },
   'hall-gap-core': {
     ...sensorCommon,
@@ -349,6 +357,8 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     outputMin: V({ optional: true }),
     outputMax: V({ optional: true }),
     ratiometricSupply: { t: 'num', what: 'volts', check: 'positive', min: 0.1, max: 1000, optional: true },
+    supplyMin: { t: 'num', what: 'volts', check: 'positive', min: 0.1, max: 1000, optional: true },
+    supplyMax: { t: 'num', what: 'volts', check: 'positive', min: 0.1, max: 1000, optional: true },
     turns: num('turns', 'positive', { min: 1, max: 1e6, whole: true }),
     core: {
       t: 'obj',
@@ -634,6 +644,7 @@ function crossCheck(d: Design, problems: Problem[]): void {
     const sens = s.type === 'voltage-output' ? s.sensitivity : s.hallSensitivity;
     if (sens === 0) p(`sensor.${s.type === 'voltage-output' ? 'sensitivity' : 'hallSensitivity'}`, 'must not be zero');
     if (s.outputMin !== undefined && s.outputMax !== undefined && s.outputMin >= s.outputMax) p('sensor.outputMin', 'must be below sensor.outputMax', ['sensor.outputMax']);
+    if (typeof s.supplyMin === 'number' && typeof s.supplyMax === 'number' && s.supplyMin >= s.supplyMax) p('sensor.supplyMin', 'must be below sensor.supplyMax', ['sensor.supplyMax']);
   }
   if (s.readings?.use && s.type !== 'voltage-output' && s.type !== 'hall-gap-core') {
     p('sensor.readings.use', 'can only be true for a voltage-output or hall-gap-core sensor: a current transformer or shunt is set by its parts');

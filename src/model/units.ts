@@ -7,8 +7,11 @@
  * CLI loads at once and the app loads right after its first render so that it does not delay it.
  */
 
-/** Converts a normalised expression to a number in the given SI unit, or null when it cannot. */
-export type UnitEngine = (expr: string, target: string) => number | null;
+/**
+ * Evaluates a normalised expression (arithmetic allowed) and gives its value in the given SI unit, with
+ * `bare: true` when the result carries no unit at all (a plain number), or null when it cannot be read.
+ */
+export type UnitEngine = (expr: string, target: string) => { value: number; bare: boolean } | null;
 let engine: UnitEngine | null = null;
 
 /** Installs the unit engine (mathjs units). */
@@ -81,28 +84,118 @@ function normalise(text: string): string {
   return text
     .trim()
     .replace(/\u2212/g, '-') // typographic minus
+    .replace(/[×·]/g, '*')
     .replace(/[Ωω\u2126]/g, 'ohm')
     .replace(/[µμ]/g, 'u')
-    .replace(/°\s*C/g, 'degC')
-    .replace(/°\s*F/g, 'degF')
-    .replace(/√\s*Hz|sqrt\(\s*Hz\s*\)|rt\s*Hz/g, 'Hz^0.5')
-    .replace(/ppm/g, 'ppm')
-    .replace(/(^|[\s/*\d.])([mku]?)G(?![a-zA-Z])/g, '$1$2gauss')
-    .replace(/(\d)\s*mAh\b/g, '$1 mA h')
-    .replace(/(\d)\s*Ah\b/g, '$1 A h')
+    .replace(/°\s*C/gi, 'degC')
+    .replace(/°\s*F/gi, 'degF')
+    .replace(/√\s*Hz|sqrt\(\s*Hz\s*\)|rt\s*Hz/gi, 'Hz^0.5')
+    .replace(/ppm/gi, 'ppm')
+    .replace(/(\d)\s*(m?)ah\b/gi, (_, d: string, m: string) => `${d} ${m ? 'm' : ''}A h`)
     .replace(/\s+/g, ' ');
+}
+
+/** The unit symbols read in fields, as the unit engine writes them (SI Brochure, 9th ed., tables 4 and 8). */
+const UNIT_SYMBOLS = ['V', 'A', 'Hz', 'ohm', 's', 'm', 'T', 'gauss', 'K', 'degC', 'degF', 'F', 'C', 'W', 'H', 'h', 'ppm'];
+/**
+ * Unit names read without regard to case: every symbol above that no other differs from only by case (so
+ * not H and h, henry and hour), and the spelled-out names.
+ */
+const CASE_FREE = new Map<string, string>([
+  ...UNIT_SYMBOLS.filter((u) => UNIT_SYMBOLS.filter((v) => v.toLowerCase() === u.toLowerCase()).length === 1).map((u) => [u.toLowerCase(), u] as [string, string]),
+  ...Object.entries({
+    volt: 'V', volts: 'V', amp: 'A', amps: 'A', ampere: 'A', amperes: 'A', ohms: 'ohm', hertz: 'Hz', tesla: 'T', gauss: 'gauss',
+    metre: 'm', metres: 'm', meter: 'm', meters: 'm', sec: 's', second: 's', seconds: 's', farad: 'F', farads: 'F', watt: 'W', watts: 'W',
+  }),
+]);
+/** SI prefixes, read by their case (m milli, M mega); K is also taken as kilo, as it is often written. */
+const PREFIX_LETTERS: Record<string, string> = { f: 'f', p: 'p', n: 'n', u: 'u', m: 'm', k: 'k', K: 'k', M: 'M', G: 'G', T: 'T' };
+/** Words the arithmetic understands besides units. */
+const FUNCTION_WORDS = new Set(['pi', 'sqrt']);
+
+/** The unit symbols a field's own dimension is written with, for single letters that could be a prefix too. */
+function ownSymbols(dimension: Dimension): string[] {
+  const own = dimension.split(/[/^*.\d]+/).filter(Boolean);
+  if (dimension === 'T' || dimension === 'V/T') own.push('G');
+  if (dimension === 'C') own.push('C');
+  return own;
+}
+
+/** A single letter after a number: the field's own unit (0.06 m of length, 300 K), else a prefix (4.7k, 2.2M), else a unit by any case (9 v). */
+function loneLetter(letter: string, dimension: Dimension): { unit: string } | { exponent: number } | null {
+  if (ownSymbols(dimension).includes(letter)) return { unit: letter === 'G' ? 'gauss' : letter };
+  const p = PREFIX_LETTERS[letter];
+  if (p) return { exponent: SI_EXPONENT[p]! };
+  const own = ownSymbols(dimension).find((x) => x.toLowerCase() === letter.toLowerCase());
+  if (own) return { unit: own === 'G' ? 'gauss' : own };
+  const u = CASE_FREE.get(letter.toLowerCase());
+  return u ? { unit: u } : null;
+}
+const SI_EXPONENT: Record<string, number> = { f: -15, p: -12, n: -9, u: -6, m: -3, '': 0, k: 3, M: 6, G: 9, T: 12 };
+
+/** One word of a unit expression in the unit engine's spelling: 'khz' → kHz, 'mv' → mV, 'MHZ' → MHz, 'Ohms' → ohm. */
+function unitWord(word: string, dimension: Dimension): string {
+  if (FUNCTION_WORDS.has(word)) return word;
+  if (dimension === 'K' && /^c$/i.test(word)) return 'degC';
+  if (/^g$/i.test(word) && ownSymbols(dimension).includes('G')) return 'gauss';
+  if (UNIT_SYMBOLS.includes(word)) return word;
+  const p = PREFIX_LETTERS[word[0]!];
+  const rest = word.slice(1);
+  if (p && rest) {
+    if (rest === 'G' && ownSymbols(dimension).includes('G')) return `${p}gauss`;
+    if (UNIT_SYMBOLS.includes(rest)) return p + rest;
+  }
+  const whole = CASE_FREE.get(word.toLowerCase());
+  if (whole) return whole;
+  if (p && rest) {
+    const u = CASE_FREE.get(rest.toLowerCase());
+    if (u) return p + u;
+  }
+  return word;
+}
+
+const NUM = '(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][-+]?\\d+)?';
+
+/**
+ * Rewrites what a person typed into the unit engine's spelling: IEC 60062 codes (4k7, 4n7, 2R2) become
+ * numbers, a letter after a number becomes the field's unit or a power of ten, and unit words get their
+ * proper case where that is unambiguous. Prefixes keep their case (m is milli, M is mega).
+ */
+export function canonicalExpression(text: string, dimension: Dimension): string {
+  let e = normalise(text);
+  // IEC 60062:2016 §4: the letter is the decimal point and the multiplier (R and L only for resistances).
+  const rkmLetters = dimension === 'ohm' ? 'pnumkKMGRrL' : 'pnumkKMG';
+  e = e.replace(new RegExp(`(^|[^\\w.])(\\d+)([${rkmLetters}])(\\d+)(?![\\w.])`, 'g'), (_, pre: string, w: string, l: string, f: string) => {
+    const mult = /[RrL]/.test(l) ? (l === 'L' ? 'e-3' : '') : `${l}`;
+    return `${pre}${w}.${f}${mult}`;
+  });
+  // A single letter after a number, not part of a unit expression (not followed by / or ^).
+  e = e.replace(new RegExp(`(${NUM})\\s*([A-Za-z])(?=$|\\s*[-+*)]|\\s+[-+*(])`, 'g'), (all, n: string, l: string) => {
+    const r = loneLetter(l, dimension);
+    if (!r) return all;
+    return 'unit' in r ? `${n} ${r.unit}` : String(clean(Number(n) * 10 ** r.exponent));
+  });
+  e = e.replace(/[A-Za-z_]+(?:\^0\.5)?/g, (w) => {
+    const root = w.endsWith('^0.5') ? '^0.5' : '';
+    return unitWord(root ? w.slice(0, -4) : w, dimension) + root;
+  });
+  return e;
 }
 
 /**
  * Parses a typed value into SI units of the wanted dimension.
  *
- * Accepts plain numbers (already SI), numbers with an SI prefix letter and no unit (`4.7k`), the IEC 60062
- * code for resistances (`4k7`, `470R`), percentages and ppm for plain numbers, and any mathjs unit
- * expression of the right dimension (`47 kΩ`, `35 nV/√Hz`, `12.5 mV/A`, `25 mV/mT`, `10 G`).
+ * Accepts numbers with an SI prefix letter and no unit (`4.7k`), the IEC 60062 code (`4k7`, `470R`, `4n7`),
+ * percentages and ppm for plain numbers, any unit expression of the right dimension (`47 kΩ`, `35 nV/√Hz`,
+ * `12.5 mV/A`, `25 mV/mT`, `10 G`) with unit names in any case where that is unambiguous (`9 v`, `20 khz`)
+ * and prefixes by their case (m milli, M mega), and arithmetic (`2*4k7`, `1/(2*pi*10k*10n)`, `9 V - 0.7 V`).
+ * A plain number, or arithmetic on plain numbers, is in the field's own unit: `bare` turns it into SI
+ * (default: it is SI already).
  *
  * @example parseQuantity('4k7', 'ohm') // { ok: true, value: 4700 }
+ * @example parseQuantity('1.5', 'm', (mm) => mm / 1000) // { ok: true, value: 0.0015 }
  */
-export function parseQuantity(text: string, dimension: Dimension): ParseResult {
+export function parseQuantity(text: string, dimension: Dimension, bare: (x: number) => number = (x) => x): ParseResult {
   if (typeof text !== 'string' || text.trim() === '') {
     return { ok: false, message: `expected ${DIMENSION_NAMES[dimension]}, got nothing` };
   }
@@ -110,35 +203,28 @@ export function parseQuantity(text: string, dimension: Dimension): ParseResult {
   const fail = (): ParseResult => ({ ok: false, message: `cannot read "${raw}" as ${DIMENSION_NAMES[dimension]}` });
   if (raw.length > 64) return fail();
 
-  // A bare number is taken as SI already.
-  if (/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(raw)) return finite(Number(raw), fail);
+  // A bare number is in the field's own unit.
+  if (new RegExp(`^[-+]?${NUM}$`).test(raw)) return finite(clean(bare(Number(raw))), fail);
 
   if (dimension === 'ohm') {
     const r = parseRkm(raw);
     if (Number.isFinite(r)) return { ok: true, value: r };
   }
-  // Number followed by a lone prefix letter: 4.7k, 100n, 2.2M.
-  const pm = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([fpnuµμmkKMGT])$/.exec(raw);
-  if (pm && dimension !== '1' && !(dimension === 'T' && pm[2] === 'G')) {
-    const prefix = pm[2]!.replace(/[µμ]/, 'u');
-    return finite(clean(Number(pm[1]) * SI_PREFIX[prefix]!), fail);
-  }
   if (dimension === '1' || dimension === '1/K') {
-    const pc = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(%|ppm)(?:\s*\/\s*(?:K|degC|°C))?$/.exec(raw);
+    const pc = new RegExp(`^([-+]?${NUM})\\s*(%|ppm)(?:\\s*/\\s*(?:K|degC|°C))?$`, 'i').exec(raw);
     if (pc) return finite(clean(Number(pc[1]) * (pc[2] === '%' ? 1e-2 : 1e-6)), fail);
   }
 
-  let expr = normalise(raw);
-  if (dimension === 'K') {
-    // A temperature field means an absolute temperature: °C converts to K with the offset.
-    expr = expr.replace(/\bC\b/, 'degC');
-  }
+  const expr = canonicalExpression(raw, dimension);
+  // A number and a power of ten only (4.7e3 from 4.7k): SI, as a prefix on the field's SI unit.
+  if (new RegExp(`^[-+]?${NUM}$`).test(expr)) return finite(clean(Number(expr)), fail);
   // The field's own unit with an SI prefix on its first symbol: 12.5 mV/A, 47 kohm, 35 nV/Hz^0.5.
-  const own = dimension === 'C' ? null : new RegExp(`^([-+]?(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][-+]?\\d+)?)\\s*([fpnumkMGT]?)${dimension.replace(/[\^./]/g, (c) => `\\${c}`)}$`).exec(expr);
+  const own = dimension === 'C' ? null : new RegExp(`^([-+]?${NUM})\\s*([fpnumkMGT]?)${dimension.replace(/[\^./]/g, (c) => `\\${c}`)}$`).exec(expr);
   if (own) return finite(clean(Number(own[1]) * SI_PREFIX[own[2]!]!), fail);
   if (!engine) return { ok: false, message: `reading "${raw}" needs the unit tables, which are still loading`, pending: true };
   const v = engine(expr, dimension === 'C' ? 'A s' : dimension);
-  return v === null ? fail() : finite(clean(v), fail);
+  if (v === null) return fail();
+  return finite(clean(v.bare ? bare(v.value) : v.value), fail);
 }
 
 function finite(v: number, fail: () => ParseResult): ParseResult {

@@ -284,9 +284,21 @@ export function chooseTopology(design: Design, front: SensorFront): TopologyChoi
   if (!chosen) {
     const same = Math.sign(design.target.scale) === Math.sign(front.sensitivity);
     const g = Math.abs(design.target.scale / front.sensitivity);
+    // The sign a stage gives (naturalSign): kept, flipped, or either; an rms reading has none.
+    const wrongSign = (t: Topology) => design.target.signal !== 'ac-rms' && naturalSign(t) !== 0 && naturalSign(t) !== (same ? 1 : -1);
+    const other: Partial<Record<Topology, Topology>> = {
+      'non-inverting': 'inverting', inverting: 'non-inverting', 'summing-non-inverting': 'summing-inverting', 'summing-inverting': 'summing-non-inverting',
+    };
+    const m = front.measurand;
+    if (design.target.topology !== 'auto' && wrongSign(design.target.topology)) {
+      const t = design.target.topology;
+      const rises = naturalSign(t) * Math.sign(front.sensitivity) > 0;
+      guidance.push(`The polarity is the cause, not the rails: a ${t.replace(/-/g, ' ').replace('non inverting', 'non-inverting')} stage gives an output that ${rises ? 'rises' : 'falls'} as the ${m} rises, and the wanted scale asks for the opposite sign. Reverse the conductor through the sensor (or turn the sensor round) to flip its sign, change the scale's sign, or choose the ${(other[t] ?? 'other').replace(/-/g, ' ').replace('non inverting', 'non-inverting')} stage (or let Gainwright choose).`);
+    }
     if (same && g < 1) guidance.push('The target needs attenuation with the sensor\'s own polarity: reverse the conductor through the sensor (or swap the sensor\'s orientation) to flip its sign, then an inverting stage can attenuate.');
-    if (!same && g >= 1 && design.target.topology === 'non-inverting') guidance.push('Reverse the conductor through the sensor to flip its sign, or let Gainwright choose the inverting stage.');
-    guidance.push('Check that the rails leave room for the reference and for the op-amp\'s input range; a rail-to-rail input op-amp or a wider supply may be needed.');
+    // The rails and input range are worth a look only when a stage failed for them, not for its sign or for attenuating.
+    const railBound = considered.some((c) => !c.feasible && !wrongSign(c.topology) && !(c.topology === 'non-inverting' && c.gain < 1 - EPS_UNITY));
+    if (railBound) guidance.push('Check that the rails leave room for the reference and for the op-amp\'s input range; a rail-to-rail input op-amp or a wider supply may be needed.');
   }
   const why = chosen
     ? `${chosen.topology}: ${chosen.reasons.join('; ')}`

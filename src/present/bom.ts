@@ -63,7 +63,8 @@ export function bomRows(r: Report): BomRow[] {
         code: partCode(p),
         spec: p.kind === 'trimmer' ? `trimmer ±${p.tolerance * 100} %, single-turn cermet` : p.kind === 'capacitor' ? 'ceramic C0G/NP0 ±10 %' : `${p.series} ±${+(p.tolerance * 100).toFixed(2)} % metal film`,
         dissipation: pw,
-        rating: pw === null ? null : powerRating(pw),
+        // The burden is bought at the rating the design states, or higher if the range needs it.
+        rating: pw === null ? null : p.role === 'burden' && r.design.sensor.type === 'current-transformer' ? Math.max(powerRating(pw), r.design.sensor.burdenPower) : powerRating(pw),
         quantity: 1,
         role: partRole(p),
       });
@@ -71,7 +72,7 @@ export function bomRows(r: Report): BomRow[] {
   }
   const sensorName: Record<string, string> = {
     'hall-gap-core': `linear Hall sensor in a ${formatEng(r.design.sensor.type === 'hall-gap-core' ? r.design.sensor.core.gap : 0, 'm')} core gap`,
-    'current-transformer': 'current transformer (burden listed separately if not fitted)',
+    'current-transformer': 'current transformer (its burden is RB above)',
     shunt: `shunt ${formatEng(r.design.sensor.type === 'shunt' ? r.design.sensor.resistance : 0, 'Ω')}`,
     'voltage-output': 'voltage-output sensor',
   };

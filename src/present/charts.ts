@@ -171,3 +171,39 @@ export function traceDrawing(d: ChartData, w: number, h: number): TraceDrawing |
     x: [x0, x1], y: [y0, y1],
   };
 }
+
+/** A chart's text alternative: one summary sentence per series and its data as table rows. */
+export interface ChartText {
+  summary: string;
+  head: [string, string, string];
+  rows: Array<[string, string, string]>;
+}
+
+/** Most rows a series gives the table: enough to read the curve, few enough to read at all. */
+const TABLE_ROWS_PER_SERIES = 25;
+const num = (x: number) => (Number.isFinite(x) ? String(Number(x.toPrecision(4))) : '—');
+
+/**
+ * The text alternative of a chart (WCAG 2.2, 1.1.1 non-text content): a summary of each series' extent and
+ * its points as a table, thinned evenly to at most TABLE_ROWS_PER_SERIES per series (first and last kept).
+ */
+export function chartText(c: ChartData): ChartText {
+  const parts = c.series.filter((s) => s.points.length > 0).map((s) => {
+    const xs = s.points.map((p) => p.x), ys = s.points.map((p) => p.y);
+    const xLo = Math.min(...xs), xHi = Math.max(...xs), yLo = Math.min(...ys), yHi = Math.max(...ys);
+    const ax = s.axis === 'y2' && c.y2 ? c.y2.label : c.y.label;
+    return `${s.label}: ${c.x.label} ${num(xLo)} to ${num(xHi)}, ${ax} ${num(yLo)} to ${num(yHi)}`;
+  });
+  const rows: Array<[string, string, string]> = [];
+  for (const s of c.series) {
+    const n = s.points.length;
+    const step = Math.max(1, Math.ceil(n / TABLE_ROWS_PER_SERIES));
+    for (let i = 0; i < n; i += step) rows.push([s.label, num(s.points[i]!.x), num(s.points[i]!.y)]);
+    if (n > 1 && (n - 1) % step !== 0) rows.push([s.label, num(s.points[n - 1]!.x), num(s.points[n - 1]!.y)]);
+  }
+  return {
+    summary: parts.length ? `${c.title}. ${parts.join('; ')}.` : `${c.title}: no data.`,
+    head: ['Series', c.x.label, c.y2 ? `${c.y.label} (or ${c.y2.label})` : c.y.label],
+    rows,
+  };
+}

@@ -4,9 +4,10 @@
  */
 import { TOPOLOGIES, type Design, type SensorType } from '../model/design.js';
 import { STAGE_NAMES } from './words.js';
-import { formatEng, parseQuantity, type Dimension, type ParseResult } from '../model/units.js';
+import { clean, formatEng, parseQuantity, type Dimension, type ParseResult } from '../model/units.js';
 import type { Problem } from '../model/validate.js';
 import { stepOverRange } from '../analysis/waveform.js';
+import { sensorFrontAtRail } from '../physics/sensors.js';
 
 export type Section = 'sensor' | 'amplifier' | 'target' | 'output' | 'supply' | 'environment';
 
@@ -16,8 +17,14 @@ export interface FieldDef {
   section: Section;
   /** Numeric fields: the dimension typed text is read as. */
   dimension?: Dimension;
-  /** The unit the value is displayed in (SI symbol; °C and mAh are special). */
+  /**
+   * The unit the value is shown in and a bare number is read in: the trade's customary one (V/µs, nV/√Hz,
+   * mV/mT, mm). Ω and Hz are written with an SI prefix chosen for the value (4.7 kΩ, 1 MHz). Per-measurand
+   * fields write `mV/A` and take the design's measurand after the slash.
+   */
   unit?: string;
+  /** Not stored in the design: computed from it and written back through another field (the gain). */
+  derived?: boolean;
   /** Select fields: the allowed values (any JSON value) with their labels. */
   options?: Array<[unknown, string]>;
   /** Number fields: an empty entry removes the value (an optional field). */
@@ -48,63 +55,66 @@ export const FIELDS: readonly FieldDef[] = [
   { path: 'title', label: 'Title', section: 'sensor', kind: 'text' },
   { path: 'notes', label: 'Notes', section: 'sensor', kind: 'text' },
   { path: 'sensor.measurand', label: 'Measurand unit', section: 'sensor', kind: 'text', hint: 'A, mT, V …', sensors: ['voltage-output'] },
-  S('sensor.sensitivity', 'Sensitivity', 'V/A', 'V/A', VOUT, 'volts per measurand unit, e.g. 12.5 mV/A'),
-  S('sensor.hallSensitivity', 'Hall sensitivity', 'V/T', 'V/T', HALL, 'e.g. 25 mV/mT or 2.5 mV/G'),
+  S('sensor.sensitivity', 'Sensitivity', 'V/A', 'mV/A', VOUT, 'volts per measurand unit, e.g. 12.5 mV/A'),
+  S('sensor.hallSensitivity', 'Hall sensitivity', 'V/T', 'mV/mT', HALL, 'e.g. 25 mV/mT or 2.5 mV/G'),
   S('sensor.quiescent', 'Quiescent output (zero)', 'V', 'V', [...VOUT, ...HALL], 'output at zero measurand'),
   S('sensor.quiescent', 'Burden low end tied to', 'V', 'V', CT),
   S('sensor.outputMin', 'Sensor output min', 'V', 'V', [...VOUT, ...HALL]),
   S('sensor.outputMax', 'Sensor output max', 'V', 'V', [...VOUT, ...HALL]),
   { ...S('sensor.ratiometricSupply', 'Ratiometric at supply', 'V', 'V', [...VOUT, ...HALL], 'leave empty if not ratiometric'), clearable: true },
-  S('sensor.linearField', 'Linear field range (±)', 'T', 'T', HALL),
+  S('sensor.linearField', 'Linear field range (±)', 'T', 'mT', HALL),
   S('sensor.turns', 'Turns of the measured wire', '1', '', HALL),
-  S('sensor.core.pathLength', 'Core mean path length', 'm', 'm', HALL),
+  S('sensor.core.pathLength', 'Core mean path length', 'm', 'mm', HALL),
   S('sensor.core.permeability', 'Core relative permeability', '1', '', HALL),
-  S('sensor.core.gap', 'Air gap', 'm', 'm', HALL),
-  S('sensor.core.saturation', 'Core saturation flux density', 'T', 'T', HALL),
+  S('sensor.core.gap', 'Air gap', 'm', 'mm', HALL),
+  S('sensor.core.saturation', 'Core saturation flux density', 'T', 'mT', HALL),
   S('sensor.core.fringing', 'Fringing factor (gap area / core area)', '1', '', HALL, '1 = fringing neglected; unused when the cross-section is given'),
-  { ...S('sensor.core.width', 'Core cross-section at the gap: width', 'm', 'm', HALL, 'models fringing as (w + g)(d + g); empty = use the factor; one alone = square'), clearable: true },
-  { ...S('sensor.core.depth', 'Core cross-section at the gap: depth', 'm', 'm', HALL), clearable: true },
+  { ...S('sensor.core.width', 'Core cross-section at the gap: width', 'm', 'mm', HALL, 'models fringing as (w + g)(d + g); empty = use the factor; one alone = square'), clearable: true },
+  { ...S('sensor.core.depth', 'Core cross-section at the gap: depth', 'm', 'mm', HALL), clearable: true },
   S('sensor.secondaryTurns', 'Secondary turns', '1', '', CT),
   S('sensor.primaryTurns', 'Primary passes', '1', '', CT),
   S('sensor.burden', 'Burden resistor', 'ohm', 'Ω', CT),
   S('sensor.burdenPower', 'Burden power rating', 'W', 'W', CT),
-  S('sensor.inductanceFactor', 'Core inductance factor A_L', 'H', 'H', CT, 'henries per turn²'),
+  S('sensor.inductanceFactor', 'Core inductance factor A_L', 'H', 'nH', CT, 'per turn²'),
   S('sensor.windingResistance', 'Winding resistance', 'ohm', 'Ω', CT),
   S('sensor.resistance', 'Shunt resistance', 'ohm', 'Ω', SH),
   S('sensor.powerRating', 'Shunt power rating', 'W', 'W', SH),
   { ...S('sensor.commonMode', 'High side: supply-end voltage', 'V', 'V', SH, 'leave empty for a low-side shunt'), clearable: true },
   { ...S('sensor.commonMode', 'Differential: − terminal at', 'V', 'V', VOUT, 'leave empty for a single-ended output'), clearable: true },
   S('sensor.sourceResistance', 'Output resistance', 'ohm', 'Ω', [...VOUT, ...HALL]),
-  S('sensor.noiseDensity', 'Output noise density', 'V/Hz^0.5', 'V/√Hz'),
+  S('sensor.noiseDensity', 'Output noise density', 'V/Hz^0.5', 'nV/√Hz'),
   S('sensor.bandwidth', 'Sensor bandwidth', 'Hz', 'Hz'),
   S('sensor.sensitivityTolerance', 'Sensitivity tolerance (±)', '1', '%'),
-  S('sensor.quiescentTolerance', 'Zero tolerance (±)', 'V', 'V', [...VOUT, ...HALL]),
-  S('sensor.supplyCurrent', 'Sensor supply current', 'A', 'A', [...VOUT, ...HALL]),
-  S('sensor.outputDrive', 'Sensor output drive (0 = not stated)', 'A', 'A', [...VOUT, ...HALL]),
+  S('sensor.quiescentTolerance', 'Zero tolerance (±)', 'V', 'mV', [...VOUT, ...HALL]),
+  { ...S('sensor.supplyMin', 'Sensor supply: lowest', 'V', 'V', [...VOUT, ...HALL], 'from its datasheet; empty if not stated'), clearable: true },
+  { ...S('sensor.supplyMax', 'Sensor supply: highest', 'V', 'V', [...VOUT, ...HALL], 'above this the sensor may be damaged'), clearable: true },
+  S('sensor.supplyCurrent', 'Sensor supply current', 'A', 'mA', [...VOUT, ...HALL]),
+  S('sensor.outputDrive', 'Sensor output drive (0 = not stated)', 'A', 'mA', [...VOUT, ...HALL]),
   S('sensor.sensitivityDrift', 'Sensitivity drift', '1/K', 'ppm/K'),
-  S('sensor.quiescentDrift', 'Zero drift', 'V/K', 'V/K', [...VOUT, ...HALL]),
+  S('sensor.quiescentDrift', 'Zero drift', 'V/K', 'µV/K', [...VOUT, ...HALL]),
 
   { path: 'opamp.name', label: 'Part or archetype name', section: 'amplifier', kind: 'text' },
   N('amplifier', 'opamp.gbw', 'Gain-bandwidth (GBW)', 'Hz', 'Hz'),
-  N('amplifier', 'opamp.slewRate', 'Slew rate', 'V/s', 'V/s'),
+  N('amplifier', 'opamp.slewRate', 'Slew rate', 'V/s', 'V/µs'),
   N('amplifier', 'opamp.openLoopGainDb', 'Open-loop gain (dB)', '1', 'dB'),
   N('amplifier', 'opamp.inputLow', 'Input range: above − rail', 'V', 'V', 'negative if it goes beyond the rail'),
   N('amplifier', 'opamp.inputHigh', 'Input range: below + rail', 'V', 'V'),
   N('amplifier', 'opamp.outputLow', 'Output swing: above − rail', 'V', 'V'),
   N('amplifier', 'opamp.outputHigh', 'Output swing: below + rail', 'V', 'V'),
-  N('amplifier', 'opamp.voltageNoise', 'Voltage noise (white)', 'V/Hz^0.5', 'V/√Hz'),
+  N('amplifier', 'opamp.voltageNoise', 'Voltage noise (white)', 'V/Hz^0.5', 'nV/√Hz'),
   N('amplifier', 'opamp.voltageNoiseCorner', 'Voltage noise 1/f corner', 'Hz', 'Hz', '0 = white only'),
-  N('amplifier', 'opamp.currentNoise', 'Current noise (white)', 'A/Hz^0.5', 'A/√Hz'),
+  N('amplifier', 'opamp.currentNoise', 'Current noise (white)', 'A/Hz^0.5', 'pA/√Hz'),
   N('amplifier', 'opamp.currentNoiseCorner', 'Current noise 1/f corner', 'Hz', 'Hz', '0 = white only'),
-  N('amplifier', 'opamp.offsetVoltage', 'Offset voltage (max)', 'V', 'V'),
-  N('amplifier', 'opamp.offsetDrift', 'Offset drift', 'V/K', 'V/K'),
-  N('amplifier', 'opamp.biasCurrent', 'Bias current', 'A', 'A'),
-  N('amplifier', 'opamp.supplyCurrent', 'Supply current', 'A', 'A'),
+  N('amplifier', 'opamp.offsetVoltage', 'Offset voltage (max)', 'V', 'mV'),
+  N('amplifier', 'opamp.offsetDrift', 'Offset drift', 'V/K', 'µV/K'),
+  N('amplifier', 'opamp.biasCurrent', 'Bias current', 'A', 'nA'),
+  N('amplifier', 'opamp.supplyCurrent', 'Supply current', 'A', 'mA'),
   N('amplifier', 'opamp.psrrDb', 'Power-supply rejection (PSRR, dB)', '1', 'dB'),
   N('amplifier', 'opamp.outputResistance', 'Open-loop output resistance', 'ohm', 'Ω'),
-  N('amplifier', 'opamp.outputCurrent', 'Output current limit', 'A', 'A'),
+  N('amplifier', 'opamp.outputCurrent', 'Output current limit', 'A', 'mA'),
 
-  N('target', 'target.scale', 'Wanted scale', 'V/A', 'V/A', 'sign = polarity'),
+  N('target', 'target.scale', 'Wanted scale', 'V/A', 'mV/A', 'sign = polarity'),
+  { ...N('target', 'target.gain', 'or as a gain', '1', '', 'output volts per sensor volt'), derived: true },
   N('target', 'target.zero', 'Output at zero', 'V', 'V'),
   N('target', 'target.range.0', 'Range from', '1', ''),
   N('target', 'target.range.1', 'Range to', '1', ''),
@@ -125,9 +135,9 @@ export const FIELDS: readonly FieldDef[] = [
 
   { path: 'output.filter', label: 'Output resistor / RC filter', section: 'output', kind: 'bool', group: 'output.filter' },
   N('output', 'output.filter.resistance', 'Series resistor', 'ohm', 'Ω', undefined, 'output.filter'),
-  N('output', 'output.filter.capacitance', 'Filter capacitor (0 = none)', 'F', 'F', undefined, 'output.filter'),
+  N('output', 'output.filter.capacitance', 'Filter capacitor (0 = none)', 'F', 'nF', undefined, 'output.filter'),
   N('output', 'output.load.resistance', 'Instrument input resistance', 'ohm', 'Ω', '1 MΩ for a scope; 50 Ω for its 50 Ω input'),
-  N('output', 'output.load.capacitance', 'Instrument + cable capacitance', 'F', 'F', 'about 15 pF plus ~100 pF per metre of coax (common practice)'),
+  N('output', 'output.load.capacitance', 'Instrument + cable capacitance', 'F', 'pF', 'about 15 pF plus ~100 pF per metre of coax (common practice)'),
 
   N('supply', 'supply.positive', 'Positive rail', 'V', 'V'),
   N('supply', 'supply.negative', 'Negative rail', 'V', 'V', '0 for a single supply'),
@@ -135,7 +145,7 @@ export const FIELDS: readonly FieldDef[] = [
   { path: 'supply.regulated', label: 'Regulated rail', section: 'supply', kind: 'bool', group: 'supply.regulated' },
   N('supply', 'supply.regulated.voltage', 'Regulated voltage', 'V', 'V', undefined, 'supply.regulated'),
   N('supply', 'supply.regulated.tolerance', 'Regulator tolerance (±)', '1', '%', undefined, 'supply.regulated'),
-  N('supply', 'supply.regulated.quiescentCurrent', 'Regulator quiescent current', 'A', 'A', undefined, 'supply.regulated'),
+  N('supply', 'supply.regulated.quiescentCurrent', 'Regulator quiescent current', 'A', 'µA', undefined, 'supply.regulated'),
   N('supply', 'supply.regulated.dropout', 'Regulator dropout', 'V', 'V', 'about 0.3 V for a low-dropout part, about 1.7 V for a common small linear regulator', 'supply.regulated'),
   N('supply', 'supply.regulated.drift', 'Regulator drift', '1/K', 'ppm/K', undefined, 'supply.regulated'),
   { path: 'supply.sensorRail', label: 'Sensor fed from', section: 'supply', kind: 'select', options: [['positive', 'Positive rail'], ['regulated', 'Regulated rail']] },
@@ -151,7 +161,7 @@ export const FIELDS: readonly FieldDef[] = [
   N('environment', 'analysis.spreadTrials', 'Spread: Monte Carlo trials', '1', ''),
   N('environment', 'analysis.spreadSeed', 'Spread: random seed', '1', ''),
   N('environment', 'analysis.scaleLimit', 'Spread: scale limit (±)', '1', '%'),
-  N('environment', 'analysis.zeroLimit', 'Spread: zero limit (±)', 'V', 'V'),
+  N('environment', 'analysis.zeroLimit', 'Spread: zero limit (±)', 'V', 'mV'),
   { path: 'analysis.noiseBand', label: 'Own noise band', section: 'environment', kind: 'bool', group: 'analysis.noiseBand' },
   N('environment', 'analysis.noiseBand.0', 'Noise band from', 'Hz', 'Hz', undefined, 'analysis.noiseBand'),
   N('environment', 'analysis.noiseBand.1', 'Noise band to', 'Hz', 'Hz', undefined, 'analysis.noiseBand'),
@@ -201,51 +211,109 @@ export function fieldsFor(design: Design): FieldDef[] {
 }
 
 /**
- * Display units that are not an SI prefix away from the stored SI value: how a bare number typed in them
- * becomes SI, and how an SI value is written in them.
+ * How many SI units one display unit is (SI Brochure, 9th ed., table 7 prefixes; 1 mAh = 3.6 C; °C = K − 273.15).
+ * Units not listed (Ω, Hz) are written with a prefix chosen for the value and a bare number is in the SI unit.
  */
-const SCALED_UNITS: Record<string, { toSi: (x: number) => number; show: (si: number) => string }> = {
-  '°C': { toSi: (x) => x + 273.15, show: (v) => `${+(v - 273.15).toFixed(2)} °C` },
-  mAh: { toSi: (x) => x * 3.6, show: (v) => `${+(v / 3.6).toPrecision(4)} mAh` },
-  '%': { toSi: (x) => x / 100, show: (v) => `${+(v * 100).toPrecision(4)} %` },
-  'ppm/K': { toSi: (x) => x * 1e-6, show: (v) => `${+(v * 1e6).toPrecision(4)} ppm/K` },
+const DISPLAY_UNITS: Record<string, { factor: number; offset?: number }> = {
+  V: { factor: 1 }, mV: { factor: 1e-3 }, W: { factor: 1 }, mA: { factor: 1e-3 }, 'µA': { factor: 1e-6 }, nA: { factor: 1e-9 },
+  mm: { factor: 1e-3 }, mT: { factor: 1e-3 }, nH: { factor: 1e-9 }, nF: { factor: 1e-9 }, pF: { factor: 1e-12 },
+  'mV/mT': { factor: 1 }, 'V/µs': { factor: 1e6 }, 'nV/√Hz': { factor: 1e-9 }, 'pA/√Hz': { factor: 1e-12 }, 'µV/K': { factor: 1e-6 },
+  'mV/A': { factor: 1e-3 }, '%': { factor: 1e-2 }, 'ppm/K': { factor: 1e-6 }, mAh: { factor: 3.6 }, '°C': { factor: 1, offset: 273.15 },
+  '': { factor: 1 }, dB: { factor: 1 },
 };
-const BARE_NUMBER = /^\s*[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?\s*$/;
 
-/** How a value is written in its field: 0.0125 V/A → "12.5 mV/A", 298.15 K → "25 °C", 2034 C → "565 mAh". */
-export function displayValue(f: FieldDef, value: unknown, design?: Design): string {
-  if (value === undefined || value === null) return '';
-  if (typeof value !== 'number') return String(value);
-  // Per-measurand units follow the design's measurand: 100 mV/A, or 25 mV/mT for a field sensor.
-  const measurandUnit = f.unit === 'V/A' && design ? `V/${design.sensor.measurand}` : f.unit;
-  const scaled = f.unit ? SCALED_UNITS[f.unit] : undefined;
-  if (scaled) return scaled.show(value);
-  switch (f.unit) {
-    case 'dB': return `${+value.toPrecision(4)}`;
-    case '': return `${+value.toPrecision(6)}`;
-    default: return formatEng(value, measurandUnit ?? '', 4).replace(/(\.\d*?)0+(\s|$)/, '$1$2').replace(/\.(\s|$)/, '$1');
-  }
+/** The unit a field is shown in for this design: per-measurand fields follow the measurand (mV/A, mV/mT). */
+export function displayUnit(f: FieldDef, design?: Design): string {
+  if (f.unit === 'mV/A' && design) return `mV/${design.sensor.measurand}`;
+  return f.unit ?? '';
 }
 
-/** Reads what a person typed into a field, in SI. */
+const trimZeros = (text: string) => text.replace(/(\.\d*?)0+(\s|$)/, '$1$2').replace(/\.(\s|$)/, '$1');
+
+/** The gain a target scale means: output volts per sensor volt, scale / sensor sensitivity (sign = polarity). */
+export function targetGain(design: Design): number {
+  return design.target.scale / sensorFrontAtRail(design.sensor, design).sensitivity;
+}
+
+/** How a value is written in its field: 0.0125 V/A → "12.5 mV/A", 25 V/T → "25 mV/mT", 298.15 K → "25 °C". */
+export function displayValue(f: FieldDef, value: unknown, design?: Design): string {
+  if (f.path === 'target.gain' && design) value = targetGain(design);
+  if (value === undefined || value === null) return '';
+  if (typeof value !== 'number') return String(value);
+  if (!Number.isFinite(value)) return '';
+  const unit = displayUnit(f, design);
+  const fixed = f.unit !== undefined ? DISPLAY_UNITS[f.unit] : undefined;
+  if (!fixed) return trimZeros(formatEng(value, unit, 4));
+  const x = Number(((value - (fixed.offset ?? 0)) / fixed.factor).toPrecision(f.unit === '°C' ? 5 : 6));
+  return `${Object.is(x, -0) ? 0 : x} ${unit}`.trim();
+}
+
+/** Short help under a field, with the design's own figures where they help (the gain a scale means and back). */
+export function fieldHint(f: FieldDef, design: Design): string {
+  if (f.path === 'target.scale' || f.path === 'target.gain') {
+    const g = targetGain(design);
+    if (!Number.isFinite(g)) return f.hint ?? '';
+    const polarity = g >= 0 ? 'keeps the sensor\'s polarity (a non-inverting stage, or inverting if it must attenuate)' : 'inverts the sensor\'s polarity (an inverting stage)';
+    return f.path === 'target.scale'
+      ? `gain ${+g.toPrecision(4)}: ${polarity}`
+      : `sign = polarity: ${polarity}; scale ${displayValue(FIELDS.find((x) => x.path === 'target.scale')!, design.target.scale, design)}`;
+  }
+  return f.hint ?? '';
+}
+
+const BARE_NUMBER = /^\s*[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?\s*$/;
+
+/** Reads what a person typed into a field, in SI; a bare number (or arithmetic on bare numbers) is in the field's shown unit. */
 export function parseField(f: FieldDef, text: string, design?: Design): ParseResult {
   if (!f.dimension) return { ok: false, message: 'not a number field' };
-  let dim = f.dimension;
+  const fixed = f.unit !== undefined ? DISPLAY_UNITS[f.unit] : undefined;
+  const bare = (x: number) => (fixed ? x * fixed.factor + (fixed.offset ?? 0) : x);
   // Sensitivity and scale are per measurand unit; for a measurand other than amperes take plain V per unit.
-  if ((dim === 'V/A') && design && design.sensor.measurand !== 'A') {
+  if (f.dimension === 'V/A' && design && design.sensor.measurand !== 'A') {
+    if (BARE_NUMBER.test(text)) return { ok: true, value: bare(Number(text)) };
     // The unit after the slash must be the measurand itself: "25 mV/A" is not a reading for a mT sensor.
     const unit = design.sensor.measurand.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
-    const m = new RegExp(`^\\s*([-+]?[\\d.eE+-]+)\\s*(m|µ|u)?V\\s*\\/\\s*${unit}\\s*$`).exec(text);
+    const m = new RegExp(`^\\s*([-+]?[\\d.eE+-]+)\\s*(m|µ|u)?[Vv]\\s*\\/\\s*${unit}\\s*$`).exec(text);
     if (m) {
       const k = m[2] === 'm' ? 1e-3 : m[2] ? 1e-6 : 1;
       return Number.isFinite(Number(m[1])) ? { ok: true, value: Number(m[1]) * k } : { ok: false, message: `cannot read "${text}"` };
     }
-    dim = '1';
+    return { ok: false, message: `cannot read "${text.trim()}" as volts per ${design.sensor.measurand} (e.g. 25 mV/${design.sensor.measurand})` };
   }
-  // A bare number in a °C, mAh, % or ppm/K field is in that unit.
-  const scaled = f.unit ? SCALED_UNITS[f.unit] : undefined;
-  if (scaled && BARE_NUMBER.test(text)) return { ok: true, value: scaled.toSi(Number(text)) };
-  return parseQuantity(text, dim);
+  // A number followed by exactly the shown unit (also for units the unit tables lack, such as dB).
+  const shownUnit = displayUnit(f, design);
+  if (fixed && shownUnit && text.trim().endsWith(shownUnit)) {
+    const head = text.trim().slice(0, -shownUnit.length);
+    if (BARE_NUMBER.test(head)) return { ok: true, value: clean(bare(Number(head))) };
+  }
+  return parseQuantity(text, f.dimension, bare);
+}
+
+/** What an edit of a field does to the design: the path it writes, the value, and how it was read. */
+export type FieldEdit =
+  | { ok: true; path: string; value: number; readAs: string | null }
+  | { ok: false; message: string; pending?: boolean };
+
+/**
+ * Reads a typed value for a field and says where it goes; `readAs` is the value as the field will show it,
+ * when the person typed it otherwise ("0.0015 m" is read as "1.5 mm"). A gain is written back as the scale
+ * it means (gain × sensor sensitivity).
+ */
+export function readField(f: FieldDef, text: string, design: Design): FieldEdit {
+  const r = parseField(f, text, design);
+  if (!r.ok) return r;
+  let path = f.path;
+  let value = r.value;
+  if (f.path === 'target.gain') {
+    path = 'target.scale';
+    value = r.value * sensorFrontAtRail(design.sensor, design).sensitivity;
+    if (!Number.isFinite(value)) return { ok: false, message: `cannot turn a gain of ${text.trim()} into a scale for this sensor` };
+  }
+  const shown = f.path === 'target.gain'
+    ? displayValue(f, null, { ...design, target: { ...design.target, scale: value } })
+    : displayValue(f, value, design);
+  const typed = text.trim().replace(/\s+/g, ' ');
+  return { ok: true, path, value, readAs: typed === shown ? null : shown };
 }
 
 /** A problem's path in the editor's form: list items as `.0` (`target.range[0]` → `target.range.0`). */

@@ -15,10 +15,11 @@ export const ROLE_NAMES: Record<PartRole, string> = {
   offset: 'offset from the reference',
   'reference-top': 'reference top',
   'reference-bottom': 'reference bottom',
-  'gain-trim': 'gain trim',
-  'zero-trim': 'zero trim',
+  'gain-trim': 'span trimmer',
+  'zero-trim': 'zero trimmer',
   'output-series': 'output series / isolation',
   'output-capacitor': 'output filter capacitor',
+  burden: 'burden across the current transformer secondary (keep it fitted)',
 };
 
 /** Significant figures a part's value is written with: its series' (IEC 60063), two for trimmers and capacitors. */

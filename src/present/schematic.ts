@@ -48,7 +48,9 @@ export function schematic(r: Report): Schematic | null {
   const negLabel = r.design.supply.negative < 0 ? `${formatEng(r.design.supply.negative, 'V')}` : null;
   // Op-amp: − input on top at (300,150), + at (300,190), output at (380,170).
   P.push({ t: 'opamp', x: 340, y: 170, invertingOnTop: true });
-  const sensorLabel = r.design.sensor.type === 'hall-gap-core' ? 'Hall sensor' : r.design.sensor.type === 'current-transformer' ? 'CT + burden' : r.design.sensor.type === 'shunt' ? 'Shunt' : 'Sensor';
+  // The burden is a listed part (RB): the CT symbol names it with its value.
+  const burden = parts.find((p) => p.role === 'burden');
+  const sensorLabel = r.design.sensor.type === 'hall-gap-core' ? 'Hall sensor' : r.design.sensor.type === 'current-transformer' ? `CT + ${burden ? `${burden.ref} ${partValue(burden)}` : 'burden'}` : r.design.sensor.type === 'shunt' ? 'Shunt' : 'Sensor';
   const sensorY = inv || topo === 'summing-inverting' ? 150 : 190;
   P.push({ t: 'source', x: 40, y: sensorY, label: sensorLabel });
   const fb = arm(parts, 'feedback');
@@ -199,4 +201,36 @@ export function schematic(r: Report): Schematic | null {
   P.push({ t: 'terminal', x: 610, y: 170, label: 'To instrument' });
   P.push({ t: 'text', x: 400, y: 440, text: `U1 ${STAGE_NAMES[topo]}` });
   return { width: 660, height: 450, prims: P };
+}
+
+/** Width of a label in drawing units, at the 11-unit type the drawing is made for (about 0.6 em a character). */
+const textWidth = (s: string) => s.length * 6.6;
+
+/**
+ * The box the drawing actually covers, with a margin: the grid is larger than most stages need, so a view
+ * cropped to this box draws the same schematic larger (readable at print size). Extents per primitive
+ * follow the symbol sizes the app draws (resistor body 50 × 14 with 25-unit leads, op-amp 80 × 80, labels).
+ */
+export function drawingBounds(d: Schematic, margin = 12): { x: number; y: number; width: number; height: number } {
+  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+  const add = (x: number, y: number) => { x0 = Math.min(x0, x); y0 = Math.min(y0, y); x1 = Math.max(x1, x); y1 = Math.max(y1, y); };
+  for (const p of d.prims) {
+    switch (p.t) {
+      case 'wire': for (const [x, y] of p.pts) add(x, y); break;
+      case 'res':
+        if (p.vertical) { add(p.x - 20, p.y - 35); add(p.x + 24 + textWidth(p.value.length > p.ref.length ? p.value : p.ref), p.y + 35); }
+        else { add(p.x - 50, p.y - 24); add(Math.max(p.x + 50, p.x - 25 + textWidth(p.value)), p.y + 26); }
+        break;
+      case 'cap': add(p.x - 12, p.y - 15); add(p.x + 16 + textWidth(p.value), p.y + 15); break;
+      case 'opamp': add(p.x - 40, p.y - 40); add(p.x + 40, p.y + 40); break;
+      case 'ground': add(p.x - 10, p.y); add(p.x + 10, p.y + 10); break;
+      case 'rail': add(p.x - 10, p.y - 8); add(p.x + 12 + textWidth(p.label), p.y + 6); break;
+      case 'source': add(p.x - 24, p.y - 16); add(Math.max(p.x + 30, p.x - 24 + textWidth(p.label)), p.y + 36); break;
+      case 'terminal': add(p.x - 40, p.y - 5); add(Math.max(p.x + 5, p.x - 40 + textWidth(p.label)), p.y + 26); break;
+      case 'text': add(p.x, p.y - 10); add(p.x + textWidth(p.text), p.y + 3); break;
+      default: add(p.x - 6, p.y - 6); add(p.x + 6, p.y + 6);
+    }
+  }
+  if (!Number.isFinite(x0)) return { x: 0, y: 0, width: d.width, height: d.height };
+  return { x: x0 - margin, y: y0 - margin, width: x1 - x0 + 2 * margin, height: y1 - y0 + 2 * margin };
 }

@@ -43,7 +43,7 @@ export function textReport(r: Report): string {
     out.push(`  Headroom ${f(c.headroom.low, 'V')} (${c.headroom.lowPercent.toFixed(1)} % of span) low, ${f(c.headroom.high, 'V')} (${c.headroom.highPercent.toFixed(1)} %) high; first to saturate: ${c.first}`);
   }
   if (r.speed) {
-    h('Speed');
+    h('Bandwidth');
     out.push(`  Small-signal bandwidth ${f(r.speed.smallSignal, 'Hz')}${r.speed.lowCorner ? `, low corner ${f(r.speed.lowCorner, 'Hz')}` : ''}, phase at the corner ${r.speed.phaseAtCorner.toFixed(1)}°`);
     out.push(`  Rise time ${f(r.speed.riseTime, 's')}; full-power bandwidth ${f(r.speed.fullPower, 'Hz')} at ${f(r.speed.peakSwing, 'V')} peak`);
   }

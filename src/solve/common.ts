@@ -106,6 +106,8 @@ export function partsOf(net: StageNetwork, design: Design): Part[] {
     addTrim(net.reference.trim, 'zero-trim');
     addArm(net.reference.bottom, 'reference-bottom');
   }
+  // The burden belongs to the sensor but is a part to buy; its ref matches the circuit's element (RB).
+  if (design.sensor.type === 'current-transformer') parts.push({ ref: 'RB', role: 'burden', kind: 'resistor', ohms: design.sensor.burden, series, tolerance: tol, arrangement: 'single' });
   const f = design.output.filter;
   if (f) {
     parts.push({ ref: `R${++r}`, role: 'output-series', kind: 'resistor', ohms: f.resistance, series, tolerance: tol, arrangement: 'single' });

@@ -47,7 +47,7 @@ const fieldState = (page: Page, path: string) => page.locator(`gw-field[path="${
 
 async function openDemo(page: Page, id: string): Promise<void> {
   await page.selectOption('select[aria-label="Load a demo"]', id);
-  await expect.poll(() => page.locator('input[aria-label="Design title"]').inputValue()).toBe(titleOf(id));
+  await expect.poll(() => page.locator('input[data-path="title"]').inputValue()).toBe(titleOf(id));
   await expect.poll(() => partsText(page)).toMatch(/R1/);
 }
 
@@ -87,15 +87,17 @@ describe('a refused edit never leaves a value on screen that is not in force', (
     await page.context().close();
   });
 
-  it('a 201-character title: the header box returns to the title in force and says why', async () => {
+  it('a 201-character title: the title field keeps the typed text marked invalid, says why, and the title in force stays', async () => {
     const { page } = await watchedPage(h);
     await page.goto(h.url);
     await openDemo(page, 'generic-sensor');
-    const title = page.locator('input[aria-label="Design title"]');
+    const title = page.locator('input[data-path="title"]');
     await title.fill('x'.repeat(201));
     await title.press('Enter');
     await expect.poll(() => notice(page, 'message').innerText()).toMatch(/Title is too long \(at most 200 characters\)/);
-    await expect.poll(() => title.inputValue()).toBe(titleOf('generic-sensor'));
+    await expect.poll(() => title.getAttribute('aria-invalid')).toBe('true');
+    // The design in force keeps its title: the printed sheet's heading still shows it.
+    await expect.poll(() => page.locator('gw-build-sheet h1').innerText()).toBe(titleOf('generic-sensor'));
     await page.context().close();
   });
 
@@ -145,7 +147,7 @@ describe('nothing lost', () => {
     expect(await field(page, 'target.zero').inputValue()).toBe('3.3 V');
     await page.selectOption('select[aria-label="Load a demo"]', 'appliance-ct');
     await notice(page, 'confirm').getByRole('button', { name: 'Replace' }).click();
-    await expect.poll(() => page.locator('input[aria-label="Design title"]').inputValue()).toBe(titleOf('appliance-ct'));
+    await expect.poll(() => page.locator('input[data-path="title"]').inputValue()).toBe(titleOf('appliance-ct'));
     await notice(page, 'message').getByRole('button', { name: 'Undo' }).click();
     await expect.poll(() => field(page, 'target.zero').inputValue()).toBe('3.3 V');
     // Both designs are in Recent designs, and survive a reload.
@@ -259,14 +261,14 @@ describe('hostile files in the app', () => {
     const text = JSON.stringify(DEMOS.find((d) => d.id === 'appliance-ct')!.document);
     writeFileSync(join(dir, 'le.json'), Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from(text, 'utf16le')]));
     await page.locator('#open-file').setInputFiles(join(dir, 'le.json'));
-    await expect.poll(() => page.locator('input[aria-label="Design title"]').inputValue()).toBe(titleOf('appliance-ct'));
+    await expect.poll(() => page.locator('input[data-path="title"]').inputValue()).toBe(titleOf('appliance-ct'));
     writeFileSync(join(dir, 'twice.json'), text.replace('"burden":33', '"burden":33,"burden":1'));
     await page.locator('#open-file').setInputFiles(join(dir, 'twice.json'));
     await expect.poll(() => notice(page, 'message').innerText()).toMatch(/twice\.json cannot be opened.*Burden resistor appears twice/);
     writeFileSync(join(dir, 'proto.json'), text.replace('"opamp":{', '"opamp":{"__proto__":{"gbw":1},'));
     await page.locator('#open-file').setInputFiles(join(dir, 'proto.json'));
     await expect.poll(() => notice(page, 'message').innerText()).toMatch(/proto\.json cannot be opened.*“__proto__” in opamp is not a field/);
-    expect(await page.locator('input[aria-label="Design title"]').inputValue()).toBe(titleOf('appliance-ct'));
+    expect(await page.locator('input[data-path="title"]').inputValue()).toBe(titleOf('appliance-ct'));
     await page.context().close();
   });
 

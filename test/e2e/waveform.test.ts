@@ -23,7 +23,7 @@ describe('the scope view in Chromium', () => {
     await page.goto(h.url);
     for (const demo of DEMOS) {
       await page.selectOption('select[aria-label="Load a demo"]', demo.id);
-      await expect.poll(() => page.locator('input[aria-label="Design title"]').inputValue()).toBe(demo.document.title);
+      await expect.poll(() => page.locator('input[data-path="title"]').inputValue()).toBe(demo.document.title);
       await expect.poll(async () => (await scope(page))?.drawn ?? false, { message: demo.id }).toBe(true);
       const s = (await scope(page))!;
       expect(s.title).toBe('What the scope shows');

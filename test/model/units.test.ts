@@ -90,3 +90,35 @@ describe('tolerance letters and colour bands (IEC 60062)', () => {
     expect(colourBands(2260, 0.01)).toEqual(['red', 'red', 'blue', 'brown', 'brown']);
   });
 });
+
+// SI Brochure, 9th ed. (2019), table 7: m = 1e-3 (milli), M = 1e6 (mega), k = 1e3, n = 1e-9; prefix symbols
+// are case-sensitive. Unit symbols: V, Hz, T, m (metre).
+describe('parseQuantity reads what a person means', () => {
+  it.each([
+    ['0.06 m', 'm', 0.06], ['0.0015 m', 'm', 0.0015], ['1.5 mm', 'm', 1.5e-3], ['60 MM', 'm', 60e6],
+    ['9 v', 'V', 9], ['20 khz', 'Hz', 20e3], ['20 KHz', 'Hz', 20e3], ['20 kHZ', 'Hz', 20e3], ['2 MHz', 'Hz', 2e6], ['2 mHz', 'Hz', 2e-3],
+    ['300 K', 'K', 300], ['5 ma', 'A', 5e-3], ['5 MA', 'A', 5e6], ['47 KOhm', 'ohm', 47e3], ['47 ohms', 'ohm', 47], ['4.7 K', 'ohm', 4700],
+    ['25 mv/mt', 'V/T', 25], ['0.5 v/us', 'V/s', 5e5], ['35 nv/√hz', 'V/Hz^0.5', 35e-9], ['100 nf', 'F', 100e-9], ['4n7', 'F', 4.7e-9],
+    ['300 mt', 'T', 0.3], ['10 g', 'T', 1e-3], ['1 G', 'Hz', 1e9],
+  ] as const)('parseQuantity(%j, %s) → %d', (text, dim, expected) => {
+    expect(value(text, dim) / expected).toBeCloseTo(1, 10);
+  });
+  // Arithmetic: 2 × 4.7 kΩ = 9.4 kΩ; 1/(2π·10 kΩ·10 nF) = 1591.549 Hz (RC corner, any circuits textbook); 9 V − 0.7 V = 8.3 V.
+  it.each([
+    ['2*4k7', 'ohm', 9400], ['1/(2*pi*10k*10n)', 'Hz', 1 / (2 * Math.PI * 1e4 * 1e-8)], ['9 V - 0.7 V', 'V', 8.3], ['sqrt(2) * 3 A', 'A', 3 * Math.SQRT2],
+    ['10 m - 2 m', 'm', 8], ['2 × 4.7k', 'ohm', 9400],
+  ] as const)('arithmetic: parseQuantity(%j, %s) → %d', (text, dim, expected) => {
+    expect(value(text, dim) / expected).toBeCloseTo(1, 10);
+  });
+  it('a bare number and bare arithmetic are in the unit given by the caller (millimetres here)', () => {
+    const mm = (x: number) => x / 1000;
+    expect(parseQuantity('1.5', 'm', mm)).toEqual({ ok: true, value: 0.0015 });
+    expect(parseQuantity('2*0.75', 'm', mm)).toEqual({ ok: true, value: 0.0015 });
+    expect(parseQuantity('1.5 m', 'm', mm)).toEqual({ ok: true, value: 1.5 });
+  });
+  it.each([['import("fs")', 'V'], ['cos(1) V', 'V'], ['x', 'V'], ['9 V - 0.7 A', 'V'], ['9^9^9^9', 'V'], ['2 kHz', 'V']] as const)('refuses %j as %s with a message naming what it wanted', (text, dim) => {
+    const r = parseQuantity(text, dim);
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.message).toMatch(/cannot read/);
+  });
+});

@@ -37,6 +37,17 @@ describe('idealStage and chooseTopology', () => {
     // Vp = (zero + G·Vq)/(1+G) with G = 8.
     expect(c.chosen!.reference).toBeCloseTo((4.5 + 8 * 2.5) / 9, 9);
   });
+  // Inverting gain is −Rf/Rin (ECEN 457 notes): with a positive sensor it cannot give a positive scale.
+  it('an inverting stage asked for the sensor\'s own sign is explained by its polarity, not the rails', () => {
+    const d = design((x) => { x.target.topology = 'inverting'; x.target.scale = 0.1; });
+    const c = chooseTopology(d, sensorFront(d.sensor, d));
+    expect(c.chosen).toBeNull();
+    const text = c.guidance.join(' ');
+    expect(text).toMatch(/polarity is the cause/);
+    expect(text).toMatch(/Reverse the conductor/);
+    expect(text).toMatch(/non-inverting stage/);
+    expect(text).not.toMatch(/rail-to-rail/);
+  });
   it('a gain below 1 with the same polarity is met by the summing non-inverting stage, which attenuates', () => {
     const d = design((x) => { x.target.scale = 0.005; x.target.zero = 2.5; });
     const c = chooseTopology(d, sensorFront(d.sensor, d));

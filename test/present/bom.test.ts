@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { bomCsv, bomRows, dissipations, powerRating } from '../../src/present/bom.js';
 import { analyse } from '../../src/analysis/report.js';
+import { textReport } from '../../src/present/text-report.js';
 import { designFrom, shuntOnSplitSupply } from '../helpers.js';
 
 describe('parts list', () => {
@@ -14,6 +15,18 @@ describe('parts list', () => {
     const r = analyse(designFrom('generic-sensor', shuntOnSplitSupply), { spreadTrials: 0 });
     // 5 A through 10 mΩ: 0.25 W (the input network's share of the current is negligible).
     expect(dissipations(r).get('RSH')! / 0.25).toBeCloseTo(1, 3);
+  });
+  it('a current transformer\'s burden is a part: in the rows, the CSV and the text report, with its IEC 60062 code', () => {
+    const r = analyse(designFrom('appliance-ct'), { spreadTrials: 0 });
+    const rb = bomRows(r).find((x) => x.ref === 'RB');
+    expect(rb).toBeDefined();
+    // IEC 60062: 33 Ω with three significant figures (the design's E96 series) is written 33R0.
+    expect(rb!.code).toBe('33R0');
+    expect(rb!.role).toMatch(/burden/);
+    expect(rb!.rating).toBeGreaterThanOrEqual(0.25);
+    expect(bomCsv(r)).toMatch(/"RB","33\.0 Ω","33R0"/);
+    expect(textReport(r)).toMatch(/RB\s+33\.0 Ω\s+33R0/);
+    expect(bomRows(analyse(designFrom('bench-clamp'), { spreadTrials: 0 })).some((x) => x.ref === 'RB')).toBe(false);
   });
   it('lists every stage part once with its code, plus the sensor, the op-amp and its decoupling', () => {
     const r = analyse(designFrom('bench-clamp'), { spreadTrials: 0 });

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { displayValue, FIELDS, fieldsFor, getPath, parseField, problemWords, setPath } from '../../src/present/fields.js';
+import { displayValue, FIELDS, fieldHint, fieldsFor, getPath, parseField, problemWords, readField, setPath } from '../../src/present/fields.js';
 import { DEMOS } from '../../src/model/demos.js';
+import { sensorFrontAtRail } from '../../src/physics/sensors.js';
 import { demoDesign } from '../../src/model/demos.js';
 import { validateDesign } from '../../src/model/design.js';
 
@@ -95,5 +96,38 @@ describe('problemWords: a refusal in the field\'s own words, never a field path'
   });
   it('a document entry that is no field is named as an entry, not as a dotted path', () => {
     expect(problemWords({ path: 'opamp.__proto__', message: 'is not a field this format knows' })).toBe('The entry “__proto__” in opamp is not a field this format knows');
+  });
+});
+
+// SI Brochure, 9th ed., table 7 (prefixes): 25 mV/mT = 25 V/T, 0.5 V/µs = 5e5 V/s, 35 nV/√Hz = 3.5e-8 V/√Hz.
+describe('fields are shown in the trade\'s units and read bare numbers in them', () => {
+  const d = demoDesign('bench-clamp');
+  it.each([
+    ['sensor.hallSensitivity', 25, '25 mV/mT'], ['opamp.slewRate', 5e5, '0.5 V/µs'], ['opamp.voltageNoise', 3.5e-8, '35 nV/√Hz'],
+    ['opamp.voltageNoise', 0, '0 nV/√Hz'], ['sensor.core.gap', 0.0015, '1.5 mm'], ['target.scale', 0.1, '100 mV/A'], ['target.scale', -2.05, '-2050 mV/A'],
+  ] as const)('displayValue(%s, %d) is %j', (path, v, text) => {
+    expect(displayValue(f(path), v, d)).toBe(text);
+  });
+  it('a bare number is in the shown unit: 100 in the scale is 100 mV/A, 1.5 in the gap is 1.5 mm, 0.5 in the slew rate is 0.5 V/µs', () => {
+    expect(parseField(f('target.scale'), '100', d)).toEqual({ ok: true, value: 0.1 });
+    expect(parseField(f('sensor.core.gap'), '1.5', d)).toEqual({ ok: true, value: 0.0015 });
+    expect(parseField(f('opamp.slewRate'), '0.5', d)).toEqual({ ok: true, value: 5e5 });
+  });
+  it('readField says how a value was read when it was not typed in the shown unit', () => {
+    expect(readField(f('sensor.core.gap'), '0.0015 m', d)).toEqual({ ok: true, path: 'sensor.core.gap', value: 0.0015, readAs: '1.5 mm' });
+    expect(readField(f('sensor.core.pathLength'), '0.06 m', d)).toEqual({ ok: true, path: 'sensor.core.pathLength', value: 0.06, readAs: '60 mm' });
+    expect(readField(f('sensor.core.gap'), '1.5 mm', d)).toMatchObject({ ok: true, readAs: null });
+    expect(readField(f('supply.positive'), '9 v', d)).toMatchObject({ ok: true, value: 9, readAs: '9 V' });
+  });
+  it('a gain is another way to state the target: it writes the scale gain × sensor sensitivity, with the sign as polarity', () => {
+    const sens = sensorFrontAtRail(d.sensor, d).sensitivity;
+    const r = readField(f('target.gain'), '100', d);
+    expect(r).toMatchObject({ ok: true, path: 'target.scale' });
+    if (r.ok) expect(r.value / (100 * sens)).toBeCloseTo(1, 12);
+    const back = setPath(d, 'target.scale', r.ok ? r.value : 0);
+    expect(displayValue(f('target.gain'), undefined, back)).toBe('100');
+    expect(fieldHint(f('target.scale'), back)).toMatch(/gain 100: keeps the sensor's polarity/);
+    const inv = setPath(d, 'target.scale', -100 * sens);
+    expect(fieldHint(f('target.gain'), inv)).toMatch(/inverts the sensor's polarity/);
   });
 });

@@ -9,12 +9,12 @@ describe('text report and key figures', () => {
   it.each(DEMOS.map((d) => d.id))('%s: every section, no NaN or Infinity', (id) => {
     const r = analyse(designFrom(id), { spreadTrials: 100 });
     const t = textReport(r);
-    for (const h of ['Verdict', 'Stage', 'Parts', 'Range and clipping', 'Speed', 'Noise', 'DC error budget', 'Supply', 'Calibration', 'Safety']) expect(t).toContain(h);
+    for (const h of ['Verdict', 'Stage', 'Parts', 'Range and clipping', 'Bandwidth', 'Noise', 'DC error budget', 'Supply', 'Calibration', 'Safety']) expect(t).toContain(h);
     expect(t).not.toMatch(/NaN|Infinity/);
     for (const row of keyFigures(r)) expect(`${row.value} ${row.note ?? ''}`).not.toMatch(/NaN|Infinity/);
   });
   it('a design with no stage still prints its verdict, guidance and the cautions', () => {
-    const t = textReport(analyse(designFrom('generic-sensor', (x) => { x.target.scale = 0.005; x.target.zero = 2.5; }), { spreadTrials: 0 }));
+    const t = textReport(analyse(designFrom('generic-sensor', (x) => { x.target.scale = 0.005; x.target.zero = 2.5; x.target.topology = 'non-inverting'; }), { spreadTrials: 0 }));
     expect(t).toMatch(/\[FAIL\]/);
     expect(t).toMatch(/reverse the conductor/i);
     expect(t).toMatch(/insulated conductors/);

@@ -1,0 +1,88 @@
+import { LitElement, html, css, nothing } from 'lit';
+import { customElement, property } from 'lit/decorators.js';
+import type { BomRow, FigureRow, Report, Schematic } from '../src/index.js';
+import { errorBudgetRows, sheetStatus, trimmerStarts } from '../src/index.js';
+import { base } from './styles.js';
+import './gw-schematic.js';
+import './gw-parts.js';
+import './gw-figures.js';
+
+const WORD = { pass: 'Pass', caution: 'Caution', fail: 'Fail', info: 'Note' } as const;
+
+/**
+ * The printed build sheet: verdict and findings first, then schematic, parts, trimmer start positions,
+ * calibration, the error budget by term, key figures and the cautions. The status line sits in the head of
+ * a table that wraps the sheet, so that print repeats it on every page: a failed design says so on each.
+ * Shown only in print (the app hides it on screen).
+ */
+@customElement('gw-build-sheet')
+export class GwBuildSheet extends LitElement {
+  static override styles = [base, css`
+    :host { display: block; --gw-font-size: 8pt; --gw-cell-pad: 0 0.2rem; font-size: 8pt; line-height: 1.3; color: #000; background: #fff; }
+    table.page { width: 100%; border-collapse: collapse; }
+    table.page > thead { display: table-header-group; }
+    table.page > thead th, table.page > tbody > tr > td { border: 0; padding: 0; font-size: inherit; color: inherit; font-weight: normal; }
+    .status { border: 1.5pt solid #000; padding: 0.1rem 0.4rem; margin-bottom: 0.25rem; font-weight: 700; text-align: left; }
+    .status.failed { border-width: 3pt; font-size: 10pt; }
+    h1 { font-size: 13pt; margin: 0 0 0.2rem; }
+    h2 { font-size: 10pt; margin: 0.4rem 0 0.15rem; }
+    p, ul, ol { margin: 0.1rem 0; }
+    ul.verdicts { list-style: none; padding: 0; }
+    ul.verdicts li, ul.findings li { margin: 0.05rem 0; }
+    .lvl { display: inline-block; min-width: 3.2rem; font-weight: 700; }
+    .grid { display: grid; grid-template-columns: 1fr 1fr; gap: 0 0.6cm; }
+    section { break-inside: avoid; }
+    gw-schematic { display: block; width: 100%; --gw-schematic-max-height: 7cm; }
+    ol { padding-left: 1.2rem; }
+    .safety { border: 1px solid #000; padding: 0.1rem 0.3rem 0.1rem 1.2rem; }
+    table.budget td:nth-child(2) { white-space: nowrap; font-variant-numeric: tabular-nums; }
+  `];
+
+  /** The report to print. */
+  @property({ attribute: false }) report: Report | null = null;
+  /** Its schematic, parts rows and key figures, as the app already derived them. */
+  @property({ attribute: false }) drawing: Schematic | null = null;
+  @property({ attribute: false }) rows: BomRow[] = [];
+  @property({ attribute: false }) figures: FigureRow[] = [];
+  /** The cautions for this design (the one caution list plus the sensor's own). */
+  @property({ attribute: false }) cautions: string[] = [];
+
+  override render() {
+    const r = this.report;
+    if (!r) return nothing;
+    const status = sheetStatus(r);
+    const budget = errorBudgetRows(r);
+    const trims = trimmerStarts(r);
+    const half = Math.ceil(this.figures.length / 2);
+    return html`<table class="page" data-failed=${status.failed ? 'true' : 'false'}>
+      <thead><tr><th><div class="status ${status.failed ? 'failed' : ''}">${r.design.title}: ${status.line}</div></th></tr></thead>
+      <tbody><tr><td>
+        <h1>${r.design.title}</h1>
+        ${r.design.notes ? html`<p>${r.design.notes}</p>` : nothing}
+        <div class="grid">
+          <section><h2>Verdict</h2><ul class="verdicts">${r.verdicts.map((v) => html`<li><span class="lvl">${WORD[v.level]}</span> ${v.title}</li>`)}</ul></section>
+          <section><h2>Findings</h2>${r.warnings.length ? html`<ul class="findings">${r.warnings.map((w) => html`<li><span class="lvl">${WORD[w.level]}</span> ${w.message}</li>`)}</ul>` : html`<p>None.</p>`}</section>
+        </div>
+        <section><h2>Schematic</h2><gw-schematic .drawing=${this.drawing}></gw-schematic></section>
+        <section><h2>Safety</h2><ul class="safety">${this.cautions.map((c) => html`<li>${c}</li>`)}</ul></section>
+        <section><h2>Parts list</h2><gw-parts compact .rows=${this.rows}></gw-parts></section>
+        ${r.calibration.length ? html`<section><h2>Calibration</h2><ol>${r.calibration.map((c) => html`<li>${c.text}</li>`)}</ol></section>` : nothing}
+        <div class="grid">
+          ${budget.length ? html`<section><h2>Error budget at the range end</h2><table class="budget" aria-label="Error budget"><tbody>${budget.map((b) => html`<tr><td>${b.term}</td><td>${b.value}</td><td>${b.after}</td></tr>`)}</tbody></table></section>` : nothing}
+          ${trims.length ? html`<section><h2>Trimmer start positions</h2><table aria-label="Trimmer start positions"><tbody>${trims.map((t) => html`<tr><td>${t.ref}</td><td>${t.value}</td><td>${t.role}</td><td>${t.setting}</td></tr>`)}</tbody></table></section>` : nothing}
+        </div>
+        <!-- What the app adds beside the design's own figures: the scope trace, the blank readings table. -->
+        <slot></slot>
+        <div class="grid">
+          <section><h2>Key figures</h2><gw-figures caption="Key figures" .rows=${this.figures.slice(0, half)}></gw-figures></section>
+          <section><h2>&nbsp;</h2><gw-figures caption="Key figures, continued" .rows=${this.figures.slice(half)}></gw-figures></section>
+        </div>
+        <p><small>Made with Gainwright from the design's own figures; check them against your parts before building.</small></p>
+      </td></tr></tbody>
+    </table>`;
+  }
+}
+
+declare global {
+  interface HTMLElementTagNameMap { 'gw-build-sheet': GwBuildSheet; }
+}
