@@ -65,6 +65,34 @@ console.log('\n1. Resistor search');
   line('  speed-up (budget ≥ 100×)', `${(median(slow) / median(fast)).toFixed(0)}×`, `same best error in ${same}/12 targets`);
 }
 
+// 1b. Stage solve per stage ------------------------------------------------------------------------------
+// Each stage on E96 parts, one or two per arm, 1 kΩ–1 MΩ, both trims (scenarios of our own invention,
+// patched from the generic demo); beside it, the same feedback pair found by the exhaustive O(N²) search.
+console.log('\n1b. Stage solve per stage (E96, two-part arms, 1 kΩ–1 MΩ, trims on)');
+{
+  const { validateDesign } = await b('model/design.js');
+  const mk = (patch) => { const doc = structuredClone(DEMOS.find((x) => x.id === 'generic-sensor').document); patch(doc); const v = validateDesign(doc); if (!v.ok) throw new Error(JSON.stringify(v.problems)); return v.design; };
+  const cases = [
+    ['non-inverting', mk(() => {})],
+    ['inverting', mk((x) => { x.target.scale = -0.1; })],
+    ['summing non-inverting (shunt, zero 0.5 V)', mk((x) => { x.sensor = { type: 'shunt', measurand: 'A', resistance: 0.01, powerRating: 5 }; x.supply = { positive: 5, negative: 0 }; x.target = { ...x.target, scale: 0.2, zero: 0.5, range: [-2, 20] }; })],
+    ['summing inverting (±5 V, zero −2 V)', mk((x) => { x.supply = { positive: 5, negative: -5 }; x.target = { ...x.target, scale: -0.1, zero: -2, range: [-10, 10], topology: 'summing-inverting' }; })],
+    ['difference (bridge, 2.5 V common mode)', mk((x) => { x.sensor.commonMode = 2.5; x.sensor.quiescent = 0; x.sensor.outputMin = -5; x.sensor.outputMax = 5; x.target = { ...x.target, scale: 0.1, zero: 4.5, range: [-20, 20] }; })],
+  ];
+  // The exhaustive baseline on E24 two-part arms (E96's would take hours: N² with N ≈ 10⁵).
+  const table = armTable('E24', 1e3, 1e6, ['single', 'series', 'parallel']);
+  for (const [name, d] of cases) {
+    const f = sensorFront(d.sensor, d);
+    const ideal = chooseTopology(d, f).chosen;
+    if (!ideal) { line(name, 'no stage'); continue; }
+    const t = time(() => solveStage(d, f, ideal), 20);
+    const prob = { preferredA: 1e5, floor: 5e-4, ratio: { cA: 0, cB: 0, k: ideal.feedbackRatio, m: 1 } };
+    const fast = time(() => searchPairs(table, table, prob, 10), 5);
+    const slow = time(() => searchPairsExhaustive(table, table, prob), 1);
+    line(`${name}: full solve, median`, ms(t), `budget 20 ms; its feedback pair on E24: exhaustive/fast ${(slow / fast).toFixed(0)}×`);
+  }
+}
+
 // 2. Full analysis ---------------------------------------------------------------------------------------
 console.log('\n2. Full analysis (demo "bench-clamp")');
 {

@@ -6,6 +6,7 @@ import type { Design, MeasurandWaveform, Topology } from '../model/design.js';
 import { sensorFrontAtRail, type SensorFront } from '../physics/sensors.js';
 import { chooseTopology, peakRange, type TopologyChoiceResult } from '../physics/topology.js';
 import { solveStage, type SolvedStage } from '../solve/stage.js';
+import { commonModeGain, openLoopOf } from '../solve/transfer.js';
 import type { Part } from '../circuit/network.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
 import {
@@ -261,6 +262,17 @@ function findings(r: Report): Warning[] {
   }
   if (r.noise && ((d.opamp.voltageNoise > 0 && !d.opamp.voltageNoiseCorner) || (d.opamp.currentNoise > 0 && !d.opamp.currentNoiseCorner))) {
     w.push({ code: 'flicker-not-given', level: 'info', message: `The op-amp's 1/f noise corner${!d.opamp.voltageNoiseCorner && !d.opamp.currentNoiseCorner ? 's are' : ' is'} not given (0 Hz): its noise is taken as white down to ${f3(r.noise.lowFrequency.band[0], 'Hz')}, right for a chopper, optimistic for most other kinds. Give opamp.voltageNoiseCorner and opamp.currentNoiseCorner from the datasheet's noise curve.` });
+  }
+  // The difference stage's common-mode rejection: what the built pair passes of the sensor's common-mode
+  // voltage, and the worst case its resistors' tolerance allows, A_cm ≈ G/(1+G)·4t (Franco, Design with
+  // Operational Amplifiers, §2.3, for four resistors each ±t; from memory), both referred to the measurand.
+  if (r.stage && r.stage.ideal.topology === 'difference' && r.front.commonMode !== null) {
+    const g = r.stage.gain;
+    const acm = commonModeGain(r.stage.network, r.front, openLoopOf(d));
+    const worst = (g / (1 + g)) * 4 * d.target.tolerance;
+    const cm = Math.abs(r.front.commonMode);
+    const scale = Math.abs(r.dc?.out[1] ?? d.target.scale) || 1;
+    w.push({ code: 'common-mode', level: (Math.abs(acm) + worst) * cm / scale > 0.01 * Math.max(Math.abs(clip.rangePeak[0]), Math.abs(clip.rangePeak[1])) ? 'caution' : 'info', message: `The sensor's ${f3(r.front.commonMode, 'V')} common mode: the built pair passes ${f3(Math.abs(acm) * cm, 'V')} of it (${f3(Math.abs(acm) * cm / scale, m)}), and ${(d.target.tolerance * 100).toFixed(1)} % resistors can pass up to ${f3(worst * cm, 'V')} (${f3(worst * cm / scale, m)}, a common-mode gain of ${worst.toPrecision(2)}): the zero trim removes it at this common mode; a common mode that moves moves the zero by as much.` });
   }
   const advice = r.drive ? probeAdvice(r.drive, m, d.target.signal === 'ac-rms') : null;
   if (advice) w.push({ code: 'probe-ratio', level: 'info', message: advice });

@@ -76,8 +76,11 @@ export function schematic(r: Report): Schematic | null {
     P.push({ t: 'res', x, y: 255, vertical: true, ...a, trimmer: false });
     W([x, 290], [x, 325]);
   };
-  /** The ground leg from the − node down to ground (summing non-inverting), hopping over the + input's wire. */
-  const legToGround = () => {
+  /**
+   * The ground leg from the − node down, hopping over the + input's wire: to ground (summing non-inverting) or
+   * on to the reference node's row (non-inverting).
+   */
+  const legDown = (toGround: boolean) => {
     const leg = arm(parts, 'ground-leg');
     if (!leg) return;
     P.push({ t: 'dot', x: 250, y: 150 });
@@ -85,8 +88,7 @@ export function schematic(r: Report): Schematic | null {
     P.push({ t: 'hop', x: 210, y: 190 });
     W([210, 196], [210, 200]);
     P.push({ t: 'res', x: 210, y: 235, vertical: true, ...leg, trimmer: false });
-    W([210, 270], [210, 280]);
-    P.push({ t: 'ground', x: 210, y: 280 });
+    if (toGround) { W([210, 270], [210, 280]); P.push({ t: 'ground', x: 210, y: 280 }); } else W([210, 270], [210, 325]);
   };
   /** A horizontal arm at height y from the sensor's lead to x = 180, then a wire on to `to`. */
   const inputArm = (y: number, a: { ref: string; value: string } | null, to: number) => {
@@ -96,15 +98,8 @@ export function schematic(r: Report): Schematic | null {
   if (topo === 'non-inverting') {
     // + input from the sensor; ground leg from the − node down to the reference.
     W([70, 190], [300, 190]);
-    const leg = arm(parts, 'ground-leg');
-    if (leg) {
-      P.push({ t: 'dot', x: 250, y: 150 });
-      // Down to the ground leg, hopping over the + input's wire.
-      W([250, 150], [210, 150], [210, 184]);
-      P.push({ t: 'hop', x: 210, y: 190 });
-      W([210, 196], [210, 200]);
-      P.push({ t: 'res', x: 210, y: 235, vertical: true, ...leg, trimmer: false });
-      W([210, 270], [210, 325]);
+    if (arm(parts, 'ground-leg')) {
+      legDown(false);
     } else if (s.network.reference.kind !== 'none') {
       W([250, 150], [210, 150], [210, 184]);
       P.push({ t: 'hop', x: 210, y: 190 });
@@ -126,7 +121,7 @@ export function schematic(r: Report): Schematic | null {
     const plus = arm(parts, 'plus-input');
     if (plus) P.push({ t: 'res', x: 130, y: 190, vertical: false, ...plus, trimmer: false });
     if (follower) W([180, 190], [300, 190]);
-    else { W([180, 190], [204, 190]); W([216, 190], [300, 190]); legToGround(); }
+    else { W([180, 190], [204, 190]); W([216, 190], [300, 190]); legDown(true); }
     P.push({ t: 'dot', x: 290, y: 190 });
     refX = 290;
     downArm(290, 190, arm(parts, 'offset'));

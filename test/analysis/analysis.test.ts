@@ -162,7 +162,7 @@ describe('after calibration', () => {
     const before = r.errors!.terms.filter((t) => !t.calibration).reduce((x, t) => x + t.value, 0);
     expect(r.errors!.worstCase).toBeCloseTo(before, 9);
     // The steps tell the user to judge the span by that difference.
-    expect(r.calibration.some((c) => /difference from the zero reading/.test(c.text))).toBe(true);
+    expect(r.calibration.some((c) => /difference of two readings/.test(c.text) && /do not interact/.test(c.text))).toBe(true);
   });
   // The trimmers' tempco scales each whole track: the rheostat in the feedback arm moves the gain, the
   // potentiometer's ratio holds and only its Thevenin resistance moves. Closed form of the bench clamp
