@@ -66,7 +66,9 @@ export class GwApp extends LitElement {
     header { background: #22303f; color: #fff; padding: 0.6rem 1rem; display: flex; flex-wrap: wrap; gap: 0.6rem; align-items: center; }
     header h1 { font-size: 1.15rem; margin: 0 1rem 0 0; letter-spacing: 0.02em; }
     header h1 span { color: #e9a268; }
-    header gw-toolbar { flex: 1 1 20rem; min-width: 0; }
+    header gw-toolbar { flex: 1 1 auto; min-width: 0; }
+    @media (min-width: 1000px) { header gw-toolbar { flex: 1 0 auto; } }
+    header select { max-width: 10rem; background: #2f4155; color: #fff; border: 1px solid #8fa3b8; border-radius: 4px; padding: 0.3rem 0.4rem; }
     .skip { position: absolute; left: 0.5rem; top: -3rem; background: #fff; color: var(--gw-ink); padding: 0.3rem 0.6rem; border-radius: 4px; z-index: 2; }
     .skip:focus { top: 0.5rem; }
     .sr-only { position: absolute; width: 1px; height: 1px; overflow: hidden; clip: rect(0 0 0 0); white-space: nowrap; }

@@ -223,7 +223,7 @@ function findings(r: Report): Warning[] {
   } else {
     if (!clip.linearAtZero) w.push({ code: 'zero-outside-linear', level: clip.measurandLow <= a && clip.measurandHigh >= b ? 'info' : 'caution', message: `At zero ${m} the stage sits outside its linear region, which runs from ${f3(clip.measurandLow, m)} to ${f3(clip.measurandHigh, m)}${clip.measurandLow <= a && clip.measurandHigh >= b ? ' and covers the range' : ''}.` });
     const fix = (cause: string | null) => cause === 'opamp-output' || cause === 'opamp-current'
-      ? ' To fit, move the zero (target.zero) towards the middle of the swing, lower the scale, use a split supply, or an op-amp whose output swings closer to the rails.'
+      ? ' To fit, move the zero towards the middle of the swing, lower the scale, use a split supply, or an op-amp whose output swings closer to the rails.'
       : cause === 'opamp-input' ? ' An op-amp whose input range includes the rail, a lower sensor offset, or the inverting stage (its inputs sit still) would fit.'
       : cause === 'core' ? ' Fewer turns or a longer gap raise the core\'s limit.'
       : cause === 'sensor' ? ' The sensor itself runs out first: fewer turns, a longer gap, or a sensor with a wider range.' : '';
@@ -261,7 +261,7 @@ function findings(r: Report): Warning[] {
     }
   }
   if (r.noise && ((d.opamp.voltageNoise > 0 && !d.opamp.voltageNoiseCorner) || (d.opamp.currentNoise > 0 && !d.opamp.currentNoiseCorner))) {
-    w.push({ code: 'flicker-not-given', level: 'info', message: `The op-amp's 1/f noise corner${!d.opamp.voltageNoiseCorner && !d.opamp.currentNoiseCorner ? 's are' : ' is'} not given (0 Hz): its noise is taken as white down to ${f3(r.noise.lowFrequency.band[0], 'Hz')}, right for a chopper, optimistic for most other kinds. Give opamp.voltageNoiseCorner and opamp.currentNoiseCorner from the datasheet's noise curve.` });
+    w.push({ code: 'flicker-not-given', level: 'info', message: `The op-amp's 1/f noise corner${!d.opamp.voltageNoiseCorner && !d.opamp.currentNoiseCorner ? 's are' : ' is'} not given (0 Hz): its noise is taken as white down to ${f3(r.noise.lowFrequency.band[0], 'Hz')}, right for a chopper, optimistic for most other kinds. Give the op-amp's voltage and current noise 1/f corners from its noise curve.` });
   }
   // The difference stage's common-mode rejection: what the built pair passes of the sensor's common-mode
   // voltage, and the worst case its resistors' tolerance allows, A_cm ≈ G/(1+G)·4t (Franco, Design with
@@ -278,7 +278,7 @@ function findings(r: Report): Warning[] {
   if (advice) w.push({ code: 'probe-ratio', level: 'info', message: advice });
   if (r.drive) {
     if (!r.drive.drives50) w.push({ code: 'no-50-ohm', level: 'info', message: 'Do not switch the instrument to its 50 Ω input: the op-amp cannot drive it over the range.' });
-    if (r.drive.isolation > 0) w.push({ code: 'capacitive-load', level: 'caution', message: `The instrument and cable capacitance sits on the op-amp output unisolated: fit a series resistor of about ${f3(r.drive.isolation, 'Ω')} (output.filter).` });
+    if (r.drive.isolation > 0) w.push({ code: 'capacitive-load', level: 'caution', message: `The instrument and cable capacitance sits on the op-amp output unisolated: fit a series resistor of about ${f3(r.drive.isolation, 'Ω')} (the output series resistor).` });
   }
   if (r.stage && !r.stage.network.reference.trim && d.target.trim.zero && r.stage.network.reference.kind !== 'none') {
     w.push({ code: 'no-zero-trim', level: 'info', message: 'No zero trimmer could be fitted; the zero depends on part tolerances.' });
@@ -408,7 +408,8 @@ export function verdictsOf(r: Report): Verdict[] {
     v.push({ level: bwOk ? 'pass' : 'fail', title: `Bandwidth ${f3(r.speed.smallSignal, 'Hz')}`, detail: `${bwShort}Rise time ${f3(r.speed.riseTime, 's')}; full-power bandwidth ${f3(r.speed.fullPower, 'Hz')}.` });
   } else missing('speed', 'Bandwidth cannot be computed');
   // Our own thresholds, against the range end: noise peak-to-peak within 1 % passes, within 5 % is a
-  // caution; DC error after calibration within 1 % passes, within 3 % is a caution.
+  // caution; DC error after calibration within 1 % passes, within 5 % is a caution (a home-built probe
+  // calibrated with a bench meter lands in between; common practice).
   const end = Math.max(Math.abs(a), Math.abs(b)) || 1;
   if (r.noise && r.speed) {
     const pp = r.noise.peakToPeak / (Math.abs(r.speed.passband) || 1);
@@ -425,7 +426,7 @@ export function verdictsOf(r: Report): Verdict[] {
   if (!r.errors) missing('errors', 'Error budget cannot be computed');
   if (r.errors) {
     const e = r.errors.afterTrim / end;
-    v.push({ level: e <= 0.01 ? 'pass' : e <= 0.03 ? 'caution' : 'fail', title: `Error ±${f3(r.errors.afterTrim, m)} after calibration`, detail: `${(e * 100).toFixed(2)} % of the range end, worst case (RSS ±${f3(r.errors.afterTrimRss, m)}), mostly ${r.errors.terms.filter((t) => t.removedBy === 'none').sort((x, y) => y.value - x.value)[0]?.name ?? 'nothing'}; before trimming ±${f3(r.errors.worstCase, m)} (RSS ±${f3(r.errors.rss, m)}) at ${f3(r.errors.at, m)}.` });
+    v.push({ level: e <= 0.01 ? 'pass' : e <= 0.05 ? 'caution' : 'fail', title: `Error ±${f3(r.errors.afterTrim, m)} after calibration`, detail: `${(e * 100).toFixed(2)} % of the range end, worst case (RSS ±${f3(r.errors.afterTrimRss, m)}), mostly ${r.errors.terms.filter((t) => t.removedBy === 'none').sort((x, y) => y.value - x.value)[0]?.name ?? 'nothing'}; before trimming ±${f3(r.errors.worstCase, m)} (RSS ±${f3(r.errors.rss, m)}) at ${f3(r.errors.at, m)}.` });
   }
   if (!r.supply) missing('supply', 'Supply current cannot be computed');
   if (r.supply) {

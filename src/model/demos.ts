@@ -36,6 +36,8 @@ export const DEMOS: readonly Demo[] = [
       opamp: { ...bipolar },
       target: { scale: 0.1, zero: 4.5, range: [-20, 20], topology: 'auto', series: 'E96', tolerance: 0.01, arrangements: ['single', 'series', 'parallel'], resistanceMin: 1e3, resistanceMax: 1e6, bandwidth: 20e3 },
       output: { filter: { resistance: 100, capacitance: 0 }, load: { resistance: 1e6, capacitance: 15e-12 } },
+      // Calibrated with a 4½-digit bench meter: about 0.1 % of the reading plus 1 mV (common practice).
+      calibration: { meterRelative: 0.001, meterDigits: 0.001 },
     },
   },
   {
@@ -53,6 +55,8 @@ export const DEMOS: readonly Demo[] = [
       opamp: { ...cmos },
       target: { scale: -0.09, zero: 1.65, range: [-10, 10], signal: 'ac-rms', topology: 'auto', series: 'E96', tolerance: 0.01, arrangements: ['single', 'series', 'parallel'], resistanceMin: 1e3, resistanceMax: 1e6, bandwidth: 2e3 },
       output: { filter: { resistance: 1000, capacitance: 10e-9 }, load: { resistance: 1e8, capacitance: 10e-12 } },
+      // Calibrated with a 4½-digit bench meter: about 0.1 % of the reading plus 1 mV (common practice).
+      calibration: { meterRelative: 0.001, meterDigits: 0.001 },
     },
   },
   {
@@ -66,6 +70,8 @@ export const DEMOS: readonly Demo[] = [
       supply: { positive: 9, negative: 0 },
       opamp: { gbw: 1e6, slewRate: 5e5, openLoopGainDb: 100, inputLow: 0, inputHigh: 1.5, outputLow: 0.05, outputHigh: 1.5, voltageNoise: 3.5e-8, currentNoise: 1e-13, offsetVoltage: 3e-3, biasCurrent: 5e-8, supplyCurrent: 5e-4 },
       target: { scale: 0.1, zero: 4.5, range: [-20, 20], topology: 'auto', series: 'E96', tolerance: 0.01, arrangements: ['single', 'series', 'parallel'], resistanceMin: 1e3, resistanceMax: 1e6 },
+      // Calibrated with a 4½-digit bench meter: about 0.1 % of the reading plus 1 mV (common practice).
+      calibration: { meterRelative: 0.001, meterDigits: 0.001 },
     },
   },
 ];

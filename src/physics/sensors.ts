@@ -177,7 +177,7 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
           spec.core.width || spec.core.depth
             ? { code: 'fringing-model', level: 'info', message: `Fringing: the gap's effective area is the core's cross-section${spec.core.width && spec.core.depth ? '' : ' (taken as square)'} with the gap length added to each side, ${fmt(areaRatio)} × the core's area (Fitzgerald & Kingsley form). The same area sets the core flux (the core carries ${fmt(areaRatio)} × the gap's mean flux density, so it saturates at that much less current) and the field the sensor reads, taken as the gap's mean flux density; calibrate against a known current.` }
             : areaRatio === 1
-              ? { code: 'fringing-neglected', level: 'info', message: 'Fringing is neglected (fringing factor 1): the gap field is B = μ0·N·I/(g + l/μr) and the core carries the same flux density. Real fringing raises the core flux for the same current; give the core\'s cross-section (sensor.core.width and depth) to model it, and calibrate against a known current.' }
+              ? { code: 'fringing-neglected', level: 'info', message: 'Fringing is neglected (fringing factor 1): the gap field is B = μ0·N·I/(g + l/μr) and the core carries the same flux density. Real fringing raises the core flux for the same current; give the core\'s cross-section (the core cross-section at the gap: width and depth) to model it, and calibrate against a known current.' }
               : { code: 'fringing-model', level: 'info', message: `Fringing: the gap's effective area is taken as ${fmt(areaRatio)} × the core's cross-section (the fringing factor given). The same area sets the core flux and the field the sensor reads, taken as the gap's mean flux density; calibrate against a known current.` },
           { code: 'remanence', level: 'info', message: 'An overload can leave the core magnetised and shift the zero: re-zero after any overload.' },
           { code: 'earth-field', level: 'info', message: `The Earth's field alone reads as about ${fmt(earth)} ${spec.measurand}: zero the probe where it will be used.` },
@@ -221,7 +221,7 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
         front.warnings.push({ code: 'burden-power', level: 'fail', message: `The burden dissipates ${fmt(pBurden)} W at the top of the range, above its ${spec.burdenPower} W rating.` });
       }
       if (design.target.signal === 'dc') {
-        front.warnings.push({ code: 'ct-no-dc', level: 'fail', message: 'A current transformer passes no DC: set target.signal to "ac-rms", or use a Hall sensor or a shunt for DC.' });
+        front.warnings.push({ code: 'ct-no-dc', level: 'fail', message: 'A current transformer passes no DC: set the signal to AC (rms), or use a Hall sensor or a shunt for DC.' });
       }
       return front;
     }
@@ -252,7 +252,7 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
         // High side: the + terminal is the supply end itself, the − terminal sits behind the shunt.
         ...(spec.commonMode !== null && spec.commonMode !== undefined ? { sourceResistance: spec.sourceResistance, minusResistance: spec.resistance } : {}),
         warnings: spec.commonMode === null || spec.commonMode === undefined
-          ? [{ code: 'low-side-only', level: 'info', message: 'The shunt sits in the low side, on the amplifier ground; for a shunt in the high side give its supply-end voltage (sensor.commonMode) and use the difference stage.' }]
+          ? [{ code: 'low-side-only', level: 'info', message: 'The shunt sits in the low side, on the amplifier ground; for a shunt in the high side give its supply-end voltage (the High side: supply-end voltage field) and use the difference stage.' }]
           : [],
       };
       if (p > spec.powerRating) {

@@ -126,7 +126,7 @@ describe('a refused edit never leaves a value on screen that is not in force', (
     await typeInto(page, 'sensor.hallSensitivity', '40');
     release();
     await expect.poll(() => page.evaluate(() => performance.getEntriesByName('gw-edit').length)).toBe(2);
-    await expect.poll(() => field(page, 'sensor.hallSensitivity').inputValue()).toBe('40 V/T');
+    await expect.poll(() => field(page, 'sensor.hallSensitivity').inputValue()).toBe('40 mV/mT');
     await page.context().close();
   });
 });
