@@ -11,7 +11,7 @@ import type { Part } from '../circuit/network.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
 import {
   DEFAULT_BAND_SHARE, batteryClip, batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, noise, speed, spread, supply, transferAt, transferCurve,
-  type BatteryClip, type BatteryStep, type ClipResult, type DcPoint, type ErrorBudget, type FrequencyResponse, type InstrumentDrive, type NoiseResult,
+  type BatteryClip, type BatteryStep, type ClipCause, type ClipResult, type DcPoint, type ErrorBudget, type FrequencyResponse, type InstrumentDrive, type NoiseResult,
   type Speed, type SpreadResult, type SupplyResult,
 } from './analysis.js';
 import { stepOverRange, waveform, type WaveformResult } from './waveform.js';
@@ -378,6 +378,16 @@ function why(clip: ClipResult, cause: string | null): string {
   return clip.limits.find((l) => l.cause === cause)?.why ?? 'a limit is reached';
 }
 
+/** Each limit's plain name, for the verdict lines. */
+const LIMIT_NAMES: Record<ClipCause, string> = {
+  'opamp-output': 'the op-amp output reaches its swing',
+  'opamp-current': 'the op-amp output current limit',
+  'opamp-input': 'the op-amp inputs leave their range',
+  sensor: 'the sensor reaches its limit',
+  core: 'the core saturates',
+  burden: 'the burden or shunt reaches its power rating',
+};
+
 /** The short pass / caution / fail list a person reads first. */
 export function verdictsOf(r: Report): Verdict[] {
   const v: Verdict[] = [];
@@ -395,13 +405,13 @@ export function verdictsOf(r: Report): Verdict[] {
   v.push({
     level: inRange ? (Math.min(c.headroom.lowPercent, c.headroom.highPercent) < 5 ? 'caution' : 'pass') : 'fail',
     title: inRange ? 'Covers the range without clipping' : 'Clips inside the range',
-    detail: `Linear from ${f3(c.measurandLow, m)} to ${f3(c.measurandHigh, m)} (${c.firstLow ?? '—'} / ${c.firstHigh ?? '—'} first); headroom ${f3(c.headroom.low, 'V')} low, ${f3(c.headroom.high, 'V')} high.`,
+    detail: `Linear from ${f3(c.measurandLow, m)} to ${f3(c.measurandHigh, m)} (low end: ${c.firstLow ? LIMIT_NAMES[c.firstLow] : '—'}; high end: ${c.firstHigh ? LIMIT_NAMES[c.firstHigh] : '—'}); headroom ${f3(c.headroom.low, 'V')} low, ${f3(c.headroom.high, 'V')} high.`,
   });
   const inputLimit = c.limits.find((l) => l.cause === 'opamp-input')!;
   const inputOk = inputLimit.low <= a && inputLimit.high >= b;
   v.push({ level: inputOk ? 'pass' : 'fail', title: inputOk ? 'Op-amp inputs stay in their range' : 'Op-amp input range is violated', detail: inputLimit.why + (inputOk ? '.' : `: leaves it at ${f3(Math.max(inputLimit.low, a), m)} / ${f3(Math.min(inputLimit.high, b), m)}.`) });
   const se = r.stage.scaleError;
-  v.push({ level: Math.abs(se) < d.target.tolerance ? 'pass' : 'caution', title: `Scale ${f3(r.dc!.out[1], `V/${m}`)} before trim`, detail: `${(se * 100).toFixed(3)} % from the target with the trimmers at mid; zero ${f3(r.dc!.out[0], 'V')}.` });
+  v.push({ level: Math.abs(se) < d.target.tolerance ? 'pass' : 'caution', title: `Scale ${f3(r.dc!.out[1], `V/${m}`)} before trim`, detail: `${((Math.abs(se) < 5e-6 ? 0 : se) * 100).toFixed(3)} % from the target with the trimmers at mid; zero ${f3(r.dc!.out[0], 'V')}.` });
   if (r.speed) {
     const bwOk = !(d.target.bandwidth > 0) || r.speed.smallSignal >= d.target.bandwidth;
     const bwShort = bwOk ? '' : `${r.warnings.find((w) => w.code === 'bandwidth-short')?.message ?? ''} `;
