@@ -13,11 +13,3 @@ export const STAGE_NAMES: Record<Topology, string> = {
   difference: 'difference',
 };
 
-/** One line on what each stage is, for the stage choice. */
-export const STAGE_HINTS: Record<Topology, string> = {
-  'non-inverting': 'keeps the sign; reference at the foot of the ground leg',
-  inverting: 'flips the sign; reference at the + input',
-  'summing-non-inverting': 'keeps the sign, can attenuate; offset summed at the + input',
-  'summing-inverting': 'flips the sign; offset summed at the − input',
-  difference: 'either sign; reads a differential sensor or a high-side shunt',
-};

@@ -23,32 +23,6 @@ export function openLoopOf(design: Design): OpenLoop {
 
 const par = (a: number, b: number) => (Number.isFinite(a) ? (Number.isFinite(b) ? (a * b) / (a + b) : a) : b);
 
-/**
- * The resistance the feedback network presents at the op-amp pin, Ω (Infinity for a follower): the feedback
- * arm and trimmer in series with what the − input sees to fixed voltages (sources and rails count as ground).
- */
-export function feedbackLoad(net: StageNetwork, front: SensorFront): number {
-  const rf = (net.feedback?.ohms ?? 0) + (net.gainTrim ? net.gainTrim.ohms * net.gainTrim.setting : 0);
-  const rth = net.reference.kind === 'divider' ? net.reference.thevenin : 0;
-  switch (net.topology) {
-    case 'non-inverting': return !net.feedback && !net.leg && net.reference.kind === 'none' ? Infinity : rf + (net.leg?.ohms ?? 0) + rth;
-    case 'inverting': return rf + (net.leg?.ohms ?? 0) + front.sourceResistance;
-    case 'summing-non-inverting': return net.feedback || net.leg ? rf + (net.leg?.ohms ?? 0) : Infinity;
-    case 'summing-inverting': return rf + par((net.leg?.ohms ?? 0) + front.sourceResistance, net.offsetArm ? net.offsetArm.ohms + rth : Infinity);
-    case 'difference': return rf + (net.leg?.ohms ?? 0) + (net.swapped ? front.sourceResistance : front.minusResistance);
-  }
-}
-
-/**
- * The open-loop gain the loop really has: the output resistance and everything the pin drives form a divider
- * inside the loop, A = A0·R_L/(R_L + R_out) with R_L the network's load in parallel with the instrument's.
- * Example: A0 = 10⁵, R_out = 50 Ω, R_L = 4.95 kΩ → 0.99·10⁵.
- */
-export function loadedOpenLoopGain(net: StageNetwork, front: SensorFront, ol: OpenLoop): number {
-  const rl = par(feedbackLoad(net, front), ol.load);
-  return Number.isFinite(rl) ? (ol.a0 * rl) / (rl + ol.rout) : ol.a0;
-}
-
 export interface NetworkTransfer {
   /** Pin volts per sensor volt, signed, finite A0 included. */
   scale: number;
