@@ -152,23 +152,77 @@ export function score(err: number, parts: number, a: number, pref: number, floor
   return Math.max(Math.abs(err), floor) * 1.5 ** (parts - 2) * (1 + 0.5 * Math.abs(Math.log10(a / pref)));
 }
 
-/** Fast search: each first arm with the two arms around its ideal partner. */
+/** 1.5^(parts − 2) for two to four parts: the part-count factor of `score`, exact in binary. */
+const PARTS_FACTOR = [1, 1, 1, 1.5, 2.25];
+/** First arms nearest the preferred value offered before the scan, so that the worst score kept starts low. */
+const SEED_ARMS = 64;
+
+/**
+ * Fast search: each first arm with the two arms around its ideal partner. The ranked list is the first
+ * `keep` candidates by (score, first arm, second arm), exactly as `score` ranks them and as offering them in
+ * ascending order would keep them. To make that cheap, the arms nearest the preferred value (where the best
+ * scores are) are offered first, so that the worst score kept is low from the start; the scan over the whole
+ * window then computes the preference factor (a logarithm) only for a candidate whose error and part count
+ * alone do not already rule it out (every factor of the score is ≥ 1), and allocates nothing until the end.
+ */
 export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep = 10): PairResult {
-  const ranked: PairCandidate[] = [];
   let bestErr = Infinity, bestI = -1, bestJ = -1;
   let evaluated = 0;
   const aMin = prob.aMin ?? 0, aMax = prob.aMax ?? Infinity;
-  let worstKept = Infinity;
+  const floor = prob.floor, pref = prob.preferredA;
   const fns = problemFunctions(prob);
+  const rf = prob.ratio;
+  const cA = rf ? rf.cA : 0, cB = rf ? rf.cB : 0, rk = rf ? rf.k : 1, rm = rf ? rf.m : 1;
+  const av = tA.value, ak = tA.kind;
+  const bv = tB.value, bn = tB.size, bk = tB.kind;
   // Only the first arms inside the window: the table is sorted, so find its ends by binary search.
-  const iStart = lowerBound(tA.value, aMin);
-  const bv = tB.value, bn = tB.size;
+  const iStart = lowerBound(av, aMin);
+  let iEnd = iStart;
+  while (iEnd < tA.size && av[iEnd]! <= aMax) iEnd++;
+
+  // The kept candidates, best first by (score, i, j), as plain numbers.
+  const kI: number[] = [], kJ: number[] = [], kE: number[] = [], kS: number[] = [], kP: number[] = [];
+  let worstKept = Infinity;
+  const offer = (i: number, j: number, e: number, ae: number, parts: number, a: number): void => {
+    const sc = Math.max(ae, floor) * PARTS_FACTOR[parts]! * (1 + 0.5 * Math.abs(Math.log10(a / pref)));
+    const n = kS.length;
+    if (n >= keep) {
+      const w = n - 1;
+      if (!(sc < kS[w]! || (sc === kS[w]! && (i < kI[w]! || (i === kI[w]! && j < kJ[w]!))))) return;
+      kI.pop(); kJ.pop(); kE.pop(); kS.pop(); kP.pop();
+    }
+    let pos = kS.length;
+    while (pos > 0 && (kS[pos - 1]! > sc || (kS[pos - 1]! === sc && (kI[pos - 1]! > i || (kI[pos - 1]! === i && kJ[pos - 1]! > j))))) pos--;
+    kI.splice(pos, 0, i); kJ.splice(pos, 0, j); kE.splice(pos, 0, e); kS.splice(pos, 0, sc); kP.splice(pos, 0, parts);
+    worstKept = kS.length >= keep ? kS[kS.length - 1]! : Infinity;
+  };
+
+  // 1. Seed: the first arms nearest the preferred value, outward from it.
+  let sLo = Math.min(Math.max(lowerBound(av, pref), iStart), iEnd), sHi = sLo;
+  if (keep > 0) {
+    for (let seen = 0; seen < SEED_ARMS && (sLo > iStart || sHi < iEnd); seen++) {
+      const up = sHi < iEnd && (sLo <= iStart || av[sHi]! / pref <= pref / av[sLo - 1]!);
+      const i = up ? sHi++ : --sLo;
+      const a = av[i]!;
+      const bi = rf ? (a + cA) / rk - cB : fns.idealB(a);
+      if (!(bi > 0) || !Number.isFinite(bi)) continue;
+      const j0 = lowerBound(bv, bi);
+      for (let j = j0 - 1; j <= j0; j++) {
+        if (j < 0 || j >= bn) continue;
+        evaluated++;
+        const e = rf ? rm * ((a + cA) / (bv[j]! + cB) / rk - 1) : fns.error(a, bv[j]!);
+        if (!Number.isFinite(e)) continue;
+        offer(i, j, e, Math.abs(e), (ak[i] === ARM_SINGLE ? 1 : 2) + (bk[j] === ARM_SINGLE ? 1 : 2), a);
+      }
+    }
+  }
+
+  // 2. The whole window in ascending order: the least error anywhere, and every candidate outside the seed
+  //    that could still enter the list.
   let j0 = -1;
-  for (let i = iStart; i < tA.size; i++) {
-    const a = tA.value[i]!;
-    if (a > aMax) break;
-    const rf = prob.ratio;
-    const bi = rf ? (a + rf.cA) / rf.k - rf.cB : fns.idealB(a);
+  for (let i = iStart; i < iEnd; i++) {
+    const a = av[i]!;
+    const bi = rf ? (a + cA) / rk - cB : fns.idealB(a);
     if (!(bi > 0) || !Number.isFinite(bi)) continue;
     // The ideal partner moves with a, so walk from the last position (binary search on the first use):
     // amortised O(1) per arm when b(a) is monotone, and still exact when it is not.
@@ -177,25 +231,24 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
       while (j0 < bn && bv[j0]! < bi) j0++;
       while (j0 > 0 && bv[j0 - 1]! >= bi) j0--;
     }
+    const seeded = i >= sLo && i < sHi;
     for (let j = j0 - 1; j <= j0; j++) {
-      if (j < 0 || j >= tB.size) continue;
+      if (j < 0 || j >= bn) continue;
       evaluated++;
-      const e = rf ? rf.m * ((a + rf.cA) / (bv[j]! + rf.cB) / rf.k - 1) : fns.error(a, bv[j]!);
+      const e = rf ? rm * ((a + cA) / (bv[j]! + cB) / rk - 1) : fns.error(a, bv[j]!);
       if (!Number.isFinite(e)) continue;
       const ae = Math.abs(e);
       if (ae < bestErr) { bestErr = ae; bestI = i; bestJ = j; }
-      // Every factor of the score is ≥ 1 beyond max(|e|, floor): skip what cannot enter the list.
-      if (ranked.length >= keep && Math.max(ae, prob.floor) >= worstKept) continue;
-      const parts = partCount(tA, i) + partCount(tB, j);
-      const sc = score(e, parts, a, prob.preferredA, prob.floor);
-      if (ranked.length < keep || sc < worstKept) {
-        insertRanked(ranked, { a: armAt(tA, i), b: armAt(tB, j), error: e, parts, score: sc }, keep);
-        worstKept = ranked.length < keep ? Infinity : ranked[ranked.length - 1]!.score;
-      }
+      if (seeded) continue;
+      const parts = (ak[i] === ARM_SINGLE ? 1 : 2) + (bk[j] === ARM_SINGLE ? 1 : 2);
+      // The score is this times a factor ≥ 1 (rounding is monotone, so the bound holds in floating point too).
+      if (Math.max(ae, floor) * PARTS_FACTOR[parts]! > worstKept) continue;
+      offer(i, j, e, ae, parts, a);
     }
   }
+  const ranked: PairCandidate[] = kS.map((sc, n) => ({ a: armAt(tA, kI[n]!), b: armAt(tB, kJ[n]!), error: kE[n]!, parts: kP[n]!, score: sc }));
   const best = bestI >= 0
-    ? { a: armAt(tA, bestI), b: armAt(tB, bestJ), error: fns.error(tA.value[bestI]!, tB.value[bestJ]!), parts: partCount(tA, bestI) + partCount(tB, bestJ), score: NaN }
+    ? { a: armAt(tA, bestI), b: armAt(tB, bestJ), error: fns.error(av[bestI]!, bv[bestJ]!), parts: partCount(tA, bestI) + partCount(tB, bestJ), score: NaN }
     : null;
   return { ranked, best, evaluated };
 }
@@ -218,13 +271,4 @@ export function searchPairsExhaustive(tA: ArmTable, tB: ArmTable, prob: PairProb
     }
   }
   return { bestError: best, evaluated };
-}
-
-function insertRanked(list: PairCandidate[], c: PairCandidate, keep: number): void {
-  // Skip a candidate with the same pair of arms already listed.
-  if (list.some((x) => x.a.ohms === c.a.ohms && x.b.ohms === c.b.ohms)) return;
-  let pos = list.length;
-  while (pos > 0 && list[pos - 1]!.score > c.score) pos--;
-  list.splice(pos, 0, c);
-  if (list.length > keep) list.pop();
 }
