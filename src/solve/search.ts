@@ -138,10 +138,10 @@ export interface PairCandidate {
 export interface PairResult {
   /** Ranked best first by score. */
   ranked: PairCandidate[];
-  /** The smallest |error| anywhere, with its arms (the true optimum, whatever the ranking). */
-  best: PairCandidate | null;
-  /** How many (a, b) pairs were evaluated. */
-  evaluated: number;
+  /** The smallest |error| anywhere, with its arms (the true optimum, whatever the ranking); found when first read. */
+  readonly best: PairCandidate | null;
+  /** How many (a, b) pairs were evaluated so far (the scan for `best` included once it has run). */
+  readonly evaluated: number;
 }
 
 /**
@@ -154,19 +154,38 @@ export function score(err: number, parts: number, a: number, pref: number, floor
 
 /** 1.5^(parts − 2) for two to four parts: the part-count factor of `score`, exact in binary. */
 const PARTS_FACTOR = [1, 1, 1, 1.5, 2.25];
-/** First arms nearest the preferred value offered before the scan, so that the worst score kept starts low. */
-const SEED_ARMS = 64;
+/** Relative margin on the stopping bound, far above the rounding of the logarithm (about 1e-16). */
+const BOUND_MARGIN = 1e-12;
+
+/** Table indices of the single-part arms, ascending (cached per table). */
+const singlesCache = new WeakMap<ArmTable, Int32Array>();
+function singleIndices(t: ArmTable): Int32Array {
+  let hit = singlesCache.get(t);
+  if (!hit) {
+    const out: number[] = [];
+    for (let i = 0; i < t.size; i++) if (t.kind[i] === ARM_SINGLE) out.push(i);
+    hit = Int32Array.from(out);
+    singlesCache.set(t, hit);
+  }
+  return hit;
+}
 
 /**
- * Fast search: each first arm with the two arms around its ideal partner. The ranked list is the first
- * `keep` candidates by (score, first arm, second arm), exactly as `score` ranks them and as offering them in
- * ascending order would keep them. To make that cheap, the arms nearest the preferred value (where the best
- * scores are) are offered first, so that the worst score kept is low from the start; the scan over the whole
- * window then computes the preference factor (a logarithm) only for a candidate whose error and part count
- * alone do not already rule it out (every factor of the score is ≥ 1), and allocates nothing until the end.
+ * Fast search: each first arm with the two arms around its ideal partner.
+ *
+ * The ranked list is the first `keep` candidates by (score, first arm, second arm): exactly what offering
+ * every candidate of the window in ascending order would keep. Since score = max(|e|, floor) · 1.5^(parts−2)
+ * · (1 + 0.5·|log10(a/aPref)|) and the first two factors are at least floor and 1.5^(parts of a − 1), a first
+ * arm whose floor · 1.5^(parts of a − 1) · (1 + 0.5·|log10(a/aPref)|) exceeds the worst score kept cannot
+ * enter, nor can any arm farther from the preferred value on its side. So the first arms are visited outward
+ * from the preferred value, nearest first, and each side stops at that bound: first for two-part first arms,
+ * then (continuing over the single parts only) for single ones. With floor 0 nothing is ruled out and every
+ * arm is visited.
+ *
+ * `best`, the least |error| anywhere in the window (the true optimum, whatever the ranking), needs every first
+ * arm: it is found by a scan of the whole window the first time it is read.
  */
 export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep = 10): PairResult {
-  let bestErr = Infinity, bestI = -1, bestJ = -1;
   let evaluated = 0;
   const aMin = prob.aMin ?? 0, aMax = prob.aMax ?? Infinity;
   const floor = prob.floor, pref = prob.preferredA;
@@ -177,14 +196,12 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
   const bv = tB.value, bn = tB.size, bk = tB.kind;
   // Only the first arms inside the window: the table is sorted, so find its ends by binary search.
   const iStart = lowerBound(av, aMin);
-  let iEnd = iStart;
-  while (iEnd < tA.size && av[iEnd]! <= aMax) iEnd++;
+  const iEnd = Math.max(iStart, upperBound(av, aMax));
 
   // The kept candidates, best first by (score, i, j), as plain numbers.
   const kI: number[] = [], kJ: number[] = [], kE: number[] = [], kS: number[] = [], kP: number[] = [];
   let worstKept = Infinity;
-  const offer = (i: number, j: number, e: number, ae: number, parts: number, a: number): void => {
-    const sc = Math.max(ae, floor) * PARTS_FACTOR[parts]! * (1 + 0.5 * Math.abs(Math.log10(a / pref)));
+  const offer = (i: number, j: number, e: number, parts: number, sc: number): void => {
     const n = kS.length;
     if (n >= keep) {
       const w = n - 1;
@@ -196,61 +213,118 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
     kI.splice(pos, 0, i); kJ.splice(pos, 0, j); kE.splice(pos, 0, e); kS.splice(pos, 0, sc); kP.splice(pos, 0, parts);
     worstKept = kS.length >= keep ? kS[kS.length - 1]! : Infinity;
   };
-
-  // 1. Seed: the first arms nearest the preferred value, outward from it.
-  let sLo = Math.min(Math.max(lowerBound(av, pref), iStart), iEnd), sHi = sLo;
-  if (keep > 0) {
-    for (let seen = 0; seen < SEED_ARMS && (sLo > iStart || sHi < iEnd); seen++) {
-      const up = sHi < iEnd && (sLo <= iStart || av[sHi]! / pref <= pref / av[sLo - 1]!);
-      const i = up ? sHi++ : --sLo;
-      const a = av[i]!;
-      const bi = rf ? (a + cA) / rk - cB : fns.idealB(a);
-      if (!(bi > 0) || !Number.isFinite(bi)) continue;
-      const j0 = lowerBound(bv, bi);
-      for (let j = j0 - 1; j <= j0; j++) {
-        if (j < 0 || j >= bn) continue;
-        evaluated++;
-        const e = rf ? rm * ((a + cA) / (bv[j]! + cB) / rk - 1) : fns.error(a, bv[j]!);
-        if (!Number.isFinite(e)) continue;
-        offer(i, j, e, Math.abs(e), (ak[i] === ARM_SINGLE ? 1 : 2) + (bk[j] === ARM_SINGLE ? 1 : 2), a);
-      }
-    }
-  }
-
-  // 2. The whole window in ascending order: the least error anywhere, and every candidate outside the seed
-  //    that could still enter the list.
-  let j0 = -1;
-  for (let i = iStart; i < iEnd; i++) {
+  /** Offers first arm i (preference factor aF) with the two arms around its ideal partner. */
+  const visit = (i: number, aF: number): void => {
     const a = av[i]!;
     const bi = rf ? (a + cA) / rk - cB : fns.idealB(a);
-    if (!(bi > 0) || !Number.isFinite(bi)) continue;
-    // The ideal partner moves with a, so walk from the last position (binary search on the first use):
-    // amortised O(1) per arm when b(a) is monotone, and still exact when it is not.
-    if (j0 < 0) j0 = lowerBound(bv, bi);
-    else {
-      while (j0 < bn && bv[j0]! < bi) j0++;
-      while (j0 > 0 && bv[j0 - 1]! >= bi) j0--;
-    }
-    const seeded = i >= sLo && i < sHi;
+    if (!(bi > 0) || !Number.isFinite(bi)) return;
+    const j0 = lowerBound(bv, bi);
     for (let j = j0 - 1; j <= j0; j++) {
       if (j < 0 || j >= bn) continue;
       evaluated++;
       const e = rf ? rm * ((a + cA) / (bv[j]! + cB) / rk - 1) : fns.error(a, bv[j]!);
       if (!Number.isFinite(e)) continue;
-      const ae = Math.abs(e);
-      if (ae < bestErr) { bestErr = ae; bestI = i; bestJ = j; }
-      if (seeded) continue;
       const parts = (ak[i] === ARM_SINGLE ? 1 : 2) + (bk[j] === ARM_SINGLE ? 1 : 2);
-      // The score is this times a factor ≥ 1 (rounding is monotone, so the bound holds in floating point too).
-      if (Math.max(ae, floor) * PARTS_FACTOR[parts]! > worstKept) continue;
-      offer(i, j, e, ae, parts, a);
+      // The same product, in the same order, as `score`.
+      offer(i, j, e, parts, Math.max(Math.abs(e), floor) * PARTS_FACTOR[parts]! * aF);
+    }
+  };
+
+  if (keep > 0 && iEnd > iStart) {
+    const singles = singleIndices(tA);
+    // A ratio form with k > 0 and cA, cB ≥ 0 has its ideal partner rising with a. Once that partner lies beyond
+    // the last arm of the table (going up) or below the first (going down), no arm farther out on that side can
+    // do better than the end of the table does for this one: |e| ≥ |m|·|(a + cA)/(b_end + cB)/k − 1|. A lower
+    // bound on the error of every candidate from here outward (0 when none is known), a hair under it for rounding.
+    const monotone = rf !== undefined && rk > 0 && cA >= 0 && cB >= 0 && bn > 0;
+    const bLo = bn > 0 ? bv[0]! + cB : 0, bHi = bn > 0 ? bv[bn - 1]! + cB : 0;
+    const beyond = (a: number, goingUp: boolean): number => {
+      if (!monotone) return 0;
+      const q = (a + cA) / rk;
+      const gap = goingUp ? (q > bHi ? (a + cA) / bHi / rk - 1 : 0) : (q < bLo ? 1 - (a + cA) / bLo / rk : 0);
+      return gap > 0 ? Math.max(0, Math.abs(rm) * (gap - 1e-12) * (1 - 1e-9)) : 0;
+    };
+    // Each side: the next index, whether only single parts are left to visit (then `s` steps through
+    // `singles`), and whether it is done.
+    const iP = Math.min(Math.max(lowerBound(av, pref), iStart), iEnd);
+    let dn = iP - 1, up = iP;
+    let dnSingles = false, upSingles = false;
+    let dnS = -1, upS = -1;
+    while (dn >= iStart || up < iEnd) {
+      const goUp = up < iEnd && (dn < iStart || av[up]! / pref <= pref / av[dn]!);
+      const i = goUp ? up : dn;
+      const aF = 1 + 0.5 * Math.abs(Math.log10(av[i]! / pref));
+      const limit = worstKept * (1 + BOUND_MARGIN);
+      const lower = Math.max(beyond(av[i]!, goUp), floor);
+      const stop = lower * aF > limit;
+      const pairsOut = lower * PARTS_FACTOR[3]! * aF > limit;
+      if (!stop && (!pairsOut || ak[i] === ARM_SINGLE)) visit(i, aF);
+      // Step outward: over every arm, or over the single parts alone once two-part arms are ruled out.
+      if (goUp) {
+        if (pairsOut && !upSingles) { upSingles = true; upS = lowerBound32(singles, i + 1); } else if (upSingles) upS++;
+        up = stop ? iEnd : upSingles ? (upS < singles.length && singles[upS]! < iEnd ? singles[upS]! : iEnd) : up + 1;
+      } else {
+        if (pairsOut && !dnSingles) { dnSingles = true; dnS = lowerBound32(singles, i) - 1; } else if (dnSingles) dnS--;
+        dn = stop ? iStart - 1 : dnSingles ? (dnS >= 0 && singles[dnS]! >= iStart ? singles[dnS]! : iStart - 1) : dn - 1;
+      }
     }
   }
   const ranked: PairCandidate[] = kS.map((sc, n) => ({ a: armAt(tA, kI[n]!), b: armAt(tB, kJ[n]!), error: kE[n]!, parts: kP[n]!, score: sc }));
-  const best = bestI >= 0
-    ? { a: armAt(tA, bestI), b: armAt(tB, bestJ), error: fns.error(av[bestI]!, bv[bestJ]!), parts: partCount(tA, bestI) + partCount(tB, bestJ), score: NaN }
-    : null;
-  return { ranked, best, evaluated };
+
+  // The least error anywhere in the window: every first arm in ascending order, the first least kept.
+  let best: PairCandidate | null | undefined;
+  const scanBest = (): PairCandidate | null => {
+    let bestErr = Infinity, bestI = -1, bestJ = -1;
+    let j0 = -1;
+    for (let i = iStart; i < iEnd; i++) {
+      const a = av[i]!;
+      const bi = rf ? (a + cA) / rk - cB : fns.idealB(a);
+      if (!(bi > 0) || !Number.isFinite(bi)) continue;
+      // The ideal partner moves with a, so walk from the last position (binary search on the first use):
+      // amortised O(1) per arm when b(a) is monotone, and still exact when it is not.
+      if (j0 < 0) j0 = lowerBound(bv, bi);
+      else {
+        while (j0 < bn && bv[j0]! < bi) j0++;
+        while (j0 > 0 && bv[j0 - 1]! >= bi) j0--;
+      }
+      for (let j = j0 - 1; j <= j0; j++) {
+        if (j < 0 || j >= bn) continue;
+        evaluated++;
+        const e = rf ? rm * ((a + cA) / (bv[j]! + cB) / rk - 1) : fns.error(a, bv[j]!);
+        if (!Number.isFinite(e)) continue;
+        const ae = Math.abs(e);
+        if (ae < bestErr) { bestErr = ae; bestI = i; bestJ = j; }
+      }
+    }
+    return bestI >= 0
+      ? { a: armAt(tA, bestI), b: armAt(tB, bestJ), error: fns.error(av[bestI]!, bv[bestJ]!), parts: partCount(tA, bestI) + partCount(tB, bestJ), score: NaN }
+      : null;
+  };
+  return {
+    ranked,
+    get best() { if (best === undefined) best = scanBest(); return best; },
+    get evaluated() { return evaluated; },
+  };
+}
+
+/** Index of the first value > x (binary search). */
+function upperBound(values: Float64Array, x: number): number {
+  let lo = 0, hi = values.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (values[mid]! <= x) lo = mid + 1; else hi = mid;
+  }
+  return lo;
+}
+
+/** Index of the first value ≥ x in an ascending integer array (binary search). */
+function lowerBound32(values: Int32Array, x: number): number {
+  let lo = 0, hi = values.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (values[mid]! < x) lo = mid + 1; else hi = mid;
+  }
+  return lo;
 }
 
 /** Exhaustive search over all pairs: the reference the fast search is tested (and benchmarked) against. */

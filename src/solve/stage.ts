@@ -65,6 +65,8 @@ interface Candidate {
   network: StageNetwork;
   ranked: PairCandidate[];
   best: number;
+  /** The pair search the gain pair came from, whose optimum replaces `best` when the candidate is built. */
+  pairs?: PairResult;
   chosen: number;
   score: number;
   scaleError: number;
@@ -234,7 +236,8 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   const found: { cand: Candidate | null; opt: GainOption | null } = { cand: null, opt: null };
   const consider = (cand: Candidate | null, opt: GainOption, res: PairResult | null, pick: PairCandidate | null) => {
     if (!cand || (found.cand && cand.score >= found.cand.score)) return;
-    found.cand = res && pick ? { ...cand, ranked: res.ranked, best: Math.abs(res.best?.error ?? cand.scaleError), chosen: res.ranked.indexOf(pick) } : cand;
+    // The pair search's optimum (a scan of its whole window) is read once, for the candidate built.
+    found.cand = res && pick ? { ...cand, ranked: res.ranked, pairs: res, chosen: res.ranked.indexOf(pick) } : cand;
     found.opt = opt;
   };
   for (const { opt, ref, bound } of jobs) {
@@ -295,5 +298,5 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     w('zero-trim-off-centre', 'info', `The reference sits near a rail, so the zero trimmer starts at ${(net.reference.trim.setting * 100).toFixed(0)} % of its travel.`);
   }
   const real = realised(net, ideal, front, ol);
-  return { ideal, network: net, parts: partsOf(net, design), alternatives: best.ranked, chosen: Math.max(best.chosen, 0), bestError: best.best, gain: real.gain, noiseGain: networkGain(net, front.sourceResistance).noiseGain, reference: real.reference, scaleError: real.scaleError, zeroError: real.zeroError, warnings };
+  return { ideal, network: net, parts: partsOf(net, design), alternatives: best.ranked, chosen: Math.max(best.chosen, 0), bestError: best.pairs ? Math.abs(best.pairs.best?.error ?? best.scaleError) : best.best, gain: real.gain, noiseGain: networkGain(net, front.sourceResistance).noiseGain, reference: real.reference, scaleError: real.scaleError, zeroError: real.zeroError, warnings };
 }
