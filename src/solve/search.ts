@@ -157,6 +157,43 @@ const PARTS_FACTOR = [1, 1, 1, 1.5, 2.25];
 /** Relative margin on the stopping bound, far above the rounding of the logarithm (about 1e-16). */
 const BOUND_MARGIN = 1e-12;
 
+/** log10 of every arm of a table (cached per table): the preference factor's bound without a logarithm per arm. */
+const logCache = new WeakMap<ArmTable, Float64Array>();
+function log10Values(t: ArmTable): Float64Array {
+  let hit = logCache.get(t);
+  if (!hit) {
+    hit = new Float64Array(t.size);
+    for (let i = 0; i < t.size; i++) hit[i] = Math.log10(t.value[i]!);
+    logCache.set(t, hit);
+  }
+  return hit;
+}
+
+/**
+ * Index of the first value ≥ x, searched from index `from` outward (galloping, then binary search): the same
+ * answer as `lowerBound`, in O(log d) for an answer d places away.
+ */
+function seek(v: Float64Array, n: number, from: number, x: number): number {
+  let lo: number, hi: number;
+  if (from < 0) return lowerBound(v, x);
+  if (from < n && v[from]! < x) {
+    // Every index up to `lo` − 1 holds less than x; gallop up until one holds at least x (or the end).
+    lo = from + 1; hi = lo;
+    for (let step = 1; hi < n && v[hi]! < x; step *= 2) { lo = hi + 1; hi = lo + step; }
+    if (hi > n) hi = n;
+  } else {
+    // Index `hi` holds at least x (or is the end); gallop down until one holds less.
+    hi = Math.min(from, n); lo = hi - 1;
+    for (let step = 1; lo >= 0 && v[lo]! >= x; step *= 2) { hi = lo; lo = hi - step; }
+    lo = Math.max(lo + 1, 0);
+  }
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (v[mid]! < x) lo = mid + 1; else hi = mid;
+  }
+  return lo;
+}
+
 /** Table indices of the single-part arms, ascending (cached per table). */
 const singlesCache = new WeakMap<ArmTable, Int32Array>();
 function singleIndices(t: ArmTable): Int32Array {
@@ -213,21 +250,30 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
     kI.splice(pos, 0, i); kJ.splice(pos, 0, j); kE.splice(pos, 0, e); kS.splice(pos, 0, sc); kP.splice(pos, 0, parts);
     worstKept = kS.length >= keep ? kS[kS.length - 1]! : Infinity;
   };
-  /** Offers first arm i (preference factor aF) with the two arms around its ideal partner. */
-  const visit = (i: number, aF: number): void => {
+  /**
+   * Offers first arm i with the two arms around its ideal partner, found from `hint` (the last partner on this
+   * side); returns the partner's index. `aEst` is the preference factor from the cached logarithms, within
+   * about 1e-15 of the exact one: a candidate it rules out with the margin is out; one that may enter gets
+   * the exact factor, the same product in the same order as `score`.
+   */
+  const visit = (i: number, aEst: number, hint: number): number => {
     const a = av[i]!;
     const bi = rf ? (a + cA) / rk - cB : fns.idealB(a);
-    if (!(bi > 0) || !Number.isFinite(bi)) return;
-    const j0 = lowerBound(bv, bi);
+    if (!(bi > 0) || !Number.isFinite(bi)) return hint;
+    const j0 = seek(bv, bn, hint, bi);
+    let aF = -1;
     for (let j = j0 - 1; j <= j0; j++) {
       if (j < 0 || j >= bn) continue;
       evaluated++;
       const e = rf ? rm * ((a + cA) / (bv[j]! + cB) / rk - 1) : fns.error(a, bv[j]!);
       if (!Number.isFinite(e)) continue;
       const parts = (ak[i] === ARM_SINGLE ? 1 : 2) + (bk[j] === ARM_SINGLE ? 1 : 2);
-      // The same product, in the same order, as `score`.
-      offer(i, j, e, parts, Math.max(Math.abs(e), floor) * PARTS_FACTOR[parts]! * aF);
+      const lead = Math.max(Math.abs(e), floor) * PARTS_FACTOR[parts]!;
+      if (kS.length >= keep && lead * aEst > worstKept * (1 + BOUND_MARGIN)) continue;
+      if (aF < 0) aF = 1 + 0.5 * Math.abs(Math.log10(a / pref));
+      offer(i, j, e, parts, lead * aF);
     }
+    return j0;
   };
 
   if (keep > 0 && iEnd > iStart) {
@@ -250,15 +296,20 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
     let dn = iP - 1, up = iP;
     let dnSingles = false, upSingles = false;
     let dnS = -1, upS = -1;
+    // Each side's last partner index, where the next partner search starts.
+    let jUp = -1, jDn = -1;
+    const logs = log10Values(tA), logPref = Math.log10(pref);
     while (dn >= iStart || up < iEnd) {
       const goUp = up < iEnd && (dn < iStart || av[up]! / pref <= pref / av[dn]!);
       const i = goUp ? up : dn;
-      const aF = 1 + 0.5 * Math.abs(Math.log10(av[i]! / pref));
+      const aEst = 1 + 0.5 * Math.abs(logs[i]! - logPref);
       const limit = worstKept * (1 + BOUND_MARGIN);
       const lower = Math.max(beyond(av[i]!, goUp), floor);
-      const stop = lower * aF > limit;
-      const pairsOut = lower * PARTS_FACTOR[3]! * aF > limit;
-      if (!stop && (!pairsOut || ak[i] === ARM_SINGLE)) visit(i, aF);
+      const stop = lower * aEst > limit;
+      const pairsOut = lower * PARTS_FACTOR[3]! * aEst > limit;
+      if (!stop && (!pairsOut || ak[i] === ARM_SINGLE)) {
+        if (goUp) jUp = visit(i, aEst, jUp < 0 ? jDn : jUp); else jDn = visit(i, aEst, jDn < 0 ? jUp : jDn);
+      }
       // Step outward: over every arm, or over the single parts alone once two-part arms are ruled out.
       if (goUp) {
         if (pairsOut && !upSingles) { upSingles = true; upS = lowerBound32(singles, i + 1); } else if (upSingles) upS++;
