@@ -216,11 +216,11 @@ function singleIndices(t: ArmTable): Int32Array {
  * arm whose floor · 1.5^(parts of a − 1) · (1 + 0.5·|log10(a/aPref)|) exceeds the worst score kept cannot
  * enter, nor can any arm farther from the preferred value on its side. So the first arms are visited outward
  * from the preferred value, nearest first, and each side stops at that bound: first for two-part first arms,
- * then (continuing over the single parts only) for single ones. With floor 0 nothing is ruled out and every
- * arm is visited.
+ * then (continuing over the single parts only) for single ones. With floor 0 that bound rules nothing out, so
+ * the ranking is done instead in the ascending scan below.
  *
  * `best`, the least |error| anywhere in the window (the true optimum, whatever the ranking), needs every first
- * arm: it is found by a scan of the whole window the first time it is read.
+ * arm: it is found by a scan of the whole window, the first time it is read (or at once, with floor 0).
  */
 export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep = 10): PairResult {
   let evaluated = 0;
@@ -235,20 +235,26 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
   const iStart = lowerBound(av, aMin);
   const iEnd = Math.max(iStart, upperBound(av, aMax));
 
-  // The kept candidates, best first by (score, i, j), as plain numbers.
-  const kI: number[] = [], kJ: number[] = [], kE: number[] = [], kS: number[] = [], kP: number[] = [];
-  let worstKept = Infinity;
+  // The kept candidates, best first by (score, i, j), in fixed typed arrays (no allocation per offer).
+  const cap = Number.isFinite(keep) ? Math.max(Math.ceil(keep), 0) : 2 * tA.size;
+  const kI = new Int32Array(cap), kJ = new Int32Array(cap), kP = new Int32Array(cap);
+  const kE = new Float64Array(cap), kS = new Float64Array(cap);
+  let kept = 0;
+  let worstKept = cap > 0 ? Infinity : -Infinity;
   const offer = (i: number, j: number, e: number, parts: number, sc: number): void => {
-    const n = kS.length;
-    if (n >= keep) {
-      const w = n - 1;
+    if (kept >= cap) {
+      const w = cap - 1;
       if (!(sc < kS[w]! || (sc === kS[w]! && (i < kI[w]! || (i === kI[w]! && j < kJ[w]!))))) return;
-      kI.pop(); kJ.pop(); kE.pop(); kS.pop(); kP.pop();
+      kept--;
     }
-    let pos = kS.length;
-    while (pos > 0 && (kS[pos - 1]! > sc || (kS[pos - 1]! === sc && (kI[pos - 1]! > i || (kI[pos - 1]! === i && kJ[pos - 1]! > j))))) pos--;
-    kI.splice(pos, 0, i); kJ.splice(pos, 0, j); kE.splice(pos, 0, e); kS.splice(pos, 0, sc); kP.splice(pos, 0, parts);
-    worstKept = kS.length >= keep ? kS[kS.length - 1]! : Infinity;
+    let pos = kept;
+    while (pos > 0 && (kS[pos - 1]! > sc || (kS[pos - 1]! === sc && (kI[pos - 1]! > i || (kI[pos - 1]! === i && kJ[pos - 1]! > j))))) {
+      kI[pos] = kI[pos - 1]!; kJ[pos] = kJ[pos - 1]!; kP[pos] = kP[pos - 1]!; kE[pos] = kE[pos - 1]!; kS[pos] = kS[pos - 1]!;
+      pos--;
+    }
+    kI[pos] = i; kJ[pos] = j; kP[pos] = parts; kE[pos] = e; kS[pos] = sc;
+    kept++;
+    worstKept = kept >= cap ? kS[cap - 1]! : Infinity;
   };
   /**
    * Offers first arm i with the two arms around its ideal partner, found from `hint` (the last partner on this
@@ -269,14 +275,17 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
       if (!Number.isFinite(e)) continue;
       const parts = (ak[i] === ARM_SINGLE ? 1 : 2) + (bk[j] === ARM_SINGLE ? 1 : 2);
       const lead = Math.max(Math.abs(e), floor) * PARTS_FACTOR[parts]!;
-      if (kS.length >= keep && lead * aEst > worstKept * (1 + BOUND_MARGIN)) continue;
+      if (lead * aEst > worstKept * (1 + BOUND_MARGIN)) continue;
       if (aF < 0) aF = 1 + 0.5 * Math.abs(Math.log10(a / pref));
       offer(i, j, e, parts, lead * aF);
     }
     return j0;
   };
 
-  if (keep > 0 && iEnd > iStart) {
+  const logs = log10Values(tA), logPref = Math.log10(pref);
+  // The least error anywhere (null: none; undefined: not yet scanned).
+  let best: PairCandidate | null | undefined;
+  if (keep > 0 && iEnd > iStart && floor > 0) {
     const singles = singleIndices(tA);
     // A ratio form with k > 0 and cA, cB ≥ 0 has its ideal partner rising with a. Once that partner lies beyond
     // the last arm of the table (going up) or below the first (going down), no arm farther out on that side can
@@ -298,7 +307,6 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
     let dnS = -1, upS = -1;
     // Each side's last partner index, where the next partner search starts.
     let jUp = -1, jDn = -1;
-    const logs = log10Values(tA), logPref = Math.log10(pref);
     while (dn >= iStart || up < iEnd) {
       const goUp = up < iEnd && (dn < iStart || av[up]! / pref <= pref / av[dn]!);
       const i = goUp ? up : dn;
@@ -320,16 +328,23 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
       }
     }
   }
-  const ranked: PairCandidate[] = kS.map((sc, n) => ({ a: armAt(tA, kI[n]!), b: armAt(tB, kJ[n]!), error: kE[n]!, parts: kP[n]!, score: sc }));
-
-  // The least error anywhere in the window: every first arm in ascending order, the first least kept.
-  let best: PairCandidate | null | undefined;
-  const scanBest = (): PairCandidate | null => {
+  /**
+   * The least error anywhere in the window: every first arm in ascending order, the first least kept. With
+   * `rank` (a floor of 0, where the score bound rules nothing out and every first arm would be visited anyway)
+   * the same pass also offers each candidate to the ranked list, the logarithm taken only for one that may enter.
+   */
+  function scanBest(rank: boolean): PairCandidate | null {
+    // Locals, not the enclosing function's (captured) variables: the hot loop reads them from registers.
+    const av = tA.value, ak = tA.kind, bv = tB.value, bn = tB.size, bk = tB.kind;
+    const r = prob.ratio, cA = r ? r.cA : 0, cB = r ? r.cB : 0, rk = r ? r.k : 1, rm = r ? r.m : 1;
+    const i0 = iStart, i1 = iEnd, fl = floor, lg = logs, lp = logPref, ap = pref;
+    // The worst score kept (Infinity until the list is full), refreshed after each offer.
+    let wk = worstKept;
     let bestErr = Infinity, bestI = -1, bestJ = -1;
-    let j0 = -1;
-    for (let i = iStart; i < iEnd; i++) {
+    let j0 = -1, count = 0;
+    for (let i = i0; i < i1; i++) {
       const a = av[i]!;
-      const bi = rf ? (a + cA) / rk - cB : fns.idealB(a);
+      const bi = r ? (a + cA) / rk - cB : fns.idealB(a);
       if (!(bi > 0) || !Number.isFinite(bi)) continue;
       // The ideal partner moves with a, so walk from the last position (binary search on the first use):
       // amortised O(1) per arm when b(a) is monotone, and still exact when it is not.
@@ -340,20 +355,31 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
       }
       for (let j = j0 - 1; j <= j0; j++) {
         if (j < 0 || j >= bn) continue;
-        evaluated++;
-        const e = rf ? rm * ((a + cA) / (bv[j]! + cB) / rk - 1) : fns.error(a, bv[j]!);
+        count++;
+        const e = r ? rm * ((a + cA) / (bv[j]! + cB) / rk - 1) : fns.error(a, bv[j]!);
         if (!Number.isFinite(e)) continue;
         const ae = Math.abs(e);
         if (ae < bestErr) { bestErr = ae; bestI = i; bestJ = j; }
+        // The score is at least max(|e|, floor) (every other factor is ≥ 1, and rounding is monotone).
+        if (!rank || Math.max(ae, fl) > wk) continue;
+        const parts = (ak[i] === ARM_SINGLE ? 1 : 2) + (bk[j] === ARM_SINGLE ? 1 : 2);
+        const lead = Math.max(ae, fl) * PARTS_FACTOR[parts]!;
+        if (lead * (1 + 0.5 * Math.abs(lg[i]! - lp)) > wk * (1 + BOUND_MARGIN)) continue;
+        offer(i, j, e, parts, lead * (1 + 0.5 * Math.abs(Math.log10(a / ap))));
+        wk = worstKept;
       }
     }
+    evaluated += count;
     return bestI >= 0
       ? { a: armAt(tA, bestI), b: armAt(tB, bestJ), error: fns.error(av[bestI]!, bv[bestJ]!), parts: partCount(tA, bestI) + partCount(tB, bestJ), score: NaN }
       : null;
-  };
+  }
+  if (keep > 0 && !(floor > 0)) best = scanBest(true);
+  const ranked: PairCandidate[] = [];
+  for (let n = 0; n < kept; n++) ranked.push({ a: armAt(tA, kI[n]!), b: armAt(tB, kJ[n]!), error: kE[n]!, parts: kP[n]!, score: kS[n]! });
   return {
     ranked,
-    get best() { if (best === undefined) best = scanBest(); return best; },
+    get best() { if (best === undefined) best = scanBest(false); return best; },
     get evaluated() { return evaluated; },
   };
 }
