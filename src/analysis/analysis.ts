@@ -4,6 +4,7 @@
  * instrument drive. Each function is pure; `analyse` in report.ts strings them together.
  */
 import type { Design } from '../model/design.js';
+import type { LimitData } from '../model/findings.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
 import { adjointAt, signalTransfer, solveDc, stampReal, luFactorReal, luSolveReal, rhs, workspace, type Element } from '../circuit/mna.js';
 import { integratePower, logGrid, peakToPeak } from '../physics/noise.js';
@@ -63,7 +64,8 @@ export interface ClipLimit {
   cause: ClipCause;
   low: number;
   high: number;
-  why: string;
+  /** The numbers behind the limit, for its wording (src/present/finding-words.ts). */
+  data: LimitData;
 }
 
 export interface ClipResult {
@@ -106,18 +108,18 @@ export function clipping(design: Design, front: SensorFront, dc: DcPoint, positi
   const neg = design.supply.negative;
   const oa = design.opamp;
   const limits: ClipLimit[] = [];
-  const add = (cause: ClipCause, iv: [number, number], why: string) => limits.push({ cause, low: iv[0], high: iv[1], why });
+  const add = (cause: ClipCause, iv: [number, number], data: LimitData) => limits.push({ cause, low: iv[0], high: iv[1], data });
   const [swingLo, swingHi] = opampSwing(design, positive);
-  add('opamp-output', within(dc.internal[0], dc.internal[1], swingLo, swingHi), `the op-amp output swings only from ${+swingLo.toFixed(3)} V to ${+swingHi.toFixed(3)} V`);
-  add('opamp-current', within(dc.iOut[0], dc.iOut[1], -oa.outputCurrent, oa.outputCurrent), `the op-amp can drive only ±${oa.outputCurrent * 1e3} mA into the feedback network and load`);
+  add('opamp-output', within(dc.internal[0], dc.internal[1], swingLo, swingHi), { cause: 'opamp-output', low: swingLo, high: swingHi });
+  add('opamp-current', within(dc.iOut[0], dc.iOut[1], -oa.outputCurrent, oa.outputCurrent), { cause: 'opamp-current', current: oa.outputCurrent });
   const inLo = neg + oa.inputLow, inHi = positive - oa.inputHigh;
   const ivP = within(dc.inP[0], dc.inP[1], inLo, inHi);
   const ivN = within(dc.inN[0], dc.inN[1], inLo, inHi);
-  add('opamp-input', [Math.max(ivP[0], ivN[0]), Math.min(ivP[1], ivN[1])], `the op-amp inputs must stay within ${+inLo.toFixed(3)} V … ${+inHi.toFixed(3)} V`);
+  add('opamp-input', [Math.max(ivP[0], ivN[0]), Math.min(ivP[1], ivN[1])], { cause: 'opamp-input', low: inLo, high: inHi });
   if (Number.isFinite(front.outputMin) || Number.isFinite(front.outputMax)) {
-    add('sensor', within(front.quiescent, front.sensitivity, front.outputMin, front.outputMax), `the sensor's output reaches its ${front.outputMin}…${front.outputMax} V limits`);
+    add('sensor', within(front.quiescent, front.sensitivity, front.outputMin, front.outputMax), { cause: 'sensor', what: 'output', low: front.outputMin, high: front.outputMax });
   }
-  for (const l of front.limits) add(l.kind, [l.low, l.high], l.why);
+  for (const l of front.limits) add(l.kind, [l.low, l.high], l.data);
 
   // The linear region is the intersection of every limit's interval. It need not contain zero: when the zero
   // itself sits outside it (a sagging rail), each side's limit is still reported.
@@ -184,6 +186,14 @@ export interface FrequencyResponse {
 export function transferAt(sc: StageCircuit, f: number, ws = workspace(sc.circuit)): [number, number] {
   if (!adjointAt(sc.circuit, 2 * Math.PI * f, sc.nodes.out, ws)) return [NaN, NaN];
   return signalTransfer(sc.circuit, ws);
+}
+
+/** An angle in degrees folded into (−180°, 180°]. `wrapDegrees(270)` → −90. */
+export function wrapDegrees(deg: number): number {
+  let x = deg;
+  while (x > 180) x -= 360;
+  while (x <= -180) x += 360;
+  return x;
 }
 
 /** Magnitude and phase from complex transfers; the phase unwrapped so it runs on smoothly past ±180°. */
@@ -272,9 +282,7 @@ export function speed(design: Design, sc: StageCircuit, front: SensorFront, dc: 
   if (Math.hypot(...transferAt(sc, fHi, ws)) > level) bw = fHi;
   const [pr, pi] = transferAt(sc, bw, ws);
   const [rr, ri] = transferAt(sc, fRef, ws);
-  let phase = ((Math.atan2(pi, pr) - Math.atan2(ri, rr)) * 180) / Math.PI;
-  while (phase > 180) phase -= 360;
-  while (phase < -180) phase += 360;
+  const phase = wrapDegrees(((Math.atan2(pi, pr) - Math.atan2(ri, rr)) * 180) / Math.PI);
   const [a, b] = peakRange(design);
   const peakSwing = Math.max(Math.abs(dc.pin[1] * a), Math.abs(dc.pin[1] * b));
   return {

@@ -15,7 +15,9 @@ import { join } from 'node:path';
 import '../model/units-mathjs.js';
 import { decodeDesignBytes, formatProblems, MAX_DESIGN_BYTES, parseDesignText } from '../model/design.js';
 import { quoteText } from '../model/validate.js';
-import { analyse, reportJson } from '../analysis/report.js';
+import { analyse } from '../analysis/report.js';
+import { reportJson } from '../present/json.js';
+import { sayFinding } from '../present/finding-words.js';
 import { textReport } from '../present/text-report.js';
 import { spiceNetlist } from '../present/spice.js';
 import { DEMOS } from '../model/demos.js';
@@ -157,7 +159,7 @@ function run(argv: string[], io: Io): number {
   const r = analyse(v.design, { spreadTrials });
   if (flags.has('--spice')) {
     const net = spiceNetlist(r);
-    if (!net) { io.err(`gainwright: no circuit to export: ${oneLine(r.warnings.filter((w) => w.level === 'fail').map((w) => w.message).join(' '))}\n`); return 1; }
+    if (!net) { io.err(`gainwright: no circuit to export: ${oneLine(r.warnings.filter((w) => w.level === 'fail').map(sayFinding).join(' '))}\n`); return 1; }
     io.out(net);
     return 0;
   }

@@ -3,7 +3,8 @@
  * rating, quantity and role, plus the op-amp and its decoupling; and its CSV export.
  */
 import { partCode, partRole, partValue } from './parts.js';
-import { SAFETY_CAUTIONS, type Report } from '../analysis/report.js';
+import type { Report } from '../analysis/report.js';
+import { cautionsFor } from './cautions.js';
 import { peakRange } from '../physics/topology.js';
 import { formatEng } from '../model/units.js';
 import { csvCell, spiceCommentText } from './inert.js';
@@ -102,5 +103,5 @@ export function bomCsv(r: Report): string {
 
 /** The cautions for the CSV's header comment, one line each, with nothing in them that could end the comment. */
 function cautionLines(r: Report): string[] {
-  return [...SAFETY_CAUTIONS, ...r.front.cautions].map((c) => `CAUTION: ${spiceCommentText(c, 1000)}`);
+  return cautionsFor(r.design.sensor.type, r.front.cautions).map((c) => `CAUTION: ${spiceCommentText(c, 1000)}`);
 }

@@ -3,6 +3,7 @@ import type { Report } from '../analysis/report.js';
 import { noiseLabel } from './charts.js';
 import { formatEng } from '../model/units.js';
 import { STAGE_NAMES } from './words.js';
+import { stageReasonWords } from './finding-words.js';
 
 export interface FigureRow { label: string; value: string; note?: string }
 
@@ -13,7 +14,7 @@ export function keyFigures(r: Report): FigureRow[] {
   const rows: FigureRow[] = [];
   const s = r.stage;
   if (!s || !r.dc) return [{ label: 'Design', value: 'not solved', note: r.absent.all ?? '' }];
-  rows.push({ label: 'Stage', value: STAGE_NAMES[s.ideal.topology], note: r.choice.why.replace(/^[^:]+: /, '') });
+  rows.push({ label: 'Stage', value: STAGE_NAMES[s.ideal.topology], note: (r.choice.chosen?.reasons ?? []).map(stageReasonWords).join('; ') });
   rows.push({ label: 'Gain / noise gain', value: `${s.gain.toFixed(4)} / ${s.noiseGain.toFixed(4)}` });
   rows.push({ label: 'Scale at the instrument', value: f(r.dc.out[1], `V/${m}`, 5), note: `${(s.scaleError * 100).toFixed(4)} % before trim` });
   rows.push({ label: 'Zero', value: f(r.dc.out[0], 'V', 5) });
