@@ -214,6 +214,7 @@ export function responseFromSpectrum(s: NoiseSpectrum): FrequencyResponse {
   return responseOf(s.freqs, s.signalRe, s.signalIm);
 }
 
+/** Gain (magnitude, V per measurand unit) and phase (degrees, unwrapped) at the output over f1…f2 Hz on a log grid of `points`. */
 export function frequencyResponse(sc: StageCircuit, f1: number, f2: number, points = 200): FrequencyResponse {
   const freqs = new Float64Array(points), re = new Float64Array(points), im = new Float64Array(points);
   const ws = workspace(sc.circuit);
@@ -310,7 +311,7 @@ export interface NoiseResult {
 }
 
 /** The low-frequency band whose peak-to-peak noise is quoted for DC work, Hz (common practice: 0.1–10 Hz). */
-export const LOW_FREQUENCY_BAND: readonly [number, number] = [0.1, 10];
+const LOW_FREQUENCY_BAND: readonly [number, number] = [0.1, 10];
 
 /**
  * Share of a single pole's noise bandwidth (π/2)·f_c that the default band's top, 100 × f_c, holds:
@@ -323,6 +324,11 @@ export function defaultBand(sp: Speed): [number, number] {
   return [Math.max(1, sp.lowCorner / 10 || 1), Math.max(100 * sp.smallSignal, 10)];
 }
 
+/**
+ * Output noise: the density of every source by one adjoint solve per frequency, integrated over the band
+ * (the design's own, or 1 Hz … 100 × the bandwidth), rms and peak-to-peak (6.6 σ, common practice), referred to
+ * the measurand, with the low-frequency wander over 0.1–10 Hz kept apart. Units: V/√Hz, V rms, measurand rms.
+ */
 export function noise(design: Design, sc: StageCircuit, sp: Speed, points = 201): NoiseResult {
   const T = design.environment.temperature;
   const band: [number, number] = design.analysis.noiseBand ?? defaultBand(sp);
@@ -376,7 +382,7 @@ export interface ErrorBudget {
  * Where the span is calibrated, as a fraction of the range end (the calibration steps apply about half the
  * range end; common practice: large enough to read well, small enough for a bench supply).
  */
-export const SPAN_CALIBRATION_FRACTION = 0.5;
+const SPAN_CALIBRATION_FRACTION = 0.5;
 
 /**
  * DC error budget at both range ends, in measurand units. Each resistor and trimmer is moved by its
@@ -507,6 +513,7 @@ export interface SupplyResult {
   batteryLife: number | null;
 }
 
+/** Supply current at zero measurand, A (op-amp and sensor quiescent, what the rails deliver to the networks, the output current into the load, the regulator's own), by part, and battery life, h (capacity ÷ current). */
 export function supply(design: Design, front: SensorFront, sc: StageCircuit, dc: DcPoint): SupplyResult {
   const parts: Array<{ name: string; current: number }> = [{ name: 'op-amp quiescent', current: design.opamp.supplyCurrent }];
   if (front.supplyCurrent) parts.push({ name: 'sensor', current: front.supplyCurrent });
@@ -546,7 +553,7 @@ export interface BatteryStep {
  * rail exceeds its output by its dropout; below that its output follows the rail, dropout below it, and a
  * ratiometric sensor fed from it scales with it.
  */
-export function batteryStep(design: Design, stage: SolvedStage, front: SensorFront, zero: number, v: number): BatteryStep | null {
+function batteryStep(design: Design, stage: SolvedStage, front: SensorFront, zero: number, v: number): BatteryStep | null {
   const passband = !front.passesDc;
   const reg = design.supply.regulated;
   const dropout = reg?.dropout ?? 0;

@@ -9,7 +9,7 @@ import { solveStage, type SolvedStage } from '../solve/stage.js';
 import { commonModeGain, openLoopOf } from '../solve/transfer.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
 import {
-  batteryClip, batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, noise, speed, spread, supply, transferAt, transferCurve, wrapDegrees,
+  batteryClip, batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, nodeLinear, noise, speed, spread, supply, transferAt, transferCurve, wrapDegrees,
   type BatteryClip, type BatteryStep, type ClipCause, type ClipResult, type DcPoint, type ErrorBudget, type FrequencyResponse, type InstrumentDrive, type NoiseResult,
   type Speed, type SpreadResult, type SupplyResult,
 } from './analysis.js';
@@ -276,7 +276,7 @@ function findings(r: Report): Finding[] {
 }
 
 /** Lowest and highest voltage the sensor is fed with (from 0 V): the regulated rail within its tolerance, or the positive rail over the battery's life. */
-export function sensorSupplyRange(d: Design): [number, number] {
+function sensorSupplyRange(d: Design): [number, number] {
   const reg = d.supply.regulated;
   if (d.supply.sensorRail === 'regulated' && reg) return [reg.voltage * (1 - reg.tolerance), reg.voltage * (1 + reg.tolerance)];
   const bat = d.supply.battery;
@@ -296,23 +296,22 @@ function sensorSupplyFindings(d: Design): Finding[] {
 }
 
 /** Largest current the sensor output delivers over the range, A (null when the circuit has no source resistor). */
-export function sensorDraw(r: Report): number | null {
+function sensorDraw(r: Report): number | null {
   const sc = r.circuit;
   if (!sc || !r.clip || !r.dc) return null;
   // The sensor output node and the amplifier input node: the current in between is what the sensor drives.
-  const { c0, c1 } = r.dc;
   const rsIdx = sc.circuit.elements.findIndex((e) => e.name === 'RS' && e.kind === 'R');
   const [a, b] = r.clip.rangePeak;
   let worst = 0;
   if (rsIdx >= 0) {
     const e = sc.circuit.elements[rsIdx]!;
-    const v = (col: Float64Array, n: number) => (n > 0 ? col[n - 1]! : 0);
-    for (const x of [a, 0, b]) worst = Math.max(worst, Math.abs((v(c0, e.a) - v(c0, e.b) + (v(c1, e.a) - v(c1, e.b)) * x) / e.value));
+    const [a0, a1] = nodeLinear(r.dc, e.a), [b0, b1] = nodeLinear(r.dc, e.b);
+    for (const x of [a, 0, b]) worst = Math.max(worst, Math.abs((a0 - b0 + (a1 - b1) * x) / e.value));
     return worst;
   }
   // No source resistance: the sensor drives the input network directly; the current is the source's own.
   const k = sc.circuit.branch[sc.signalIndex]!;
   if (k < 0) return null;
-  for (const x of [a, 0, b]) worst = Math.max(worst, Math.abs(c0[k]! + c1[k]! * x));
+  for (const x of [a, 0, b]) worst = Math.max(worst, Math.abs(r.dc.c0[k]! + r.dc.c1[k]! * x));
   return worst;
 }

@@ -93,6 +93,7 @@ function readDesign(path: string, limit = MAX_DESIGN_BYTES, what = 'a design fil
 /** A problem list as lines, each one line whatever the text in it. */
 const problemLines = (problems: Array<{ path: string; message: string }>) => formatProblems(problems).split('\n').map((l) => l.replace(/[\u0000-\u001f\u007f-\u009f]/g, ' '));
 
+/** Runs the CLI on `argv` (without node and the script), writing through `io`; resolves to the exit code (0 ok, 1 design fails, 2 bad input, 3 damaged files). */
 export async function main(argv: string[], io: Io = nodeIo): Promise<number> {
   if (io === nodeIo) quietOnClosedPipe();
   try {

@@ -8,9 +8,6 @@
  */
 export type FindingLevel = 'fail' | 'caution' | 'info';
 
-/** Which end of the range, or which side of a rail. */
-export type Side = 'low' | 'high';
-
 /** The limits a stage can meet first (clipping causes). */
 export type LimitCause = 'opamp-output' | 'opamp-current' | 'opamp-input' | 'sensor' | 'core' | 'burden';
 
@@ -116,9 +113,4 @@ export type Finding = { [K in FindingCode]: { code: K; level: FindingLevel; data
 /** Builds a finding, typed by its code. `finding('capacitive-load', 'caution', { isolation: 47 })`. */
 export function finding<K extends FindingCode>(code: K, level: FindingLevel, data: FindingData[K]): Finding {
   return { code, level, data } as Finding;
-}
-
-/** The data of a finding whose code is known (narrowing helper for readers of a list). */
-export function findingOf<K extends FindingCode>(list: readonly Finding[], code: K): (Finding & { code: K; data: FindingData[K] }) | undefined {
-  return list.find((f) => f.code === code) as (Finding & { code: K; data: FindingData[K] }) | undefined;
 }

@@ -23,7 +23,7 @@ export interface BomRow {
 }
 
 /** Standard resistor power ratings, W (common practice: 1/8, 1/4, 1/2, 1 W through-hole). */
-export const POWER_RATINGS = [0.125, 0.25, 0.5, 1, 2];
+const POWER_RATINGS = [0.125, 0.25, 0.5, 1, 2];
 
 /** The smallest rating that keeps dissipation at or under half of it (50 % derating, common practice). */
 export function powerRating(watts: number): number {
@@ -51,6 +51,7 @@ export function dissipations(r: Report): Map<string, number> {
   return out;
 }
 
+/** The parts list rows: resistors and trimmers grouped by value and series, then sensor, regulator, op-amp and decoupling. */
 export function bomRows(r: Report): BomRow[] {
   const rows: BomRow[] = [];
   const s = r.stage;

@@ -9,6 +9,7 @@ export interface FigureRow { label: string; value: string; note?: string }
 
 const f = (x: number | null | undefined, u = '', d = 3) => (x === null || x === undefined ? '—' : formatEng(x, u, d));
 
+/** The key figures as labelled text rows (stage, gain, scale, zero, range, bandwidth, noise, errors, supply, sensor). */
 export function keyFigures(r: Report): FigureRow[] {
   const m = r.design.sensor.measurand;
   const rows: FigureRow[] = [];
@@ -57,7 +58,7 @@ export function keyFigures(r: Report): FigureRow[] {
 const SHAPES = { step: 'step', sine: 'sine', square: 'square wave', triangle: 'triangle' } as const;
 
 /** What the measurand waveform is, in words: "step from −20 A to 20 A", "square wave −5 A … 5 A at 200 Hz, 50 % duty". */
-export function waveformTitle(r: Report): string {
+function waveformTitle(r: Report): string {
   const w = r.waveformSpec;
   if (!w) return 'no waveform';
   const m = r.design.sensor.measurand;

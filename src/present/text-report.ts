@@ -12,6 +12,7 @@ import { waveformFigures } from './figures.js';
 const f = (x: number | null | undefined, u = '', d = 3) => (x === null || x === undefined ? '—' : formatEng(x, u, d));
 const MARK = { pass: 'PASS', caution: 'CAUTION', fail: 'FAIL' } as const;
 
+/** The whole report as plain text for a terminal: verdict, stage, parts, figures, findings, calibration, safety. Every line is inert. */
 export function textReport(r: Report): string {
   const d = r.design;
   const m = d.sensor.measurand;
