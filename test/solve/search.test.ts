@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { armTable, problemFunctions, score, searchPairs, searchPairsExhaustive, type ArmTable, type PairProblem } from '../../src/solve/search.js';
+import { armTable, score, searchPairs, searchPairsExhaustive, type ArmTable, type PairProblem } from '../../src/solve/search.js';
 import { isMember } from '../../src/model/eseries.js';
 import { mulberry32 } from '../../src/model/random.js';
 
@@ -82,7 +82,10 @@ describe('the closed-form fast path', () => {
  * that arm), each scored with `score`, stably sorted, the first `keep` kept.
  */
 function rankedByBruteForce(t: ArmTable, prob: PairProblem, keep: number): Array<[number, number, number, number]> {
-  const { idealB, error } = problemFunctions(prob);
+  // The ratio form (a + cA)/(b + cB) = k with signed error m·(ratio/k − 1), written out here.
+  const r = prob.ratio;
+  const idealB = r ? (a: number) => (a + r.cA) / r.k - r.cB : prob.idealB!;
+  const error = r ? (a: number, b: number) => r.m * ((a + r.cA) / (b + r.cB) / r.k - 1) : prob.error!;
   const all: Array<[number, number, number, number]> = [];
   for (let i = 0; i < t.size; i++) {
     const a = t.value[i]!;
