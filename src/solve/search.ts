@@ -155,6 +155,8 @@ export function score(err: number, parts: number, a: number, pref: number, floor
 
 /** 1.5^(parts − 2) for two to four parts: the part-count factor of `score`, exact in binary. */
 const PARTS_FACTOR = [1, 1, 1, 1.5, 2.25];
+/** First arms visited outward before the rest are left to the ascending scan (a few hundred: where the bound prunes, it has by then). */
+const OUTWARD_VISITS = 256;
 /** Relative margin on the stopping bound, far above the rounding of the logarithm (about 1e-16). */
 const BOUND_MARGIN = 1e-12;
 
@@ -213,9 +215,9 @@ function singleIndices(t: ArmTable): Int32Array {
  *
  * The ranked list is the first `keep` candidates by (score, first arm, second arm): exactly what offering
  * every candidate of the window in ascending order would keep. Since score = max(|e|, floor) · 1.5^(parts−2)
- * · (1 + 0.5·|log10(a/aPref)|) and the first two factors are at least floor and 1.5^(parts of a − 1), a first
- * arm whose floor · 1.5^(parts of a − 1) · (1 + 0.5·|log10(a/aPref)|) exceeds the worst score kept cannot
- * enter, nor can any arm farther from the preferred value on its side. So the first arms are visited outward
+ * · (1 + 0.5·|log10(a/aPref)|), and the first two factors are at least floor and 1.5^(parts of a + fewest parts
+ * of a second arm − 2), a first arm for which that least score exceeds the worst score kept cannot enter, nor
+ * can any arm farther from the preferred value on its side. So the first arms are visited outward
  * from the preferred value, nearest first, and each side stops at that bound: first for two-part first arms,
  * then (continuing over the single parts only) for single ones. With floor 0 that bound rules nothing out, so
  * the ranking is done instead in the ascending scan below.
@@ -288,6 +290,10 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
   let best: PairCandidate | null | undefined;
   if (keep > 0 && iEnd > iStart && floor > 0) {
     const singles = singleIndices(tA);
+    // The fewest parts a candidate can have with a single-part or a two-part first arm: the second arm adds one
+    // part, or two when its table has no single parts (e.g. a window of series and parallel pairs only).
+    const bLeast = singleIndices(tB).length > 0 ? 1 : 2;
+    const singleFactor = PARTS_FACTOR[1 + bLeast]!, pairFactor = PARTS_FACTOR[2 + bLeast]!;
     // A ratio form with k > 0 and cA, cB ≥ 0 has its ideal partner rising with a. Once that partner lies beyond
     // the last arm of the table (going up) or below the first (going down), no arm farther out on that side can
     // do better than the end of the table does for this one: |e| ≥ |m|·|(a + cA)/(b_end + cB)/k − 1|. A lower
@@ -308,14 +314,21 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
     let dnS = -1, upS = -1;
     // Each side's last partner index, where the next partner search starts.
     let jUp = -1, jDn = -1;
-    while (dn >= iStart || up < iEnd) {
+    for (let visits = 0; dn >= iStart || up < iEnd; visits++) {
+      // Where the bound does not prune (say a tiny floor with every arm near the preferred value), the
+      // arms left are offered by the cheaper ascending scan instead: the list kept is the same either way.
+      if (visits === OUTWARD_VISITS) {
+        scan(iStart, dn + 1, true);
+        scan(up, iEnd, true);
+        break;
+      }
       const goUp = up < iEnd && (dn < iStart || av[up]! / pref <= pref / av[dn]!);
       const i = goUp ? up : dn;
       const aEst = 1 + 0.5 * Math.abs(logs[i]! - logPref);
       const limit = worstKept * (1 + BOUND_MARGIN);
       const lower = Math.max(beyond(av[i]!, goUp), floor);
-      const stop = lower * aEst > limit;
-      const pairsOut = lower * PARTS_FACTOR[3]! * aEst > limit;
+      const stop = lower * singleFactor * aEst > limit;
+      const pairsOut = lower * pairFactor * aEst > limit;
       if (!stop && (!pairsOut || ak[i] === ARM_SINGLE)) {
         if (goUp) jUp = visit(i, aEst, jUp < 0 ? jDn : jUp); else jDn = visit(i, aEst, jDn < 0 ? jUp : jDn);
       }
@@ -330,15 +343,15 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
     }
   }
   /**
-   * The least error anywhere in the window: every first arm in ascending order, the first least kept. With
-   * `rank` (a floor of 0, where the score bound rules nothing out and every first arm would be visited anyway)
-   * the same pass also offers each candidate to the ranked list, the logarithm taken only for one that may enter.
+   * The least error over first arms [from, to) in ascending order, the first least kept. With `rank` the same
+   * pass also offers each candidate to the ranked list (the logarithm taken only for one that may enter): the
+   * whole ranking with a floor of 0, where the score bound rules nothing out, or the arms the outward visit left.
    */
-  function scanBest(rank: boolean): PairCandidate | null {
+  function scan(from: number, to: number, rank: boolean): PairCandidate | null {
     // Locals, not the enclosing function's (captured) variables: the hot loop reads them from registers.
     const av = tA.value, ak = tA.kind, bv = tB.value, bn = tB.size, bk = tB.kind;
     const r = prob.ratio, cA = r ? r.cA : 0, cB = r ? r.cB : 0, rk = r ? r.k : 1, rm = r ? r.m : 1;
-    const i0 = iStart, i1 = iEnd, fl = floor, lg = logs, lp = logPref, ap = pref;
+    const i0 = from, i1 = to, fl = floor, lg = logs, lp = logPref, ap = pref;
     // The worst score kept (Infinity until the list is full), refreshed after each offer.
     let wk = worstKept;
     let bestErr = Infinity, bestI = -1, bestJ = -1;
@@ -375,12 +388,12 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
       ? { a: armAt(tA, bestI), b: armAt(tB, bestJ), error: fns.error(av[bestI]!, bv[bestJ]!), parts: partCount(tA, bestI) + partCount(tB, bestJ), score: NaN }
       : null;
   }
-  if (keep > 0 && !(floor > 0)) best = scanBest(true);
+  if (keep > 0 && !(floor > 0)) best = scan(iStart, iEnd, true);
   const ranked: PairCandidate[] = [];
   for (let n = 0; n < kept; n++) ranked.push({ a: armAt(tA, kI[n]!), b: armAt(tB, kJ[n]!), error: kE[n]!, parts: kP[n]!, score: kS[n]! });
   return {
     ranked,
-    get best() { if (best === undefined) best = scanBest(false); return best; },
+    get best() { if (best === undefined) best = scan(iStart, iEnd, false); return best; },
     get evaluated() { return evaluated; },
   };
 }
