@@ -300,7 +300,7 @@ function sensorDraw(r: Report): number | null {
   const sc = r.circuit;
   if (!sc || !r.clip || !r.dc) return null;
   // The sensor output node and the amplifier input node: the current in between is what the sensor drives.
-  const rsIdx = sc.circuit.elements.findIndex((e) => e.name === 'RS' && e.kind === 'R');
+  const rsIdx = sc.circuit.elements.findIndex((e) => e.role === 'sensor-source');
   const [a, b] = r.clip.rangePeak;
   let worst = 0;
   if (rsIdx >= 0) {
