@@ -1,6 +1,6 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, state, query } from 'lit/decorators.js';
-import { validateDesign, parseDesignText, MAX_DESIGN_BYTES, type Design, type Problem } from '../src/index.js';
+import { validateDesign, parseDesignText, MAX_DESIGN_BYTES, tooLargeMessage, type Design, type Problem } from '../src/index.js';
 import { analyse, reportWords, SAFETY_CAUTIONS, type Report, type ReportWords } from '../src/index.js';
 import { DEMOS, demoDesign } from '../src/index.js';
 import { FIELDS, GROUP_DEFAULTS, groupDefault, readField, setPath } from '../src/index.js';
@@ -362,7 +362,7 @@ export class GwApp extends LitElement {
     if (!file) return;
     const name = file.name.replace(/[\u0000-\u001f\u007f-\u009f]/g, ' ').slice(0, 80);
     if (file.size > MAX_DESIGN_BYTES) {
-      this._notice = { text: `${name} is larger than 1 MB; a design file is a few kB. The current design stays.`, bad: true };
+      this._notice = { text: `${name} ${tooLargeMessage(MAX_DESIGN_BYTES)}. The current design stays.`, bad: true };
       return;
     }
     // Decoded as the CLI decodes it: UTF-8 with or without a byte-order mark, or UTF-16.

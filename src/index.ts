@@ -2,7 +2,7 @@
  * Gainwright's calculation core: the one public entry. Pure TypeScript, no DOM; SI units throughout.
  * Import `./units-mathjs.js` once as well to read unit expressions beyond the common forms.
  */
-export { validateDesign, parseDesignText, serialiseDesign, formatProblems, migrate, DESIGN_FORMAT, DESIGN_VERSION, MAX_DESIGN_BYTES } from './model/design.js';
+export { validateDesign, parseDesignText, serialiseDesign, formatProblems, migrate, DESIGN_FORMAT, DESIGN_VERSION, MAX_DESIGN_BYTES, tooLargeMessage } from './model/design.js';
 export type { Design, SensorSpec, SensorType, Supply, OpAmpSpec, Target, Output, Environment, AnalysisOptions, MeasurandWaveform, Topology, TopologyChoice, Arrangement, Problem } from './model/design.js';
 export { analyse } from './analysis/report.js';
 export type { Report, AnalyseOptions } from './analysis/report.js';

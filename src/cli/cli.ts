@@ -13,7 +13,7 @@
 import { closeSync, constants, fstatSync, openSync, readSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import '../model/units-mathjs.js';
-import { decodeDesignBytes, formatProblems, MAX_DESIGN_BYTES, parseDesignText } from '../model/design.js';
+import { decodeDesignBytes, formatProblems, MAX_DESIGN_BYTES, parseDesignText, tooLargeMessage } from '../model/design.js';
 import { quoteText } from '../model/validate.js';
 import { analyse } from '../analysis/report.js';
 import { reportJson } from '../present/json.js';
@@ -59,7 +59,6 @@ const USAGE = `usage:
                                          (--at: where the trimmers sat while reading, if turned)
 `;
 
-const tooLarge = (limit: number, what: string) => `is larger than ${limit >= 1e6 ? `${limit / 1e6} MB` : `${limit / 1e3} kB`}; ${what}`;
 
 /**
  * Reads a design (or readings) file: only a regular file, and at most the limit plus one byte whatever its stated size
@@ -74,11 +73,11 @@ function readDesign(path: string, limit = MAX_DESIGN_BYTES, what = 'a design fil
     fd = openSync(path, constants.O_RDONLY | (constants.O_NONBLOCK ?? 0));
     const st = fstatSync(fd);
     if (!st.isFile()) return { ok: false, message: 'is not a regular file' };
-    if (st.size > limit) return { ok: false, message: tooLarge(limit, what) };
+    if (st.size > limit) return { ok: false, message: tooLargeMessage(limit, what) };
     const buf = Buffer.alloc(limit + 1);
     let n = 0;
     for (let got = 1; got > 0 && n < buf.length; n += got) got = readSync(fd, buf, n, buf.length - n, null);
-    if (n > limit) return { ok: false, message: tooLarge(limit, what) };
+    if (n > limit) return { ok: false, message: tooLargeMessage(limit, what) };
     const text = decodeDesignBytes(buf.subarray(0, n));
     if (!text.ok) return { ok: false, message: text.problems[0]!.message };
     return { ok: true, text: text.text };

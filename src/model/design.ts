@@ -678,7 +678,11 @@ export function decodeDesignBytes(bytes: Uint8Array): { ok: true; text: string }
   }
 }
 
-const tooLarge = (): Problem => ({ path: '(file)', message: `is larger than ${MAX_DESIGN_BYTES / 1e6} MB; a design file is a few kB` });
+/** The one wording of a file over its size limit: `is larger than 1 MB; a design file is a few kB`. */
+export function tooLargeMessage(limit: number, what = 'a design file is a few kB'): string {
+  return `is larger than ${limit >= 1e6 ? `${limit / 1e6} MB` : `${limit / 1e3} kB`}; ${what}`;
+}
+const tooLarge = (): Problem => ({ path: '(file)', message: tooLargeMessage(MAX_DESIGN_BYTES) });
 
 /** Where JSON.parse stopped, as one line: the engine's own message quotes the text, control characters and all. */
 function jsonErrorAt(text: string, err: unknown): string {

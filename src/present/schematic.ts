@@ -4,7 +4,7 @@
  */
 import type { Report } from '../analysis/report.js';
 import type { Part, PartRole } from '../circuit/network.js';
-import { partValue } from './parts.js';
+import { armJoint, partValue } from './parts.js';
 import { STAGE_NAMES } from './words.js';
 import { formatEng } from '../model/units.js';
 
@@ -32,7 +32,7 @@ export interface Schematic {
 function arm(parts: Part[], role: PartRole): { ref: string; value: string } | null {
   const ps = parts.filter((p) => p.role === role);
   if (!ps.length) return null;
-  const joint = ps.length > 1 && ps[0]!.arrangement === 'parallel' ? ' ∥ ' : ' + ';
+  const joint = armJoint(ps[0]!.arrangement);
   return { ref: ps.map((p) => p.ref).join(joint), value: ps.map((p) => formatEng(p.ohms, 'Ω', 3).replace(' ', '')).join(joint) };
 }
 

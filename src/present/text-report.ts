@@ -1,5 +1,5 @@
 /** The report as plain text for a terminal: verdicts first, then parts, figures, calibration, cautions. */
-import { partCode, partRole, partValue } from './parts.js';
+import { armJoint, partCode, partRole, partValue } from './parts.js';
 import type { Report } from '../analysis/report.js';
 import { calibrationSteps } from './calibration.js';
 import { cautionsFor } from './cautions.js';
@@ -33,7 +33,7 @@ export function textReport(r: Report): string {
     }
     if (s.alternatives.length > 1) {
       out.push('  Alternatives for the gain network (feedback / leg, error):');
-      s.alternatives.slice(0, 5).forEach((a, i) => out.push(`   ${i === s.chosen ? '*' : ' '}${i}: ${a.a.parts.map((p) => formatEng(p, 'Ω')).join(a.a.arrangement === 'parallel' ? ' ∥ ' : ' + ')} / ${a.b.parts.map((p) => formatEng(p, 'Ω')).join(a.b.arrangement === 'parallel' ? ' ∥ ' : ' + ')}, ${(a.error * 100).toFixed(4)} %`));
+      s.alternatives.slice(0, 5).forEach((a, i) => out.push(`   ${i === s.chosen ? '*' : ' '}${i}: ${a.a.parts.map((p) => formatEng(p, 'Ω')).join(armJoint(a.a.arrangement))} / ${a.b.parts.map((p) => formatEng(p, 'Ω')).join(armJoint(a.b.arrangement))}, ${(a.error * 100).toFixed(4)} %`));
     }
   }
   if (r.front.figures.length) {
