@@ -386,6 +386,7 @@ const LIMIT_NAMES: Record<ClipCause, string> = {
   sensor: 'the sensor reaches its limit',
   core: 'the core saturates',
   burden: 'the burden or shunt reaches its power rating',
+  driver: 'the compensation driver runs out and the core leaves zero flux',
 };
 
 /** The short pass / caution / fail list a person reads first. */

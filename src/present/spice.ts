@@ -46,7 +46,13 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
   lines.push('* Model assumptions: behavioural op-amp with a single pole at GBW/A0, open-loop output resistance, and its');
   lines.push('* internal output limited to the swing (outputLow above the - rail, outputHigh below the + rail) and its slew');
   lines.push('* rate; no output current limit, offsets and bias currents omitted; trimmers as two resistors at their settings;');
-  lines.push('* sensor as an ideal source with its resistance and bandwidth (its own output limits are not modelled).');
+  if (d.sensor.type === 'closed-loop-hall') {
+    lines.push('* Closed-loop Hall sensor: the core as the magnetising inductance LM with the primary reflected across it (ISIG =');
+    lines.push('* Np/Ns x measurand), the Hall sensor as HHALL controlled by LM\'s current, the compensation (RI, CI, RZ) and a');
+    lines.push('* linear driver EDRV (no swing or current limit: the report\'s largest held current is not in the netlist).');
+  } else {
+    lines.push('* sensor as an ideal source with its resistance and bandwidth (its own output limits are not modelled).');
+  }
   lines.push(`* Measurand ${measurand}: the signal source is ${c.elements[sc.signalIndex]?.name ?? '?'}; its value is quiescent + sensitivity x measurand.`);
   lines.push(`* Output node: ${node(names, sc.nodes.out)}. Temperature ${fmt(tempC)} C.`);
   lines.push('*');
@@ -97,8 +103,19 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
         lines.push(`${spiceName('C', e.name)} ${a} ${b} ${fmt(e.value)}`);
         break;
       case 'L':
-        lines.push(`${spiceName('L', e.name)} ${a} ${b} ${fmt(e.value)}`);
+        if (c.elements.some((h) => h.kind === 'H' && h.ctrl === i)) {
+          // A current-controlled source reads this inductor's current through a 0 V source in series.
+          lines.push(`${spiceName('L', e.name)} ${a} ${a}_${e.name}_s ${fmt(e.value)}`);
+          lines.push(`${spiceName('V', `${e.name}_SENSE`)} ${a}_${e.name}_s ${b} DC 0`);
+        } else {
+          lines.push(`${spiceName('L', e.name)} ${a} ${b} ${fmt(e.value)}`);
+        }
         break;
+      case 'H': {
+        const ce = c.elements[e.ctrl ?? -1];
+        if (ce) lines.push(`${spiceName('H', e.name)} ${a} ${b} ${spiceName('V', `${ce.name}_SENSE`)} ${fmt(e.value)}`);
+        break;
+      }
       case 'V': {
         if (e.noise && e.noise > 0) {
           const mid = `${a}_nz${aux++}`;
@@ -120,7 +137,16 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
       }
       case 'E': {
         const cp = node(names, e.cp ?? 0), cn = node(names, e.cn ?? 0);
-        if (e.pole && e.pole > 0) {
+        if (e.pole && e.pole > 0 && i !== sc.opampIndex) {
+          // Another amplifier with a pole (a closed-loop sensor's driver): linear, A0/(1 + s/ωp) as a
+          // transconductance gm = A0/Rp into Rp ∥ Cp, Rp·Cp = 1/(2π·fp), then a unity buffer.
+          const rp = 1e6, cp2 = 1 / (2 * Math.PI * e.pole * rp);
+          const p = `${a}_pole`;
+          lines.push(`${spiceName('G', `${e.name}_GM`)} 0 ${p} ${cp} ${cn} ${fmt(e.value / rp)}`);
+          lines.push(`${spiceName('R', `${e.name}_RP`)} ${p} 0 ${fmt(rp)} noisy=0`);
+          lines.push(`${spiceName('C', `${e.name}_CP`)} ${p} 0 ${fmt(cp2)}`);
+          lines.push(`${spiceName('E', e.name)} ${a} ${b} ${p} 0 1`);
+        } else if (e.pole && e.pole > 0) {
           // A0/(1 + s/ωp): a current gm·v_d − V(p)/Rp (gm = A0/Rp) into Cp, Rp·Cp = 1/(2π·fp), which is
           // τ·dV(p)/dt + V(p) = A0·v_d. The current is limited to ±SR·Cp, so V(p) slews at most at SR.
           const rp = 1e6, cp2 = 1 / (2 * Math.PI * e.pole * rp);
