@@ -88,7 +88,7 @@ export const DEMOS: readonly Demo[] = [
         core: { pathLength: 0.06, permeability: 2000, gap: 1.5e-3, saturation: 0.35, fringing: 1, width: 0.008, depth: 0.008, area: 64e-6 },
         primaryTurns: 1, compensationTurns: 1000, wire: { diameter: 0.25e-3, turnLength: 0.036 }, measurementResistance: 82, reference: 0,
         driver: { outputStage: 'push-pull', gbw: 1e7, openLoopGainDb: 100, swing: 1, drop: 0.7, currentLimit: 0.1, quiescentCurrent: 2e-3, outputResistance: 1 },
-        compensation: { inputResistance: 10e3, capacitance: 100e-9, zeroResistance: 100e3 },
+        compensation: { inputResistance: 10e3, capacitance: 220e-12, zeroResistance: 3.3e6 },
       },
       supply: { positive: 5, negative: -5 },
       opamp: { ...bipolar },
