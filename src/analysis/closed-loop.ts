@@ -5,8 +5,9 @@
  * once; the Hall path takes over as the winding's current decays through L_s/R, and a well-compensated loop
  * hands over with a small, unrippled sag.
  */
-import type { ClosedLoopHallSensor, Supply } from '../model/design.js';
-import { closedLoopParts, loopFigures } from '../physics/closed-loop.js';
+import type { ClosedLoopHallSensor, Design, Supply } from '../model/design.js';
+import { HOUR } from '../model/constants.js';
+import { closedLoopParts, loopFigures, proposeTurns, turnsTrade, type TurnsOption } from '../physics/closed-loop.js';
 import { closedLoopCircuit } from '../circuit/closed-loop.js';
 import { transient } from '../circuit/transient.js';
 import { edgeFigures } from './waveform.js';
@@ -69,4 +70,41 @@ export function closedLoopStep(spec: ClosedLoopHallSensor, supply: Pick<Supply, 
     if (k > 0 && firstAbove >= 0 && k > firstAbove && Math.sign(out[k]! - settled) !== Math.sign(out[k - 1]! - settled) && Math.abs(out[k]! - settled) > 1e-6 * Math.abs(ideal)) crossings++;
   }
   return { t: tr.t, output: out, step, ideal, overshoot: fig.overshoot ?? 0, sag, settlingTime: fig.settlingTime, tailRipple: tail, crossings };
+}
+
+/** What the report adds for a closed-loop sensor: the step, the supply at the range end, the turns trade. */
+export interface ClosedLoopSummary {
+  /** A step of primary current from 0 to half the range end, on the sensor alone. */
+  step: ClosedLoopStep | null;
+  /** The whole probe's supply current at zero and at the range end, A, and the battery life at each, hours (null: no battery). */
+  supplyAtZero: number;
+  supplyAtRangeEnd: number;
+  batteryLifeAtZero: number | null;
+  batteryLifeAtRangeEnd: number | null;
+  /** The turns trade for this range and supply, and the proposal from it (null: no turn count fits). */
+  trade: TurnsOption[];
+  proposal: TurnsOption | null;
+}
+
+/**
+ * The closed-loop sensor's summary for a report: `stageCurrent` is the whole probe's supply current at zero
+ * measurand (the stage's analysis, which already counts the sensor's quiescent currents); the compensation
+ * current |I|·N_p/N_s comes on top at primary current I, so the battery life depends on what is measured.
+ */
+export function closedLoopSummary(design: Design, stageCurrent: number): ClosedLoopSummary | null {
+  const s = design.sensor;
+  if (s.type !== 'closed-loop-hall') return null;
+  const peak = design.target.signal === 'ac-rms' ? Math.SQRT2 : 1;
+  const end = Math.max(Math.abs(design.target.range[0]), Math.abs(design.target.range[1])) * peak;
+  // An AC range draws its compensation current's average, 2/π of the peak, from a supply (derived for a sine).
+  const drawn = design.target.signal === 'ac-rms' ? (2 / Math.PI) * end : end;
+  const atEnd = stageCurrent + (drawn * s.primaryTurns) / s.compensationTurns;
+  const bat = design.supply.battery;
+  const life = (i: number) => (bat && i > 0 ? bat.capacity / i / HOUR : null);
+  const trade = turnsTrade(s, design.supply, end);
+  return {
+    step: closedLoopStep(s, design.supply, end / 2),
+    supplyAtZero: stageCurrent, supplyAtRangeEnd: atEnd, batteryLifeAtZero: life(stageCurrent), batteryLifeAtRangeEnd: life(atEnd),
+    trade, proposal: proposeTurns(trade),
+  };
 }

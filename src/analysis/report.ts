@@ -19,6 +19,7 @@ import type { Warning } from '../model/findings.js';
 import { formatEng, rkmCode } from '../model/units.js';
 import { significantFigures } from '../model/eseries.js';
 import { calibrationSteps, type CalibrationStep } from '../present/calibration.js';
+import { closedLoopSummary, type ClosedLoopSummary } from './closed-loop.js';
 import { frontWithReadings, sensorFromReadings, type SensorFromReadings } from './sensor-readings.js';
 import { trimFromReadings, type TrimResult } from './trim.js';
 
@@ -60,6 +61,8 @@ export interface Report {
   verdicts: Verdict[];
   /** Figures that could not be computed, with the reason. */
   absent: Record<string, string>;
+  /** A closed-loop Hall sensor's step, supply at the range end and turns trade (issue #20; absent otherwise). */
+  closedLoop?: ClosedLoopSummary | null;
 }
 
 export interface AnalyseOptions {
@@ -147,6 +150,9 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
     waveform: wave, waveformSpec: wave ? waveformSpec : null, calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
   };
   if (design.probeReadings?.length) report.trim = trimFromReadings({ design, front, stage }, design.probeReadings, design.probeSettings ?? []);
+  // --- closed-loop Hall sensor (issue #20) ---
+  if (design.sensor.type === 'closed-loop-hall') report.closedLoop = closedLoopSummary(design, sup?.current ?? front.supplyCurrent);
+  // --- end closed-loop Hall sensor ---
   // Findings first: the calibration steps repeat the instrument advice found there.
   warnings.push(...findings(report));
   report.calibration = calibrationSteps(report);
@@ -514,7 +520,24 @@ export function reportJson(r: Report): Record<string, unknown> {
     warnings: r.warnings.map((w) => ({ code: w.code, level: w.level, message: w.message })),
     cautions: [...SAFETY_CAUTIONS, ...r.front.cautions],
     absent: r.absent,
+    // --- closed-loop Hall sensor (issue #20) ---
+    ...(r.closedLoop ? { closedLoop: closedLoopJson(r.closedLoop, num) } : {}),
   };
 }
+
+/** A closed-loop sensor's summary as JSON (`closedLoop` in the report). */
+function closedLoopJson(c: ClosedLoopSummary, num: (x: number | null | undefined) => number | null): Record<string, unknown> {
+  return {
+    step: c.step ? { step: num(c.step.step), ideal: num(c.step.ideal), overshoot: num(c.step.overshoot), sag: num(c.step.sag), settlingTime: num(c.step.settlingTime), tailRipple: num(c.step.tailRipple), crossings: c.step.crossings } : null,
+    supplyAtZero: num(c.supplyAtZero), supplyAtRangeEnd: num(c.supplyAtRangeEnd), batteryLifeAtZero: num(c.batteryLifeAtZero), batteryLifeAtRangeEnd: num(c.batteryLifeAtRangeEnd),
+    trade: c.trade.map((o) => ({
+      turns: o.turns, measurementResistance: num(o.measurementResistance), sensitivity: num(o.sensitivity), windingResistance: num(o.windingResistance), inductance: num(o.inductance),
+      supplyCurrent: num(o.supplyCurrent), maxCurrent: num(o.maxCurrent), windingCorner: num(o.windingCorner), tail: num(o.tail), crossover: num(o.crossover), phaseMargin: num(o.phaseMargin), fits: o.fits,
+      compensation: { inputResistance: o.compensation.inputResistance, capacitance: o.compensation.capacitance, zeroResistance: o.compensation.zeroResistance, dip: num(o.compensation.dip) },
+    })),
+    proposal: c.proposal ? c.proposal.turns : null,
+  };
+}
+// --- end closed-loop Hall sensor ---
 
 export { peakRange };

@@ -386,12 +386,12 @@ export function turnsTrade(spec: ClosedLoopHallSensor, supply: Pick<Supply, 'pos
     const p = closedLoopParts(trial, supply);
     const comp = suggestCompensation(p);
     const withComp = { ...p, inputResistance: comp.inputResistance + spec.sourceResistance, zeroResistance: comp.zeroResistance, capacitance: comp.capacitance };
-    const lf = loopFigures(withComp);
+    const lf = phaseMarginOf(withComp);
     const held = heldRange(trial, p, supply);
     const maxCurrent = Math.min(held.high, -held.low);
     return {
       turns: n, measurementResistance: rm, sensitivity: (spec.primaryTurns / n) * rm, windingResistance: rw, inductance: p.inductance,
-      supplyCurrent: supplyCurrentAt(trial, rangeEnd), maxCurrent, windingCorner: lf.windingCorner, tail: p.inductance / p.loopResistance,
+      supplyCurrent: supplyCurrentAt(trial, rangeEnd), maxCurrent, windingCorner: p.loopResistance / (2 * Math.PI * p.inductance), tail: p.inductance / p.loopResistance,
       compensation: comp, crossover: lf.crossover, phaseMargin: lf.phaseMargin,
       fits: rm > 0 && maxCurrent >= Math.abs(rangeEnd) && is <= spec.driver.currentLimit,
     };
