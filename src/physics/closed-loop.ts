@@ -399,15 +399,16 @@ export function turnsTrade(spec: ClosedLoopHallSensor, supply: Pick<Supply, 'pos
 }
 
 /**
- * The proposal from the trade: the fitting turn count with the least supply current whose slow tail L_s/R
- * stays within 20 ms and whose phase margin is at least 45° (both thresholds ours), else the fitting one with
- * the least supply current, else null.
+ * The proposal from the trade: among the turn counts that hold the range with at least 45° of margin, the
+ * fewest whose supply current at the range end is within twice the least any of them draws (ours: beyond
+ * that, more turns buy little current for an inductance that grows as N² and a longer hand-over tail);
+ * null when none holds the range.
  */
 export function proposeTurns(options: TurnsOption[]): TurnsOption | null {
-  const fits = options.filter((o) => o.fits);
-  const good = fits.filter((o) => o.tail <= 0.02 && (o.phaseMargin ?? 0) >= 45);
-  const pick = (l: TurnsOption[]) => l.reduce<TurnsOption | null>((b, o) => (!b || o.supplyCurrent < b.supplyCurrent ? o : b), null);
-  return pick(good) ?? pick(fits);
+  const fits = options.filter((o) => o.fits && (o.phaseMargin ?? 0) >= 45);
+  if (!fits.length) return null;
+  const least = Math.min(...fits.map((o) => o.supplyCurrent));
+  return fits.filter((o) => o.supplyCurrent <= 2 * least).reduce((b, o) => (o.turns < b.turns ? o : b));
 }
 
 function largestAtMost(x: number, series: SeriesName): number {

@@ -219,6 +219,9 @@ describe('closed-loop Hall sensor: the turns trade', () => {
     const pick = proposeTurns(t)!;
     expect(pick.fits).toBe(true);
     expect(pick.maxCurrent).toBeGreaterThanOrEqual(25);
-    expect(pick.tail).toBeLessThanOrEqual(0.02);
+    // The fewest turns within twice the least supply current (our rule): here 1500 (24.7 mA against 13.0 mA at 5000).
+    const least = Math.min(...t.filter((o) => o.fits).map((o) => o.supplyCurrent));
+    expect(pick.supplyCurrent).toBeLessThanOrEqual(2 * least);
+    expect(t.filter((o) => o.fits && o.turns < pick.turns).every((o) => o.supplyCurrent > 2 * least)).toBe(true);
   });
 });
