@@ -23,6 +23,7 @@
  */
 import type { ClosedLoopHallSensor, Supply } from '../model/design.js';
 import { gapAreaRatio, gappedCorePerAmp } from './sensors.js';
+import { finding, type Finding } from '../model/findings.js';
 import { nearest as nearestInSeries, neighbours, type SeriesName } from '../model/eseries.js';
 
 /** Resistivity of annealed copper at 20 °C, Ω·m: 1/58 Ω·mm²/m (IEC 60028, the International Annealed Copper Standard). */
@@ -416,13 +417,6 @@ function largestAtMost(x: number, series: SeriesName): number {
   return above <= x ? above : below;
 }
 
-/** A finding as data: a code, a level and its numbers (the words are written in src/present). */
-export interface ClosedLoopFinding {
-  code: 'closed-loop-margin' | 'closed-loop-unstable' | 'closed-loop-flatness' | 'closed-loop-flatness-limit' | 'closed-loop-overload' | 'closed-loop-residual' | 'closed-loop-polarity' | 'closed-loop-unmodelled' | 'closed-loop-driver-current';
-  level: 'fail' | 'caution' | 'info';
-  data: Record<string, number | string | null>;
-}
-
 /** Everything the closed-loop sensor's physics says, as numbers and codes. */
 export interface ClosedLoopFigures {
   parts: ClosedLoopParts;
@@ -436,7 +430,7 @@ export interface ClosedLoopFigures {
   dissipationAtRangeEnd: number;
   worstDissipation: number;
   suggestion: CompensationSuggestion;
-  findings: ClosedLoopFinding[];
+  findings: Finding[];
 }
 
 /** The closed-loop sensor's figures for a range end (the largest |measurand| asked for, in peak amperes). */
@@ -447,21 +441,23 @@ export function closedLoopFigures(spec: ClosedLoopHallSensor, supply: Pick<Suppl
   const ideal = (spec.primaryTurns / spec.compensationTurns) * spec.measurementResistance;
   const isEnd = (rangeEnd * spec.primaryTurns) / spec.compensationTurns;
   const suggestion = suggestCompensation(p);
-  const findings: ClosedLoopFinding[] = [];
+  const findings: Finding[] = [];
   const pm = loop.phaseMargin;
-  if (pm === null || pm <= 0) findings.push({ code: 'closed-loop-unstable', level: 'fail', data: { phaseMargin: pm, crossover: loop.crossover, zeroResistance: suggestion.zeroResistance, capacitance: suggestion.capacitance, inputResistance: suggestion.inputResistance } });
-  else if (pm < 45) findings.push({ code: 'closed-loop-margin', level: pm < 30 ? 'fail' : 'caution', data: { phaseMargin: pm, crossover: loop.crossover, zeroResistance: suggestion.zeroResistance, capacitance: suggestion.capacitance, inputResistance: suggestion.inputResistance } });
+  const comp = { inputResistance: suggestion.inputResistance, capacitance: suggestion.capacitance, zeroResistance: suggestion.zeroResistance };
+  if (pm === null || pm <= 0) findings.push(finding('closed-loop-unstable', 'fail', { phaseMargin: pm, crossover: loop.crossover, ...comp }));
+  // Below 30° a fail, below 45° a caution (ours; 45°–60° is the usual target of control texts).
+  else if (pm < 45) findings.push(finding('closed-loop-margin', pm < 30 ? 'fail' : 'caution', { phaseMargin: pm, crossover: loop.crossover ?? 0, ...comp }));
   // A step beyond 1 % (ours) is a caution when the suggested compensation would take a fifth of it away;
   // otherwise it is about what this Hall sensor's and driver's speed allow at a 60° margin, and is said so.
   if (Math.abs(loop.flatness) > 0.01) {
-    const better = suggestion.dip < 0.8 * Math.abs(loop.flatness);
-    findings.push({ code: better ? 'closed-loop-flatness' : 'closed-loop-flatness-limit', level: better ? 'caution' : 'info', data: { flatness: loop.flatness, at: loop.flatnessAt, zeroResistance: suggestion.zeroResistance, capacitance: suggestion.capacitance, inputResistance: suggestion.inputResistance, dip: suggestion.dip } });
+    if (suggestion.dip < 0.8 * Math.abs(loop.flatness)) findings.push(finding('closed-loop-flatness', 'caution', { flatness: loop.flatness, at: loop.flatnessAt, ...comp, dip: suggestion.dip }));
+    else findings.push(finding('closed-loop-flatness-limit', 'info', { flatness: loop.flatness, at: loop.flatnessAt }));
   }
-  findings.push({ code: 'closed-loop-overload', level: 'info', data: { high: held.high, low: held.low, saturationHigh: held.saturationHigh, saturationLow: held.saturationLow, limitHigh: held.limitHigh, limitLow: held.limitLow } });
-  findings.push({ code: 'closed-loop-residual', level: 'info', data: { dcLoopGain: loop.dcLoopGain, residual: loop.residual } });
-  findings.push({ code: 'closed-loop-polarity', level: 'info', data: {} });
-  findings.push({ code: 'closed-loop-unmodelled', level: 'info', data: { crossover: loop.crossover } });
-  if (Math.abs(isEnd) > spec.driver.currentLimit) findings.push({ code: 'closed-loop-driver-current', level: 'fail', data: { need: Math.abs(isEnd), limit: spec.driver.currentLimit } });
+  findings.push(finding('closed-loop-overload', 'info', { high: held.high, low: held.low, saturationHigh: held.saturationHigh, saturationLow: held.saturationLow, limitHigh: held.limitHigh, limitLow: held.limitLow, measurand: spec.measurand }));
+  findings.push(finding('closed-loop-residual', 'info', { dcLoopGain: loop.dcLoopGain, residual: loop.residual }));
+  findings.push(finding('closed-loop-polarity', 'info', {}));
+  findings.push(finding('closed-loop-unmodelled', 'info', {}));
+  if (Math.abs(isEnd) > spec.driver.currentLimit) findings.push(finding('closed-loop-driver-current', 'fail', { need: Math.abs(isEnd), limit: spec.driver.currentLimit }));
   return {
     parts: p, loop, held, sensitivity: ideal * loop.dcLoopGain / (1 + loop.dcLoopGain), idealSensitivity: ideal,
     supplyAtZero: supplyCurrentAt(spec, 0), supplyAtRangeEnd: supplyCurrentAt(spec, rangeEnd),
