@@ -15,6 +15,7 @@ import {
 } from './analysis.js';
 import { stepOverRange, waveform, type WaveformResult } from './waveform.js';
 import { finding, type Finding } from '../model/findings.js';
+import { closedLoopSummary, type ClosedLoopSummary } from './closed-loop.js';
 import { frontWithReadings, sensorFromReadings, type SensorFromReadings } from './sensor-readings.js';
 import { trimFromReadings, type TrimResult } from './trim.js';
 
@@ -49,6 +50,8 @@ export interface Report {
   warnings: Finding[];
   /** Figures that could not be computed, with the reason. */
   absent: Record<string, string>;
+  /** A closed-loop Hall sensor's step, supply at the range end and turns trade (issue #20; absent otherwise). */
+  closedLoop?: ClosedLoopSummary | null;
 }
 
 export interface AnalyseOptions {
@@ -129,6 +132,9 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
     waveform: wave, waveformSpec: wave ? waveformSpec : null, readings: fromReadings.readings, trim: null, warnings, absent,
   };
   if (design.probeReadings?.length) report.trim = trimFromReadings({ design, front, stage }, design.probeReadings, design.probeSettings ?? []);
+  // --- closed-loop Hall sensor (issue #20) ---
+  if (design.sensor.type === 'closed-loop-hall') report.closedLoop = closedLoopSummary(design, sup?.current ?? front.supplyCurrent);
+  // --- end closed-loop Hall sensor ---
   warnings.push(...findings(report));
   return report;
 }

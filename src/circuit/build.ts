@@ -8,6 +8,8 @@ import type { Design } from '../model/design.js';
 import { compile, type Circuit, type Element } from './mna.js';
 import type { SensorFront } from '../physics/sensors.js';
 import type { Arm, Part, StageNetwork } from './network.js';
+import { closedLoopNetlist } from './closed-loop.js';
+import { closedLoopParts } from '../physics/closed-loop.js';
 
 export interface StageCircuit {
   circuit: Circuit;
@@ -53,8 +55,8 @@ export interface StageParts { network: StageNetwork; parts: Part[] }
 export function buildCircuit(design: Design, stage: StageParts, front: SensorFront, opts: CircuitOptions = {}): StageCircuit {
   const f = opts.front ?? front;
   const nm = new NodeMap();
-  const pending: Array<Omit<Element, 'a' | 'b'> & { na: string; nb: string; cpn?: string; cnn?: string }> = [];
-  const el = (e: Omit<Element, 'a' | 'b'> & { na: string; nb: string; cpn?: string; cnn?: string }) => pending.push(e);
+  const pending: Array<Omit<Element, 'a' | 'b'> & { na: string; nb: string; cpn?: string; cnn?: string; ctrlName?: string }> = [];
+  const el = (e: Omit<Element, 'a' | 'b'> & { na: string; nb: string; cpn?: string; cnn?: string; ctrlName?: string }) => pending.push(e);
   const scaleOf = (name: string) => opts.scale?.[name] ?? 1;
   const R = (name: string, na: string, nb: string, ohms: number, noisy = true, extra: Pick<Element, 'role' | 'part' | 'tolerance'> = {}) => {
     if (ohms === 0) { nm.wire(na, nb); return; }
@@ -80,6 +82,11 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
     el({ kind: 'L', name: 'LM', na: 'sm', nb: 'sq', value: spec.inductanceFactor * spec.secondaryTurns ** 2 });
     R('RW', 'sm', 'sens', spec.windingResistance);
     R('RB', 'sens', 'sq', spec.burden);
+  } else if (spec.type === 'closed-loop-hall') {
+    // The whole loop (core, Hall sensor, compensation, driver, winding, R_M) is part of the stage's circuit.
+    const net = closedLoopNetlist(spec, closedLoopParts(spec, design.supply), false, scaleOf);
+    for (const e of net.elements) el(e);
+    for (const [a, b] of net.wires) nm.wire(a, b);
   } else if (spec.type === 'shunt') {
     if (f.commonMode !== null) {
       // High side: the supply end at the common-mode voltage is the + terminal; the load end, I·R below it, the −.
@@ -224,12 +231,17 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
     return i;
   };
   const elements: Element[] = pending.map((p) => {
-    const { na, nb, cpn, cnn, ...rest } = p;
-    const e: Element = { ...rest, a: idx(na), b: idx(nb) };
+    const { na, nb, cpn, cnn, ctrlName, ...rest } = p;
+    const e: Element & { ctrlName?: string } = { ...rest, a: idx(na), b: idx(nb) };
     if (cpn !== undefined) e.cp = idx(cpn);
     if (cnn !== undefined) e.cn = idx(cnn);
+    if (ctrlName !== undefined) e.ctrlName = ctrlName;
     return e;
   }).filter((e) => !(e.kind === 'R' && e.a === e.b));
+  // A current-controlled source names its controlling element; its index is known only now.
+  for (const e of elements as Array<Element & { ctrlName?: string }>) {
+    if (e.ctrlName !== undefined) { e.ctrl = elements.findIndex((x) => x.name === e.ctrlName); delete e.ctrlName; }
+  }
   const circuit = compile(names, elements);
   const find = (role: Element['role']) => elements.findIndex((e) => e.role === role);
   return {

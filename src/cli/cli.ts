@@ -2,6 +2,7 @@
  * The command line twin of the app. Node-only (reads files); the calculation is all in the core.
  *
  *   gainwright report FILE [--json] [--spice]   solve one design
+ *   gainwright report FILE --spice-sensor       a closed-loop Hall sensor alone as a SPICE netlist
  *   gainwright report DIR --json                 one JSON line per design file in DIR
  *   gainwright new [DEMO]                        print a demo design to start from
  *   gainwright fit READINGS.csv [--json]         fit a sensor from bench readings
@@ -20,6 +21,7 @@ import { reportJson } from '../present/json.js';
 import { sayFinding } from '../present/finding-words.js';
 import { textReport } from '../present/text-report.js';
 import { spiceNetlist } from '../present/spice.js';
+import { closedLoopSpiceNetlist } from '../present/spice-closed-loop.js';
 import { DEMOS } from '../model/demos.js';
 import { MAX_READINGS_TEXT, parseReadings, unitFactor, type ParsedReadings } from '../model/readings.js';
 import { fitJson, fitReadings } from '../analysis/fit.js';
@@ -51,6 +53,7 @@ const shown = (path: string) => (/^[\w./\\:~+-]+$/.test(path) ? path : quoteText
 
 const USAGE = `usage:
   gainwright report FILE [--json] [--spice] [--no-spread]
+  gainwright report FILE --spice-sensor  a closed-loop Hall sensor alone as a SPICE netlist
   gainwright report DIR --json           one JSON line per *.json design in DIR
   gainwright new [${DEMOS.map((d) => d.id).join('|')}]
   gainwright fit READINGS.csv [--json]   fit a sensor from readings (measurand, output volts)
@@ -110,7 +113,7 @@ function run(argv: string[], io: Io): number {
   const [cmd, ...rest] = argv;
   const flags = new Set(rest.filter((a) => a.startsWith('--')));
   const args = rest.filter((a) => !a.startsWith('--'));
-  const known = new Set(['--json', '--spice', '--no-spread', '--help']);
+  const known = new Set(['--json', '--spice', '--spice-sensor', '--no-spread', '--help']);
   // `--at=RV1=0.47,RV2=0.55`: where the trimmers sat while the probe readings were taken (gainwright trim).
   const atFlag = [...flags].find((fl) => fl.startsWith('--at='));
   if (atFlag) flags.delete(atFlag);
@@ -156,6 +159,12 @@ function run(argv: string[], io: Io): number {
   if (!read.ok) { io.err(`gainwright: ${shown(path)}: ${read.message}\n`); return 2; }
   const v = parseDesignText(read.text);
   if (!v.ok) { io.err(`gainwright: ${shown(path)} is not a valid design:\n${problemLines(v.problems).map((l) => `  ${l}`).join('\n')}\n`); return 2; }
+  if (flags.has('--spice-sensor')) {
+    const net = closedLoopSpiceNetlist(v.design);
+    if (!net) { io.err('gainwright: --spice-sensor exports a closed-loop Hall sensor (sensor.type "closed-loop-hall"); use --spice for the whole stage\n'); return 2; }
+    io.out(net.netlist);
+    return 0;
+  }
   const r = analyse(v.design, { spreadTrials });
   if (flags.has('--spice')) {
     const net = spiceNetlist(r);

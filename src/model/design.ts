@@ -150,7 +150,61 @@ export interface ShuntSensor extends SensorCommon {
   commonMode: number | null;
 }
 
-export type SensorSpec = VoltageOutputSensor | HallGapCoreSensor | CurrentTransformerSensor | ShuntSensor;
+// --- closed-loop Hall sensor (issue #20) ------------------------------------------------------------------
+/**
+ * A closed-loop (zero-flux) Hall current sensor: the Hall sensor in the core's gap drives, through the loop's
+ * compensation network and a driver, a current through a compensation winding on the same core that cancels
+ * the primary's ampere-turns; the output is that current across the measurement resistor R_M, whose low end
+ * sits at `reference`. See docs/method.md ("Closed-loop Hall sensor").
+ */
+export interface ClosedLoopHallSensor extends SensorCommon {
+  type: 'closed-loop-hall';
+  /** Hall sensor output per flux density, V/T (its sign is matched by the winding's polarity). */
+  hallSensitivity: number;
+  /** Hall sensor output at zero field, V; the driver's + input is held at the same voltage. */
+  quiescent: number;
+  /** Largest |B| over which the Hall sensor stays linear, T. */
+  linearField: number;
+  /** The core as for `hall-gap-core`, plus its cross-section `area`, m². */
+  core: HallGapCoreSensor['core'] & { area: number };
+  /** Turns of the measured conductor through the core (1: one pass). */
+  primaryTurns: number;
+  /** Turns of the compensation winding, N_s. */
+  compensationTurns: number;
+  /** Resistance of the compensation winding, Ω; when absent it is computed from `wire`. */
+  windingResistance?: number;
+  /** The winding's copper wire: diameter and mean length of one turn, m (for R_w when not given). */
+  wire?: { diameter: number; turnLength: number } | null;
+  /** The measurement resistor R_M, Ω. */
+  measurementResistance: number;
+  /** Voltage R_M's low end is tied to, V (default: the middle of the rails). */
+  reference?: number;
+  /** The driver: an op-amp alone or with a complementary (push-pull) transistor output stage. */
+  driver: {
+    outputStage: 'op-amp' | 'push-pull';
+    /** Driver op-amp's gain-bandwidth product, Hz, and open-loop gain, dB. */
+    gbw: number;
+    openLoopGainDb: number;
+    /** How close the op-amp's output comes to each rail, V. */
+    swing: number;
+    /** Further drop of the output stage (a push-pull pair's base-emitter voltage), V. */
+    drop: number;
+    /** Largest current the driver can deliver either way, A. */
+    currentLimit: number;
+    /** Driver's own quiescent current, A. */
+    quiescentCurrent: number;
+    /** Output resistance of the driver in series with the winding, Ω. */
+    outputResistance: number;
+  };
+  /**
+   * The loop's compensation: an inverting integrator, R_i from the Hall sensor to the driver's − input and
+   * C_i (with R_z in series, a zero at 1/(2π·R_z·C_i); 0 = a pure integrator) from its output back to it.
+   */
+  compensation: { inputResistance: number; capacitance: number; zeroResistance: number };
+}
+// --- end closed-loop Hall sensor ----------------------------------------------------------------------------
+
+export type SensorSpec = VoltageOutputSensor | HallGapCoreSensor | CurrentTransformerSensor | ShuntSensor | ClosedLoopHallSensor;
 export type SensorType = SensorSpec['type'];
 
 export interface Supply {
@@ -383,6 +437,57 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     windingResistance: opt(num('ohms', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
     quiescent: opt(V(), 0),
   },
+  // --- closed-loop Hall sensor (issue #20) ---
+  'closed-loop-hall': {
+    ...sensorCommon,
+    hallSensitivity: num('volts per tesla', 'any', { maxAbs: 1e6, minAbs: 1e-6 }),
+    quiescent: V(),
+    linearField: num('teslas', 'positive', { min: 1e-6, max: 100 }),
+    core: {
+      t: 'obj',
+      fields: {
+        pathLength: num('metres', 'positive', { min: 1e-4, max: 100 }),
+        permeability: num('(relative permeability)', 'positive', { min: 1, max: 1e7 }),
+        gap: num('metres', 'positive', { min: 1e-6, max: 1 }),
+        saturation: num('teslas', 'positive', { min: 1e-3, max: 100 }),
+        fringing: opt(num('(factor)', 'positive', { min: 0.1, max: 10 }), 1),
+        width: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }),
+        depth: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }),
+        area: num('square metres', 'positive', { min: 1e-9, max: 10 }),
+      },
+    },
+    primaryTurns: opt(num('turns', 'positive', { min: 1, max: 1e6, whole: true }), 1),
+    compensationTurns: num('turns', 'positive', { min: 1, max: 1e6, whole: true }),
+    windingResistance: num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6, optional: true }),
+    wire: {
+      t: 'obj', nullable: true, def: null,
+      fields: { diameter: num('metres', 'positive', { min: 1e-6, max: 0.1 }), turnLength: num('metres', 'positive', { min: 1e-4, max: 10 }) },
+    },
+    measurementResistance: num('ohms', 'positive', { min: 1e-3, max: 1e7 }),
+    reference: V({ optional: true }),
+    driver: {
+      t: 'obj',
+      fields: {
+        outputStage: { t: 'str', oneOf: ['op-amp', 'push-pull'], def: 'op-amp' },
+        gbw: opt(num('hertz', 'positive', { min: 1, max: 1e11 }), 1e6),
+        openLoopGainDb: opt(num('decibels', 'any', { min: 20, max: 200 }), 100),
+        swing: opt(num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }), 1.5),
+        drop: opt(num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }), 0),
+        currentLimit: opt(num('amperes', 'positive', { min: 1e-6, max: 100 }), 0.02),
+        quiescentCurrent: opt(num('amperes', 'nonneg', { max: 10, minAbs: 1e-12 }), 1e-3),
+        outputResistance: opt(num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6 }), 1),
+      },
+    },
+    compensation: {
+      t: 'obj',
+      fields: {
+        inputResistance: num('ohms', 'positive', { min: 1, max: 1e9 }),
+        capacitance: num('farads', 'positive', { min: 1e-15, max: 1 }),
+        zeroResistance: opt(num('ohms', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
+      },
+    },
+  },
+  // --- end closed-loop Hall sensor ---
   shunt: {
     ...sensorCommon,
     resistance: num('ohms', 'positive', { min: 1e-6, max: 1e9 }),
@@ -649,7 +754,15 @@ function crossCheck(d: Design, problems: Problem[]): void {
   if (s.readings?.use && s.type !== 'voltage-output' && s.type !== 'hall-gap-core') {
     p('sensor.readings.use', 'can only be true for a voltage-output or hall-gap-core sensor: a current transformer or shunt is set by its parts');
   }
-  if (s.type === 'hall-gap-core' && s.core.gap >= s.core.pathLength) p('sensor.core.gap', 'must be shorter than sensor.core.pathLength', ['sensor.core.pathLength']);
+  if ((s.type === 'hall-gap-core' || s.type === 'closed-loop-hall') && s.core.gap >= s.core.pathLength) p('sensor.core.gap', 'must be shorter than sensor.core.pathLength', ['sensor.core.pathLength']);
+  // --- closed-loop Hall sensor (issue #20) ---
+  if (s.type === 'closed-loop-hall') {
+    if (s.hallSensitivity === 0) p('sensor.hallSensitivity', 'must not be zero');
+    if (s.windingResistance === undefined && !s.wire) p('sensor.windingResistance', 'is needed, or sensor.wire (its diameter and mean turn length) to compute it', ['sensor.wire']);
+    const ref = s.reference ?? (d.supply.positive + d.supply.negative) / 2;
+    if (!(ref > d.supply.negative && ref < d.supply.positive)) p('sensor.reference', 'must lie between the rails so that the driver can drive the winding both ways', ['supply.positive', 'supply.negative']);
+  }
+  // --- end closed-loop Hall sensor ---
 }
 
 /** Formats problems one per line: `opamp.gbw: must be a positive number of hertz`. */

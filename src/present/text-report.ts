@@ -8,6 +8,7 @@ import { verdictsOf } from './verdicts.js';
 import { formatEng } from '../model/units.js';
 import { terminalLine } from './inert.js';
 import { waveformFigures } from './figures.js';
+import { closedLoopLines } from './closed-loop.js';
 
 const f = (x: number | null | undefined, u = '', d = 3) => (x === null || x === undefined ? '—' : formatEng(x, u, d));
 const MARK = { pass: 'PASS', caution: 'CAUTION', fail: 'FAIL' } as const;
@@ -39,6 +40,8 @@ export function textReport(r: Report): string {
   if (r.front.figures.length) {
     h('Sensor');
     for (const fig of r.front.figures) out.push(`  ${fig.label}: ${fig.unit === '' ? `${(fig.value * 100).toFixed(2)} %` : f(fig.value, fig.unit)}`);
+    // --- closed-loop Hall sensor (issue #20) ---
+    out.push(...closedLoopLines(r));
   }
   if (r.clip) {
     const c = r.clip;
