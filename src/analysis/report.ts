@@ -21,6 +21,7 @@ import { significantFigures } from '../model/eseries.js';
 import { calibrationSteps, type CalibrationStep } from '../present/calibration.js';
 import { frontWithReadings, sensorFromReadings, type SensorFromReadings } from './sensor-readings.js';
 import { trimFromReadings, type TrimResult } from './trim.js';
+import { tradeJson, tradeSweep, type TradeResult } from './trade.js'; // issue 19
 
 export interface Verdict {
   level: 'pass' | 'caution' | 'fail';
@@ -56,6 +57,8 @@ export interface Report {
   readings: SensorFromReadings | null;
   /** The trim solved from the built probe's readings (design.probeReadings; null: none given). */
   trim: TrimResult | null;
+  /** Issue 19: the turns / gap (or turns / burden) trade sweep, when asked for (`AnalyseOptions.trade`) and the sensor has one. */
+  trade: TradeResult | null;
   warnings: Warning[];
   verdicts: Verdict[];
   /** Figures that could not be computed, with the reason. */
@@ -71,6 +74,8 @@ export interface AnalyseOptions {
   defaultWaveform?: boolean;
   /** Samples of the waveform (default 2000). */
   waveformSamples?: number;
+  /** Issue 19: run the trade sweep (a stage solve per point, so only where it is shown). */
+  trade?: boolean;
 }
 
 /** Analyses a (validated) design. Never throws for a valid design: what cannot be computed is in `absent`. */
@@ -82,9 +87,11 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
   const choice = chooseTopology(design, front);
   const warnings: Warning[] = [...front.warnings, ...fromReadings.warnings, ...sensorSupplyFindings(design)];
   const absent: Record<string, string> = {};
+  // Issue 19: the trade is worth most when the design itself fails, so it is run before any early return.
+  const trade = opts.trade ? tradeSweep(given) : null;
   const empty: Report = {
     design, front, choice, stage: null, circuit: null, dc: null, clip: null, transfer: null, response: null, speed: null, noise: null,
-    errors: null, supply: null, battery: [], batteryClip: null, spread: null, drive: null, waveform: null, waveformSpec: null, calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
+    errors: null, supply: null, battery: [], batteryClip: null, spread: null, drive: null, waveform: null, waveformSpec: null, calibration: [], readings: fromReadings.readings, trim: null, trade, warnings, verdicts: [], absent,
   };
   // The gain the target asks of the stage: a ratio that is not a finite, non-zero number cannot be built.
   const needed = design.target.scale / front.sensitivity;
@@ -144,7 +151,7 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
   if (waveformSpec && !wave) absent.waveform = clip && sp ? 'the time-domain solve did not finish (a singular network, or more than 400 000 steps)' : 'the waveform cannot be computed, because the clipping points or the bandwidth cannot';
   const report: Report = {
     design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, batteryClip: bClip, spread: spr, drive,
-    waveform: wave, waveformSpec: wave ? waveformSpec : null, calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
+    waveform: wave, waveformSpec: wave ? waveformSpec : null, calibration: [], readings: fromReadings.readings, trim: null, trade, warnings, verdicts: [], absent,
   };
   if (design.probeReadings?.length) report.trim = trimFromReadings({ design, front, stage }, design.probeReadings, design.probeSettings ?? []);
   // Findings first: the calibration steps repeat the instrument advice found there.
@@ -510,6 +517,7 @@ export function reportJson(r: Report): Record<string, unknown> {
     batteryClip: r.batteryClip ? { voltage: num(r.batteryClip.voltage), hoursToClip: num(r.batteryClip.hoursToClip), hoursToEnd: num(r.batteryClip.hoursToEnd) } : null,
     alternatives: s ? s.alternatives.map((a, i) => ({ index: i, feedback: a.a.parts, leg: a.b.parts, error: num(a.error), parts: a.parts })) : [],
     calibration: r.calibration.map((c) => c.text),
+    trade: tradeJson(r.trade), // issue 19: [] unless asked for and the sensor has turns to choose
     warnings: r.warnings.map((w) => ({ code: w.code, level: w.level, message: w.message })),
     cautions: [...SAFETY_CAUTIONS, ...r.front.cautions],
     absent: r.absent,

@@ -154,7 +154,8 @@ function run(argv: string[], io: Io): number {
   if (!read.ok) { io.err(`gainwright: ${shown(path)}: ${read.message}\n`); return 2; }
   const v = parseDesignText(read.text);
   if (!v.ok) { io.err(`gainwright: ${shown(path)} is not a valid design:\n${problemLines(v.problems).map((l) => `  ${l}`).join('\n')}\n`); return 2; }
-  const r = analyse(v.design, { spreadTrials });
+  // The trade sweep (issue 19) is part of a single design's report; a folder's batch leaves it out.
+  const r = analyse(v.design, { spreadTrials, trade: !flags.has('--spice') });
   if (flags.has('--spice')) {
     const net = spiceNetlist(r);
     if (!net) { io.err(`gainwright: no circuit to export: ${oneLine(r.warnings.filter((w) => w.level === 'fail').map((w) => w.message).join(' '))}\n`); return 1; }

@@ -4,6 +4,7 @@ import { SAFETY_CAUTIONS, type Report } from '../analysis/report.js';
 import { formatEng } from '../model/units.js';
 import { terminalLine } from './inert.js';
 import { waveformFigures } from './figures.js';
+import { tradeLines } from './trade.js';
 
 const f = (x: number | null | undefined, u = '', d = 3) => (x === null || x === undefined ? '—' : formatEng(x, u, d));
 const MARK = { pass: 'PASS', caution: 'CAUTION', fail: 'FAIL' } as const;
@@ -86,6 +87,8 @@ export function textReport(r: Report): string {
     h('Waveform at the instrument');
     for (const row of wave) out.push(`  ${row.label}: ${row.value}${row.note ? ` (${row.note})` : ''}`);
   }
+  // Issue 19: the turns / gap (or turns / burden) trade, when the report ran it.
+  out.push(...tradeLines(r.trade, m));
   if (r.warnings.length) {
     h('Findings');
     for (const w of r.warnings) out.push(`  [${w.level}] ${w.message}`);
