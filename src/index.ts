@@ -48,3 +48,9 @@ export { trimFromReadings, trimJson } from './analysis/trim.js';
 export type { TrimResult } from './analysis/trim.js';
 export type { SensorFromReadings } from './analysis/sensor-readings.js';
 export { fitLines, sensorReadingsLines, trimLines, residualChart, probeSheetRows } from './present/readings.js';
+
+// Issue 19: the turns / gap (or turns / burden) trade.
+export { tradeSweep, adoptTradePoint, tradeJson } from './analysis/trade.js';
+export type { TradeResult, TradePoint, HallTradePoint, CtTradePoint } from './analysis/trade.js';
+export { tradeCharts, tradeTable, tradeLines, tradeNotes, tradeSweeps, sweepPoints } from './present/trade.js';
+export { gappedCoreInductance, ctSaturationCurrent, coreCrossSection } from './physics/magnetics.js';

@@ -79,6 +79,9 @@ export interface CtTradePoint extends ChainFigures {
   current: boolean;
 }
 
+/** A point of either kind of trade. */
+export type TradePoint = HallTradePoint | CtTradePoint;
+
 export type TradeResult =
   | { kind: 'hall-gap-core'; points: HallTradePoint[]; rangeEnd: number; crossSection: number | null }
   | { kind: 'current-transformer'; points: CtTradePoint[]; rangeEnd: number; lowestFrequency: number; coreGiven: boolean };
@@ -147,7 +150,7 @@ function ctPoint(design: Design, spec: CurrentTransformerSensor, sweep: 'turns' 
     burdenPower: front.figures.find((f) => f.key === 'burdenPower')?.value ?? NaN,
     // The front's limit is a peak (the range is checked at its sine peak); the CT's figures here are rms.
     burdenLimit: burdenLimit ? burdenLimit.high / Math.SQRT2 : Infinity,
-    coreSaturation: core ? ctSaturationCurrent({ secondaryTurns: turns, primaryTurns: spec.primaryTurns, burden, windingResistance: spec.windingResistance, area: core.area, saturation: core.saturation, frequency: lowest }) : null,
+    coreSaturation: core ? ctSaturationCurrent({ secondaryTurns: turns, primaryTurns: spec.primaryTurns, burden, windingResistance: spec.windingResistance, area: coreCrossSection(core)!, saturation: core.saturation, frequency: lowest }) : null,
     current: turns === spec.secondaryTurns && burden === spec.burden,
     ...chainFigures(d, front),
   };
@@ -187,7 +190,7 @@ export function tradeSweep(given: Design): TradeResult | null {
 }
 
 /** The design edits that adopt a point: field paths and values (applied together by the design's owner). */
-export function adoptTradePoint(p: HallTradePoint | CtTradePoint): Array<{ path: string; value: number }> {
+export function adoptTradePoint(p: TradePoint): Array<{ path: string; value: number }> {
   if ('gap' in p) return [{ path: 'sensor.turns', value: p.turns }, { path: 'sensor.core.gap', value: p.gap }];
   return [{ path: 'sensor.secondaryTurns', value: p.turns }, { path: 'sensor.burden', value: p.burden }];
 }

@@ -136,8 +136,11 @@ export interface CurrentTransformerSensor extends SensorCommon {
   /** Voltage the low end of the burden is tied to, V. */
   quiescent: number;
   // --- issue 19 (turns and burden trade): optional core figures for the saturation current.
-  /** The core's magnetic cross-section (area, m²) and saturation flux density (T); absent or null: not stated. */
-  core?: { area: number; saturation: number } | null;
+  /**
+   * The core's magnetic cross-section, width × depth (m; depth absent: a square section), and its saturation
+   * flux density (T); absent or null: not stated.
+   */
+  core?: { width: number; depth?: number; saturation: number } | null;
   /** Lowest frequency of interest, Hz (absent: 50 Hz, the lower mains frequency): the core saturates first there. */
   lowestFrequency?: number;
   // --- end issue 19
@@ -389,7 +392,7 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     windingResistance: opt(num('ohms', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
     quiescent: opt(V(), 0),
     // --- issue 19: core cross-section and saturation for the trade sweep's saturation current.
-    core: { t: 'obj', nullable: true, optional: true, fields: { area: num('square metres', 'positive', { min: 1e-9, max: 1 }), saturation: num('teslas', 'positive', { min: 1e-3, max: 100 }) } },
+    core: { t: 'obj', nullable: true, optional: true, fields: { width: num('metres', 'positive', { min: 1e-5, max: 10 }), depth: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }), saturation: num('teslas', 'positive', { min: 1e-3, max: 100 }) } },
     lowestFrequency: num('hertz', 'positive', { min: 1e-3, max: 1e6, optional: true }),
     // --- end issue 19
   },

@@ -77,6 +77,13 @@ export const FIELDS: readonly FieldDef[] = [
   S('sensor.burdenPower', 'Burden power rating', 'W', 'W', CT),
   S('sensor.inductanceFactor', 'Core inductance factor A_L', 'H', 'nH', CT, 'per turn²'),
   S('sensor.windingResistance', 'Winding resistance', 'ohm', 'Ω', CT),
+  // --- issue 19: the CT core's cross-section and saturation (the trade's saturation current), and the lowest frequency.
+  { path: 'sensor.core', label: 'Core cross-section and saturation known', section: 'sensor', kind: 'bool', group: 'sensor.core', sensors: CT },
+  { ...S('sensor.core.width', 'Core cross-section: width', 'm', 'mm', CT), group: 'sensor.core' },
+  { ...S('sensor.core.depth', 'Core cross-section: depth', 'm', 'mm', CT, 'empty = a square section'), group: 'sensor.core', clearable: true },
+  { ...S('sensor.core.saturation', 'Core saturation flux density', 'T', 'mT', CT), group: 'sensor.core' },
+  { ...S('sensor.lowestFrequency', 'Lowest frequency of interest', 'Hz', 'Hz', CT, 'empty = 50 Hz; the core saturates first there'), clearable: true },
+  // --- end issue 19
   S('sensor.resistance', 'Shunt resistance', 'ohm', 'Ω', SH),
   S('sensor.powerRating', 'Shunt power rating', 'W', 'W', SH),
   { ...S('sensor.commonMode', 'High side: supply-end voltage', 'V', 'V', SH, 'leave empty for a low-side shunt'), clearable: true },
@@ -179,6 +186,8 @@ export const GROUP_DEFAULTS: Record<string, unknown> = {
   'supply.regulated': { voltage: 5, tolerance: 0.02, quiescentCurrent: 0, dropout: 0.3, drift: 100e-6 },
   'supply.battery': { fresh: 9.6, endOfLife: 6, capacity: 2034 },
   'analysis.noiseBand': [1, 1e5],
+  // Issue 19: a small ferrite toroid's section, 5 mm × 5 mm, and 0.3 T (common practice for ferrite, from memory).
+  'sensor.core': { width: 0.005, depth: 0.005, saturation: 0.3 },
   // Replaced by a step over the design's own range when switched on (groupDefault).
   'analysis.waveform': { shape: 'step', low: 0, high: 1, frequency: 1000, duty: 0.5 },
 };

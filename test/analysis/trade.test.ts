@@ -93,7 +93,7 @@ describe('tradeSweep edge cases', () => {
 });
 
 describe('tradeSweep on a current transformer', () => {
-  const t = tradeSweep(designFrom('appliance-ct', (d) => { d.sensor.core = { area: 1e-4, saturation: 0.3 }; }))!;
+  const t = tradeSweep(designFrom('appliance-ct', (d) => { d.sensor.core = { width: 0.01, depth: 0.01, saturation: 0.3 }; }))!;
   if (t.kind !== 'current-transformer') throw new Error('expected a CT trade');
   const turns = t.points.filter((p) => p.sweep === 'turns') as CtTradePoint[];
   const burdens = t.points.filter((p) => p.sweep === 'burden') as CtTradePoint[];
@@ -125,7 +125,7 @@ describe('tradeSweep on a current transformer', () => {
     expect(nonFinitePaths(tradeJson(u))).toEqual([]);
   });
   it('a lower frequency of interest saturates the core sooner, in proportion', () => {
-    const u = tradeSweep(designFrom('appliance-ct', (d) => { d.sensor.core = { area: 1e-4, saturation: 0.3 }; d.sensor.lowestFrequency = 25; }))!;
+    const u = tradeSweep(designFrom('appliance-ct', (d) => { d.sensor.core = { width: 0.01, depth: 0.01, saturation: 0.3 }; d.sensor.lowestFrequency = 25; }))!;
     const own = (x: typeof u) => (x.points.find((p) => p.current) as CtTradePoint).coreSaturation!;
     expect(own(u) / own(t)).toBeCloseTo(0.5, 12);
   });

@@ -5,7 +5,7 @@ import { chartText } from '../../src/present/charts.js';
 import { designFrom } from '../helpers.js';
 
 const hall = tradeSweep(designFrom('bench-clamp', (d) => { d.sensor.core.width = 0.01; d.sensor.core.depth = 0.01; }));
-const ct = tradeSweep(designFrom('appliance-ct', (d) => { d.sensor.core = { area: 1e-4, saturation: 0.3 }; }));
+const ct = tradeSweep(designFrom('appliance-ct', (d) => { d.sensor.core = { width: 0.01, depth: 0.01, saturation: 0.3 }; }));
 
 describe('tradeCharts', () => {
   it('a Hall trade gives a turns chart and a gap chart, every point finite, markers on, pickable', () => {
