@@ -22,6 +22,7 @@ import { calibrationSteps, type CalibrationStep } from '../present/calibration.j
 import { frontWithReadings, sensorFromReadings, type SensorFromReadings } from './sensor-readings.js';
 import { trimFromReadings, type TrimResult } from './trim.js';
 import { tradeJson, tradeSweep, type TradeResult } from './trade.js'; // issue 19
+import { rangeSwitch, type RangeSwitchResult } from './ranges.js'; // issue 19
 
 export interface Verdict {
   level: 'pass' | 'caution' | 'fail';
@@ -59,6 +60,8 @@ export interface Report {
   trim: TrimResult | null;
   /** Issue 19: the turns / gap (or turns / burden) trade sweep, when asked for (`AnalyseOptions.trade`) and the sensor has one. */
   trade: TradeResult | null;
+  /** Issue 19: the range switch (design.target.ranges), each position analysed with its own parts; null without one. */
+  ranges: RangeSwitchResult | null;
   warnings: Warning[];
   verdicts: Verdict[];
   /** Figures that could not be computed, with the reason. */
@@ -76,6 +79,11 @@ export interface AnalyseOptions {
   waveformSamples?: number;
   /** Issue 19: run the trade sweep (a stage solve per point, so only where it is shown). */
   trade?: boolean;
+  /**
+   * Issue 19: analyse these parts instead of solving the stage (a range switch's position, built with the
+   * parts the switch puts in). The design's chosen stage must be the one they were built for.
+   */
+  stage?: SolvedStage;
 }
 
 /** Analyses a (validated) design. Never throws for a valid design: what cannot be computed is in `absent`. */
@@ -91,7 +99,7 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
   const trade = opts.trade ? tradeSweep(given) : null;
   const empty: Report = {
     design, front, choice, stage: null, circuit: null, dc: null, clip: null, transfer: null, response: null, speed: null, noise: null,
-    errors: null, supply: null, battery: [], batteryClip: null, spread: null, drive: null, waveform: null, waveformSpec: null, calibration: [], readings: fromReadings.readings, trim: null, trade, warnings, verdicts: [], absent,
+    errors: null, supply: null, battery: [], batteryClip: null, spread: null, drive: null, waveform: null, waveformSpec: null, calibration: [], readings: fromReadings.readings, trim: null, trade, ranges: null, warnings, verdicts: [], absent,
   };
   // The gain the target asks of the stage: a ratio that is not a finite, non-zero number cannot be built.
   const needed = design.target.scale / front.sensitivity;
@@ -109,7 +117,7 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
     empty.verdicts = verdictsOf(empty);
     return empty;
   }
-  const stage = solveStage(design, front, choice.chosen);
+  const stage = opts.stage ?? solveStage(design, front, choice.chosen);
   warnings.push(...stage.warnings);
   if (stage.warnings.some((w) => w.level === 'fail') || !Number.isFinite(stage.gain)) {
     absent.all = 'the resistor solver found no realisation';
@@ -151,8 +159,10 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
   if (waveformSpec && !wave) absent.waveform = clip && sp ? 'the time-domain solve did not finish (a singular network, or more than 400 000 steps)' : 'the waveform cannot be computed, because the clipping points or the bandwidth cannot';
   const report: Report = {
     design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, batteryClip: bClip, spread: spr, drive,
-    waveform: wave, waveformSpec: wave ? waveformSpec : null, calibration: [], readings: fromReadings.readings, trim: null, trade, warnings, verdicts: [], absent,
+    waveform: wave, waveformSpec: wave ? waveformSpec : null, calibration: [], readings: fromReadings.readings, trim: null, trade, ranges: null, warnings, verdicts: [], absent,
   };
+  // Issue 19: a range switch's further positions, each analysed as a single-range design with its own parts.
+  if (design.target.ranges?.length && !opts.stage) report.ranges = rangeSwitch(design, report, analyse, { spreadTrials: 0, acPoints: opts.acPoints });
   if (design.probeReadings?.length) report.trim = trimFromReadings({ design, front, stage }, design.probeReadings, design.probeSettings ?? []);
   // Findings first: the calibration steps repeat the instrument advice found there.
   warnings.push(...findings(report));
