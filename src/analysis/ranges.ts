@@ -311,3 +311,56 @@ export function rangeSwitch(design: Design, first: Report, analyse: Analyse, opt
     },
   };
 }
+
+/** One position's figures as the report states them (measurand units unless said). */
+export interface PositionFigures {
+  index: number;
+  scale: number | null;
+  zero: number | null;
+  range: [number, number];
+  clip: { measurandLow: number; measurandHigh: number; first: string | null } | null;
+  bandwidth: number | null;
+  noiseReferred: number | null;
+  /** Worst-case error after calibration; with one pole, the shared zero trimmer's residual on this range added. */
+  afterTrim: number | null;
+  zeroShift: number | null;
+  zeroShiftClosedForm: number | null;
+  sharedTrimResidual: number;
+  unbuilt: string | null;
+}
+
+export function positionFigures(p: RangePosition): PositionFigures {
+  const r = p.report;
+  const fin = (x: number | null | undefined) => (x === null || x === undefined || !Number.isFinite(x) ? null : x);
+  const scale = fin(r?.dc?.out[1]);
+  const residual = scale ? p.sharedTrimResidual / Math.abs(scale) : 0;
+  return {
+    index: p.index, scale, zero: fin(r?.dc?.out[0]), range: p.range,
+    clip: r?.clip ? { measurandLow: r.clip.measurandLow, measurandHigh: r.clip.measurandHigh, first: r.clip.first } : null,
+    bandwidth: fin(r?.speed?.smallSignal), noiseReferred: fin(r?.noise ? Math.abs(r.noise.referredRms) : null),
+    afterTrim: fin(r?.errors ? r.errors.afterTrim + residual : null),
+    zeroShift: fin(p.zeroShift), zeroShiftClosedForm: fin(p.zeroShiftClosedForm), sharedTrimResidual: p.sharedTrimResidual, unbuilt: p.unbuilt,
+  };
+}
+
+/** The range switch as the report JSON's `ranges` list and `rangeSwitch` object (non-finite numbers become null). */
+export function rangesJson(rs: RangeSwitchResult | null): { ranges: Array<Record<string, unknown>>; rangeSwitch: Record<string, unknown> | null } {
+  if (!rs) return { ranges: [], rangeSwitch: null };
+  if (!rs.ok) return { ranges: [], rangeSwitch: { ok: false, code: rs.code, topology: rs.topology } };
+  const v = rs.value;
+  const fin = (x: number) => (Number.isFinite(x) ? x : null);
+  return {
+    ranges: v.positions.map((p) => {
+      const f = positionFigures(p);
+      const clip = f.clip ? { measurandLow: fin(f.clip.measurandLow), measurandHigh: fin(f.clip.measurandHigh), first: f.clip.first } : null;
+      return {
+        position: p.index + 1, scale: f.scale, zero: f.zero, range: f.range, clip, bandwidth: { smallSignal: f.bandwidth }, noise: { referredRms: f.noiseReferred }, errors: { afterTrim: f.afterTrim },
+        zeroShift: f.zeroShift, zeroShiftClosedForm: f.zeroShiftClosedForm, sharedTrimResidual: f.sharedTrimResidual, parts: p.parts.map((q) => q.ref), unbuilt: f.unbuilt,
+      };
+    }),
+    rangeSwitch: {
+      ok: true, ref: v.switchRef, wiring: v.wiring, decidedBy: v.decidedBy, poles: v.poles, throws: v.throws, singlePoleShift: fin(v.singlePoleShift), shiftLimit: v.shiftLimit, idleCurrent: v.idleCurrent,
+      parts: v.parts.map((q) => ({ ref: q.ref, role: q.role, ohms: q.ohms, series: q.series, arrangement: q.arrangement, ...(q.setting !== undefined ? { setting: q.setting } : {}) })),
+    },
+  };
+}

@@ -22,7 +22,7 @@ import { calibrationSteps, type CalibrationStep } from '../present/calibration.j
 import { frontWithReadings, sensorFromReadings, type SensorFromReadings } from './sensor-readings.js';
 import { trimFromReadings, type TrimResult } from './trim.js';
 import { tradeJson, tradeSweep, type TradeResult } from './trade.js'; // issue 19
-import { rangeSwitch, type RangeSwitchResult } from './ranges.js'; // issue 19
+import { rangeSwitch, rangesJson, type RangeSwitchResult } from './ranges.js'; // issue 19
 
 export interface Verdict {
   level: 'pass' | 'caution' | 'fail';
@@ -528,6 +528,7 @@ export function reportJson(r: Report): Record<string, unknown> {
     alternatives: s ? s.alternatives.map((a, i) => ({ index: i, feedback: a.a.parts, leg: a.b.parts, error: num(a.error), parts: a.parts })) : [],
     calibration: r.calibration.map((c) => c.text),
     trade: tradeJson(r.trade), // issue 19: [] unless asked for and the sensor has turns to choose
+    ...rangesJson(r.ranges), // issue 19: `ranges` (each position, the first = the figures above) and `rangeSwitch`
     warnings: r.warnings.map((w) => ({ code: w.code, level: w.level, message: w.message })),
     cautions: [...SAFETY_CAUTIONS, ...r.front.cautions],
     absent: r.absent,
