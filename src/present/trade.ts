@@ -139,3 +139,19 @@ export function tradeLines(t: TradeResult | null, measurand: string): string[] {
   out.push(...tradeNotes(t).map((n) => `  ${n}`));
   return out;
 }
+
+/** The trade as the report JSON's `trade` list (non-finite numbers become null). */
+export function tradeJson(t: TradeResult | null): Array<Record<string, unknown>> {
+  if (!t) return [];
+  const num = (x: number | null) => (x === null || !Number.isFinite(x) ? null : x);
+  if (t.kind === 'hall-gap-core') {
+    return t.points.map((p) => ({
+      sweep: p.sweep, turns: p.turns, gap: p.gap, sensitivity: num(p.sensitivity), coreSaturation: num(p.coreSaturation), sensorLinear: num(p.sensorLinear),
+      gain: num(p.gain), bandwidth: num(p.bandwidth), noiseReferred: num(p.noiseReferred), insertionInductance: num(p.insertionInductance), unbuilt: p.unbuilt, current: p.current,
+    }));
+  }
+  return t.points.map((p) => ({
+    sweep: p.sweep, turns: p.turns, burden: p.burden, sensitivity: num(p.sensitivity), lowCorner: num(p.lowCorner), burdenPower: num(p.burdenPower), burdenLimit: num(p.burdenLimit),
+    coreSaturation: num(p.coreSaturation), lowestFrequency: t.lowestFrequency, gain: num(p.gain), bandwidth: num(p.bandwidth), noiseReferred: num(p.noiseReferred), unbuilt: p.unbuilt, current: p.current,
+  }));
+}

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { adoptTradePoint, tradeJson, tradeSweep, type CtTradePoint, type HallTradePoint } from '../../src/analysis/trade.js';
+import { adoptTradePoint, tradeSweep, type CtTradePoint, type HallTradePoint } from '../../src/analysis/trade.js';
+import { tradeJson } from '../../src/present/trade.js';
 import { analyse } from '../../src/analysis/report.js';
 import { designFrom, nonFinitePaths } from '../helpers.js';
 
