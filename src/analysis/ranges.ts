@@ -25,6 +25,7 @@ import { SETTABILITY, feedbackSensitivity, gainTrimHalfSpan, standardTrimmer } f
 import { networkTransfer, openLoopOf } from '../solve/transfer.js';
 import { partsOf, type SolvedStage } from '../solve/stage.js';
 import type { AnalyseOptions, Report } from './report.js';
+import { finding, type Finding } from '../model/findings.js';
 
 /** Topologies a range switch is designed for: the two whose gain is one arm's ratio. */
 export const RANGE_TOPOLOGIES: readonly Topology[] = ['non-inverting', 'inverting'];
@@ -341,4 +342,18 @@ export function positionFigures(p: RangePosition): PositionFigures {
     afterTrim: fin(r?.errors ? r.errors.afterTrim + residual : null),
     zeroShift: fin(p.zeroShift), zeroShiftClosedForm: fin(p.zeroShiftClosedForm), sharedTrimResidual: p.sharedTrimResidual, unbuilt: p.unbuilt,
   };
+}
+
+/** What the range switch found, as data: its wiring and why, ranges it cannot build, zeros that move. */
+export function rangeFindings(rs: RangeSwitchResult, measurand: string): Finding[] {
+  if (!rs.ok) return [finding('range-stage', 'fail', { topology: rs.topology })];
+  const v = rs.value;
+  const out: Finding[] = [finding('range-wiring', 'info', { wiring: v.wiring, decidedBy: v.decidedBy, singlePoleShift: v.singlePoleShift, limit: v.shiftLimit, throws: v.throws, idleCurrent: v.idleCurrent })];
+  for (const p of v.positions) {
+    if (p.unbuilt) out.push(finding('range-unbuilt', 'fail', { position: p.index + 1, scale: p.scale, cause: p.unbuilt === 'range-zero-unreachable' ? 'zero-unreachable' : 'gain-unreachable', measurand }));
+    else if (v.wiring === 'single-pole' && p.index > 0 && Math.abs(p.zeroShift) > 1e-6) {
+      out.push(finding('range-zero-shift', 'info', { position: p.index + 1, scale: p.scale, shift: p.zeroShift, zero: p.report?.dc?.out[0] ?? NaN, residual: p.sharedTrimResidual, measurand }));
+    }
+  }
+  return out;
 }

@@ -18,7 +18,7 @@ import { finding, type Finding } from '../model/findings.js';
 import { frontWithReadings, sensorFromReadings, type SensorFromReadings } from './sensor-readings.js';
 import { trimFromReadings, type TrimResult } from './trim.js';
 import { tradeSweep, type TradeResult } from './trade.js'; // issue 19
-import { rangeSwitch, type RangeSwitchResult } from './ranges.js'; // issue 19
+import { rangeFindings, rangeSwitch, type RangeSwitchResult } from './ranges.js'; // issue 19
 
 export interface Report {
   design: Design;
@@ -144,7 +144,10 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
     waveform: wave, waveformSpec: wave ? waveformSpec : null, readings: fromReadings.readings, trim: null, trade, ranges: null, warnings, absent,
   };
   // Issue 19: a range switch's further positions, each analysed as a single-range design with its own parts.
-  if (design.target.ranges?.length && !opts.stage) report.ranges = rangeSwitch(design, report, analyse, { spreadTrials: 0, acPoints: opts.acPoints });
+  if (design.target.ranges?.length && !opts.stage) {
+    report.ranges = rangeSwitch(design, report, analyse, { spreadTrials: 0, acPoints: opts.acPoints });
+    warnings.push(...rangeFindings(report.ranges, design.sensor.measurand));
+  }
   if (design.probeReadings?.length) report.trim = trimFromReadings({ design, front, stage }, design.probeReadings, design.probeSettings ?? []);
   warnings.push(...findings(report));
   return report;
