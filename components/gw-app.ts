@@ -3,7 +3,7 @@ import { customElement, state, query } from 'lit/decorators.js';
 import { validateDesign, parseDesignText, MAX_DESIGN_BYTES, type Design, type Problem } from '../src/index.js';
 import { analyse, reportWords, SAFETY_CAUTIONS, type Report, type ReportWords } from '../src/index.js';
 import { DEMOS, demoDesign } from '../src/index.js';
-import { FIELDS, GROUP_DEFAULTS, groupDefault, readField, setPath } from '../src/index.js';
+import { FIELDS, GROUP_DEFAULTS, groupDefault, groupOff, readField, setPath } from '../src/index.js';
 import { spiceNetlist } from '../src/index.js';
 import { archetype } from '../src/index.js';
 import { allCharts, waveformChart, type ChartData } from '../src/index.js';
@@ -369,7 +369,7 @@ export class GwApp extends LitElement {
   private _onSet = (e: HTMLElementEventMap['gw-set']): void => {
     const { path, value } = e.detail;
     this._enqueue(() => {
-      if (path in GROUP_DEFAULTS) this._apply(setPath(this._design, path, value ? groupDefault(path, this._design) : null), path);
+      if (path in GROUP_DEFAULTS) this._apply(setPath(this._design, path, value ? groupDefault(path, this._design) : groupOff(path)), path);
       else this._apply(setPath(this._design, path, value), path);
     });
   };

@@ -41,7 +41,7 @@ export type { PairCandidate } from './solve/search.js';
 export type { Prim, Schematic } from './present/schematic.js';
 export type { ChartData, Series, TraceDrawing, ChartText } from './present/charts.js';
 export type { FigureRow } from './present/figures.js';
-export { FIELDS, GROUP_DEFAULTS, groupDefault, parseField, readField, fieldHint, setPath, displayValue, fieldsFor, getPath, SENSOR_TYPES, fieldForPath, problemWords } from './present/fields.js';
+export { FIELDS, GROUP_DEFAULTS, groupDefault, groupOff, parseField, readField, fieldHint, setPath, displayValue, fieldsFor, getPath, SENSOR_TYPES, fieldForPath, problemWords } from './present/fields.js';
 export type { FieldEdit } from './present/fields.js';
 export type { FieldDef, Section } from './present/fields.js';
 export { AUTOSAVE_KEY, DAMAGED_KEY, HISTORY_KEY, HISTORY_SIZE, autosaveEntry, designFromFragment, fileName, historyText, readHistory, restoreAutosave, shareFragment, withHistory } from './model/persist.js';

@@ -125,6 +125,15 @@ export const FIELDS: readonly FieldDef[] = [
   N('target', 'target.zero', 'Output at zero', 'V', 'V'),
   N('target', 'target.range.0', 'Range from', '1', ''),
   N('target', 'target.range.1', 'Range to', '1', ''),
+  // --- issue 19: a range switch: the further ranges (the first is the target above) and the wiring.
+  { path: 'target.ranges', label: 'Range switch (a second range)', section: 'target', kind: 'bool', group: 'target.ranges', hint: 'the range above is position 1' },
+  ...[0, 1, 2].flatMap((i): FieldDef[] => [
+    { ...N('target', `target.ranges.${i}.scale`, `Range ${i + 2}: scale`, 'V/A', 'mV/A', 'same sign as the wanted scale'), group: `target.ranges.${i}` },
+    { ...N('target', `target.ranges.${i}.range.0`, `Range ${i + 2}: from`, '1', ''), group: `target.ranges.${i}` },
+    { ...N('target', `target.ranges.${i}.range.1`, `Range ${i + 2}: to`, '1', ''), group: `target.ranges.${i}` },
+  ]),
+  { path: 'target.rangeSwitch', label: 'Range switch wiring', section: 'target', kind: 'select', group: 'target.ranges', options: [['auto', 'Choose for me'], ['single-pole', 'One pole: feedback only (zero moves)'], ['two-pole', 'Two poles: feedback and reference (zero holds)']] },
+  // --- end issue 19
   { path: 'target.signal', label: 'Signal', section: 'target', kind: 'select', options: [['dc', 'DC (range is peak values)'], ['ac-rms', 'AC (range is rms)']] },
   { path: 'target.topology', label: 'Stage', section: 'target', kind: 'select', options: [['auto', 'Choose for me'], ...TOPOLOGIES.map((t): [string, string] => [t, STAGE_NAMES[t][0]!.toUpperCase() + STAGE_NAMES[t].slice(1)])] },
   { path: 'target.series', label: 'Resistor series', section: 'target', kind: 'select', options: ['E12', 'E24', 'E48', 'E96', 'E192'].map((s) => [s, s]) },
@@ -188,13 +197,22 @@ export const GROUP_DEFAULTS: Record<string, unknown> = {
   'analysis.noiseBand': [1, 1e5],
   // Issue 19: a small ferrite toroid's section, 5 mm × 5 mm, and 0.3 T (common practice for ferrite, from memory).
   'sensor.core': { width: 0.005, depth: 0.005, saturation: 0.3 },
+  // Replaced by a range derived from the target when switched on (groupDefault).
+  'target.ranges': [],
   // Replaced by a step over the design's own range when switched on (groupDefault).
   'analysis.waveform': { shape: 'step', low: 0, high: 1, frequency: 1000, duty: 0.5 },
 };
 
+/** Issue 19: the value an optional group takes when switched off: null, or nothing at all for a list the file leaves out. */
+export function groupOff(path: string): null | undefined {
+  return path === 'target.ranges' ? undefined : null;
+}
+
 /** The value an optional group takes when switched on: the scope waveform starts as a step over the range (a periodic shape gets 1 kHz). */
 export function groupDefault(path: string, design: Design): unknown {
   if (path === 'analysis.waveform') return { ...stepOverRange(design), frequency: 1000 };
+  // Issue 19: a second range at 2.5 times the span and a 2.5th of the scale (a common bench step).
+  if (path === 'target.ranges') return [{ scale: Number((design.target.scale / 2.5).toPrecision(3)), range: design.target.range.map((x) => Number((x * 2.5).toPrecision(3))) }];
   return GROUP_DEFAULTS[path];
 }
 
