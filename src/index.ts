@@ -41,7 +41,7 @@ export type { PairCandidate } from './solve/search.js';
 export type { Prim, Schematic } from './present/schematic.js';
 export type { ChartData, Series, TraceDrawing, ChartText } from './present/charts.js';
 export type { FigureRow } from './present/figures.js';
-export { FIELDS, GROUP_DEFAULTS, groupDefault, parseField, readField, fieldHint, setPath, displayValue, fieldsFor, getPath, SENSOR_TYPES, fieldForPath, problemWords } from './present/fields.js';
+export { FIELDS, GROUP_DEFAULTS, groupDefault, groupOff, parseField, readField, fieldHint, setPath, displayValue, fieldsFor, getPath, SENSOR_TYPES, fieldForPath, problemWords } from './present/fields.js';
 export type { FieldEdit } from './present/fields.js';
 export type { FieldDef, Section } from './present/fields.js';
 export { AUTOSAVE_KEY, DAMAGED_KEY, HISTORY_KEY, HISTORY_SIZE, autosaveEntry, designFromFragment, fileName, historyText, readHistory, restoreAutosave, shareFragment, withHistory } from './model/persist.js';
@@ -56,3 +56,9 @@ export { trimFromReadings, trimJson } from './analysis/trim.js';
 export type { TrimResult } from './analysis/trim.js';
 export type { SensorFromReadings } from './analysis/sensor-readings.js';
 export { fitLines, sensorReadingsLines, trimLines, residualChart, probeSheetRows } from './present/readings.js';
+
+// Issue 19: the turns / gap (or turns / burden) trade.
+export { tradeSweep, adoptTradePoint } from './analysis/trade.js';
+export type { TradeResult, TradePoint, HallTradePoint, CtTradePoint } from './analysis/trade.js';
+export { tradeCharts, tradeTable, tradeLines, tradeNotes, tradeSweeps, sweepPoints, tradeJson } from './present/trade.js';
+export { gappedCoreInductance, ctSaturationCurrent, coreCrossSection } from './physics/magnetics.js';

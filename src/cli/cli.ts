@@ -165,7 +165,8 @@ function run(argv: string[], io: Io): number {
     io.out(net.netlist);
     return 0;
   }
-  const r = analyse(v.design, { spreadTrials });
+  // The trade sweep (issue 19) is part of a single design's report; a folder's batch leaves it out.
+  const r = analyse(v.design, { spreadTrials, trade: !flags.has('--spice') });
   if (flags.has('--spice')) {
     const net = spiceNetlist(r);
     if (!net) { io.err(`gainwright: no circuit to export: ${oneLine(r.warnings.filter((w) => w.level === 'fail').map(sayFinding).join(' '))}\n`); return 1; }

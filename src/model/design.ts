@@ -135,6 +135,15 @@ export interface CurrentTransformerSensor extends SensorCommon {
   windingResistance: number;
   /** Voltage the low end of the burden is tied to, V. */
   quiescent: number;
+  // --- issue 19 (turns and burden trade): optional core figures for the saturation current.
+  /**
+   * The core's magnetic cross-section, width × depth (m; depth absent: a square section), and its saturation
+   * flux density (T); absent or null: not stated.
+   */
+  core?: { width: number; depth?: number; saturation: number } | null;
+  /** Lowest frequency of interest, Hz (absent: 50 Hz, the lower mains frequency): the core saturates first there. */
+  lowestFrequency?: number;
+  // --- end issue 19
 }
 
 export interface ShuntSensor extends SensorCommon {
@@ -290,7 +299,31 @@ export interface Target {
   bandwidth: number;
   /** Which of the solver's ranked gain-network alternatives to build (0 = the top-ranked one). */
   alternative: number;
+  // --- issue 19: a range switch.
+  /**
+   * The switch's further positions: 1 to 3 ranges `{ scale, range }` after the first, which is this target's
+   * own `scale` and `range` (so a probe has 2 to 4 ranges; the zero and everything else are shared). Absent
+   * or empty: no switch.
+   */
+  ranges?: RangeSpec[];
+  /**
+   * How the switch is wired: `single-pole` switches the feedback arm alone (the zero moves with the gain and
+   * each range is zeroed on its own), `two-pole` also switches the reference so the zero holds; `auto`
+   * (absent) takes a single pole when the zero would move less than `analysis.zeroLimit` on every range.
+   */
+  rangeSwitch?: RangeSwitchChoice;
+  // --- end issue 19
 }
+
+/** Issue 19: one further position of a range switch. */
+export interface RangeSpec {
+  /** Output volts per measurand unit on this range (the same sign as the target's). */
+  scale: number;
+  /** The measurand range this position covers, [low, high]. */
+  range: [number, number];
+}
+export type RangeSwitchWiring = 'single-pole' | 'two-pole';
+export type RangeSwitchChoice = 'auto' | RangeSwitchWiring;
 
 export interface Output {
   /** Optional RC at the op-amp output: series resistance then capacitance to ground. */
@@ -436,6 +469,10 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     inductanceFactor: num('henries per turn squared', 'positive', { min: 1e-12, max: 1 }),
     windingResistance: opt(num('ohms', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
     quiescent: opt(V(), 0),
+    // --- issue 19: core cross-section and saturation for the trade sweep's saturation current.
+    core: { t: 'obj', nullable: true, optional: true, fields: { width: num('metres', 'positive', { min: 1e-5, max: 10 }), depth: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }), saturation: num('teslas', 'positive', { min: 1e-3, max: 100 }) } },
+    lowestFrequency: num('hertz', 'positive', { min: 1e-3, max: 1e6, optional: true }),
+    // --- end issue 19
   },
   // --- closed-loop Hall sensor (issue #20) ---
   'closed-loop-hall': {
@@ -577,6 +614,16 @@ const SCHEMA: Spec = {
         },
         bandwidth: opt(num('hertz', 'nonneg', { max: 1e10, minAbs: 1e-3 }), 0),
         alternative: opt(num('(index)', 'nonneg', { max: 50, whole: true }), 0),
+        // --- issue 19: a range switch's further positions and its wiring.
+        ranges: {
+          t: 'list', optional: true, maxItems: 3,
+          item: { t: 'obj', fields: {
+            scale: num('volts per measurand unit', 'any', { maxAbs: 1e6, minAbs: 1e-9 }),
+            range: { t: 'tuple', items: [num('measurand units', 'any', { maxAbs: 1e9, minAbs: 1e-12 }), num('measurand units', 'any', { maxAbs: 1e9, minAbs: 1e-12 })] },
+          } },
+        },
+        rangeSwitch: { t: 'str', oneOf: ['auto', 'single-pole', 'two-pole'], optional: true },
+        // --- end issue 19
       },
     },
     output: {
@@ -720,6 +767,12 @@ function crossCheck(d: Design, problems: Problem[]): void {
   if (d.supply.negative > 0) p('supply.negative', 'must be 0 V (single supply) or below 0 V (split supply)');
   if (d.target.range[0] >= d.target.range[1]) p('target.range[0]', 'must be below target.range[1]: the range runs from low to high', ['target.range[1]']);
   if (d.target.scale === 0) p('target.scale', 'must not be zero');
+  // Issue 19: each further range runs low to high and keeps the target's polarity (one stage, one sign).
+  (d.target.ranges ?? []).forEach((r, i) => {
+    if (r.range[0] >= r.range[1]) p(`target.ranges[${i}].range[0]`, `must be below target.ranges[${i}].range[1]: the range runs from low to high`, [`target.ranges[${i}].range[1]`]);
+    if (r.scale === 0) p(`target.ranges[${i}].scale`, 'must not be zero');
+    else if (Math.sign(r.scale) !== Math.sign(d.target.scale)) p(`target.ranges[${i}].scale`, 'must have the same sign as target.scale: one stage gives one polarity on every range', ['target.scale']);
+  });
   if (d.target.resistanceMin >= d.target.resistanceMax) p('target.resistanceMin', 'must be below target.resistanceMax', ['target.resistanceMax']);
   else if (d.target.resistanceMax / d.target.resistanceMin < 10) p('target.resistanceMax', 'must be at least ten times target.resistanceMin so that arms can be found: raise target.resistanceMax or lower target.resistanceMin', ['target.resistanceMin']);
   const e = d.environment;

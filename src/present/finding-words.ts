@@ -240,6 +240,24 @@ export const FINDING_WORDS: Words = {
     },
   },
   'sensor-over-voltage': { title: 'Sensor fed above its rated supply', say: (d) => `The sensor is fed up to ${f3(d.high, 'V')} from ${SOURCE_FROM[d.from]}, above the ${f3(d.rated, 'V')} it is specified for: it may be damaged. Feed it from a regulated rail (Supply: regulated rail, sensor fed from it) or use a sensor specified for this supply.` },
+  // --- issue 19: the range switch.
+  'range-stage': { title: 'No range switch for this stage', say: (d) => `A range switch is designed for the non-inverting and inverting stages, whose gain one feedback arm sets; this design uses ${d.topology ? `the ${stageName(d.topology)} stage` : 'no working stage'}. Choose the non-inverting or inverting stage, or design each range as its own probe.` },
+  'range-wiring': {
+    title: 'Range switch wiring',
+    say: (d) => {
+      const why = d.decidedBy === 'asked' ? 'as the design asks'
+        : d.decidedBy === 'zero-holds' ? `because one pole moves the zero by at most ${f3(d.singlePoleShift, 'V')}, within the ${f3(d.limit, 'V')} allowed`
+        : d.decidedBy === 'zero-moves' ? `because one pole would move the zero by up to ${f3(d.singlePoleShift, 'V')}, more than the ${f3(d.limit, 'V')} allowed`
+        : 'because no reference within the rails holds the zero on every range, so each range keeps its own zero';
+      const what = d.wiring === 'single-pole'
+        ? `a single-pole ${d.throws}-way switch changes the feedback arm (and its span trimmer); the reference and the zero trimmer are shared, so the zero moves with the gain and each range is zeroed on its own`
+        : `a two-pole ${d.throws}-way switch changes the feedback arm and the reference divider together, each position with its own span and zero trimmer, so the zero holds on every range${d.idleCurrent > 0 ? ` (the dividers not in use still draw ${f3(d.idleCurrent, 'A')} from their rail)` : ''}`;
+      return `Range switch: ${what}; chosen ${why}. The other wiring can be asked for (Range switch wiring).`;
+    },
+  },
+  'range-unbuilt': { title: 'A range cannot be built', say: (d) => `Range ${d.position} (${f3(d.scale, `V/${d.measurand}`)}) cannot be built on this stage: ${d.cause === 'zero-unreachable' ? 'the reference that would hold the zero lies beyond the rails; wire the switch with one pole (the zero then moves) or move the zero' : 'its gain is beyond what the stage can give with its shared parts (a non-inverting stage cannot attenuate); change the scale or the stage'}.` },
+  'range-zero-shift': { title: 'Zero moves with the range', say: (d) => `On range ${d.position} (${f3(d.scale, `V/${d.measurand}`)}) the zero sits at ${f3(d.zero, 'V')}, ${f3(d.shift, 'V')} from the first range's: null it on the instrument (its offset) or read from it. The zero trimmer is set on the first range; it leaves up to ±${f3(d.residual, 'V')} of zero error here.` },
+  // --- end issue 19
   'sensor-under-voltage': { title: 'Sensor fed below its rated supply', say: (d) => `The sensor is fed down to ${f3(d.low, 'V')} from ${SOURCE_FROM[d.from]}, below the ${f3(d.rated, 'V')} it is specified for: its output is not specified there.` },
 };
 

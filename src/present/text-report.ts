@@ -9,6 +9,7 @@ import { formatEng } from '../model/units.js';
 import { terminalLine } from './inert.js';
 import { waveformFigures } from './figures.js';
 import { closedLoopLines } from './closed-loop.js';
+import { tradeLines } from './trade.js';
 
 const f = (x: number | null | undefined, u = '', d = 3) => (x === null || x === undefined ? '—' : formatEng(x, u, d));
 const MARK = { pass: 'PASS', caution: 'CAUTION', fail: 'FAIL' } as const;
@@ -94,6 +95,8 @@ export function textReport(r: Report): string {
     h('Waveform at the instrument');
     for (const row of wave) out.push(`  ${row.label}: ${row.value}${row.note ? ` (${row.note})` : ''}`);
   }
+  // Issue 19: the turns / gap (or turns / burden) trade, when the report ran it.
+  out.push(...tradeLines(r.trade, m));
   if (r.warnings.length) {
     h('Findings');
     for (const w of r.warnings) out.push(`  [${w.level}] ${sayFinding(w)}`);
