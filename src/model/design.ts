@@ -391,6 +391,32 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
   },
 };
 
+/** The op-amp's figures: the design's `opamp`, and each entry of an op-amp list file (src/model/opamp-list.ts). */
+export const OPAMP_SCHEMA: Spec = {
+  t: 'obj',
+  fields: {
+    name: { t: 'str', def: 'custom', maxLength: 80 },
+    gbw: num('hertz', 'positive', { min: 1, max: 1e11 }),
+    slewRate: num('volts per second', 'positive', { min: 1, max: 1e12 }),
+    openLoopGainDb: num('decibels', 'any', { min: 20, max: 200 }),
+    inputLow: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
+    inputHigh: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
+    outputLow: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
+    outputHigh: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
+    voltageNoise: num('volts per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-15 }),
+    currentNoise: num('amperes per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-18 }),
+    offsetVoltage: num('volts', 'nonneg', { max: 1, minAbs: 1e-12 }),
+    biasCurrent: num('amperes', 'any', { maxAbs: 1e-2, minAbs: 1e-18 }),
+    supplyCurrent: num('amperes', 'nonneg', { max: 10, minAbs: 1e-12 }),
+    outputResistance: opt(num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6 }), 50),
+    outputCurrent: opt(num('amperes', 'positive', { min: 1e-6, max: 100 }), 0.02),
+    offsetDrift: opt(num('volts per kelvin', 'nonneg', { max: 1e-2, minAbs: 1e-15 }), 0),
+    psrrDb: opt(num('decibels', 'any', { min: 20, max: 200 }), 80),
+    voltageNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
+    currentNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
+  },
+};
+
 const SCHEMA: Spec = {
   t: 'obj',
   fields: {
@@ -427,30 +453,7 @@ const SCHEMA: Spec = {
         },
       },
     },
-    opamp: {
-      t: 'obj',
-      fields: {
-        name: { t: 'str', def: 'custom', maxLength: 80 },
-        gbw: num('hertz', 'positive', { min: 1, max: 1e11 }),
-        slewRate: num('volts per second', 'positive', { min: 1, max: 1e12 }),
-        openLoopGainDb: num('decibels', 'any', { min: 20, max: 200 }),
-        inputLow: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
-        inputHigh: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
-        outputLow: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
-        outputHigh: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
-        voltageNoise: num('volts per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-15 }),
-        currentNoise: num('amperes per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-18 }),
-        offsetVoltage: num('volts', 'nonneg', { max: 1, minAbs: 1e-12 }),
-        biasCurrent: num('amperes', 'any', { maxAbs: 1e-2, minAbs: 1e-18 }),
-        supplyCurrent: num('amperes', 'nonneg', { max: 10, minAbs: 1e-12 }),
-        outputResistance: opt(num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6 }), 50),
-        outputCurrent: opt(num('amperes', 'positive', { min: 1e-6, max: 100 }), 0.02),
-        offsetDrift: opt(num('volts per kelvin', 'nonneg', { max: 1e-2, minAbs: 1e-15 }), 0),
-        psrrDb: opt(num('decibels', 'any', { min: 20, max: 200 }), 80),
-        voltageNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
-        currentNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
-      },
-    },
+    opamp: OPAMP_SCHEMA,
     target: {
       t: 'obj',
       fields: {
