@@ -26,13 +26,8 @@ export interface Misfit {
   cause: ClipCause | null;
 }
 
-export interface ComparisonRow {
-  source: OpAmpCandidate['source'];
-  id: string;
-  name: string;
-  opamp: OpAmpSpec;
-  /** Whether this op-amp is the design's own (the same figures). */
-  current: boolean;
+/** The figures of one report that a row of a comparison shows (op-amps here, supplies in supply-options.ts). */
+export interface RowFigures {
   /** The stage covers the range (op-amp input range, output swing and every other limit) on these rails and, with a battery, at its end of life. */
   fits: boolean;
   misfits: Misfit[];
@@ -52,10 +47,21 @@ export interface ComparisonRow {
   /** Total supply current, A; battery life to end of life, hours (null without a battery). */
   supplyCurrent: number | null;
   batteryLife: number | null;
+  /** Hours until the output first clips inside the range as the battery sags (null: never, or no battery). */
+  hoursToClip: number | null;
   /** The worst line of the report's verdict. */
   verdict: 'pass' | 'caution' | 'fail';
   /** Codes of the report's fail and caution findings, in its order. */
   findings: string[];
+}
+
+export interface ComparisonRow extends RowFigures {
+  source: OpAmpCandidate['source'];
+  id: string;
+  name: string;
+  opamp: OpAmpSpec;
+  /** Whether this op-amp is the design's own (the same figures). */
+  current: boolean;
 }
 
 /** What the comparison runs the report with: the row needs no Monte Carlo and no waveform. */
@@ -80,8 +86,8 @@ export function candidates(design: Design, own: readonly OpAmpSpec[] = []): OpAm
   return list.some((c) => sameFigures(c.opamp, design.opamp)) ? list : [{ source: 'design', id: 'design', opamp: design.opamp }, ...list];
 }
 
-/** Reads one row off the full report of the design with the candidate's op-amp. */
-export function rowOf(candidate: OpAmpCandidate, r: Report, current: boolean): ComparisonRow {
+/** Reads a row's figures off a full report. */
+export function figuresOf(r: Report): RowFigures {
   const d = r.design;
   const [a, b] = peakRange(d);
   const misfits: Misfit[] = [];
@@ -102,9 +108,7 @@ export function rowOf(candidate: OpAmpCandidate, r: Report, current: boolean): C
       if (end.measurandHigh < b) misfits.push({ at: 'end-of-life', side: 'high', cause: end.first });
     }
   }
-  const worst = r.verdicts[0]?.level ?? 'fail';
   return {
-    source: candidate.source, id: candidate.id, name: candidate.opamp.name, opamp: candidate.opamp, current,
     fits: misfits.length === 0, misfits,
     measurandLow: c && r.stage ? c.measurandLow : null, measurandHigh: c && r.stage ? c.measurandHigh : null,
     endOfLifeLow: end ? end.measurandLow : null, endOfLifeHigh: end ? end.measurandHigh : null,
@@ -112,9 +116,15 @@ export function rowOf(candidate: OpAmpCandidate, r: Report, current: boolean): C
     noiseReferred: r.noise?.referredRms ?? null,
     errorAfterTrim: r.errors?.afterTrim ?? null,
     supplyCurrent: r.supply?.current ?? null, batteryLife: r.supply?.batteryLife ?? null,
-    verdict: worst,
+    hoursToClip: r.batteryClip?.hoursToClip ?? null,
+    verdict: r.verdicts[0]?.level ?? 'fail',
     findings: r.warnings.filter((w) => w.level === 'fail' || w.level === 'caution').map((w) => w.code),
   };
+}
+
+/** Reads one row off the full report of the design with the candidate's op-amp. */
+export function rowOf(candidate: OpAmpCandidate, r: Report, current: boolean): ComparisonRow {
+  return { source: candidate.source, id: candidate.id, name: candidate.opamp.name, opamp: candidate.opamp, current, ...figuresOf(r) };
 }
 
 const RANK = { pass: 0, caution: 1, fail: 2 } as const;
@@ -123,7 +133,7 @@ const RANK = { pass: 0, caution: 1, fail: 2 } as const;
  * Passing rows first: by verdict (pass, caution, fail), then the ones that fit before the ones that do not,
  * then in the order given (a stable sort).
  */
-export function sortRows(rows: ComparisonRow[]): ComparisonRow[] {
+export function sortRows<T extends RowFigures>(rows: T[]): T[] {
   return rows.map((r, i) => [r, i] as const)
     .sort(([x, i], [y, j]) => RANK[x.verdict] - RANK[y.verdict] || Number(y.fits) - Number(x.fits) || i - j)
     .map(([r]) => r);

@@ -43,7 +43,7 @@ export function comparisonJson(row: ComparisonRow): Record<string, unknown> {
     fits: row.fits, misfits: row.misfits,
     measurandLow: row.measurandLow, measurandHigh: row.measurandHigh, endOfLifeLow: row.endOfLifeLow, endOfLifeHigh: row.endOfLifeHigh,
     bandwidth: row.bandwidth, fullPower: row.fullPower, noiseReferred: row.noiseReferred, errorAfterTrim: row.errorAfterTrim,
-    supplyCurrent: row.supplyCurrent, batteryLife: row.batteryLife, verdict: row.verdict, findings: row.findings,
+    supplyCurrent: row.supplyCurrent, batteryLife: row.batteryLife, hoursToClip: row.hoursToClip, verdict: row.verdict, findings: row.findings,
   };
 }
 
