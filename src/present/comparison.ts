@@ -4,6 +4,8 @@
  */
 import type { ClipCause } from '../analysis/analysis.js';
 import type { ComparisonRow, Misfit } from '../analysis/compare.js';
+import type { SupplyKind } from '../analysis/supply-options.js';
+import type { Supply } from '../model/design.js';
 import { formatEng } from '../model/units.js';
 import { terminalLine } from './inert.js';
 
@@ -27,8 +29,8 @@ export function misfitWords(m: Misfit): string {
 /** Where each row comes from, for a person. */
 export const SOURCE_WORDS: Record<ComparisonRow['source'], string> = { archetype: 'built-in', own: 'yours', design: 'in the design' };
 
-/** The linear range as "−44.5 … 30.0 A" (a dash for none). */
-export const rangeText = (low: number | null, high: number | null, m: string) => (low === null || high === null ? '—' : `${f(low, '', 3)} … ${f(high, m, 3)}`);
+/** The linear range as "-44.5 A … 30.0 A", each end with its own prefix (a dash for none). */
+export const rangeText = (low: number | null, high: number | null, m: string) => (low === null || high === null ? '—' : `${f(low, m, 3)} … ${f(high, m, 3)}`);
 
 /** Hours as "86 h" (one decimal below ten). */
 export const hoursText = (h: number | null) => (h === null ? '—' : `${h < 10 ? h.toFixed(1) : h.toFixed(0)} h`);
@@ -63,4 +65,18 @@ export function comparisonLines(rows: readonly ComparisonRow[], measurand: strin
     out.push(`   supply ${f(r.supplyCurrent, 'A')}${battery ? `, battery life ${hoursText(r.batteryLife)}` : ''}`);
   });
   return out;
+}
+
+/** Each supply choice as a person names it. */
+export const SUPPLY_WORDS: Record<SupplyKind, string> = {
+  'as-is': 'The battery as it is',
+  regulator: 'Sensor and reference on a regulator',
+  split: 'Split rails from a rail splitter',
+  pair: 'A second battery for the negative rail',
+};
+
+/** The rails of a supply as "0 … 9 V" or "±4.5 V", with a regulator's output after it. */
+export function railsText(s: Supply): string {
+  const rails = s.negative === -s.positive ? `±${formatEng(s.positive, 'V')}` : `${formatEng(s.negative, 'V')} … ${formatEng(s.positive, 'V')}`;
+  return s.regulated ? `${rails}, regulator ${formatEng(s.regulated.voltage, 'V')}` : rails;
 }
