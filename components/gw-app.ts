@@ -1,7 +1,7 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, state, query } from 'lit/decorators.js';
 import { validateDesign, parseDesignText, MAX_DESIGN_BYTES, type Design, type Problem } from '../src/index.js';
-import { analyse, SAFETY_CAUTIONS, type Report } from '../src/index.js';
+import { analyse, reportWords, SAFETY_CAUTIONS, type Report, type ReportWords } from '../src/index.js';
 import { DEMOS, demoDesign } from '../src/index.js';
 import { FIELDS, GROUP_DEFAULTS, groupDefault, readField, setPath } from '../src/index.js';
 import { spiceNetlist } from '../src/index.js';
@@ -40,6 +40,8 @@ interface Notice { text: string; bad: boolean; undo?: boolean }
 
 interface Derived {
   report: Report;
+  /** The report's words: verdicts, findings, calibration steps, cautions. */
+  words: ReportWords;
   charts: ChartData[];
   drawing: Schematic | null;
   rows: BomRow[];
@@ -53,7 +55,7 @@ interface Derived {
 function derive(design: Design, trials: number): Derived {
   performance.mark('gw-analyse-start');
   const report = analyse(design, { spreadTrials: trials, defaultWaveform: true });
-  const derived = { report, charts: allCharts(report), drawing: schematic(report), rows: bomRows(report), figures: keyFigures(report), wave: waveformChart(report), waveRows: waveformFigures(report) };
+  const derived = { report, words: reportWords(report), charts: allCharts(report), drawing: schematic(report), rows: bomRows(report), figures: keyFigures(report), wave: waveformChart(report), waveRows: waveformFigures(report) };
   performance.mark('gw-analyse-end');
   performance.measure('gw-analyse', 'gw-analyse-start', 'gw-analyse-end');
   return derived;
@@ -471,13 +473,14 @@ export class GwApp extends LitElement {
   /** One line for the live region: what the verdict now says, announced when it changes. */
   private _verdictLine(r: Report | undefined): string {
     if (!r) return '';
-    const count = (l: string) => r.verdicts.filter((v) => v.level === l).length;
-    const worst = r.verdicts[0];
+    const verdicts = this._derived?.words.verdicts ?? [];
+    const count = (l: string) => verdicts.filter((v) => v.level === l).length;
+    const worst = verdicts[0];
     return `Verdict: ${count('fail')} fail, ${count('caution')} caution, ${count('pass')} pass${worst && worst.level !== 'pass' ? `; first: ${worst.title}` : ''}.`;
   }
 
   private _cautions(): string[] {
-    return [...SAFETY_CAUTIONS, ...(this._derived?.report.front.cautions ?? [])];
+    return this._derived?.words.cautions ?? [...SAFETY_CAUTIONS];
   }
 
   override render() {
@@ -500,7 +503,7 @@ export class GwApp extends LitElement {
       ${this._shareUrl ? html`<div class="notice no-print"><label>Share link <input class="share" readonly .value=${this._shareUrl} @focus=${(e: Event) => (e.target as HTMLInputElement).select()} /></label></div>` : nothing}
       <main>
         <section class="area-verdict" aria-label="Verdict">
-          <div class="panel" id="verdict" tabindex="-1"><h2>Verdict</h2><gw-verdicts .verdicts=${r?.verdicts ?? []}></gw-verdicts></div>
+          <div class="panel" id="verdict" tabindex="-1"><h2>Verdict</h2><gw-verdicts .verdicts=${d?.words.verdicts ?? []}></gw-verdicts></div>
         </section>
         <section class="area-editor" aria-label="Design">
           <gw-editor .design=${this._design} .messages=${this._messages} .notes=${this._notes}
@@ -521,13 +524,13 @@ export class GwApp extends LitElement {
           <div class="panel"><h2>Plots</h2><div class="charts">${(d?.charts ?? []).map((c) => html`<gw-chart data-chart=${c.id} .data=${c}></gw-chart>`)}</div></div>
           <div class="panel scroll"><h2>Parts list</h2><gw-parts .rows=${d?.rows ?? []} .alternatives=${r?.stage?.alternatives ?? []} .chosen=${r?.stage?.chosen ?? 0} @gw-set=${this._onSet}></gw-parts></div>
           <div class="panel scroll"><h2>Figures</h2><gw-figures caption="Figures" .rows=${d?.figures ?? []}></gw-figures></div>
-          <div class="panel"><h2>Findings</h2><ul>${(r?.warnings ?? []).map((w) => html`<li data-code=${w.code}><strong>${w.level}</strong>: ${w.message}</li>`)}</ul></div>
-          <div class="panel"><h2>Calibration</h2><ol class="cal">${(r?.calibration ?? []).map((c) => html`<li>${c.text}</li>`)}</ol></div>
+          <div class="panel"><h2>Findings</h2><ul>${(d?.words.findings ?? []).map((w) => html`<li data-code=${w.code}><strong>${w.level}</strong>: ${w.message}</li>`)}</ul></div>
+          <div class="panel"><h2>Calibration</h2><ol class="cal">${(d?.words.calibration ?? []).map((c) => html`<li>${c.text}</li>`)}</ol></div>
           <div class="panel" id="probe-readings"><h2>Measured on the built probe</h2><gw-bench mode="probe" .report=${r ?? null} @gw-set=${this._onSet}></gw-bench></div>
           <div class="panel" id="sensor-readings"><h2>Sensor from bench readings</h2><gw-bench mode="sensor" .report=${r ?? null} @gw-set=${this._onSet}></gw-bench></div>
         </section>
       </main>
-      <gw-build-sheet class="sheet" aria-hidden="true" .report=${r ?? null} .drawing=${d?.drawing ?? null} .rows=${d?.rows ?? []} .figures=${d?.figures ?? []} .cautions=${this._cautions()}>
+      <gw-build-sheet class="sheet" aria-hidden="true" .report=${r ?? null} .drawing=${d?.drawing ?? null} .rows=${d?.rows ?? []} .figures=${d?.figures ?? []} .words=${d?.words ?? null}>
         ${r ? html`<section><h2>What the scope shows</h2><div class="scope-print"><gw-trace .data=${d?.wave ?? null}></gw-trace><small>${waveformLine(r)}</small></div></section>
         <section><h2>Readings of the built probe</h2><gw-bench mode="sheet" .report=${r}></gw-bench></section>` : nothing}
       </gw-build-sheet>

@@ -1,6 +1,6 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import type { BomRow, FigureRow, Report, Schematic } from '../src/index.js';
+import type { BomRow, FigureRow, Report, ReportWords, Schematic } from '../src/index.js';
 import { errorBudgetRows, sheetStatus, trimmerStarts } from '../src/index.js';
 import { base } from './styles.js';
 import './gw-schematic.js';
@@ -44,12 +44,13 @@ export class GwBuildSheet extends LitElement {
   @property({ attribute: false }) drawing: Schematic | null = null;
   @property({ attribute: false }) rows: BomRow[] = [];
   @property({ attribute: false }) figures: FigureRow[] = [];
-  /** The cautions for this design (the one caution list plus the sensor's own). */
-  @property({ attribute: false }) cautions: string[] = [];
+  /** The report's words (verdicts, findings, calibration steps, cautions), as the app already derived them. */
+  @property({ attribute: false }) words: ReportWords | null = null;
 
   override render() {
     const r = this.report;
-    if (!r) return nothing;
+    const w = this.words;
+    if (!r || !w) return nothing;
     const status = sheetStatus(r);
     const budget = errorBudgetRows(r);
     const trims = trimmerStarts(r);
@@ -60,13 +61,13 @@ export class GwBuildSheet extends LitElement {
         <h1>${r.design.title}</h1>
         ${r.design.notes ? html`<p>${r.design.notes}</p>` : nothing}
         <div class="grid">
-          <section><h2>Verdict</h2><ul class="verdicts">${r.verdicts.map((v) => html`<li><span class="lvl">${WORD[v.level]}</span> ${v.title}</li>`)}</ul></section>
-          <section><h2>Findings</h2>${r.warnings.length ? html`<ul class="findings">${r.warnings.map((w) => html`<li><span class="lvl">${WORD[w.level]}</span> ${w.message}</li>`)}</ul>` : html`<p>None.</p>`}</section>
+          <section><h2>Verdict</h2><ul class="verdicts">${w.verdicts.map((v) => html`<li><span class="lvl">${WORD[v.level]}</span> ${v.title}</li>`)}</ul></section>
+          <section><h2>Findings</h2>${w.findings.length ? html`<ul class="findings">${w.findings.map((f) => html`<li><span class="lvl">${WORD[f.level]}</span> ${f.message}</li>`)}</ul>` : html`<p>None.</p>`}</section>
         </div>
         <section><h2>Schematic</h2><gw-schematic .drawing=${this.drawing}></gw-schematic></section>
-        <section><h2>Safety</h2><ul class="safety">${this.cautions.map((c) => html`<li>${c}</li>`)}</ul></section>
+        <section><h2>Safety</h2><ul class="safety">${w.cautions.map((c) => html`<li>${c}</li>`)}</ul></section>
         <section><h2>Parts list</h2><gw-parts compact .rows=${this.rows}></gw-parts></section>
-        ${r.calibration.length ? html`<section><h2>Calibration</h2><ol>${r.calibration.map((c) => html`<li>${c.text}</li>`)}</ol></section>` : nothing}
+        ${w.calibration.length ? html`<section><h2>Calibration</h2><ol>${w.calibration.map((c) => html`<li>${c.text}</li>`)}</ol></section>` : nothing}
         <div class="grid">
           ${budget.length ? html`<section><h2>Error budget at the range end</h2><table class="budget" aria-label="Error budget"><tbody>${budget.map((b) => html`<tr><td>${b.term}</td><td>${b.value}</td><td>${b.after}</td></tr>`)}</tbody></table></section>` : nothing}
           ${trims.length ? html`<section><h2>Trimmer start positions</h2><table aria-label="Trimmer start positions"><tbody>${trims.map((t) => html`<tr><td>${t.ref}</td><td>${t.value}</td><td>${t.role}</td><td>${t.setting}</td></tr>`)}</tbody></table></section>` : nothing}

@@ -4,8 +4,16 @@
  */
 export { validateDesign, parseDesignText, serialiseDesign, formatProblems, migrate, DESIGN_FORMAT, DESIGN_VERSION, MAX_DESIGN_BYTES } from './model/design.js';
 export type { Design, SensorSpec, SensorType, Supply, OpAmpSpec, Target, Output, Environment, AnalysisOptions, MeasurandWaveform, Topology, TopologyChoice, Arrangement, Problem } from './model/design.js';
-export { analyse, reportJson, verdictsOf, SAFETY_CAUTIONS } from './analysis/report.js';
-export type { Report, Verdict, AnalyseOptions } from './analysis/report.js';
+export { analyse } from './analysis/report.js';
+export type { Report, AnalyseOptions } from './analysis/report.js';
+export { reportJson } from './present/json.js';
+export { verdictsOf } from './present/verdicts.js';
+export type { Verdict } from './present/verdicts.js';
+export { SAFETY_CAUTIONS, cautionsFor } from './present/cautions.js';
+export { reportWords } from './present/report-words.js';
+export type { ReportWords, WordedFinding } from './present/report-words.js';
+export { sayFinding, findingTitle, topologyWhy, stageReasonWords } from './present/finding-words.js';
+export type { Finding, FindingCode, FindingLevel } from './model/findings.js';
 export { textReport } from './present/text-report.js';
 export { spiceNetlist } from './present/spice.js';
 export { bomRows, bomCsv, powerRating } from './present/bom.js';

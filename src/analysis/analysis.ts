@@ -4,6 +4,7 @@
  * instrument drive. Each function is pure; `analyse` in report.ts strings them together.
  */
 import type { Design } from '../model/design.js';
+import type { LimitData } from '../model/findings.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
 import { adjointAt, signalTransfer, solveDc, stampReal, luFactorReal, luSolveReal, rhs, workspace, type Element } from '../circuit/mna.js';
 import { integratePower, logGrid, peakToPeak } from '../physics/noise.js';
@@ -63,7 +64,8 @@ export interface ClipLimit {
   cause: ClipCause;
   low: number;
   high: number;
-  why: string;
+  /** The numbers behind the limit, for its wording (src/present/finding-words.ts). */
+  data: LimitData;
 }
 
 export interface ClipResult {
@@ -106,18 +108,18 @@ export function clipping(design: Design, front: SensorFront, dc: DcPoint, positi
   const neg = design.supply.negative;
   const oa = design.opamp;
   const limits: ClipLimit[] = [];
-  const add = (cause: ClipCause, iv: [number, number], why: string) => limits.push({ cause, low: iv[0], high: iv[1], why });
+  const add = (cause: ClipCause, iv: [number, number], data: LimitData) => limits.push({ cause, low: iv[0], high: iv[1], data });
   const [swingLo, swingHi] = opampSwing(design, positive);
-  add('opamp-output', within(dc.internal[0], dc.internal[1], swingLo, swingHi), `the op-amp output swings only from ${+swingLo.toFixed(3)} V to ${+swingHi.toFixed(3)} V`);
-  add('opamp-current', within(dc.iOut[0], dc.iOut[1], -oa.outputCurrent, oa.outputCurrent), `the op-amp can drive only ±${oa.outputCurrent * 1e3} mA into the feedback network and load`);
+  add('opamp-output', within(dc.internal[0], dc.internal[1], swingLo, swingHi), { cause: 'opamp-output', low: swingLo, high: swingHi });
+  add('opamp-current', within(dc.iOut[0], dc.iOut[1], -oa.outputCurrent, oa.outputCurrent), { cause: 'opamp-current', current: oa.outputCurrent });
   const inLo = neg + oa.inputLow, inHi = positive - oa.inputHigh;
   const ivP = within(dc.inP[0], dc.inP[1], inLo, inHi);
   const ivN = within(dc.inN[0], dc.inN[1], inLo, inHi);
-  add('opamp-input', [Math.max(ivP[0], ivN[0]), Math.min(ivP[1], ivN[1])], `the op-amp inputs must stay within ${+inLo.toFixed(3)} V … ${+inHi.toFixed(3)} V`);
+  add('opamp-input', [Math.max(ivP[0], ivN[0]), Math.min(ivP[1], ivN[1])], { cause: 'opamp-input', low: inLo, high: inHi });
   if (Number.isFinite(front.outputMin) || Number.isFinite(front.outputMax)) {
-    add('sensor', within(front.quiescent, front.sensitivity, front.outputMin, front.outputMax), `the sensor's output reaches its ${front.outputMin}…${front.outputMax} V limits`);
+    add('sensor', within(front.quiescent, front.sensitivity, front.outputMin, front.outputMax), { cause: 'sensor', what: 'output', low: front.outputMin, high: front.outputMax });
   }
-  for (const l of front.limits) add(l.kind, [l.low, l.high], l.why);
+  for (const l of front.limits) add(l.kind, [l.low, l.high], l.data);
 
   // The linear region is the intersection of every limit's interval. It need not contain zero: when the zero
   // itself sits outside it (a sagging rail), each side's limit is still reported.
@@ -186,6 +188,14 @@ export function transferAt(sc: StageCircuit, f: number, ws = workspace(sc.circui
   return signalTransfer(sc.circuit, ws);
 }
 
+/** An angle in degrees folded into (−180°, 180°]. `wrapDegrees(270)` → −90. */
+export function wrapDegrees(deg: number): number {
+  let x = deg;
+  while (x > 180) x -= 360;
+  while (x <= -180) x += 360;
+  return x;
+}
+
 /** Magnitude and phase from complex transfers; the phase unwrapped so it runs on smoothly past ±180°. */
 function responseOf(freqs: Float64Array, re: Float64Array, im: Float64Array): FrequencyResponse {
   const n = freqs.length;
@@ -204,6 +214,7 @@ export function responseFromSpectrum(s: NoiseSpectrum): FrequencyResponse {
   return responseOf(s.freqs, s.signalRe, s.signalIm);
 }
 
+/** Gain (magnitude, V per measurand unit) and phase (degrees, unwrapped) at the output over f1…f2 Hz on a log grid of `points`. */
 export function frequencyResponse(sc: StageCircuit, f1: number, f2: number, points = 200): FrequencyResponse {
   const freqs = new Float64Array(points), re = new Float64Array(points), im = new Float64Array(points);
   const ws = workspace(sc.circuit);
@@ -272,9 +283,7 @@ export function speed(design: Design, sc: StageCircuit, front: SensorFront, dc: 
   if (Math.hypot(...transferAt(sc, fHi, ws)) > level) bw = fHi;
   const [pr, pi] = transferAt(sc, bw, ws);
   const [rr, ri] = transferAt(sc, fRef, ws);
-  let phase = ((Math.atan2(pi, pr) - Math.atan2(ri, rr)) * 180) / Math.PI;
-  while (phase > 180) phase -= 360;
-  while (phase < -180) phase += 360;
+  const phase = wrapDegrees(((Math.atan2(pi, pr) - Math.atan2(ri, rr)) * 180) / Math.PI);
   const [a, b] = peakRange(design);
   const peakSwing = Math.max(Math.abs(dc.pin[1] * a), Math.abs(dc.pin[1] * b));
   return {
@@ -302,7 +311,7 @@ export interface NoiseResult {
 }
 
 /** The low-frequency band whose peak-to-peak noise is quoted for DC work, Hz (common practice: 0.1–10 Hz). */
-export const LOW_FREQUENCY_BAND: readonly [number, number] = [0.1, 10];
+const LOW_FREQUENCY_BAND: readonly [number, number] = [0.1, 10];
 
 /**
  * Share of a single pole's noise bandwidth (π/2)·f_c that the default band's top, 100 × f_c, holds:
@@ -315,6 +324,11 @@ export function defaultBand(sp: Speed): [number, number] {
   return [Math.max(1, sp.lowCorner / 10 || 1), Math.max(100 * sp.smallSignal, 10)];
 }
 
+/**
+ * Output noise: the density of every source by one adjoint solve per frequency, integrated over the band
+ * (the design's own, or 1 Hz … 100 × the bandwidth), rms and peak-to-peak (6.6 σ, common practice), referred to
+ * the measurand, with the low-frequency wander over 0.1–10 Hz kept apart. Units: V/√Hz, V rms, measurand rms.
+ */
 export function noise(design: Design, sc: StageCircuit, sp: Speed, points = 201): NoiseResult {
   const T = design.environment.temperature;
   const band: [number, number] = design.analysis.noiseBand ?? defaultBand(sp);
@@ -368,7 +382,7 @@ export interface ErrorBudget {
  * Where the span is calibrated, as a fraction of the range end (the calibration steps apply about half the
  * range end; common practice: large enough to read well, small enough for a bench supply).
  */
-export const SPAN_CALIBRATION_FRACTION = 0.5;
+const SPAN_CALIBRATION_FRACTION = 0.5;
 
 /**
  * DC error budget at both range ends, in measurand units. Each resistor and trimmer is moved by its
@@ -500,6 +514,7 @@ export interface SupplyResult {
   batteryLife: number | null;
 }
 
+/** Supply current at zero measurand, A (op-amp and sensor quiescent, what the rails deliver to the networks, the output current into the load, the regulator's own), by part, and battery life, h (capacity ÷ current). */
 export function supply(design: Design, front: SensorFront, sc: StageCircuit, dc: DcPoint): SupplyResult {
   const parts: Array<{ name: string; current: number }> = [{ name: 'op-amp quiescent', current: design.opamp.supplyCurrent }];
   if (front.supplyCurrent) parts.push({ name: 'sensor', current: front.supplyCurrent });
@@ -540,7 +555,7 @@ export interface BatteryStep {
  * rail exceeds its output by its dropout; below that its output follows the rail, dropout below it, and a
  * ratiometric sensor fed from it scales with it.
  */
-export function batteryStep(design: Design, stage: SolvedStage, front: SensorFront, zero: number, v: number): BatteryStep | null {
+function batteryStep(design: Design, stage: SolvedStage, front: SensorFront, zero: number, v: number): BatteryStep | null {
   const passband = !front.passesDc;
   const reg = design.supply.regulated;
   const dropout = reg?.dropout ?? 0;

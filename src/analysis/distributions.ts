@@ -62,7 +62,7 @@ export function studentCdf(t: number, nu: number): number {
 }
 
 /** P(F ≤ f) for Fisher's F with (d1, d2) degrees of freedom. */
-export function fisherCdf(f: number, d1: number, d2: number): number {
+function fisherCdf(f: number, d1: number, d2: number): number {
   if (!(d1 > 0) || !(d2 > 0) || Number.isNaN(f)) return NaN;
   if (f <= 0) return 0;
   return betaRegularised((d1 * f) / (d1 * f + d2), d1 / 2, d2 / 2);

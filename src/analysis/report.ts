@@ -2,31 +2,21 @@
  * The report: a pure function of the design. Solves the stage, builds its circuit and runs every analysis.
  * The app, the CLI and the tests all read this one object.
  */
-import type { Design, MeasurandWaveform, Topology } from '../model/design.js';
+import type { Design, MeasurandWaveform } from '../model/design.js';
 import { sensorFrontAtRail, type SensorFront } from '../physics/sensors.js';
-import { chooseTopology, peakRange, type TopologyChoiceResult } from '../physics/topology.js';
+import { chooseTopology, type TopologyChoiceResult } from '../physics/topology.js';
 import { solveStage, type SolvedStage } from '../solve/stage.js';
 import { commonModeGain, openLoopOf } from '../solve/transfer.js';
-import type { Part } from '../circuit/network.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
 import {
-  DEFAULT_BAND_SHARE, batteryClip, batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, noise, speed, spread, supply, transferAt, transferCurve,
+  batteryClip, batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, nodeLinear, noise, speed, spread, supply, transferAt, transferCurve, wrapDegrees,
   type BatteryClip, type BatteryStep, type ClipCause, type ClipResult, type DcPoint, type ErrorBudget, type FrequencyResponse, type InstrumentDrive, type NoiseResult,
   type Speed, type SpreadResult, type SupplyResult,
 } from './analysis.js';
 import { stepOverRange, waveform, type WaveformResult } from './waveform.js';
-import type { Warning } from '../model/findings.js';
-import { formatEng, rkmCode } from '../model/units.js';
-import { significantFigures } from '../model/eseries.js';
-import { calibrationSteps, type CalibrationStep } from '../present/calibration.js';
+import { finding, type Finding } from '../model/findings.js';
 import { frontWithReadings, sensorFromReadings, type SensorFromReadings } from './sensor-readings.js';
 import { trimFromReadings, type TrimResult } from './trim.js';
-
-export interface Verdict {
-  level: 'pass' | 'caution' | 'fail';
-  title: string;
-  detail: string;
-}
 
 export interface Report {
   design: Design;
@@ -51,13 +41,12 @@ export interface Report {
   waveform: WaveformResult | null;
   /** The measurand waveform solved, or null. */
   waveformSpec: MeasurandWaveform | null;
-  calibration: CalibrationStep[];
   /** The fit of the sensor's bench readings and what the design took from it (null: no readings). */
   readings: SensorFromReadings | null;
   /** The trim solved from the built probe's readings (design.probeReadings; null: none given). */
   trim: TrimResult | null;
-  warnings: Warning[];
-  verdicts: Verdict[];
+  /** What was found, as data (codes and numbers); src/present/finding-words.ts words them. */
+  warnings: Finding[];
   /** Figures that could not be computed, with the reason. */
   absent: Record<string, string>;
 }
@@ -80,45 +69,38 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
   const design = fromReadings.design;
   const front = frontWithReadings(sensorFrontAtRail(design.sensor, design), fromReadings.readings, design.sensor.measurand);
   const choice = chooseTopology(design, front);
-  const warnings: Warning[] = [...front.warnings, ...fromReadings.warnings, ...sensorSupplyFindings(design)];
+  const warnings: Finding[] = [...front.warnings, ...fromReadings.warnings, ...sensorSupplyFindings(design)];
   const absent: Record<string, string> = {};
   const empty: Report = {
     design, front, choice, stage: null, circuit: null, dc: null, clip: null, transfer: null, response: null, speed: null, noise: null,
-    errors: null, supply: null, battery: [], batteryClip: null, spread: null, drive: null, waveform: null, waveformSpec: null, calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
+    errors: null, supply: null, battery: [], batteryClip: null, spread: null, drive: null, waveform: null, waveformSpec: null, readings: fromReadings.readings, trim: null, warnings, absent,
   };
   // The gain the target asks of the stage: a ratio that is not a finite, non-zero number cannot be built.
   const needed = design.target.scale / front.sensitivity;
   if (!Number.isFinite(needed) || needed === 0 || !Number.isFinite(front.sensitivity)) {
-    warnings.push({ code: 'gain-not-computable', level: 'fail', message: 'The gain cannot be computed, because the wanted scale divided by the sensor\'s sensitivity is beyond any number: check both for a slipped prefix or exponent.' });
+    warnings.push(finding('gain-not-computable', 'fail', {}));
     absent.all = 'the gain cannot be computed from the wanted scale and the sensor\'s sensitivity';
-    const r = { ...empty, choice: { ...choice, chosen: null, why: 'no stage: the gain cannot be computed', considered: [], guidance: [] } };
-    r.verdicts = verdictsOf(r);
-    return r;
+    return { ...empty, choice: { ...choice, chosen: null, considered: [], guidance: [] } };
   }
   if (!choice.chosen) {
-    warnings.push({ code: 'no-topology', level: 'fail', message: `No stage fits: ${choice.why}.` });
-    for (const g of choice.guidance) warnings.push({ code: 'guidance', level: 'info', message: g });
+    warnings.push(finding('no-topology', 'fail', { considered: choice.considered.map((c) => ({ topology: c.topology, reasons: c.reasons })) }));
+    for (const g of choice.guidance) warnings.push(finding('guidance', 'info', g));
     absent.all = 'no topology can reach the target on these rails';
-    empty.verdicts = verdictsOf(empty);
     return empty;
   }
   const stage = solveStage(design, front, choice.chosen);
   warnings.push(...stage.warnings);
   if (stage.warnings.some((w) => w.level === 'fail') || !Number.isFinite(stage.gain)) {
     absent.all = 'the resistor solver found no realisation';
-    const r = { ...empty, stage };
-    r.verdicts = verdictsOf(r);
-    return r;
+    return { ...empty, stage };
   }
   const circuit = buildCircuit(design, stage, front);
   const passband = !front.passesDc;
   const dc = dcLinear(circuit, passband);
   if (!dc) {
     absent.all = 'the circuit could not be solved (singular network)';
-    warnings.push({ code: 'singular', level: 'fail', message: 'The circuit has no unique solution; check for a part of zero or infinite value.' });
-    const r = { ...empty, stage, circuit };
-    r.verdicts = verdictsOf(r);
-    return r;
+    warnings.push(finding('singular', 'fail', {}));
+    return { ...empty, stage, circuit };
   }
   // Every figure is checked before it is reported: one that did not come out as a finite number is left out,
   // with the reason, instead of reaching a page as NaN or Infinity (the last guard behind the file's bounds).
@@ -144,13 +126,10 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
   if (waveformSpec && !wave) absent.waveform = clip && sp ? 'the time-domain solve did not finish (a singular network, or more than 400 000 steps)' : 'the waveform cannot be computed, because the clipping points or the bandwidth cannot';
   const report: Report = {
     design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, batteryClip: bClip, spread: spr, drive,
-    waveform: wave, waveformSpec: wave ? waveformSpec : null, calibration: [], readings: fromReadings.readings, trim: null, warnings, verdicts: [], absent,
+    waveform: wave, waveformSpec: wave ? waveformSpec : null, readings: fromReadings.readings, trim: null, warnings, absent,
   };
   if (design.probeReadings?.length) report.trim = trimFromReadings({ design, front, stage }, design.probeReadings, design.probeSettings ?? []);
-  // Findings first: the calibration steps repeat the instrument advice found there.
   warnings.push(...findings(report));
-  report.calibration = calibrationSteps(report);
-  report.verdicts = verdictsOf(report);
   return report;
 }
 
@@ -207,115 +186,97 @@ function pick(x: unknown, path: string): number {
   return typeof o === 'number' ? o : NaN;
 }
 
-const f3 = (x: number, unit = '') => formatEng(x, unit, 3);
-
-/** Findings in plain words from the figures. */
-function findings(r: Report): Warning[] {
-  const w: Warning[] = [];
+/** What the figures say, as findings (codes and numbers). */
+function findings(r: Report): Finding[] {
+  const w: Finding[] = [];
   const d = r.design;
   const m = d.sensor.measurand;
   const clip = r.clip, sp = r.speed;
   if (!clip) return w;
   const [a, b] = clip.rangePeak;
-  if (d.target.signal === 'ac-rms') w.push({ code: 'ac-peak', level: 'info', message: `The range is rms: headroom is checked at the sine peak, ±${f3(Math.max(Math.abs(a), Math.abs(b)), m)} (√2 × rms).` });
+  const limitOf = (cause: ClipCause | null) => clip.limits.find((l) => l.cause === cause)?.data ?? null;
+  if (d.target.signal === 'ac-rms') w.push(finding('ac-peak', 'info', { peak: Math.max(Math.abs(a), Math.abs(b)), measurand: m }));
   if (!clip.linear) {
-    w.push({ code: 'not-linear-at-zero', level: 'fail', message: `No ${m} value keeps the stage linear: ${clip.limits.find((l) => l.cause === clip.first)?.why ?? 'a limit is exceeded'}.` });
+    w.push(finding('not-linear-at-zero', 'fail', { measurand: m, limit: limitOf(clip.first) }));
   } else {
-    if (!clip.linearAtZero) w.push({ code: 'zero-outside-linear', level: clip.measurandLow <= a && clip.measurandHigh >= b ? 'info' : 'caution', message: `At zero ${m} the stage sits outside its linear region, which runs from ${f3(clip.measurandLow, m)} to ${f3(clip.measurandHigh, m)}${clip.measurandLow <= a && clip.measurandHigh >= b ? ' and covers the range' : ''}.` });
-    const fix = (cause: string | null) => cause === 'opamp-output' || cause === 'opamp-current'
-      ? ' To fit, move the zero towards the middle of the swing, lower the scale, use a split supply, or an op-amp whose output swings closer to the rails.'
-      : cause === 'opamp-input' ? ' An op-amp whose input range includes the rail, a lower sensor offset, or the inverting stage (its inputs sit still) would fit.'
-      : cause === 'core' ? ' Fewer turns or a longer gap raise the core\'s limit.'
-      : cause === 'sensor' ? ' The sensor itself runs out first: fewer turns, a longer gap, or a sensor with a wider range.' : '';
-    if (clip.measurandLow > a) w.push({ code: 'clips-in-range-low', level: 'fail', message: `The output saturates at ${f3(clip.measurandLow, m)}, inside the wanted range (${f3(a, m)}): ${why(clip, clip.firstLow)}.${fix(clip.firstLow)}` });
-    if (clip.measurandHigh < b) w.push({ code: 'clips-in-range-high', level: 'fail', message: `The output saturates at ${f3(clip.measurandHigh, m)}, inside the wanted range (${f3(b, m)}): ${why(clip, clip.firstHigh)}.${fix(clip.firstHigh)}` });
+    const covers = clip.measurandLow <= a && clip.measurandHigh >= b;
+    if (!clip.linearAtZero) w.push(finding('zero-outside-linear', covers ? 'info' : 'caution', { low: clip.measurandLow, high: clip.measurandHigh, coversRange: covers, measurand: m }));
+    if (clip.measurandLow > a) w.push(finding('clips-in-range-low', 'fail', { at: clip.measurandLow, wanted: a, measurand: m, limit: limitOf(clip.firstLow) }));
+    if (clip.measurandHigh < b) w.push(finding('clips-in-range-high', 'fail', { at: clip.measurandHigh, wanted: b, measurand: m, limit: limitOf(clip.firstHigh) }));
   }
   if (sp && d.target.bandwidth > 0 && sp.smallSignal < d.target.bandwidth) {
-    w.push({ code: 'bandwidth-short', level: 'fail', message: `The chain's bandwidth is ${f3(sp.smallSignal, 'Hz')}, below the ${f3(d.target.bandwidth, 'Hz')} wanted.` });
+    w.push(finding('bandwidth-short', 'fail', { bandwidth: sp.smallSignal, wanted: d.target.bandwidth }));
   }
   if (sp && d.target.bandwidth > 0 && sp.fullPower < d.target.bandwidth) {
-    w.push({ code: 'slew-limited', level: 'caution', message: `Full-scale signals are slew-limited above ${f3(sp.fullPower, 'Hz')} (SR/(2π·Vpeak)); the wanted range and ${f3(d.target.bandwidth, 'Hz')} cannot both be had.` });
+    w.push(finding('slew-limited', 'caution', { fullPower: sp.fullPower, wanted: d.target.bandwidth }));
   }
   // An AC-coupled sensor at mains frequency (50 Hz, the lower of the two in use; common practice): how far
   // below its passband scale it reads there, from the circuit itself.
   if (!r.front.passesDc && r.circuit && r.speed) {
-    const [hr, hi] = transferAt(r.circuit, 50);
+    const mains = 50;
+    const [hr, hi] = transferAt(r.circuit, mains);
     const short = 1 - Math.hypot(hr, hi) / Math.abs(r.speed.passband);
     const [pr, pi] = transferAt(r.circuit, Math.sqrt(r.speed.lowCorner * r.speed.smallSignal));
-    let lead = ((Math.atan2(hi, hr) - Math.atan2(pi, pr)) * 180) / Math.PI;
-    while (lead > 180) lead -= 360;
-    while (lead < -180) lead += 360;
-    w.push({
-      code: 'ac-low-frequency', level: short > 0.01 ? 'caution' : 'info',
-      message: `At 50 Hz the reading is ${(short * 100).toFixed(2)} % below the passband scale and leads by ${lead.toFixed(1)}° (low corner ${f3(r.speed.lowCorner, 'Hz')}); below about ${f3(r.speed.lowCorner * 7, 'Hz')} it reads more than 1 % low.`,
-    });
+    w.push(finding('ac-low-frequency', short > 0.01 ? 'caution' : 'info', { shortfall: short, leadDegrees: wrapDegrees(((Math.atan2(hi, hr) - Math.atan2(pi, pr)) * 180) / Math.PI), lowCorner: r.speed.lowCorner, frequency: mains }));
   }
   // What the amplifier's input network draws from the sensor's output (through its source resistance).
-  const sc = r.circuit;
-  if (sc && (d.sensor.type === 'voltage-output' || d.sensor.type === 'hall-gap-core')) {
+  if (r.circuit && (d.sensor.type === 'voltage-output' || d.sensor.type === 'hall-gap-core')) {
     const draw = sensorDraw(r);
-    if (draw !== null && r.front.outputDrive > 0 && draw > r.front.outputDrive) {
-      w.push({ code: 'sensor-drive', level: 'fail', message: `The amplifier's input network draws up to ${f3(draw, 'A')} from the sensor, more than the ${f3(r.front.outputDrive, 'A')} it can drive.` });
-    } else if (draw !== null && draw > 1e-6) {
-      w.push({ code: 'sensor-load', level: 'info', message: `The input network draws up to ${f3(draw, 'A')} from the sensor's output${r.front.outputDrive > 0 ? ` (it can drive ${f3(r.front.outputDrive, 'A')})` : '; check that the sensor can drive it'}.` });
-    }
+    if (draw !== null && r.front.outputDrive > 0 && draw > r.front.outputDrive) w.push(finding('sensor-drive', 'fail', { draw, drive: r.front.outputDrive }));
+    else if (draw !== null && draw > 1e-6) w.push(finding('sensor-load', 'info', { draw, drive: r.front.outputDrive }));
   }
   if (r.noise && ((d.opamp.voltageNoise > 0 && !d.opamp.voltageNoiseCorner) || (d.opamp.currentNoise > 0 && !d.opamp.currentNoiseCorner))) {
-    w.push({ code: 'flicker-not-given', level: 'info', message: `The op-amp's 1/f noise corner${!d.opamp.voltageNoiseCorner && !d.opamp.currentNoiseCorner ? 's are' : ' is'} not given (0 Hz): its noise is taken as white down to ${f3(r.noise.lowFrequency.band[0], 'Hz')}, right for a chopper, optimistic for most other kinds. Give the op-amp's voltage and current noise 1/f corners from its noise curve.` });
+    w.push(finding('flicker-not-given', 'info', { voltage: !d.opamp.voltageNoiseCorner, current: !d.opamp.currentNoiseCorner, from: r.noise.lowFrequency.band[0] }));
   }
   // The difference stage's common-mode rejection: what the built pair passes of the sensor's common-mode
   // voltage, and the worst case its resistors' tolerance allows, A_cm ≈ G/(1+G)·4t (Franco, Design with
   // Operational Amplifiers, §2.3, for four resistors each ±t; from memory), both referred to the measurand.
   if (r.stage && r.stage.ideal.topology === 'difference' && r.front.commonMode !== null) {
     const g = r.stage.gain;
-    const acm = commonModeGain(r.stage.network, r.front, openLoopOf(d));
+    const acm = Math.abs(commonModeGain(r.stage.network, r.front, openLoopOf(d)));
     const worst = (g / (1 + g)) * 4 * d.target.tolerance;
     const cm = Math.abs(r.front.commonMode);
     const scale = Math.abs(r.dc?.out[1] ?? d.target.scale) || 1;
-    w.push({ code: 'common-mode', level: (Math.abs(acm) + worst) * cm / scale > 0.01 * Math.max(Math.abs(clip.rangePeak[0]), Math.abs(clip.rangePeak[1])) ? 'caution' : 'info', message: `The sensor's ${f3(r.front.commonMode, 'V')} common mode: the built pair passes ${f3(Math.abs(acm) * cm, 'V')} of it (${f3(Math.abs(acm) * cm / scale, m)}), and ${(d.target.tolerance * 100).toFixed(1)} % resistors can pass up to ${f3(worst * cm, 'V')} (${f3(worst * cm / scale, m)}, a common-mode gain of ${worst.toPrecision(2)}): the zero trim removes it at this common mode; a common mode that moves moves the zero by as much.` });
+    const level = (acm + worst) * cm / scale > 0.01 * Math.max(Math.abs(a), Math.abs(b)) ? 'caution' : 'info';
+    w.push(finding('common-mode', level, { commonMode: r.front.commonMode, passed: acm * cm, passedReferred: acm * cm / scale, worst: worst * cm, worstReferred: worst * cm / scale, worstGain: worst, tolerance: d.target.tolerance, measurand: m }));
   }
-  const advice = r.drive ? probeAdvice(r.drive, m, d.target.signal === 'ac-rms') : null;
-  if (advice) w.push({ code: 'probe-ratio', level: 'info', message: advice });
+  if (r.drive?.probeRatio) {
+    const dr = r.drive;
+    w.push(finding('probe-ratio', 'info', { ratio: dr.probeRatio!, offset: dr.probeOffset, offsetShown: dr.probeOffsetShown, invert: dr.probeInvert, ac: d.target.signal === 'ac-rms', measurand: m }));
+  }
   if (r.drive) {
-    if (!r.drive.drives50) w.push({ code: 'no-50-ohm', level: 'info', message: 'Do not switch the instrument to its 50 Ω input: the op-amp cannot drive it over the range.' });
-    if (r.drive.isolation > 0) w.push({ code: 'capacitive-load', level: 'caution', message: `The instrument and cable capacitance sits on the op-amp output unisolated: fit a series resistor of about ${f3(r.drive.isolation, 'Ω')} (the output series resistor).` });
+    if (!r.drive.drives50) w.push(finding('no-50-ohm', 'info', {}));
+    if (r.drive.isolation > 0) w.push(finding('capacitive-load', 'caution', { isolation: r.drive.isolation }));
   }
   if (r.stage && !r.stage.network.reference.trim && d.target.trim.zero && r.stage.network.reference.kind !== 'none') {
-    w.push({ code: 'no-zero-trim', level: 'info', message: 'No zero trimmer could be fitted; the zero depends on part tolerances.' });
+    w.push(finding('no-zero-trim', 'info', {}));
   }
   if (r.battery.length) {
     const bc = r.batteryClip;
     const eol = r.battery[r.battery.length - 1]!;
     if (bc && bc.voltage !== null) {
-      const hours = bc.hoursToClip !== null && bc.hoursToEnd !== null ? ` A fresh battery gets there after about ${bc.hoursToClip.toFixed(1)} h, of ${bc.hoursToEnd.toFixed(1)} h to end of life (voltage taken as falling linearly with the charge drawn).` : '';
-      w.push({ code: 'battery-clips', level: 'caution', message: `Once the battery is down to ${f3(bc.voltage, 'V')} the output clips inside the range; end of life is ${f3(eol.voltage, 'V')}, where it is linear only from ${f3(eol.measurandLow, m)} to ${f3(eol.measurandHigh, m)}.${hours}` });
+      w.push(finding('battery-clips', 'caution', { voltage: bc.voltage, endOfLife: eol.voltage, low: eol.measurandLow, high: eol.measurandHigh, hoursToClip: bc.hoursToClip, hoursToEnd: bc.hoursToEnd, measurand: m }));
     }
     const reg = d.supply.regulated;
     const s0 = r.battery[0]!.scale;
     const worst = r.battery.reduce((x, s) => (Math.abs(s.scale / s0 - 1) > Math.abs(x.scale / s0 - 1) ? s : x), r.battery[0]!);
     if (reg && Math.abs(worst.scale / s0 - 1) > d.analysis.scaleLimit) {
-      w.push({ code: 'battery-scale-shift', level: 'caution', message: `Below ${f3(d.supply.negative + reg.voltage + reg.dropout, 'V')} the regulator drops out (${f3(reg.dropout, 'V')} dropout) and the ratiometric sensor on it scales with its falling output: at ${f3(worst.voltage, 'V')} the scale is ${f3(worst.scale, `V/${m}`)}, ${((worst.scale / s0 - 1) * 100).toFixed(1)} % off.` });
+      w.push(finding('battery-scale-shift', 'caution', { below: d.supply.negative + reg.voltage + reg.dropout, dropout: reg.dropout, voltage: worst.voltage, scale: worst.scale, change: worst.scale / s0 - 1, measurand: m }));
     }
     const shift = Math.max(...r.battery.map((s) => Math.abs(s.zeroShift)));
     if (shift > d.analysis.zeroLimit) {
-      // Say the cause that applies: advice to regulate what is already regulated helps nobody.
-      const reg = d.supply.regulated;
       const dropout = r.battery.find((s) => !s.regulated);
-      const cause = d.supply.referenceRail !== 'regulated' || !reg
-        ? 'because the reference is taken from it; feed the reference from a regulated rail'
-        : r.front.ratiometricSupply && d.supply.sensorRail !== 'regulated'
-          ? 'because the ratiometric sensor is fed from it and its zero follows its supply; feed the sensor from the regulated rail too'
-          : dropout
-            ? `because the ${f3(reg.voltage, 'V')} regulator loses regulation below about ${f3(dropout.voltage, 'V')}; a lower regulated voltage keeps it in regulation to the end`
-            : 'through what is still fed from the battery';
-      w.push({ code: 'battery-zero-shift', level: 'caution', message: `The zero moves by up to ${f3(shift, 'V')} as the battery sags, ${cause}.` });
+      const cause = d.supply.referenceRail !== 'regulated' || !reg ? 'reference-on-battery'
+        : r.front.ratiometricSupply && d.supply.sensorRail !== 'regulated' ? 'ratiometric-sensor'
+        : dropout ? 'regulator-dropout' : 'battery-fed';
+      w.push(finding('battery-zero-shift', 'caution', { shift, cause, regulated: reg?.voltage ?? null, dropsOutBelow: dropout?.voltage ?? null }));
     }
   }
   return w;
 }
 
 /** Lowest and highest voltage the sensor is fed with (from 0 V): the regulated rail within its tolerance, or the positive rail over the battery's life. */
-export function sensorSupplyRange(d: Design): [number, number] {
+function sensorSupplyRange(d: Design): [number, number] {
   const reg = d.supply.regulated;
   if (d.supply.sensorRail === 'regulated' && reg) return [reg.voltage * (1 - reg.tolerance), reg.voltage * (1 + reg.tolerance)];
   const bat = d.supply.battery;
@@ -323,197 +284,34 @@ export function sensorSupplyRange(d: Design): [number, number] {
 }
 
 /** The sensor's supply against the range it is specified for (sensor.supplyMin / supplyMax, when stated). */
-function sensorSupplyFindings(d: Design): Warning[] {
+function sensorSupplyFindings(d: Design): Finding[] {
   if (d.sensor.type !== 'voltage-output' && d.sensor.type !== 'hall-gap-core') return [];
   const [lo, hi] = sensorSupplyRange(d);
-  const from = d.supply.sensorRail === 'regulated' && d.supply.regulated ? 'the regulated rail' : d.supply.battery ? 'the battery' : 'the positive rail';
-  const w: Warning[] = [];
+  const from = d.supply.sensorRail === 'regulated' && d.supply.regulated ? 'regulated' : d.supply.battery ? 'battery' : 'positive';
+  const w: Finding[] = [];
   const { supplyMin, supplyMax } = d.sensor;
-  if (typeof supplyMax === 'number' && hi > supplyMax) {
-    w.push({ code: 'sensor-over-voltage', level: 'fail', message: `The sensor is fed up to ${f3(hi, 'V')} from ${from}, above the ${f3(supplyMax, 'V')} it is specified for: it may be damaged. Feed it from a regulated rail (Supply: regulated rail, sensor fed from it) or use a sensor specified for this supply.` });
-  }
-  if (typeof supplyMin === 'number' && lo < supplyMin) {
-    w.push({ code: 'sensor-under-voltage', level: 'caution', message: `The sensor is fed down to ${f3(lo, 'V')} from ${from}, below the ${f3(supplyMin, 'V')} it is specified for: its output is not specified there.` });
-  }
+  if (typeof supplyMax === 'number' && hi > supplyMax) w.push(finding('sensor-over-voltage', 'fail', { high: hi, rated: supplyMax, from }));
+  if (typeof supplyMin === 'number' && lo < supplyMin) w.push(finding('sensor-under-voltage', 'caution', { low: lo, rated: supplyMin, from }));
   return w;
 }
 
-/**
- * How to make the instrument read the measurand: the probe ratio, the offset to null (the zero is displayed
- * as z × ratio at no measurand) and the sign. Null when no standard ratio fits.
- */
-function probeAdvice(dr: InstrumentDrive, m: string, ac: boolean): string | null {
-  if (!dr.probeRatio) return null;
-  const k = dr.probeRatio;
-  const invert = dr.probeInvert ? ` The scale is negative: switch on the channel's invert so that a positive ${m} reads positive.` : '';
-  // A zero below a thousandth of a displayed unit needs no nulling.
-  if (Math.abs(dr.probeOffsetShown) < 1e-3) return `Set the instrument's probe ratio to ${k}×: with the zero at 0 V it then reads ${m} directly.${invert}`;
-  const coupling = ac ? ' For an AC reading, AC coupling removes it as well.' : '';
-  return `With the probe ratio at ${k}× one displayed unit is one ${m}, but the zero of ${f3(dr.probeOffset, 'V')} shows as ${f3(dr.probeOffsetShown, m)} when nothing is measured. Null it before reading: set the channel's offset to ${f3(-dr.probeOffsetShown, m)} on screen (${f3(-dr.probeOffset, 'V')} at its input), or subtract a reference channel that sees the probe's zero (its output at zero ${m}, or a ${f3(dr.probeOffset, 'V')} source).${coupling}${invert}`;
-}
-
 /** Largest current the sensor output delivers over the range, A (null when the circuit has no source resistor). */
-export function sensorDraw(r: Report): number | null {
+function sensorDraw(r: Report): number | null {
   const sc = r.circuit;
   if (!sc || !r.clip || !r.dc) return null;
   // The sensor output node and the amplifier input node: the current in between is what the sensor drives.
-  const { c0, c1 } = r.dc;
   const rsIdx = sc.circuit.elements.findIndex((e) => e.name === 'RS' && e.kind === 'R');
   const [a, b] = r.clip.rangePeak;
   let worst = 0;
   if (rsIdx >= 0) {
     const e = sc.circuit.elements[rsIdx]!;
-    const v = (col: Float64Array, n: number) => (n > 0 ? col[n - 1]! : 0);
-    for (const x of [a, 0, b]) worst = Math.max(worst, Math.abs((v(c0, e.a) - v(c0, e.b) + (v(c1, e.a) - v(c1, e.b)) * x) / e.value));
+    const [a0, a1] = nodeLinear(r.dc, e.a), [b0, b1] = nodeLinear(r.dc, e.b);
+    for (const x of [a, 0, b]) worst = Math.max(worst, Math.abs((a0 - b0 + (a1 - b1) * x) / e.value));
     return worst;
   }
   // No source resistance: the sensor drives the input network directly; the current is the source's own.
   const k = sc.circuit.branch[sc.signalIndex]!;
   if (k < 0) return null;
-  for (const x of [a, 0, b]) worst = Math.max(worst, Math.abs(c0[k]! + c1[k]! * x));
+  for (const x of [a, 0, b]) worst = Math.max(worst, Math.abs(r.dc.c0[k]! + r.dc.c1[k]! * x));
   return worst;
 }
-
-function why(clip: ClipResult, cause: string | null): string {
-  return clip.limits.find((l) => l.cause === cause)?.why ?? 'a limit is reached';
-}
-
-/** Each limit's plain name, for the verdict lines. */
-const LIMIT_NAMES: Record<ClipCause, string> = {
-  'opamp-output': 'the op-amp output reaches its swing',
-  'opamp-current': 'the op-amp output current limit',
-  'opamp-input': 'the op-amp inputs leave their range',
-  sensor: 'the sensor reaches its limit',
-  core: 'the core saturates',
-  burden: 'the burden or shunt reaches its power rating',
-};
-
-/** The short pass / caution / fail list a person reads first. */
-export function verdictsOf(r: Report): Verdict[] {
-  const v: Verdict[] = [];
-  const d = r.design;
-  const m = d.sensor.measurand;
-  if (!r.clip || !r.stage || !r.dc) {
-    v.push({ level: 'fail', title: 'No design', detail: r.warnings.filter((w) => w.level === 'fail').map((w) => w.message).join(' ') || (r.absent.all ?? r.absent.clip ?? 'not computed') });
-    return v;
-  }
-  // A figure that could not be computed is said so, with the reason, in place of its verdict.
-  const missing = (key: string, title: string) => v.push({ level: 'caution', title, detail: `${r.absent[key] ?? 'It cannot be computed.'}` });
-  const c = r.clip;
-  const [a, b] = c.rangePeak;
-  const inRange = c.linear && c.measurandLow <= a && c.measurandHigh >= b;
-  v.push({
-    level: inRange ? (Math.min(c.headroom.lowPercent, c.headroom.highPercent) < 5 ? 'caution' : 'pass') : 'fail',
-    title: inRange ? 'Covers the range without clipping' : 'Clips inside the range',
-    detail: `Linear from ${f3(c.measurandLow, m)} to ${f3(c.measurandHigh, m)} (low end: ${c.firstLow ? LIMIT_NAMES[c.firstLow] : '—'}; high end: ${c.firstHigh ? LIMIT_NAMES[c.firstHigh] : '—'}); headroom ${f3(c.headroom.low, 'V')} low, ${f3(c.headroom.high, 'V')} high.`,
-  });
-  const inputLimit = c.limits.find((l) => l.cause === 'opamp-input')!;
-  const inputOk = inputLimit.low <= a && inputLimit.high >= b;
-  v.push({ level: inputOk ? 'pass' : 'fail', title: inputOk ? 'Op-amp inputs stay in their range' : 'Op-amp input range is violated', detail: inputLimit.why + (inputOk ? '.' : `: leaves it at ${f3(Math.max(inputLimit.low, a), m)} / ${f3(Math.min(inputLimit.high, b), m)}.`) });
-  const se = r.stage.scaleError;
-  v.push({ level: Math.abs(se) < d.target.tolerance ? 'pass' : 'caution', title: `Scale ${f3(r.dc!.out[1], `V/${m}`)} before trim`, detail: `${((Math.abs(se) < 5e-6 ? 0 : se) * 100).toFixed(3)} % from the target with the trimmers at mid; zero ${f3(r.dc!.out[0], 'V')}.` });
-  if (r.speed) {
-    const bwOk = !(d.target.bandwidth > 0) || r.speed.smallSignal >= d.target.bandwidth;
-    const bwShort = bwOk ? '' : `${r.warnings.find((w) => w.code === 'bandwidth-short')?.message ?? ''} `;
-    v.push({ level: bwOk ? 'pass' : 'fail', title: `Bandwidth ${f3(r.speed.smallSignal, 'Hz')}`, detail: `${bwShort}Rise time ${f3(r.speed.riseTime, 's')}; full-power bandwidth ${f3(r.speed.fullPower, 'Hz')}.` });
-  } else missing('speed', 'Bandwidth cannot be computed');
-  // Our own thresholds, against the range end: noise peak-to-peak within 1 % passes, within 5 % is a
-  // caution; DC error after calibration within 1 % passes, within 5 % is a caution (a home-built probe
-  // calibrated with a bench meter lands in between; common practice).
-  const end = Math.max(Math.abs(a), Math.abs(b)) || 1;
-  if (r.noise && r.speed) {
-    const pp = r.noise.peakToPeak / (Math.abs(r.speed.passband) || 1);
-    const lf = r.noise.lowFrequency;
-    const ppWorst = Math.max(pp, lf.referredPeakToPeak);
-    const bandWhy = r.noise.bandIsDefault
-      ? ` (the default band: from 1 Hz, below which noise counts as drift, to 100 × the −3 dB bandwidth, which holds ${(DEFAULT_BAND_SHARE * 100).toFixed(1)} % of a single pole's noise bandwidth)`
-      : ' (the design\'s own band)';
-    v.push({
-      level: ppWorst <= 0.01 * end ? 'pass' : ppWorst <= 0.05 * end ? 'caution' : 'fail', title: `Noise ${f3(r.noise.referredRms, `${m} rms`)}`,
-      detail: `${f3(r.noise.rms, 'V rms')} at the output over ${f3(r.noise.band[0], 'Hz')}…${f3(r.noise.band[1], 'Hz')}${bandWhy}, about ${f3(r.noise.peakToPeak, 'V')} (${f3(pp, m)}) peak-to-peak, ${((pp / end) * 100).toFixed(2)} % of the range end. From ${f3(lf.band[0], 'Hz')} to ${f3(lf.band[1], 'Hz')}, how far a ${r.front.passesDc ? 'DC' : 'slow'} reading wanders: ${f3(lf.peakToPeak, 'V')} (${f3(lf.referredPeakToPeak, m)}) peak-to-peak.`,
-    });
-  } else missing('noise', 'Noise cannot be computed');
-  if (!r.errors) missing('errors', 'Error budget cannot be computed');
-  if (r.errors) {
-    const e = r.errors.afterTrim / end;
-    v.push({ level: e <= 0.01 ? 'pass' : e <= 0.05 ? 'caution' : 'fail', title: `Error ±${f3(r.errors.afterTrim, m)} after calibration`, detail: `${(e * 100).toFixed(2)} % of the range end, worst case (RSS ±${f3(r.errors.afterTrimRss, m)}), mostly ${r.errors.terms.filter((t) => t.removedBy === 'none').sort((x, y) => y.value - x.value)[0]?.name ?? 'nothing'}; before trimming ±${f3(r.errors.worstCase, m)} (RSS ±${f3(r.errors.rss, m)}) at ${f3(r.errors.at, m)}.` });
-  }
-  if (!r.supply) missing('supply', 'Supply current cannot be computed');
-  if (r.supply) {
-    const life = r.supply.batteryLife;
-    const bc = r.batteryClip;
-    const clipNote = bc && bc.voltage !== null && bc.hoursToClip !== null ? ` The output first clips inside the range after about ${bc.hoursToClip.toFixed(1)} h (at ${f3(bc.voltage, 'V')}; voltage taken as falling linearly with the charge drawn).` : '';
-    v.push({ level: life !== null && life < 4 ? 'caution' : 'pass', title: life !== null ? `Battery life about ${life.toFixed(1)} h to end of life` : `Supply current ${f3(r.supply.current, 'A')}`, detail: `Draws ${f3(r.supply.current, 'A')} in total.${clipNote}` });
-  }
-  const titles: Record<string, string> = {
-    'battery-clips': 'Clips as the battery runs down', 'battery-scale-shift': 'Scale moves as the regulator drops out', 'battery-zero-shift': 'Zero moves with the battery', 'capacitive-load': 'Capacitive load on the op-amp output',
-    'slew-limited': 'Slew-limited at full scale', 'gap-critical': 'Gap is critical', 'burden-power': 'Burden overloaded', 'shunt-power': 'Shunt overloaded',
-    'ct-no-dc': 'A current transformer passes no DC',
-    'gain-trim-short': 'Span trimmer cannot cover the spread', 'zero-trim-short': 'Zero trimmer cannot cover the spread',
-    'sensor-drive': 'Sensor cannot drive the input', 'ac-low-frequency': 'Reads low at 50 Hz',
-    'readings-too-few': 'Too few sensor readings to fit', 'readings-implausible': 'Sensor readings do not fit this core',
-    'sensor-over-voltage': 'Sensor fed above its rated supply', 'sensor-under-voltage': 'Sensor fed below its rated supply',
-  };
-  for (const w of r.warnings.filter((x) => (x.level === 'fail' || x.level === 'caution') && !x.code.startsWith('clips-in-range') && x.code !== 'bandwidth-short')) {
-    v.push({ level: w.level === 'fail' ? 'fail' : 'caution', title: titles[w.code] ?? w.code, detail: w.message });
-  }
-  // Worst first.
-  const rank = { fail: 0, caution: 1, pass: 2 } as const;
-  v.sort((a, b) => rank[a.level] - rank[b.level]);
-  return v;
-}
-
-/** Cautions printed on every parts list and shown in the app. */
-export const SAFETY_CAUTIONS: readonly string[] = [
-  'Clamp only onto insulated conductors. Never fit a probe to a bare or damaged conductor.',
-  'A home-built probe has no measurement-category (CAT) rating: do not rely on it for protection from mains voltages.',
-  'De-energise the circuit before fitting or removing the probe, and re-check before switching on.',
-  'Follow local electrical codes and defer to a licensed electrician for work on fixed installations.',
-];
-
-/** The report as the CLI's JSON object ("gainwright-report", version 1). Non-finite numbers become null. */
-export function reportJson(r: Report): Record<string, unknown> {
-  const num = (x: number | null | undefined) => (x === null || x === undefined || !Number.isFinite(x) ? null : x);
-  const s = r.stage;
-  const part = (p: Part) => ({ ref: p.ref, role: p.role, ohms: p.kind === 'capacitor' ? null : p.ohms, ...(p.farads ? { farads: p.farads } : {}), series: p.series, tolerance: p.tolerance, arrangement: p.arrangement, code: p.kind === 'capacitor' ? '' : rkmCode(p.ohms, p.series === 'trimmer' || p.series === 'capacitor' ? 2 : significantFigures(p.series)), ...(p.setting !== undefined ? { setting: p.setting } : {}) });
-  return {
-    format: 'gainwright-report',
-    version: 1,
-    title: r.design.title,
-    topology: (s?.ideal.topology ?? null) as Topology | null,
-    topologyWhy: r.choice.why,
-    parts: s ? s.parts.map(part) : [],
-    gain: num(s?.gain),
-    noiseGain: num(s?.noiseGain),
-    scale: num(r.dc?.out[1]),
-    scaleError: num(s?.scaleError),
-    zero: num(r.dc?.out[0]),
-    reference: num(s?.reference),
-    clip: r.clip ? { outputLow: num(r.clip.outputLow), outputHigh: num(r.clip.outputHigh), measurandLow: num(r.clip.measurandLow), measurandHigh: num(r.clip.measurandHigh), first: r.clip.first, firstLow: r.clip.firstLow, firstHigh: r.clip.firstHigh } : null,
-    headroom: r.clip ? { low: num(r.clip.headroom.low), high: num(r.clip.headroom.high) } : null,
-    bandwidth: r.speed ? { smallSignal: num(r.speed.smallSignal), fullPower: num(r.speed.fullPower), lowCorner: num(r.speed.lowCorner), riseTime: num(r.speed.riseTime), phaseAtCorner: num(r.speed.phaseAtCorner) } : null,
-    noise: r.noise ? {
-      densityAt1kHz: num(r.noise.densityAt1kHz), rms: num(r.noise.rms), band: r.noise.band, bandIsDefault: r.noise.bandIsDefault, referredRms: num(r.noise.referredRms), peakToPeak: num(r.noise.peakToPeak),
-      lowFrequency: { band: r.noise.lowFrequency.band, rms: num(r.noise.lowFrequency.rms), peakToPeak: num(r.noise.lowFrequency.peakToPeak), referredPeakToPeak: num(r.noise.lowFrequency.referredPeakToPeak) },
-    } : null,
-    errors: r.errors ? { worstCase: num(r.errors.worstCase), rss: num(r.errors.rss), afterTrim: num(r.errors.afterTrim), afterTrimLow: num(r.errors.afterTrimLow), afterTrimHigh: num(r.errors.afterTrimHigh), at: num(r.errors.at) } : null,
-    supply: r.supply ? { current: num(r.supply.current), batteryLife: num(r.supply.batteryLife) } : null,
-    spread: r.spread ? { scaleStd: num(r.spread.scaleStd), zeroStd: num(r.spread.zeroStd), yield: num(r.spread.yield), trials: r.spread.trials } : null,
-    drive: r.drive ? { scaleAt1M: num(r.drive.scaleAt1M), scaleAt50: num(r.drive.scaleAt50), drives50: r.drive.drives50, isolation: num(r.drive.isolation), probeRatio: r.drive.probeRatio, probeOffset: num(r.drive.probeOffset), probeOffsetShown: num(r.drive.probeOffsetShown), probeInvert: r.drive.probeInvert } : null,
-    waveform: r.waveform ? {
-      t: Array.from(r.waveform.t), measurand: Array.from(r.waveform.measurand), output: Array.from(r.waveform.output), ideal: Array.from(r.waveform.ideal),
-      riseTime: num(r.waveform.riseTime), overshoot: num(r.waveform.overshoot), settlingTime: num(r.waveform.settlingTime), droop: num(r.waveform.droop),
-      slewLimited: r.waveform.slewLimited, clipped: r.waveform.clipped,
-    } : null,
-    sensor: { sensitivity: num(r.front.sensitivity), figures: r.front.figures.map((f) => ({ key: f.key, label: f.label, value: num(f.value), unit: f.unit })) },
-    battery: r.battery.map((b) => ({ voltage: b.voltage, measurandLow: num(b.measurandLow), measurandHigh: num(b.measurandHigh), headroomLow: num(b.headroomLow), headroomHigh: num(b.headroomHigh), zeroShift: num(b.zeroShift), scale: num(b.scale), regulated: b.regulated })),
-    batteryClip: r.batteryClip ? { voltage: num(r.batteryClip.voltage), hoursToClip: num(r.batteryClip.hoursToClip), hoursToEnd: num(r.batteryClip.hoursToEnd) } : null,
-    alternatives: s ? s.alternatives.map((a, i) => ({ index: i, feedback: a.a.parts, leg: a.b.parts, error: num(a.error), parts: a.parts })) : [],
-    calibration: r.calibration.map((c) => c.text),
-    warnings: r.warnings.map((w) => ({ code: w.code, level: w.level, message: w.message })),
-    cautions: [...SAFETY_CAUTIONS, ...r.front.cautions],
-    absent: r.absent,
-  };
-}
-
-export { peakRange };

@@ -16,10 +16,10 @@
  * Machinery, 7th ed., §1.1).
  */
 import type { Design, HallGapCoreSensor, VoltageOutputSensor } from '../model/design.js';
-import type { Warning } from '../model/findings.js';
+import { finding, type Finding } from '../model/findings.js';
 import { MU0 } from '../model/constants.js';
 import { gapAreaRatio, gapFieldPerAmp, sensorRailVoltage, type SensorFront } from '../physics/sensors.js';
-import { fitReadings, type ReadingsFit } from './fit.js';
+import { MIN_READINGS, fitReadings, type ReadingsFit } from './fit.js';
 import { studentQuantile } from './distributions.js';
 
 /** Coverage probability of the tolerances taken from a fit (two-sided). */
@@ -50,9 +50,9 @@ export interface SensorFromReadings {
  * The design as analysed when its sensor is "from readings": sensitivity and zero (and their tolerances)
  * replaced by the fit's, with what the fit implies. Designs without readings in use come back unchanged.
  */
-export function sensorFromReadings(design: Design): { design: Design; readings: SensorFromReadings | null; warnings: Warning[] } {
+export function sensorFromReadings(design: Design): { design: Design; readings: SensorFromReadings | null; warnings: Finding[] } {
   const spec = design.sensor;
-  const warnings: Warning[] = [];
+  const warnings: Finding[] = [];
   const r = spec.readings;
   if (!r || r.points.length === 0 || (spec.type !== 'voltage-output' && spec.type !== 'hall-gap-core')) return { design, readings: null, warnings };
   const fit = fitReadings(r.points);
@@ -67,12 +67,7 @@ export function sensorFromReadings(design: Design): { design: Design; readings: 
   if (!line || fit.problem) {
     if (r.use) {
       const have = fit.problem?.have ?? 0;
-      warnings.push({
-        code: 'readings-too-few', level: 'fail',
-        message: fit.problem?.code === 'no-spread'
-          ? `The sensor readings are all at one ${m} value: take readings at three or more different values; the datasheet figures are used meanwhile.`
-          : `The sensor readings give ${have} usable point${have === 1 ? '' : 's'}; a fit needs at least 3 (${3 - have} more, at different ${m} values): the datasheet figures are used meanwhile.`,
-      });
+      warnings.push(finding('readings-too-few', 'fail', { allAtOneValue: fit.problem?.code === 'no-spread', have, need: MIN_READINGS, measurand: m }));
     }
     return { design, readings: out, warnings };
   }
@@ -112,10 +107,7 @@ export function sensorFromReadings(design: Design): { design: Design; readings: 
   } else {
     const f = out.fringing!;
     if (!(f >= FRINGING_LIMITS[0] && f <= FRINGING_LIMITS[1])) {
-      warnings.push({
-        code: 'readings-implausible', level: 'fail',
-        message: `The readings imply a fringing factor of ${f.toPrecision(3)} for this core, outside ${FRINGING_LIMITS[0]}…${FRINGING_LIMITS[1]}: check the turns, the Hall sensitivity and the sign of the readings; the datasheet figures are used meanwhile.`,
-      });
+      warnings.push(finding('readings-implausible', 'fail', { fringing: f, low: FRINGING_LIMITS[0], high: FRINGING_LIMITS[1] }));
       return { design, readings: out, warnings };
     }
     if (gEff === null) return { design, readings: out, warnings };
@@ -136,7 +128,7 @@ export function frontWithReadings(front: SensorFront, sr: SensorFromReadings | n
   if (sr.linearLow !== null || sr.linearHigh !== null) {
     limits.push({
       kind: 'sensor', low: sr.linearLow ?? -Infinity, high: sr.linearHigh ?? Infinity,
-      why: `the readings leave the straight line ${sr.linearLow !== null && sr.linearHigh !== null ? `below ${fmt(sr.linearLow)} and above ${fmt(sr.linearHigh)} ${measurand}` : sr.linearHigh !== null ? `above ${fmt(sr.linearHigh)} ${measurand}` : `below ${fmt(sr.linearLow!)} ${measurand}`}`,
+      data: { cause: 'sensor', what: 'readings', low: sr.linearLow, high: sr.linearHigh, measurand },
     });
   }
   const figures = front.figures.slice();
@@ -147,8 +139,4 @@ export function frontWithReadings(front: SensorFront, sr: SensorFromReadings | n
   if (sr.linearLow !== null) figures.push({ key: 'readingsLinearLow', label: 'Readings linear down to', value: sr.linearLow, unit: measurand });
   if (sr.linearHigh !== null) figures.push({ key: 'readingsLinearHigh', label: 'Readings linear up to', value: sr.linearHigh, unit: measurand });
   return { ...front, limits, figures };
-}
-
-function fmt(x: number): string {
-  return Number.isFinite(x) ? Number(x.toPrecision(3)).toString() : '—';
 }

@@ -49,6 +49,7 @@ class NodeMap {
 /** The parts of a solved stage that the circuit needs: its network and its parts list. */
 export interface StageParts { network: StageNetwork; parts: Part[] }
 
+/** The solved stage as an MNA circuit: sensor source, networks part by part, op-amp macromodel, output RC and load. Node numbers in `nodes`. */
 export function buildCircuit(design: Design, stage: StageParts, front: SensorFront, opts: CircuitOptions = {}): StageCircuit {
   const f = opts.front ?? front;
   const nm = new NodeMap();

@@ -280,6 +280,7 @@ export interface Workspace {
   yi: Float64Array;
 }
 
+/** Preallocated matrices and vectors for repeated solves of one circuit (no allocation per frequency). */
 export function workspace(c: Circuit): Workspace {
   return { A: cx(c.size, c.size * c.size), yr: new Float64Array(c.size), yi: new Float64Array(c.size) };
 }

@@ -16,7 +16,9 @@ import { join } from 'node:path';
 import '../model/units-mathjs.js';
 import { decodeDesignBytes, formatProblems, MAX_DESIGN_BYTES, parseDesignText } from '../model/design.js';
 import { quoteText } from '../model/validate.js';
-import { analyse, reportJson } from '../analysis/report.js';
+import { analyse } from '../analysis/report.js';
+import { reportJson } from '../present/json.js';
+import { sayFinding } from '../present/finding-words.js';
 import { textReport } from '../present/text-report.js';
 import { spiceNetlist } from '../present/spice.js';
 import { DEMOS } from '../model/demos.js';
@@ -101,6 +103,7 @@ function readDesign(path: string, limit = MAX_DESIGN_BYTES, what = 'a design fil
 /** A problem list as lines, each one line whatever the text in it. */
 const problemLines = (problems: Array<{ path: string; message: string }>) => formatProblems(problems).split('\n').map((l) => l.replace(/[\u0000-\u001f\u007f-\u009f]/g, ' '));
 
+/** Runs the CLI on `argv` (without node and the script), writing through `io`; resolves to the exit code (0 ok, 1 design fails, 2 bad input, 3 damaged files). */
 export async function main(argv: string[], io: Io = nodeIo): Promise<number> {
   if (io === nodeIo) quietOnClosedPipe();
   try {
@@ -180,7 +183,7 @@ function run(argv: string[], io: Io): number {
   const r = analyse(v.design, { spreadTrials });
   if (flags.has('--spice')) {
     const net = spiceNetlist(r);
-    if (!net) { io.err(`gainwright: no circuit to export: ${oneLine(r.warnings.filter((w) => w.level === 'fail').map((w) => w.message).join(' '))}\n`); return 1; }
+    if (!net) { io.err(`gainwright: no circuit to export: ${oneLine(r.warnings.filter((w) => w.level === 'fail').map(sayFinding).join(' '))}\n`); return 1; }
     io.out(net);
     return 0;
   }

@@ -56,10 +56,6 @@ export function usualTolerance(series: SeriesName): number {
   return USUAL_TOLERANCE[series];
 }
 
-export function isSeriesName(s: unknown): s is SeriesName {
-  return typeof s === 'string' && (SERIES_NAMES as readonly string[]).includes(s);
-}
-
 const rangeCache = new Map<string, Float64Array>();
 
 /**

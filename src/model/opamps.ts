@@ -49,6 +49,7 @@ export const OPAMP_ARCHETYPES: readonly OpAmpArchetype[] = [
   },
 ];
 
+/** The built-in archetype with this id, or undefined: `archetype('bipolar-general')?.spec.gbw` → 1e6. */
 export function archetype(id: string): OpAmpArchetype | undefined {
   return OPAMP_ARCHETYPES.find((a) => a.id === id);
 }

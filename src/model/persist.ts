@@ -5,7 +5,7 @@
 import { parseDesignText, serialiseDesign, validateDesign, type Design, type Problem, type ValidationResult } from './design.js';
 
 export const AUTOSAVE_KEY = 'gainwright.autosave';
-export const AUTOSAVE_VERSION = 1;
+const AUTOSAVE_VERSION = 1;
 /** Recent designs kept in the browser (each replaced design, so that every replacement can be undone). */
 export const HISTORY_KEY = 'gainwright.history';
 /** A damaged autosave's text, kept apart until the person dismisses it, so a later save cannot overwrite it. */

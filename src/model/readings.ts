@@ -65,7 +65,7 @@ function readNumber(field: string, separator: Separator): number | null {
 }
 
 /** Picks the separator: tab, else semicolon, else comma. */
-export function detectSeparator(text: string): Separator {
+function detectSeparator(text: string): Separator {
   if (text.includes('\t')) return '\t';
   if (text.includes(';')) return ';';
   return ',';

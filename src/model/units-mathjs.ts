@@ -28,5 +28,3 @@ setUnitEngine((expr, target) => {
     return null;
   }
 });
-
-export const unitsReady = true;

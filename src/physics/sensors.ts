@@ -5,7 +5,7 @@
  */
 import type { Design, SensorCommon, SensorSpec } from '../model/design.js';
 import { MU0 } from '../model/constants.js';
-import type { Warning } from '../model/findings.js';
+import { finding, type Finding, type LimitData, type SensorCaution } from '../model/findings.js';
 
 export type SensorLimitKind = 'sensor' | 'core' | 'burden';
 
@@ -14,7 +14,8 @@ export interface SensorLimit {
   kind: SensorLimitKind;
   low: number;
   high: number;
-  why: string;
+  /** The numbers behind the limit, for its wording. */
+  data: LimitData;
 }
 
 export interface SensorFigure {
@@ -48,8 +49,9 @@ export interface SensorFront extends SensorCommon {
   minusResistance: number;
   limits: SensorLimit[];
   figures: SensorFigure[];
-  warnings: Warning[];
-  cautions: string[];
+  warnings: Finding[];
+  /** Cautions that belong to this kind of sensor (worded in src/present/cautions.ts). */
+  cautions: SensorCaution[];
 }
 
 /**
@@ -125,8 +127,8 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
     minusResistance: 0,
     limits: [] as SensorLimit[],
     figures: [] as SensorFigure[],
-    warnings: [] as Warning[],
-    cautions: [] as string[],
+    warnings: [] as Finding[],
+    cautions: [] as SensorCaution[],
   };
   switch (spec.type) {
     case 'voltage-output': {
@@ -160,8 +162,8 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
         outputMax: spec.outputMax ?? sensorRail,
         ratiometricSupply: spec.ratiometricSupply ?? null,
         limits: [
-          { kind: 'core', low: -coreLimit, high: coreLimit, why: `the core saturates at ${saturation} T` },
-          { kind: 'sensor', low: -linLimit, high: linLimit, why: `the Hall sensor is linear only to ±${spec.linearField} T` },
+          { kind: 'core', low: -coreLimit, high: coreLimit, data: { cause: 'core', saturation } },
+          { kind: 'sensor', low: -linLimit, high: linLimit, data: { cause: 'sensor', what: 'hall-linear', field: spec.linearField } },
         ],
         figures: [
           { key: 'fieldPerAmp', label: 'Gap field per ampere (mean over the gap\'s effective area)', value: bPerAmp, unit: 'T/A' },
@@ -175,16 +177,16 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
         ],
         warnings: [
           spec.core.width || spec.core.depth
-            ? { code: 'fringing-model', level: 'info', message: `Fringing: the gap's effective area is the core's cross-section${spec.core.width && spec.core.depth ? '' : ' (taken as square)'} with the gap length added to each side, ${fmt(areaRatio)} × the core's area (Fitzgerald & Kingsley form). The same area sets the core flux (the core carries ${fmt(areaRatio)} × the gap's mean flux density, so it saturates at that much less current) and the field the sensor reads, taken as the gap's mean flux density; calibrate against a known current.` }
+            ? finding('fringing-model', 'info', { areaRatio, from: spec.core.width && spec.core.depth ? 'section' : 'square-section' })
             : areaRatio === 1
-              ? { code: 'fringing-neglected', level: 'info', message: 'Fringing is neglected (fringing factor 1): the gap field is B = μ0·N·I/(g + l/μr) and the core carries the same flux density. Real fringing raises the core flux for the same current; give the core\'s cross-section (the core cross-section at the gap: width and depth) to model it, and calibrate against a known current.' }
-              : { code: 'fringing-model', level: 'info', message: `Fringing: the gap's effective area is taken as ${fmt(areaRatio)} × the core's cross-section (the fringing factor given). The same area sets the core flux and the field the sensor reads, taken as the gap's mean flux density; calibrate against a known current.` },
-          { code: 'remanence', level: 'info', message: 'An overload can leave the core magnetised and shift the zero: re-zero after any overload.' },
-          { code: 'earth-field', level: 'info', message: `The Earth's field alone reads as about ${fmt(earth)} ${spec.measurand}: zero the probe where it will be used.` },
+              ? finding('fringing-neglected', 'info', {})
+              : finding('fringing-model', 'info', { areaRatio, from: 'factor' }),
+          finding('remanence', 'info', {}),
+          finding('earth-field', 'info', { reading: earth, measurand: spec.measurand }),
         ],
       };
       if (Math.abs(dGap) > 0.05) {
-        front.warnings.push({ code: 'gap-critical', level: 'caution', message: `Sensitivity changes by ${(dGap * 100).toFixed(1)} % for each 0.1 mm of gap: a hand-cut gap will need the span trimmer.` });
+        front.warnings.push(finding('gap-critical', 'caution', { changePerTenthMm: dGap }));
       }
       return front;
     }
@@ -208,20 +210,20 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
         lowCorner: corner,
         passesDc: false,
         ratiometricSupply: null,
-        limits: [{ kind: 'burden', low: -iBurden * Math.SQRT2, high: iBurden * Math.SQRT2, why: `the burden reaches its ${spec.burdenPower} W rating` }],
+        limits: [{ kind: 'burden', low: -iBurden * Math.SQRT2, high: iBurden * Math.SQRT2, data: { cause: 'burden', part: 'burden', power: spec.burdenPower } }],
         figures: [
           { key: 'sensitivity', label: 'Sensitivity', value: sensitivity, unit: `V/${spec.measurand}` },
           { key: 'magnetisingInductance', label: 'Magnetising inductance', value: lm, unit: 'H' },
           { key: 'lowCorner', label: 'Low-frequency corner', value: corner, unit: 'Hz' },
           { key: 'burdenPower', label: 'Burden power at the top of the range', value: pBurden, unit: 'W' },
         ],
-        cautions: ['Never leave a current transformer secondary open while the primary carries current: the open secondary can rise to a dangerous voltage. Keep the burden soldered in place.'],
+        cautions: ['ct-open-secondary'],
       };
       if (pBurden > spec.burdenPower) {
-        front.warnings.push({ code: 'burden-power', level: 'fail', message: `The burden dissipates ${fmt(pBurden)} W at the top of the range, above its ${spec.burdenPower} W rating.` });
+        front.warnings.push(finding('burden-power', 'fail', { power: pBurden, rating: spec.burdenPower }));
       }
       if (design.target.signal === 'dc') {
-        front.warnings.push({ code: 'ct-no-dc', level: 'fail', message: 'A current transformer passes no DC: set the signal to AC (rms), or use a Hall sensor or a shunt for DC.' });
+        front.warnings.push(finding('ct-no-dc', 'fail', {}));
       }
       return front;
     }
@@ -242,7 +244,7 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
         sourceResistance: spec.resistance + spec.sourceResistance,
         sourceNoisy: true,
         ratiometricSupply: null,
-        limits: [{ kind: 'burden', low: -iRated, high: iRated, why: `the shunt reaches its ${spec.powerRating} W rating` }],
+        limits: [{ kind: 'burden', low: -iRated, high: iRated, data: { cause: 'burden', part: 'shunt', power: spec.powerRating } }],
         figures: [
           { key: 'sensitivity', label: 'Sensitivity', value: spec.resistance, unit: `V/${spec.measurand}` },
           { key: 'burdenVoltage', label: `Burden voltage added to the measured circuit at the range end${peak > 1 ? ' (peak)' : ''}`, value: iMax * spec.resistance, unit: 'V' },
@@ -252,11 +254,11 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
         // High side: the + terminal is the supply end itself, the − terminal sits behind the shunt.
         ...(spec.commonMode !== null && spec.commonMode !== undefined ? { sourceResistance: spec.sourceResistance, minusResistance: spec.resistance } : {}),
         warnings: spec.commonMode === null || spec.commonMode === undefined
-          ? [{ code: 'low-side-only', level: 'info', message: 'The shunt sits in the low side, on the amplifier ground; for a shunt in the high side give its supply-end voltage (the High side: supply-end voltage field) and use the difference stage.' }]
+          ? [finding('low-side-only', 'info', {})]
           : [],
       };
       if (p > spec.powerRating) {
-        front.warnings.push({ code: 'shunt-power', level: 'fail', message: `The shunt dissipates ${fmt(p)} W at the range end, above its ${spec.powerRating} W rating.` });
+        front.warnings.push(finding('shunt-power', 'fail', { power: p, rating: spec.powerRating }));
       }
       return front;
     }
@@ -269,8 +271,4 @@ export function atSensorSupply(front: SensorFront, sensorSupply: number): Sensor
   const k = sensorSupply / front.ratiometricSupply;
   // The result is stated at its new supply, so scaling it again stays relative to that.
   return { ...front, sensitivity: front.sensitivity * k, quiescent: front.quiescent * k, outputMax: Math.min(front.outputMax, sensorSupply), ratiometricSupply: sensorSupply };
-}
-
-function fmt(x: number): string {
-  return Number.isFinite(x) ? Number(x.toPrecision(3)).toString() : '—';
 }

@@ -23,6 +23,7 @@
  */
 import { TOPOLOGIES, type Design, type Topology } from '../model/design.js';
 import type { SensorFront } from './sensors.js';
+import type { StageGuidance, StageReason } from '../model/findings.js';
 
 export interface IdealStage {
   topology: Topology;
@@ -40,7 +41,7 @@ export interface IdealStage {
   deliveredScale: number;
   feasible: boolean;
   /** Why this topology does or does not fit, in plain words. */
-  reasons: string[];
+  reasons: StageReason[];
   /** The offset b of Vout = m·Vs + b wanted at the pin, V. */
   offset: number;
   /** How far the output moves per volt at the reference (magnitude, ideal op-amp). */
@@ -132,7 +133,7 @@ function naturalSign(topology: Topology): number {
 export function idealStage(topology: Topology, design: Design, front: SensorFront): IdealStage {
   const k = loadFactor(design);
   const acFree = design.target.signal === 'ac-rms';
-  const reasons: string[] = [];
+  const reasons: StageReason[] = [];
   const sens = front.sensitivity;
   let pinScale = design.target.scale / k;
   let delivered = design.target.scale;
@@ -147,20 +148,18 @@ export function idealStage(topology: Topology, design: Design, front: SensorFron
     topology, needsReference: true, pinScale, pinZero, deliveredScale: delivered, reasons,
     offset: NaN, leverage: NaN, feedbackSensitivity: 1, feedbackRatio: NaN, split: NaN, swapped: false, ...o,
   });
-  const infeasible = (why: string, gain = NaN) => { reasons.push(why); return out({ gain, noiseGain: NaN, reference: NaN, needsReference: false, feasible: false }); };
+  const infeasible = (why: StageReason, gain = NaN) => { reasons.push(why); return out({ gain, noiseGain: NaN, reference: NaN, needsReference: false, feasible: false }); };
   if (natural !== 0 && Math.sign(pinScale) !== natural) {
     if (acFree) {
       pinScale = -pinScale;
       delivered = -delivered;
-      reasons.push('the output is inverted (180° phase), which does not matter for an rms reading');
+      reasons.push({ code: 'polarity-inverted-ac' });
     } else {
-      return infeasible(natural === Math.sign(sens)
-        ? 'a non-inverting stage keeps the sensor\'s polarity, and the target asks for the opposite sign'
-        : 'an inverting stage flips the sensor\'s polarity, and the target asks for the same sign');
+      return infeasible({ code: 'polarity-wrong', keeps: natural === Math.sign(sens) });
     }
   }
   if (front.commonMode !== null && topology !== 'difference') {
-    return infeasible('the sensor\'s output is differential (its − terminal is not at ground): only the difference stage reads it');
+    return infeasible({ code: 'differential-needs-difference' });
   }
   // Vout = m·Vs + b at the pin, for the sensor voltage Vs (its differential voltage for the difference stage).
   const m = pinScale / sens;
@@ -169,11 +168,11 @@ export function idealStage(topology: Topology, design: Design, front: SensorFron
   /** The sensor voltage (at the terminal named) over the range's ends. */
   const vsAt = (x: number) => vq + sens * x;
   /** Input voltages over the range for an input that follows f(Vs); a reason when they leave the op-amp's input range. */
-  const checkInputs = (f: (vs: number) => number, what: string): boolean => {
+  const checkInputs = (f: (vs: number) => number, what: Extract<StageReason, { code: 'inputs-outside' }>['what']): boolean => {
     const v1 = f(vsAt(xLo)), v2 = f(vsAt(xHi)), v0 = f(vq);
     const lo = Math.min(v1, v2, v0), hi = Math.max(v1, v2, v0);
     if (lo < inLo - 1e-9 || hi > inHi + 1e-9) {
-      reasons.push(`${what} ${lo === hi ? `at ${lo.toPrecision(3)} V` : `from ${lo.toPrecision(3)} to ${hi.toPrecision(3)} V`}, outside the op-amp's input range ${inLo.toPrecision(3)}…${inHi.toPrecision(3)} V`);
+      reasons.push({ code: 'inputs-outside', what, low: lo, high: hi, inputLow: inLo, inputHigh: inHi });
       return false;
     }
     return true;
@@ -183,39 +182,39 @@ export function idealStage(topology: Topology, design: Design, front: SensorFron
   switch (topology) {
     case 'non-inverting': {
       const g = m;
-      if (g < 1 - EPS_UNITY) return infeasible(`a non-inverting stage cannot attenuate: the target needs a gain of ${g.toPrecision(3)}`, g);
+      if (g < 1 - EPS_UNITY) return infeasible({ code: 'cannot-attenuate', gain: g }, g);
       const unity = Math.abs(g - 1) < EPS_UNITY;
       let reference = NaN;
       let feasible = true;
       if (unity) {
-        if (Math.abs(pinZero - vq) > 1e-3) { feasible = false; reasons.push(`a unity-gain buffer keeps the sensor's ${vq} V zero and cannot move it to ${pinZero.toPrecision(4)} V`); }
+        if (Math.abs(pinZero - vq) > 1e-3) { feasible = false; reasons.push({ code: 'buffer-zero-fixed', sensorZero: vq, wanted: pinZero }); }
       } else {
         reference = referenceFor('non-inverting', g, vq, pinZero);
-        if (outsideRails(reference)) { feasible = false; reasons.push(`the reference would have to be ${reference.toPrecision(3)} V, outside the ${railLo}…${railHi} V it can be taken from`); }
+        if (outsideRails(reference)) { feasible = false; reasons.push({ code: 'reference-outside', node: 'reference', voltage: reference, railLow: railLo, railHigh: railHi }); }
       }
-      feasible = checkInputs((vs) => vs, 'the inputs follow the sensor') && feasible;
-      if (feasible) reasons.push(unity ? 'a unity buffer: the target equals the sensor\'s own scale and zero' : 'keeps the sensor\'s polarity with a gain of at least 1 and loads the sensor only with the op-amp input');
+      feasible = checkInputs((vs) => vs, 'follow-sensor') && feasible;
+      if (feasible) reasons.push({ code: 'fits', how: unity ? 'unity-buffer' : 'non-inverting' });
       return out({ gain: g, noiseGain: g, reference, needsReference: !unity, feasible, offset: b, leverage: g - 1, feedbackSensitivity: (g - 1) / g, feedbackRatio: g - 1 });
     }
     case 'inverting': {
       const g = -m;
       const vp = referenceFor('inverting', g, vq, pinZero);
       let feasible = true;
-      if (outsideRails(vp)) { feasible = false; reasons.push(`the + input would have to sit at ${vp.toPrecision(3)} V, outside the ${railLo}…${railHi} V it can be taken from`); }
-      feasible = checkInputs(() => vp, 'the inputs sit') && feasible;
-      if (feasible) reasons.push(g < 1 ? 'an inverting stage can attenuate, which the target needs' : 'an inverting stage gives the opposite polarity the target asks for, with its inputs at a fixed voltage');
+      if (outsideRails(vp)) { feasible = false; reasons.push({ code: 'reference-outside', node: 'plus-input', voltage: vp, railLow: railLo, railHigh: railHi }); }
+      feasible = checkInputs(() => vp, 'sit') && feasible;
+      if (feasible) reasons.push({ code: 'fits', how: g < 1 ? 'inverting-attenuates' : 'inverting' });
       return out({ gain: g, noiseGain: 1 + g, reference: vp, feasible, offset: b, leverage: 1 + g, feedbackRatio: g });
     }
     case 'summing-non-inverting': {
       // Vout = K·(α·Vs + (1−α)·Vr): the reference comes from the rail on the side of b (a wire when it can),
       // K = m + b/Vr ≥ 1. When that would need K < 1 (an attenuating stage), Vr is lowered to give K = 1.25 − m/4.
       if (Math.abs(b) < 1e-9 * Math.max(1, Math.abs(pinZero))) {
-        if (m >= 1 - EPS_UNITY) return infeasible('with no offset to add, this is the plain non-inverting stage');
+        if (m >= 1 - EPS_UNITY) return infeasible({ code: 'no-offset', plain: 'non-inverting' });
         const kk = 1;
         return finishSni(kk, m / kk, 0);
       }
       const rail = b > 0 ? railHi : railLo;
-      if (!(Math.sign(rail) === Math.sign(b)) || rail === 0) return infeasible(`the offset ${b.toPrecision(3)} V needs a ${b > 0 ? 'positive' : 'negative'} rail to sum in, and there is none`);
+      if (!(Math.sign(rail) === Math.sign(b)) || rail === 0) return infeasible({ code: 'no-rail-for-offset', offset: b, polarity: b > 0 ? 'positive' : 'negative' });
       let vr = rail;
       let kk = m + b / vr;
       if (kk < 1 + 1e-3) { kk = 1.25 - m / 4; vr = b / (kk - m); }
@@ -224,12 +223,12 @@ export function idealStage(topology: Topology, design: Design, front: SensorFron
     case 'summing-inverting': {
       // Vout = −G1·Vs − G2·Vr with the + input grounded: Vr from the rail on the other side of b.
       const g1 = -m;
-      if (Math.abs(b) < 1e-9 * Math.max(1, Math.abs(pinZero))) return infeasible('with no offset to add, this is the plain inverting stage with its + input grounded');
+      if (Math.abs(b) < 1e-9 * Math.max(1, Math.abs(pinZero))) return infeasible({ code: 'no-offset', plain: 'inverting' });
       const rail = b < 0 ? railHi : railLo;
-      if (!(Math.sign(rail) === -Math.sign(b)) || rail === 0) return infeasible(`the offset ${b.toPrecision(3)} V needs a ${b < 0 ? 'positive' : 'negative'} rail to sum in, and there is none`);
+      if (!(Math.sign(rail) === -Math.sign(b)) || rail === 0) return infeasible({ code: 'no-rail-for-offset', offset: b, polarity: b < 0 ? 'positive' : 'negative' });
       const g2 = -b / rail;
-      let feasible = checkInputs(() => 0, 'the inputs sit at ground,');
-      if (feasible) reasons.push('sums the sensor and a rail into the − input: opposite polarity with an offset of the same sign');
+      let feasible = checkInputs(() => 0, 'sit-ground');
+      if (feasible) reasons.push({ code: 'fits', how: 'summing-inverting' });
       return out({ gain: g1, noiseGain: 1 + g1 + g2, reference: rail, feasible, offset: b, leverage: g2, feedbackRatio: g1, split: g2 });
     }
     case 'difference': {
@@ -237,18 +236,18 @@ export function idealStage(topology: Topology, design: Design, front: SensorFron
       const swapped = m < 0;
       const vref = b;
       let feasible = true;
-      if (g < EPS_UNITY) return infeasible('the target asks for no gain at all');
-      if (outsideRails(vref)) { feasible = false; reasons.push(`the reference would have to be ${vref.toPrecision(3)} V, outside the ${railLo}…${railHi} V it can be taken from`); }
+      if (g < EPS_UNITY) return infeasible({ code: 'no-gain' });
+      if (outsideRails(vref)) { feasible = false; reasons.push({ code: 'reference-outside', node: 'reference', voltage: vref, railLow: railLo, railHigh: railHi }); }
       // The + input sits at (G·V(terminal at R3) + Vref)/(1 + G); that terminal is + (cm + Vs) or, swapped, − (cm).
-      feasible = checkInputs((vs) => (g * (swapped ? cm : cm + vs) + vref) / (1 + g), 'the inputs sit') && feasible;
-      if (feasible) reasons.push(front.commonMode !== null ? 'reads the sensor\'s differential output and rejects its common-mode voltage' : 'takes the sensor between its two terminals, with the zero set by the reference');
+      feasible = checkInputs((vs) => (g * (swapped ? cm : cm + vs) + vref) / (1 + g), 'sit') && feasible;
+      if (feasible) reasons.push({ code: 'fits', how: front.commonMode !== null ? 'difference-differential' : 'difference' });
       return out({ gain: g, noiseGain: 1 + g, reference: vref, feasible, offset: b, leverage: 1, feedbackRatio: g, split: g, swapped });
     }
   }
 
   function finishSni(kk: number, alpha: number, vr: number): IdealStage {
-    let feasible = checkInputs((vs) => alpha * vs + (1 - alpha) * vr, 'the inputs follow the summed sensor and reference');
-    if (feasible) reasons.push(m < 1 ? 'keeps the sensor\'s polarity and can attenuate, with the offset summed in at the + input' : 'keeps the sensor\'s polarity with an offset of the same sign, summed in at the + input');
+    let feasible = checkInputs((vs) => alpha * vs + (1 - alpha) * vr, 'follow-sum');
+    if (feasible) reasons.push({ code: 'fits', how: m < 1 ? 'summing-attenuates' : 'summing-non-inverting' });
     return out({ gain: m, noiseGain: kk, reference: vr, needsReference: vr !== 0, feasible, offset: b, leverage: kk * (1 - alpha), feedbackSensitivity: (kk - 1) / kk, feedbackRatio: kk - 1, split: alpha });
   }
 }
@@ -264,10 +263,8 @@ export function peakRange(design: Pick<Design, 'target'>): [number, number] {
 export interface TopologyChoiceResult {
   chosen: IdealStage | null;
   considered: IdealStage[];
-  /** One sentence on why the chosen topology (or none) was taken. */
-  why: string;
-  /** Guidance when neither fits. */
-  guidance: string[];
+  /** Guidance when none fits (why each stage was or was not taken is in each one's `reasons`). */
+  guidance: StageGuidance[];
 }
 
 /**
@@ -280,7 +277,7 @@ export function chooseTopology(design: Design, front: SensorFront): TopologyChoi
     : [design.target.topology];
   const considered = order.map((t) => idealStage(t, design, front));
   const chosen = considered.find((s) => s.feasible) ?? null;
-  const guidance: string[] = [];
+  const guidance: StageGuidance[] = [];
   if (!chosen) {
     const same = Math.sign(design.target.scale) === Math.sign(front.sensitivity);
     const g = Math.abs(design.target.scale / front.sensitivity);
@@ -293,15 +290,12 @@ export function chooseTopology(design: Design, front: SensorFront): TopologyChoi
     if (design.target.topology !== 'auto' && wrongSign(design.target.topology)) {
       const t = design.target.topology;
       const rises = naturalSign(t) * Math.sign(front.sensitivity) > 0;
-      guidance.push(`The polarity is the cause, not the rails: a ${t.replace(/-/g, ' ').replace('non inverting', 'non-inverting')} stage gives an output that ${rises ? 'rises' : 'falls'} as the ${m} rises, and the wanted scale asks for the opposite sign. Reverse the conductor through the sensor (or turn the sensor round) to flip its sign, change the scale's sign, or choose the ${(other[t] ?? 'other').replace(/-/g, ' ').replace('non inverting', 'non-inverting')} stage (or let Gainwright choose).`);
+      guidance.push({ code: 'polarity-cause', topology: t, rises, other: other[t] ?? 'other', measurand: m });
     }
-    if (same && g < 1) guidance.push('The target needs attenuation with the sensor\'s own polarity: reverse the conductor through the sensor (or swap the sensor\'s orientation) to flip its sign, then an inverting stage can attenuate.');
+    if (same && g < 1) guidance.push({ code: 'attenuate-same-polarity' });
     // The rails and input range are worth a look only when a stage failed for them, not for its sign or for attenuating.
     const railBound = considered.some((c) => !c.feasible && !wrongSign(c.topology) && !(c.topology === 'non-inverting' && c.gain < 1 - EPS_UNITY));
-    if (railBound) guidance.push('Check that the rails leave room for the reference and for the op-amp\'s input range; a rail-to-rail input op-amp or a wider supply may be needed.');
+    if (railBound) guidance.push({ code: 'check-rails' });
   }
-  const why = chosen
-    ? `${chosen.topology}: ${chosen.reasons.join('; ')}`
-    : `no single-stage topology fits: ${considered.map((c) => `${c.topology}: ${c.reasons.join('; ')}`).join(' | ')}`;
-  return { chosen, considered, why, guidance };
+  return { chosen, considered, guidance };
 }

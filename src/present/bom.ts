@@ -3,7 +3,8 @@
  * rating, quantity and role, plus the op-amp and its decoupling; and its CSV export.
  */
 import { partCode, partRole, partValue } from './parts.js';
-import { SAFETY_CAUTIONS, type Report } from '../analysis/report.js';
+import type { Report } from '../analysis/report.js';
+import { cautionsFor } from './cautions.js';
 import { peakRange } from '../physics/topology.js';
 import { formatEng } from '../model/units.js';
 import { csvCell, spiceCommentText } from './inert.js';
@@ -22,7 +23,7 @@ export interface BomRow {
 }
 
 /** Standard resistor power ratings, W (common practice: 1/8, 1/4, 1/2, 1 W through-hole). */
-export const POWER_RATINGS = [0.125, 0.25, 0.5, 1, 2];
+const POWER_RATINGS = [0.125, 0.25, 0.5, 1, 2];
 
 /** The smallest rating that keeps dissipation at or under half of it (50 % derating, common practice). */
 export function powerRating(watts: number): number {
@@ -50,6 +51,7 @@ export function dissipations(r: Report): Map<string, number> {
   return out;
 }
 
+/** The parts list rows: resistors and trimmers grouped by value and series, then sensor, regulator, op-amp and decoupling. */
 export function bomRows(r: Report): BomRow[] {
   const rows: BomRow[] = [];
   const s = r.stage;
@@ -102,5 +104,5 @@ export function bomCsv(r: Report): string {
 
 /** The cautions for the CSV's header comment, one line each, with nothing in them that could end the comment. */
 function cautionLines(r: Report): string[] {
-  return [...SAFETY_CAUTIONS, ...r.front.cautions].map((c) => `CAUTION: ${spiceCommentText(c, 1000)}`);
+  return cautionsFor(r.design.sensor.type, r.front.cautions).map((c) => `CAUTION: ${spiceCommentText(c, 1000)}`);
 }

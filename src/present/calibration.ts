@@ -6,6 +6,7 @@ import type { Report } from '../analysis/report.js';
 import { formatEng } from '../model/units.js';
 import { peakRange } from '../physics/topology.js';
 import { ROLE_NAMES } from './parts.js';
+import { sayFinding } from './finding-words.js';
 
 export interface CalibrationStep {
   /** What to do, in plain words. */
@@ -141,7 +142,7 @@ export function calibrationSteps(r: Report): CalibrationStep[] {
   }
   // The instrument advice (offset to null, polarity, probe ratio) is the one the findings give.
   const probe = r.warnings.find((w) => w.code === 'probe-ratio');
-  if (probe) steps.push({ text: probe.message });
+  if (probe) steps.push({ text: sayFinding(probe) });
   steps.push({ text: 'Seal the trimmers (a dab of varnish) and write the date, the scale and the zero on the probe.' });
   return steps;
 }

@@ -27,6 +27,7 @@ export interface ChartData {
 
 const pts = (x: ArrayLike<number>, y: ArrayLike<number>) => Array.from({ length: x.length }, (_, i) => ({ x: x[i]!, y: y[i]! })).filter((p) => Number.isFinite(p.x) && Number.isFinite(p.y));
 
+/** The DC transfer: output V against the measurand over the range and beyond, with the clip points marked. */
 export function transferChart(r: Report): ChartData | null {
   if (!r.transfer || !r.clip) return null;
   const m = r.design.sensor.measurand;
@@ -50,7 +51,7 @@ export function transferChart(r: Report): ChartData | null {
   };
 }
 
-export function responseChart(r: Report): ChartData | null {
+function responseChart(r: Report): ChartData | null {
   if (!r.response) return null;
   const { freqs, magnitude, phase } = r.response;
   const ref = r.speed?.passband || magnitude[0]!;
@@ -65,6 +66,7 @@ export function responseChart(r: Report): ChartData | null {
   };
 }
 
+/** Output noise density against frequency, total and the `sources` largest contributors, V/√Hz. */
 export function noiseChart(r: Report, sources = 5): ChartData | null {
   if (!r.noise) return null;
   const s = r.noise.spectrum;
@@ -93,7 +95,7 @@ export function noiseLabel(name: string): string {
   return `${name} thermal`;
 }
 
-export function batteryChart(r: Report): ChartData | null {
+function batteryChart(r: Report): ChartData | null {
   if (!r.battery.length) return null;
   const b = r.battery;
   return {
@@ -107,7 +109,7 @@ export function batteryChart(r: Report): ChartData | null {
   };
 }
 
-export function spreadChart(r: Report): ChartData | null {
+function spreadChart(r: Report): ChartData | null {
   if (!r.spread) return null;
   const { edges, counts } = r.spread.histogram;
   return {
@@ -145,6 +147,7 @@ export function waveformChart(r: Report): ChartData | null {
   return { id: 'waveform', title: 'What the scope shows', x: { label: `Time (${unit})` }, y: { label: 'Output (V)' }, series };
 }
 
+/** Every chart the app shows for a report, in display order (the ones that cannot be drawn are left out). */
 export function allCharts(r: Report): ChartData[] {
   return [transferChart(r), responseChart(r), noiseChart(r), batteryChart(r), spreadChart(r)].filter((c): c is ChartData => c !== null);
 }

@@ -191,6 +191,7 @@ export function groupDefault(path: string, design: Design): unknown {
   return GROUP_DEFAULTS[path];
 }
 
+/** The value at a dotted path (`target.trim.gain`, `analysis.noiseBand.0`) of a design, or undefined. */
 export function getPath(obj: unknown, path: string): unknown {
   return path.split('.').reduce<unknown>((o, k) => (o === null || o === undefined ? undefined : (o as Record<string, unknown>)[k]), obj);
 }
@@ -225,7 +226,7 @@ const DISPLAY_UNITS: Record<string, { factor: number; offset?: number }> = {
 };
 
 /** The unit a field is shown in for this design: per-measurand fields follow the measurand (mV/A, mV/mT). */
-export function displayUnit(f: FieldDef, design?: Design): string {
+function displayUnit(f: FieldDef, design?: Design): string {
   if (f.unit === 'mV/A' && design) return `mV/${design.sensor.measurand}`;
   return f.unit ?? '';
 }
@@ -233,7 +234,7 @@ export function displayUnit(f: FieldDef, design?: Design): string {
 const trimZeros = (text: string) => text.replace(/(\.\d*?)0+(\s|$)/, '$1$2').replace(/\.(\s|$)/, '$1');
 
 /** The gain a target scale means: output volts per sensor volt, scale / sensor sensitivity (sign = polarity). */
-export function targetGain(design: Design): number {
+function targetGain(design: Design): number {
   return design.target.scale / sensorFrontAtRail(design.sensor, design).sensitivity;
 }
 

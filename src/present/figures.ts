@@ -3,17 +3,19 @@ import type { Report } from '../analysis/report.js';
 import { noiseLabel } from './charts.js';
 import { formatEng } from '../model/units.js';
 import { STAGE_NAMES } from './words.js';
+import { stageReasonWords } from './finding-words.js';
 
 export interface FigureRow { label: string; value: string; note?: string }
 
 const f = (x: number | null | undefined, u = '', d = 3) => (x === null || x === undefined ? '—' : formatEng(x, u, d));
 
+/** The key figures as labelled text rows (stage, gain, scale, zero, range, bandwidth, noise, errors, supply, sensor). */
 export function keyFigures(r: Report): FigureRow[] {
   const m = r.design.sensor.measurand;
   const rows: FigureRow[] = [];
   const s = r.stage;
   if (!s || !r.dc) return [{ label: 'Design', value: 'not solved', note: r.absent.all ?? '' }];
-  rows.push({ label: 'Stage', value: STAGE_NAMES[s.ideal.topology], note: r.choice.why.replace(/^[^:]+: /, '') });
+  rows.push({ label: 'Stage', value: STAGE_NAMES[s.ideal.topology], note: (r.choice.chosen?.reasons ?? []).map(stageReasonWords).join('; ') });
   rows.push({ label: 'Gain / noise gain', value: `${s.gain.toFixed(4)} / ${s.noiseGain.toFixed(4)}` });
   rows.push({ label: 'Scale at the instrument', value: f(r.dc.out[1], `V/${m}`, 5), note: `${(s.scaleError * 100).toFixed(4)} % before trim` });
   rows.push({ label: 'Zero', value: f(r.dc.out[0], 'V', 5) });
@@ -56,7 +58,7 @@ export function keyFigures(r: Report): FigureRow[] {
 const SHAPES = { step: 'step', sine: 'sine', square: 'square wave', triangle: 'triangle' } as const;
 
 /** What the measurand waveform is, in words: "step from −20 A to 20 A", "square wave −5 A … 5 A at 200 Hz, 50 % duty". */
-export function waveformTitle(r: Report): string {
+function waveformTitle(r: Report): string {
   const w = r.waveformSpec;
   if (!w) return 'no waveform';
   const m = r.design.sensor.measurand;

@@ -16,7 +16,7 @@ import { partRole, partValue } from './parts.js';
 const f = (x: number, unit = '', digits = 4) => formatEng(x, unit, digits);
 
 /** What a fit problem means, and what is missing. */
-export function fitProblemText(p: FitProblem, measurand: string): string {
+function fitProblemText(p: FitProblem, measurand: string): string {
   if (p.code === 'no-spread') return `All usable readings are at one ${measurand} value: a line needs readings at two or more values, and standard errors need three or more.`;
   const more = p.need - p.have;
   return `${p.have} usable reading${p.have === 1 ? '' : 's'}: a fit with standard errors needs at least ${p.need}; take ${more} more at different ${measurand} values (zero and the range ends are good choices).`;

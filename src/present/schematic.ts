@@ -36,6 +36,7 @@ function arm(parts: Part[], role: PartRole): { ref: string; value: string } | nu
   return { ref: ps.map((p) => p.ref).join(joint), value: ps.map((p) => formatEng(p.ohms, 'Ω', 3).replace(' ', '')).join(joint) };
 }
 
+/** The stage drawn as primitives (lines, resistors, trimmers, the op-amp, labels) in its own coordinates; null without a stage. */
 export function schematic(r: Report): Schematic | null {
   const s = r.stage;
   if (!s) return null;

@@ -5,12 +5,14 @@
 import type { Report } from '../analysis/report.js';
 import { formatEng } from '../model/units.js';
 import { ROLE_NAMES } from './parts.js';
+import { verdictsOf } from './verdicts.js';
 
 /** The sheet's status line: a failed design is marked as such on every page. */
 export function sheetStatus(r: Report): { failed: boolean; line: string } {
-  const fails = r.verdicts.filter((v) => v.level === 'fail');
+  const verdicts = verdictsOf(r);
+  const fails = verdicts.filter((v) => v.level === 'fail');
   if (fails.length) return { failed: true, line: `FAILED DESIGN: do not build. ${fails.map((v) => v.title).join('; ')}.` };
-  const cautions = r.verdicts.filter((v) => v.level === 'caution').length;
+  const cautions = verdicts.filter((v) => v.level === 'caution').length;
   return { failed: false, line: cautions ? `Builds, with ${cautions} caution${cautions > 1 ? 's' : ''} below.` : 'Passes every check.' };
 }
 

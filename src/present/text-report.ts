@@ -1,6 +1,10 @@
 /** The report as plain text for a terminal: verdicts first, then parts, figures, calibration, cautions. */
 import { partCode, partRole, partValue } from './parts.js';
-import { SAFETY_CAUTIONS, type Report } from '../analysis/report.js';
+import type { Report } from '../analysis/report.js';
+import { calibrationSteps } from './calibration.js';
+import { cautionsFor } from './cautions.js';
+import { sayFinding, topologyWhy } from './finding-words.js';
+import { verdictsOf } from './verdicts.js';
 import { formatEng } from '../model/units.js';
 import { terminalLine } from './inert.js';
 import { waveformFigures } from './figures.js';
@@ -8,6 +12,7 @@ import { waveformFigures } from './figures.js';
 const f = (x: number | null | undefined, u = '', d = 3) => (x === null || x === undefined ? '—' : formatEng(x, u, d));
 const MARK = { pass: 'PASS', caution: 'CAUTION', fail: 'FAIL' } as const;
 
+/** The whole report as plain text for a terminal: verdict, stage, parts, figures, findings, calibration, safety. Every line is inert. */
 export function textReport(r: Report): string {
   const d = r.design;
   const m = d.sensor.measurand;
@@ -15,10 +20,10 @@ export function textReport(r: Report): string {
   const h = (s: string) => out.push('', s, '-'.repeat(s.length));
   out.push(d.title, '='.repeat(Math.min(terminalLine(d.title).length, 80)));
   h('Verdict');
-  for (const v of r.verdicts) out.push(`  [${MARK[v.level]}] ${v.title}: ${v.detail}`);
+  for (const v of verdictsOf(r)) out.push(`  [${MARK[v.level]}] ${v.title}: ${v.detail}`);
   const s = r.stage;
   h('Stage');
-  out.push(`  ${r.choice.why}`);
+  out.push(`  ${topologyWhy(r.choice)}`);
   if (s && r.dc) {
     out.push(`  Gain ${s.gain.toFixed(5)} (noise gain ${s.noiseGain.toFixed(5)}), reference ${f(s.reference, 'V', 5)}`);
     out.push(`  Scale ${f(r.dc.out[1], `V/${m}`, 5)} (target ${f(d.target.scale, `V/${m}`, 5)}, ${(s.scaleError * 100).toFixed(4)} % before trim), zero ${f(r.dc.out[0], 'V', 5)} (target ${f(d.target.zero, 'V', 5)})`);
@@ -79,7 +84,7 @@ export function textReport(r: Report): string {
     h('Driving the instrument');
     out.push(`  Scale at a 1 MΩ input ${f(r.drive.scaleAt1M, `V/${m}`, 4)}, at 50 Ω ${f(r.drive.scaleAt50, `V/${m}`, 4)}${r.drive.drives50 ? '' : ' (the op-amp cannot drive 50 Ω over the range)'}`);
     const probe = r.warnings.find((w) => w.code === 'probe-ratio');
-    if (probe) out.push(`  ${probe.message}`);
+    if (probe) out.push(`  ${sayFinding(probe)}`);
   }
   const wave = waveformFigures(r);
   if (wave.length) {
@@ -88,14 +93,15 @@ export function textReport(r: Report): string {
   }
   if (r.warnings.length) {
     h('Findings');
-    for (const w of r.warnings) out.push(`  [${w.level}] ${w.message}`);
+    for (const w of r.warnings) out.push(`  [${w.level}] ${sayFinding(w)}`);
   }
-  if (r.calibration.length) {
+  const calibration = calibrationSteps(r);
+  if (calibration.length) {
     h('Calibration');
-    r.calibration.forEach((c, i) => out.push(`  ${i + 1}. ${c.text}`));
+    calibration.forEach((c, i) => out.push(`  ${i + 1}. ${c.text}`));
   }
   h('Safety');
-  for (const c of [...SAFETY_CAUTIONS, ...r.front.cautions]) out.push(`  ! ${c}`);
+  for (const c of cautionsFor(d.sensor.type, r.front.cautions)) out.push(`  ! ${c}`);
   // Each entry is one line: whatever a design's text holds is shown, never acted on by the terminal.
   return out.map(terminalLine).join('\n') + '\n';
 }

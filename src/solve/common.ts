@@ -4,7 +4,7 @@
  */
 import type { Design } from '../model/design.js';
 import { TRIMMER_VALUES, usualTolerance } from '../model/eseries.js';
-import type { Warning as Finding } from '../model/findings.js';
+import type { Finding } from '../model/findings.js';
 import type { Arm, Part, PartRole, StageNetwork, Trimmer } from '../circuit/network.js';
 import type { IdealStage } from '../physics/topology.js';
 import type { PairCandidate } from './search.js';
@@ -114,11 +114,4 @@ export function partsOf(net: StageNetwork, design: Design): Part[] {
     if (f.capacitance > 0) parts.push({ ref: 'C1', role: 'output-capacitor', kind: 'capacitor', ohms: 0, farads: f.capacitance, series: 'capacitor', tolerance: 0.1, arrangement: 'single' });
   }
   return parts;
-}
-
-/** Ohms in a short form for solver messages: `4.7 kΩ`. */
-export function fmtOhms(ohms: number): string {
-  const p = [[1e6, 'MΩ'], [1e3, 'kΩ'], [1, 'Ω']] as const;
-  const [m, u] = p.find(([m]) => ohms >= m) ?? [1, 'Ω'];
-  return `${+(ohms / m).toPrecision(3)} ${u}`;
 }

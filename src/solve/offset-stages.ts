@@ -14,14 +14,14 @@
  *    · 1.5^(fixed parts − 2) · (1 + |log10(Rf/Rf_pref)|) · (1 + I_net/I_q); the lowest wins.
  */
 import type { Design } from '../model/design.js';
-import type { Warning as Finding } from '../model/findings.js';
+import { finding, type Finding, type FindingData } from '../model/findings.js';
 import type { Arm, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
 import type { SensorFront } from '../physics/sensors.js';
 import { loopFactor, peakRange, type IdealStage } from '../physics/topology.js';
 import { armTable, searchPairs, type ArmTable, type PairCandidate, type PairResult } from './search.js';
 import { dividerAt, fixedDivider, nearestArm, noReference, railTie, referenceSpan, trimmedDivider, WIPER_MAX, WIPER_MIN } from './reference.js';
 import { COVERAGE, SETTABILITY, gainTrimHalfSpan, scaleStack, zeroStack } from './trimmers.js';
-import { ACCEPT_OF_TOLERANCE, FLOOR_OF_TOLERANCE, MAX_OVERSIZE, fmtOhms, gainOptions, partsOf, preferredFeedback, type GainOption, type SolvedStage } from './common.js';
+import { ACCEPT_OF_TOLERANCE, FLOOR_OF_TOLERANCE, MAX_OVERSIZE, gainOptions, partsOf, preferredFeedback, type GainOption, type SolvedStage } from './common.js';
 import { networkTransfer, openLoopOf } from './transfer.js';
 
 interface Candidate {
@@ -42,16 +42,16 @@ const fixedParts = (a: Arm | null | undefined) => a?.parts.length ?? 0;
 /** Solves a summing non-inverting, summing inverting or difference stage. */
 export function solveOffsetStage(design: Design, front: SensorFront, ideal: IdealStage): SolvedStage {
   const warnings: Finding[] = [];
-  const w = (code: string, level: Finding['level'], message: string) => warnings.push({ code, level, message });
+  const w = <K extends keyof FindingData>(code: K, level: Finding['level'], data: FindingData[K]) => warnings.push(finding(code, level, data));
   const { target } = design;
   const top = ideal.topology;
-  const fail = (code: string, message: string): SolvedStage => {
-    w(code, 'fail', message);
+  const fail = <K extends keyof FindingData>(code: K, data: FindingData[K]): SolvedStage => {
+    w(code, 'fail', data);
     const network: StageNetwork = { topology: top, feedback: null, gainTrim: null, leg: null, reference: noReference(design) };
     return { ideal, network, parts: [], alternatives: [], chosen: 0, bestError: NaN, gain: NaN, noiseGain: NaN, reference: NaN, scaleError: NaN, zeroError: NaN, warnings };
   };
   const table = armTable(target.series, target.resistanceMin, target.resistanceMax, target.arrangements);
-  if (table.size === 0) return fail('gain-unrealisable', `No ${target.series} part lies within the resistance window: widen it.`);
+  if (table.size === 0) return fail('gain-unrealisable', { series: target.series, windowLow: target.resistanceMin, windowHigh: target.resistanceMax, gain: null, with: 'window' });
   const singles = target.arrangements.includes('single') ? armTable(target.series, target.resistanceMin, target.resistanceMax, ['single']) : table;
   const ol = openLoopOf(design);
   const a0 = ol.a0;
@@ -124,7 +124,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
   // Fixed dividers beside a wire give the summing stages a free reference voltage, so both ratios can land.
   if (!target.trim.zero || !refs.length) dividers(false);
   if (!refs.length) {
-    return fail('reference-unrealisable', `No reference network of ${target.series} parts within ${fmtOhms(target.resistanceMin)}…${fmtOhms(target.resistanceMax)} gives the ${ideal.reference.toPrecision(3)} V this stage needs: widen the resistance window or choose a finer series.`);
+    return fail('reference-unrealisable', { series: target.series, windowLow: target.resistanceMin, windowHigh: target.resistanceMax, reference: ideal.reference });
   }
 
   /** dVout/dVr at a reference voltage vr for the ideal stage that uses it. */
@@ -291,29 +291,27 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
 
   const found = best as Candidate | null;
   if (!found) {
-    return fail('gain-unrealisable', `No network of ${target.series} parts within ${fmtOhms(target.resistanceMin)}…${fmtOhms(target.resistanceMax)} gives this stage a gain of ${ideal.gain.toPrecision(4)} with the offset it needs: widen the resistance window, allow two-part arms, or choose a finer series.`);
+    return fail('gain-unrealisable', { series: target.series, windowLow: target.resistanceMin, windowHigh: target.resistanceMax, gain: ideal.gain, with: 'offset' });
   }
   if (Math.abs(found.scaleError) > accept) {
-    return fail('scale-off-target', `The nearest network of ${target.series} parts gives a scale ${(found.scaleError * 100).toFixed(3)} % off target, more than the ${(accept * 100).toFixed(2)} % a ${(tol * 100).toFixed(1)} % part tolerance allows: widen the resistance window, allow two-part arms, or choose a finer series.`);
+    return fail('scale-off-target', { series: target.series, error: found.scaleError, accept, tolerance: tol });
   }
   if (!found.network.reference.trim && Math.abs(found.zeroError) > accept * outSpan) {
-    return fail('zero-off-target', `The nearest networks of ${target.series} parts put the zero ${(found.zeroError * 1e3).toPrecision(3)} mV off at the output, more than 0.1 % of the ${(outSpan * 1e3).toPrecision(3)} mV the range spans there${target.trim.zero ? ', and no zero trimmer can centre on a reference this near a rail' : ''}: ${target.trim.zero ? 'move the zero away from where the reference meets the rail, or widen the range' : 'allow a zero trimmer'}, allow two-part arms, or choose a finer series.`);
+    return fail('zero-off-target', { series: target.series, error: found.zeroError, span: outSpan, zeroTrim: target.trim.zero, networks: true });
   }
   const net = found.network;
   if (net.gainTrim && !found.opt.covers) {
-    w('gain-trim-short', 'caution', `The gain trimmer covers ±${(net.gainTrim.halfSpan * 100).toFixed(2)} %, less than ${COVERAGE} × the ±${(sStack * 100).toFixed(2)} % worst-case stack.`);
+    w('gain-trim-short', 'caution', { cause: 'short', halfSpan: net.gainTrim.halfSpan, coverage: COVERAGE, stack: sStack, nearUnityLeverage: null });
   }
   if (target.trim.gain && !net.gainTrim && net.feedback) {
-    w('gain-trim-short', 'caution', 'No standard gain trimmer fits this feedback network, so the span is set by the parts alone: calibrate the scale at the instrument.');
+    w('gain-trim-short', 'caution', { cause: 'none-fits', leverage: null });
   } else if (target.trim.gain && !net.gainTrim) {
-    w('buffer-no-trim', 'info', 'The stage is a follower of the summed input (K = 1): there is no feedback arm to trim the span with; the sensor\'s spread passes through.');
+    w('buffer-no-trim', 'info', { stage: 'summing-follower' });
   }
   if (target.trim.zero && !net.reference.trim) {
-    w('zero-trim-short', 'caution', net.reference.kind === 'rail'
-      ? `The offset comes straight from the ${net.reference.voltage} V rail, where a trimmer cannot straddle it: null the zero at the instrument, or choose a zero that needs a reference between the rails.`
-      : 'No standard zero trimmer covers 1.5 × the worst-case zero stack here, so the divider is fixed: null the zero at the instrument, or move the zero.');
+    w('zero-trim-short', 'caution', net.reference.kind === 'rail' ? { cause: 'on-rail', rail: net.reference.voltage, summed: true } : { cause: 'near-rail', coverage: COVERAGE });
   } else if (net.reference.trim && Math.abs(net.reference.trim.setting - 0.5) > 0.3) {
-    w('zero-trim-off-centre', 'info', `The reference sits near a rail, so the zero trimmer starts at ${(net.reference.trim.setting * 100).toFixed(0)} % of its travel.`);
+    w('zero-trim-off-centre', 'info', { setting: net.reference.trim.setting });
   }
   const t = networkTransfer(net, front, ol);
   const chosen = found.pick ? Math.max(found.ranked.findIndex((c) => c.a.ohms === found.pick!.a.ohms && c.b.ohms === found.pick!.b.ohms), 0) : 0;

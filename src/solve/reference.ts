@@ -51,7 +51,7 @@ export function dividerAt(lo: number, hi: number, top: number, pot: number, bott
 }
 
 /** The wiper setting (from the bottom) at which top – pot – bottom gives the ratio r of the rail span: s = (r·Σ − B)/Rp. */
-export function wiperFor(top: number, pot: number, bottom: number, r: number): number {
+function wiperFor(top: number, pot: number, bottom: number, r: number): number {
   return (r * (top + pot + bottom) - bottom) / pot;
 }
 

@@ -7,9 +7,9 @@
 import { valuesInRange, type SeriesName } from '../model/eseries.js';
 import type { Arrangement } from '../model/design.js';
 
-export const ARM_SINGLE = 0;
-export const ARM_SERIES = 1;
-export const ARM_PARALLEL = 2;
+const ARM_SINGLE = 0;
+const ARM_SERIES = 1;
+const ARM_PARALLEL = 2;
 
 export interface ArmTable {
   /** Arm resistance, ascending. */
@@ -75,6 +75,7 @@ export function armTable(series: SeriesName, min: number, max: number, arrangeme
   return out;
 }
 
+/** The i-th arm of a table as an `Arm` (value and its one or two parts). */
 export function armAt(t: ArmTable, i: number): Arm {
   const kind = t.kind[i]!;
   return {
@@ -84,7 +85,7 @@ export function armAt(t: ArmTable, i: number): Arm {
   };
 }
 
-export const partCount = (t: ArmTable, i: number): number => (t.kind[i] === ARM_SINGLE ? 1 : 2);
+const partCount = (t: ArmTable, i: number): number => (t.kind[i] === ARM_SINGLE ? 1 : 2);
 
 /** Index of the first value ≥ x (binary search). */
 export function lowerBound(values: Float64Array, x: number): number {
@@ -120,7 +121,7 @@ export interface PairProblem {
 }
 
 /** The problem's ideal-partner and error functions, from its ratio form when it has one. */
-export function problemFunctions(prob: PairProblem): { idealB: (a: number) => number; error: (a: number, b: number) => number } {
+function problemFunctions(prob: PairProblem): { idealB: (a: number) => number; error: (a: number, b: number) => number } {
   const r = prob.ratio;
   if (r) return { idealB: (a) => (a + r.cA) / r.k - r.cB, error: (a, b) => r.m * ((a + r.cA) / (b + r.cB) / r.k - 1) };
   if (!prob.idealB || !prob.error) throw new Error('a pair problem needs a ratio form or both functions');

@@ -20,7 +20,7 @@
  */
 import type { Design } from '../model/design.js';
 import { TRIMMER_VALUES } from '../model/eseries.js';
-import type { Warning as Finding } from '../model/findings.js';
+import { finding, type Finding, type FindingData } from '../model/findings.js';
 import type { Arm, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
 import type { SensorFront } from '../physics/sensors.js';
 import { aimedGain, loopFactor, noiseGain, peakRange, referenceFor, referenceLeverage, type IdealStage } from '../physics/topology.js';
@@ -28,7 +28,7 @@ import { armTable, searchPairs, type PairCandidate, type PairResult } from './se
 import { fixedDivider, nearestArm, noReference, railTie, referenceSpan, resetWiper, trimmedDivider } from './reference.js';
 import { COVERAGE, SETTABILITY, feedbackSensitivity, gainTrimHalfSpan, scaleStack, zeroStack } from './trimmers.js';
 import {
-  ACCEPT_OF_TOLERANCE, FLOOR_OF_TOLERANCE, MAX_OVERSIZE, fmtOhms, gainOptions, partsOf, preferredFeedback, type GainOption, type SolvedStage,
+  ACCEPT_OF_TOLERANCE, FLOOR_OF_TOLERANCE, MAX_OVERSIZE, gainOptions, partsOf, preferredFeedback, type GainOption, type SolvedStage,
 } from './common.js';
 import { solveOffsetStage } from './offset-stages.js';
 import { networkTransfer, openLoopOf, type OpenLoop } from './transfer.js';
@@ -77,12 +77,12 @@ const fixedParts = (a: Arm | null) => a?.parts.length ?? 0;
 export function solveStage(design: Design, front: SensorFront, ideal: IdealStage): SolvedStage {
   const warnings: Finding[] = [];
   const { target } = design;
-  const w = (code: string, level: Finding['level'], message: string) => warnings.push({ code, level, message });
+  const w = <K extends keyof FindingData>(code: K, level: Finding['level'], data: FindingData[K]) => warnings.push(finding(code, level, data));
 
   // Unity buffer: a wire from output to − input, nothing else.
   if (ideal.topology === 'non-inverting' && !ideal.needsReference) {
     const network: StageNetwork = { topology: 'non-inverting', feedback: null, gainTrim: null, leg: null, reference: noReference(design) };
-    if (target.trim.gain || target.trim.zero) w('buffer-no-trim', 'info', 'A unity buffer has no gain or zero to trim; the sensor\'s own scale and zero pass straight through.');
+    if (target.trim.gain || target.trim.zero) w('buffer-no-trim', 'info', { stage: 'unity' });
     return { ideal, network, parts: partsOf(network, design), alternatives: [], chosen: 0, bestError: 0, gain: 1, noiseGain: 1, reference: NaN, scaleError: 0, zeroError: 0, warnings };
   }
 
@@ -95,15 +95,15 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   const a0 = ol.a0;
   const top = ideal.topology;
   const gAim = aimedGain(top, ideal.gain, a0);
-  const fail = (code: string, message: string): SolvedStage => {
-    w(code, 'fail', message);
+  const fail = <K extends keyof FindingData>(code: K, data: FindingData[K]): SolvedStage => {
+    w(code, 'fail', data);
     const network: StageNetwork = { topology: top, feedback: null, gainTrim: null, leg: null, reference: noReference(design) };
     return { ideal, network, parts: [], alternatives: [], chosen: 0, bestError: NaN, gain: NaN, noiseGain: NaN, reference: NaN, scaleError: NaN, zeroError: NaN, warnings };
   };
   if (!Number.isFinite(gAim) || gAim <= 0) {
-    return fail('gain-beyond-loop', `A gain of ${ideal.gain.toPrecision(4)} is beyond what the op-amp's open-loop gain (${design.opamp.openLoopGainDb} dB) can hold: use two stages or an op-amp with more open-loop gain.`);
+    return fail('gain-beyond-loop', { gain: ideal.gain, openLoopGainDb: design.opamp.openLoopGainDb });
   }
-  if (table.size === 0) return fail('gain-unrealisable', `No ${target.series} part lies within the resistance window: widen it.`);
+  if (table.size === 0) return fail('gain-unrealisable', { series: target.series, windowLow: target.resistanceMin, windowHigh: target.resistanceMax, gain: null, with: 'window' });
 
   const tol = target.tolerance;
   const floor = tol * FLOOR_OF_TOLERANCE;
@@ -270,29 +270,26 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
 
   const best = found.cand, bestOpt = found.opt;
   if (!best || !bestOpt) {
-    return fail('gain-unrealisable', `No network of ${target.series} parts within ${fmtOhms(target.resistanceMin)}…${fmtOhms(target.resistanceMax)} gives a gain of ${ideal.gain.toPrecision(4)} with the reference it needs: widen the resistance window, allow two-part arms, or choose a finer series.`);
+    return fail('gain-unrealisable', { series: target.series, windowLow: target.resistanceMin, windowHigh: target.resistanceMax, gain: ideal.gain, with: 'reference' });
   }
   if (Math.abs(best.scaleError) > accept) {
-    return fail('scale-off-target', `The nearest network of ${target.series} parts gives a scale ${(best.scaleError * 100).toFixed(3)} % off target, more than the ${(accept * 100).toFixed(2)} % a ${(tol * 100).toFixed(1)} % part tolerance allows: widen the resistance window, allow two-part arms, or choose a finer series.`);
+    return fail('scale-off-target', { series: target.series, error: best.scaleError, accept, tolerance: tol });
   }
   if (!best.network.reference.trim && Math.abs(best.zeroError) > accept * outSpan) {
-    return fail('zero-off-target', `The nearest reference divider of ${target.series} parts puts the zero ${(best.zeroError * 1e3).toPrecision(3)} mV off at the output, more than 0.1 % of the ${(outSpan * 1e3).toPrecision(3)} mV the range spans there${target.trim.zero ? ', and no zero trimmer can centre on a reference this near a rail' : ''}: ${target.trim.zero ? 'move the zero away from where the reference meets the rail, or widen the range' : 'allow a zero trimmer'}, allow two-part arms, or choose a finer series.`);
+    return fail('zero-off-target', { series: target.series, error: best.zeroError, span: outSpan, zeroTrim: target.trim.zero, networks: false });
   }
   const net = best.network;
   if (target.trim.gain && !net.gainTrim) {
-    w('gain-trim-short', 'caution', `No standard gain trimmer fits this feedback network (near unity gain the span trim has little leverage, (G−1)/G = ${sens.toFixed(3)}), so the span is set by the parts alone: calibrate the scale at the instrument, or pick more gain and a smaller sensor sensitivity.`);
+    w('gain-trim-short', 'caution', { cause: 'none-fits', leverage: sens });
   } else if (net.gainTrim && !bestOpt.covers) {
-    const why = top === 'non-inverting' && ideal.gain < 1.5 ? ` Near unity gain the span trim has little leverage ((G−1)/G = ${sens.toFixed(2)}): pick a sensor setup with less spread, or more gain and a smaller sensitivity (fewer turns, a longer gap).` : '';
-    w('gain-trim-short', 'caution', `The gain trimmer covers ±${(net.gainTrim.halfSpan * 100).toFixed(2)} %, less than ${COVERAGE} × the ±${(sStack * 100).toFixed(2)} % worst-case stack.${why}`);
+    w('gain-trim-short', 'caution', { cause: 'short', halfSpan: net.gainTrim.halfSpan, coverage: COVERAGE, stack: sStack, nearUnityLeverage: top === 'non-inverting' && ideal.gain < 1.5 ? sens : null });
   }
   if (target.trim.zero && !net.reference.trim && net.reference.kind === 'rail' && net.reference.voltage === 0 && !zeroAtRail) {
-    w('zero-by-wire', 'info', `The reference is ground itself, so the leg is tied to it with no divider and no zero trimmer: what remains is the op-amp's offset, about ±${(ideal.noiseGain * design.opamp.offsetVoltage * 1e3).toPrecision(2)} mV at the output; null it at the instrument.`);
+    w('zero-by-wire', 'info', { offsetAtOutput: ideal.noiseGain * design.opamp.offsetVoltage });
   } else if (target.trim.zero && !net.reference.trim) {
-    w('zero-trim-short', 'caution', zeroAtRail
-      ? `The zero needs the reference on the rail itself (${net.reference.voltage} V), where a trimmer cannot straddle it, so the leg is tied to the rail: null the zero at the instrument, or choose a zero away from the rail.`
-      : `No standard zero trimmer covers ${COVERAGE} × the worst-case zero stack from a reference this near a rail, so the divider is fixed: null the zero at the instrument, or move the zero.`);
+    w('zero-trim-short', 'caution', zeroAtRail ? { cause: 'on-rail', rail: net.reference.voltage, summed: false } : { cause: 'near-rail', coverage: COVERAGE });
   } else if (net.reference.trim && Math.abs(net.reference.trim.setting - 0.5) > 0.3) {
-    w('zero-trim-off-centre', 'info', `The reference sits near a rail, so the zero trimmer starts at ${(net.reference.trim.setting * 100).toFixed(0)} % of its travel.`);
+    w('zero-trim-off-centre', 'info', { setting: net.reference.trim.setting });
   }
   const real = realised(net, ideal, front, ol);
   return { ideal, network: net, parts: partsOf(net, design), alternatives: best.ranked, chosen: Math.max(best.chosen, 0), bestError: best.best, gain: real.gain, noiseGain: networkGain(net, front.sourceResistance).noiseGain, reference: real.reference, scaleError: real.scaleError, zeroError: real.zeroError, warnings };

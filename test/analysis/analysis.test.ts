@@ -1,7 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { analyse, reportJson } from '../../src/analysis/report.js';
+import { analyse } from '../../src/analysis/report.js';
+import { reportJson } from '../../src/present/json.js';
 import { DEMOS } from '../../src/model/demos.js';
 import { designFrom, nonFinitePaths, shuntOnSplitSupply } from '../helpers.js';
+import { verdictsOf } from '../../src/present/verdicts.js';
+import { calibrationSteps } from '../../src/present/calibration.js';
+import { sayFinding } from '../../src/present/finding-words.js';
 
 const design = designFrom;
 
@@ -24,7 +28,7 @@ describe('transfer and clipping', () => {
     const r = analyse(design('generic-sensor', (x) => { x.target.range = [-20, 40]; }), { spreadTrials: 0 });
     expect(r.clip!.headroom.high).toBeLessThan(0);
     expect(r.warnings.map((w) => w.code)).toContain('clips-in-range-high');
-    expect(r.verdicts[0]!.level).toBe('fail');
+    expect(verdictsOf(r)[0]!.level).toBe('fail');
   });
   it('an AC range given in rms is checked at its √2 peak, and the report says so', () => {
     const r = analyse(design('generic-sensor', (x) => { x.target.signal = 'ac-rms'; x.target.range = [-20, 20]; }), { spreadTrials: 0 });
@@ -163,7 +167,7 @@ describe('after calibration', () => {
     const before = r.errors!.terms.filter((t) => !t.calibration).reduce((x, t) => x + t.value, 0);
     expect(r.errors!.worstCase).toBeCloseTo(before, 9);
     // The steps tell the user to judge the span by that difference.
-    expect(r.calibration.some((c) => /difference of two readings/.test(c.text) && /do not interact/.test(c.text))).toBe(true);
+    expect(calibrationSteps(r).some((c) => /difference of two readings/.test(c.text) && /do not interact/.test(c.text))).toBe(true);
   });
   // The trimmers' tempco scales each whole track: the rheostat in the feedback arm moves the gain, the
   // potentiometer's ratio holds and only its Thevenin resistance moves. Closed form of the bench clamp
@@ -284,8 +288,8 @@ describe('battery and instrument', () => {
     const hoursToEnd = 2034 / r.supply!.current / 3600;
     expect(bc.hoursToEnd!).toBeCloseTo(hoursToEnd, 9);
     expect(bc.hoursToClip! / (hoursToEnd * (9.6 - bc.voltage!) / 3.6)).toBeCloseTo(1, 9);
-    expect(r.warnings.find((w) => w.code === 'battery-clips')!.message).toMatch(/8\.00 V/);
-    expect(r.verdicts.find((v) => v.title.startsWith('Battery life'))!.detail).toMatch(/clips inside the range after about/);
+    expect(sayFinding(r.warnings.find((w) => w.code === 'battery-clips')!)).toMatch(/8\.00 V/);
+    expect(verdictsOf(r).find((v) => v.title.startsWith('Battery life'))!.detail).toMatch(/clips inside the range after about/);
   });
   // A regulator with 1.7 V dropout (common practice for a small non-LDO linear part, from memory) leaves
   // regulation below 5 + 1.7 = 6.7 V; at 6.0 V its output is 4.3 V. The sensor and the reference both hang
@@ -322,23 +326,23 @@ describe('probe-ratio advice (a probe ratio k displays k × the input volts: com
     expect(r.drive!.probeOffsetShown).toBeCloseTo(45, 2);
     expect(r.drive!.probeInvert).toBe(false);
     const w = r.warnings.find((x) => x.code === 'probe-ratio')!;
-    expect(w.message).toMatch(/45\.0 A/);
-    expect(w.message).toMatch(/offset/);
-    expect(w.message).not.toMatch(/reads A directly/);
-    expect(r.calibration.some((c) => c.text === w.message)).toBe(true);
+    expect(sayFinding(w)).toMatch(/45\.0 A/);
+    expect(sayFinding(w)).toMatch(/offset/);
+    expect(sayFinding(w)).not.toMatch(/reads A directly/);
+    expect(calibrationSteps(r).some((c) => c.text === sayFinding(w))).toBe(true);
   });
   // 0.5 V/A around 0 V: k = 2 reads amperes directly, no offset to null.
   it('with the zero at 0 V the ratio alone reads the measurand directly', () => {
     const r = analyse(design('generic-sensor', shuntOnSplitSupply), { spreadTrials: 0 });
     expect(r.drive!.probeRatio).toBe(2);
     expect(Math.abs(r.drive!.probeOffsetShown)).toBeLessThan(1e-3);
-    expect(r.warnings.find((x) => x.code === 'probe-ratio')!.message).toMatch(/reads A directly/);
+    expect(sayFinding(r.warnings.find((x) => x.code === 'probe-ratio')!)).toMatch(/reads A directly/);
   });
   it('a negative scale asks for the channel to be inverted', () => {
     const r = analyse(design('generic-sensor', (x) => { shuntOnSplitSupply(x); x.target.scale = -0.5; }), { spreadTrials: 0 });
     expect(r.drive!.probeRatio).toBe(2);
     expect(r.drive!.probeInvert).toBe(true);
-    expect(r.warnings.find((x) => x.code === 'probe-ratio')!.message).toMatch(/invert/);
+    expect(sayFinding(r.warnings.find((x) => x.code === 'probe-ratio')!)).toMatch(/invert/);
   });
 });
 
@@ -348,7 +352,7 @@ describe('every demo reports finite numbers', () => {
     const j = reportJson(r);
     expect(allFinite(j)).toEqual([]);
     expect(j.parts).not.toEqual([]);
-    expect(r.calibration.length).toBeGreaterThan(4);
+    expect(calibrationSteps(r).length).toBeGreaterThan(4);
   });
 });
 
@@ -369,7 +373,7 @@ describe('a shunt design reaches the full report', () => {
     const r = analyse(design('generic-sensor', shuntOnSplitSupply), { spreadTrials: 100 });
     expect(r.stage!.parts.length).toBeGreaterThan(1);
     expect(r.clip!.limits.map((l) => l.cause)).toContain('burden');
-    expect(r.calibration.some((c) => c.text.startsWith('Span'))).toBe(true);
+    expect(calibrationSteps(r).some((c) => c.text.startsWith('Span'))).toBe(true);
     expect(r.warnings.map((w) => w.code)).toContain('low-side-only');
     // Scale 0.5 V/A from 10 mV/A: gain 50 (the shunt's 10 mΩ is its own source resistance).
     expect(r.dc!.out[1]).toBeCloseTo(0.5, 3);
@@ -380,13 +384,13 @@ describe('verdict thresholds (our own: noise p-p within 1 % of the range end pas
   it('a noisy sensor turns the noise line to caution or fail', () => {
     const quiet = analyse(design('generic-sensor'), { spreadTrials: 0 });
     const noisy = analyse(design('generic-sensor', (x) => { x.sensor.noiseDensity = 20e-6; }), { spreadTrials: 0 });
-    const line = (r: typeof quiet) => r.verdicts.find((v) => v.title.startsWith('Noise'))!;
+    const line = (r: typeof quiet) => verdictsOf(r).find((v) => v.title.startsWith('Noise'))!;
     expect(line(quiet).level).toBe('pass');
     expect(line(noisy).level).not.toBe('pass');
   });
   it('large drift after calibration is flagged', () => {
     const r = analyse(design('generic-sensor', (x) => { x.opamp.offsetDrift = 1e-3; }), { spreadTrials: 0 });
-    expect(r.verdicts.find((v) => v.title.startsWith('Error'))!.level).toBe('fail');
+    expect(verdictsOf(r).find((v) => v.title.startsWith('Error'))!.level).toBe('fail');
   });
 });
 
@@ -410,7 +414,7 @@ describe('current transformer at mains frequency', () => {
     const w = r.warnings.find((x) => x.code === 'ac-low-frequency')!;
     const fc = r.speed!.lowCorner;
     const expected = 1 - 1 / Math.sqrt(1 + (fc / 50) ** 2);
-    const shown = Number(/reading is ([\d.]+) %/.exec(w.message)![1]) / 100;
+    const shown = Number(/reading is ([\d.]+) %/.exec(sayFinding(w))![1]) / 100;
     expect(shown).toBeCloseTo(expected, 3);
     expect(w.level).toBe(expected > 0.01 ? 'caution' : 'info');
   });

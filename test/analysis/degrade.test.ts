@@ -9,10 +9,11 @@ import { keyFigures } from '../../src/present/figures.js';
 import { textReport } from '../../src/present/text-report.js';
 import { demoDesign } from '../../src/model/demos.js';
 import type { Design } from '../../src/model/design.js';
+import { verdictsOf } from '../../src/present/verdicts.js';
 
 const shown = (d: Design) => {
   const r = analyse(d, { spreadTrials: 20 });
-  return { r, text: [textReport(r), ...keyFigures(r).map((f) => `${f.value} ${f.note ?? ''}`), ...r.verdicts.map((v) => `${v.title} ${v.detail}`)].join('\n') };
+  return { r, text: [textReport(r), ...keyFigures(r).map((f) => `${f.value} ${f.note ?? ''}`), ...verdictsOf(r).map((v) => `${v.title} ${v.detail}`)].join('\n') };
 };
 
 describe('analyse: tiny values that slip past validation degrade, they do not lie', () => {
@@ -33,7 +34,7 @@ describe('analyse: tiny values that slip past validation degrade, they do not li
   });
   it('a figure that cannot be computed gets a caution verdict with the reason, not a pass', () => {
     const { r } = shown({ ...base, opamp: { ...base.opamp, gbw: 1e-300 } });
-    const v = r.verdicts.find((x) => /Bandwidth/.test(x.title))!;
+    const v = verdictsOf(r).find((x) => /Bandwidth/.test(x.title))!;
     expect(v.level === 'pass' && /NaN|Infinity|mHz/.test(v.detail)).toBe(false);
   });
 });

@@ -1,9 +1,12 @@
 /** Edge designs answer with guidance, not failure (robustness issue). */
 import { describe, expect, it } from 'vitest';
-import { analyse, reportJson } from '../../src/analysis/report.js';
+import { analyse } from '../../src/analysis/report.js';
+import { reportJson } from '../../src/present/json.js';
 import { validateDesign, type Design } from '../../src/model/design.js';
 import { DEMOS } from '../../src/model/demos.js';
 import { designFrom } from '../helpers.js';
+import { verdictsOf } from '../../src/present/verdicts.js';
+import { sayFinding } from '../../src/present/finding-words.js';
 
 const design = (patch: (d: any) => void): Design => designFrom('generic-sensor', patch);
 const finite = (x: unknown): boolean => typeof x === 'number' ? Number.isFinite(x) : Array.isArray(x) ? x.every(finite) : x && typeof x === 'object' ? Object.values(x).every(finite) : true;
@@ -25,8 +28,8 @@ describe('edge designs', () => {
   it('a gain below 1 asked of the non-inverting stage explains how to get there', () => {
     const r = analyse(design((d) => { d.target.scale = 0.005; d.target.zero = 2.5; d.target.topology = 'non-inverting'; }), { spreadTrials: 0 });
     expect(r.stage).toBeNull();
-    expect(r.warnings.find((w) => w.code === 'guidance')!.message).toMatch(/reverse the conductor/i);
-    expect(r.verdicts[0]!.level).toBe('fail');
+    expect(sayFinding(r.warnings.find((w) => w.code === 'guidance')!)).toMatch(/reverse the conductor/i);
+    expect(verdictsOf(r)[0]!.level).toBe('fail');
     expect(finite(reportJson(r))).toBe(true);
   });
   it('a gain below 1 with opposite polarity is met by an attenuating inverting stage', () => {
@@ -36,13 +39,13 @@ describe('edge designs', () => {
   });
   it('a ratio outside the resistance window says to widen it', () => {
     const r = analyse(design((d) => { d.target.scale = 12.5; d.target.range = [-0.2, 0.2]; d.target.resistanceMin = 1e3; d.target.resistanceMax = 2e4; }), { spreadTrials: 0 });
-    expect(r.warnings.find((w) => w.code === 'gain-unrealisable')!.message).toMatch(/widen the resistance window/);
+    expect(sayFinding(r.warnings.find((w) => w.code === 'gain-unrealisable')!)).toMatch(/widen the resistance window/);
     expect(finite(reportJson(r))).toBe(true);
   });
   it('a single supply with a range that needs negative output shows where it clips and what would fit', () => {
     const r = analyse(design((d) => { d.target.zero = 0.5; }), { spreadTrials: 0 });
     const w = r.warnings.find((x) => x.code === 'clips-in-range-low')!;
-    expect(w.message).toMatch(/split supply/);
+    expect(sayFinding(w)).toMatch(/split supply/);
     expect(r.clip!.measurandLow).toBeCloseTo((0.05 - 0.5) / 0.1, 0);
   });
   it('rails too low for the op-amp are refused with the field named', () => {
@@ -52,7 +55,7 @@ describe('edge designs', () => {
   });
   it('an op-amp that cannot reach the bandwidth gets a failure line with the figure', () => {
     const r = analyse(design((d) => { d.target.bandwidth = 1e6; }), { spreadTrials: 0 });
-    expect(r.verdicts.find((v) => v.title.startsWith('Bandwidth'))!.level).toBe('fail');
+    expect(verdictsOf(r).find((v) => v.title.startsWith('Bandwidth'))!.level).toBe('fail');
     expect(r.warnings.map((w) => w.code)).toEqual(expect.arrayContaining(['bandwidth-short', 'slew-limited']));
   });
   it('old files keep opening: version 1 is read as it is; 0 and newer versions are refused with a reason', () => {

@@ -8,6 +8,7 @@ import { MU0 } from '../../src/model/constants.js';
 import { mulberry32 } from '../../src/model/random.js';
 import type { Reading } from '../../src/model/readings.js';
 import { designFrom } from '../helpers.js';
+import { sayFinding } from '../../src/present/finding-words.js';
 
 const gauss = (rand: () => number) => Math.sqrt(-2 * Math.log(1 - rand())) * Math.cos(2 * Math.PI * rand());
 
@@ -55,7 +56,7 @@ describe('a voltage-output sensor from readings', () => {
     const r = analyse(two, { spreadTrials: 0 });
     const w = r.warnings.find((x) => x.code === 'readings-too-few')!;
     expect(w.level).toBe('fail');
-    expect(w.message).toMatch(/2 usable points; a fit needs at least 3 \(1 more/);
+    expect(sayFinding(w)).toMatch(/2 usable points; a fit needs at least 3 \(1 more/);
     expect(r.front.sensitivity).toBe(0.0125);
   });
   it('readings that leave the line above +12 A put a sensor limit there', () => {

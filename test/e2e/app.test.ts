@@ -210,15 +210,6 @@ describe('the app in Chromium', () => {
     await page.context().close();
   });
 
-  it('marks each edit for the benchmark (its time is measured by npm run bench, never asserted here)', async () => {
-    const { page } = await watchedPage(h);
-    await page.goto(h.url);
-    await expect.poll(() => partsText(page)).toMatch(/R1/);
-    await typeInto(page, 'sensor.hallSensitivity', '27 mV/mT');
-    await expect.poll(() => page.evaluate(() => performance.getEntriesByName('gw-edit').length)).toBeGreaterThan(0);
-    await page.context().close();
-  });
-
   it('edge designs show guidance and never NaN or Infinity: a buffer, then a target no stage can reach', async () => {
     const { page, errors } = await watchedPage(h);
     await page.goto(h.url);

@@ -125,7 +125,8 @@ describe('a refused edit never leaves a value on screen that is not in force', (
     await typeInto(page, 'sensor.hallSensitivity', '30 mV/mT');
     await typeInto(page, 'sensor.hallSensitivity', '40');
     release();
-    await expect.poll(() => page.evaluate(() => performance.getEntriesByName('gw-edit').length)).toBe(2);
+    // The later edit wins: the design kept (autosaved) holds 40 mV/mT = 40 V/T, not the first edit's 30.
+    await expect.poll(() => page.evaluate(() => JSON.parse(localStorage.getItem('gainwright.autosave') ?? '{}')?.design?.sensor?.hallSensitivity)).toBe(40);
     await expect.poll(() => field(page, 'sensor.hallSensitivity').inputValue()).toBe('40 mV/mT');
     await page.context().close();
   });

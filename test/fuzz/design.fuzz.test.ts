@@ -17,6 +17,8 @@ import { COVERAGE, scaleStack, TRIMMER_TOLERANCE } from '../../src/solve/trimmer
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { verdictsOf } from '../../src/present/verdicts.js';
+import { sayFinding } from '../../src/present/finding-words.js';
 
 const RUNS = Number(process.env.FUZZ_RUNS ?? 2000);
 const SEED = 20261201;
@@ -41,7 +43,7 @@ function badFigure(r: Report): string | null {
 
 /** Words a person reads: verdicts, findings, key figures and the text report. */
 const shownText = (r: Report) => [
-  ...r.verdicts.map((v) => `${v.title} ${v.detail}`), ...r.warnings.map((w) => w.message),
+  ...verdictsOf(r).map((v) => `${v.title} ${v.detail}`), ...r.warnings.map((w) => sayFinding(w)),
   ...keyFigures(r).map((f) => `${f.value} ${f.note ?? ''}`), textReport(r),
 ].join('\n');
 
@@ -108,7 +110,7 @@ describe('random valid designs', () => {
       expect(badFigure(r)).toBeNull();
       // A figure that is absent says why.
       if (r.clip === null) expect(Object.keys(r.absent).length).toBeGreaterThan(0);
-      for (const verdict of r.verdicts) expect(verdict.detail).not.toMatch(/NaN|Infinity/);
+      for (const verdict of verdictsOf(r)) expect(verdict.detail).not.toMatch(/NaN|Infinity/);
     }), { numRuns: RUNS, seed: SEED });
     expect(analysed).toBeGreaterThan(RUNS / 2);
   }, 600_000);
@@ -235,7 +237,7 @@ describe('reachable targets are solved', () => {
       // Over this narrow range (±0.1) the output spans a few mV; a reference within a hair of a rail (no pot can
       // centre there) may leave a zero just off by more than 0.1 % of it: a refusal that says what to change.
       const zeroOff = r.warnings.find((w) => w.code === 'zero-off-target');
-      if (zeroOff) { expect(zeroOff.message).toMatch(/move the zero|widen the range|zero trimmer/); return; }
+      if (zeroOff) { expect(sayFinding(zeroOff)).toMatch(/move the zero|widen the range|zero trimmer/); return; }
       expect(codes, JSON.stringify(t)).not.toContain('gain-unrealisable');
       expect(codes).not.toContain('reference-unrealisable');
       // Near unity a span trimmer has little leverage ((G−1)/G per unit of Rf): where covering the stack would

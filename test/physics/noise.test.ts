@@ -5,6 +5,7 @@ import { compile, type Element } from '../../src/circuit/mna.js';
 import { BOLTZMANN } from '../../src/model/constants.js';
 import { analyse } from '../../src/analysis/report.js';
 import { designFrom } from '../helpers.js';
+import { verdictsOf } from '../../src/present/verdicts.js';
 
 describe('thermal noise (Johnson 1928, Nyquist 1928: e = √(4kTR), k exact per SI 2019)', () => {
   it('uses the exact Boltzmann constant 1.380649e-23 J/K (SI Brochure, 9th ed.)', () => {
@@ -115,7 +116,7 @@ describe('1/f noise (density² = white²·(1 + f_c/f); Motchenbacher & Connelly 
   });
   it('the noise verdict explains the default band and quotes the 0.1–10 Hz figure', () => {
     const r = analyse(designFrom('bench-clamp'), { spreadTrials: 0 });
-    const line = r.verdicts.find((v) => v.title.startsWith('Noise'))!;
+    const line = verdictsOf(r).find((v) => v.title.startsWith('Noise'))!;
     expect(line.detail).toMatch(/default band/);
     expect(line.detail).toMatch(/100 mHz/);
     expect(r.noise!.bandIsDefault).toBe(true);

@@ -3,6 +3,7 @@ import { chooseTopology, idealStage, invertingOutput, nonInvertingOutput } from 
 import { sensorFront } from '../../src/physics/sensors.js';
 import type { Design } from '../../src/model/design.js';
 import { designFrom } from '../helpers.js';
+import { guidanceWords, stageReasonWords } from '../../src/present/finding-words.js';
 
 const design = (patch: (d: any) => void = () => {}): Design => designFrom('generic-sensor', patch);
 
@@ -33,7 +34,7 @@ describe('idealStage and chooseTopology', () => {
     const d = design((x) => { x.target.scale = -0.1; });
     const c = chooseTopology(d, sensorFront(d.sensor, d));
     expect(c.chosen?.topology).toBe('inverting');
-    expect(c.considered[0]!.reasons.join(' ')).toMatch(/polarity/);
+    expect(c.considered[0]!.reasons).toContainEqual({ code: 'polarity-wrong', keeps: true });
     // Vp = (zero + G·Vq)/(1+G) with G = 8.
     expect(c.chosen!.reference).toBeCloseTo((4.5 + 8 * 2.5) / 9, 9);
   });
@@ -42,7 +43,8 @@ describe('idealStage and chooseTopology', () => {
     const d = design((x) => { x.target.topology = 'inverting'; x.target.scale = 0.1; });
     const c = chooseTopology(d, sensorFront(d.sensor, d));
     expect(c.chosen).toBeNull();
-    const text = c.guidance.join(' ');
+    expect(c.guidance).toEqual([{ code: 'polarity-cause', topology: 'inverting', rises: false, other: 'non-inverting', measurand: 'A' }]);
+    const text = c.guidance.map(guidanceWords).join(' ');
     expect(text).toMatch(/polarity is the cause/);
     expect(text).toMatch(/Reverse the conductor/);
     expect(text).toMatch(/non-inverting stage/);
@@ -63,14 +65,17 @@ describe('idealStage and chooseTopology', () => {
     const d = design((x) => { x.target.scale = 0.005; x.target.zero = 2.5; x.target.topology = 'non-inverting'; });
     const c = chooseTopology(d, sensorFront(d.sensor, d));
     expect(c.chosen).toBeNull();
-    expect(c.guidance.join(' ')).toMatch(/reverse the conductor/i);
+    expect(c.guidance.map((g) => g.code)).toContain('attenuate-same-polarity');
+    expect(c.guidance.map(guidanceWords).join(' ')).toMatch(/reverse the conductor/i);
   });
   it('inputs that leave the op-amp input range rule out the non-inverting stage', () => {
     // The sensor swings to 2.5 + 0.0125·400 = 7.5 V … but the input stops at 9 − 3 = 6 V.
     const d = design((x) => { x.opamp.inputHigh = 3; x.target.range = [-100, 300]; x.target.scale = 0.0125 * 1.2; x.target.zero = 3; x.opamp.outputHigh = 0.1; });
     const s = idealStage('non-inverting', d, sensorFront(d.sensor, d));
     expect(s.feasible).toBe(false);
-    expect(s.reasons.join(' ')).toMatch(/input range/);
+    const why = s.reasons.find((x) => x.code === 'inputs-outside');
+    expect(why).toMatchObject({ what: 'follow-sensor', inputHigh: 6 });
+    expect(stageReasonWords(why!)).toMatch(/input range/);
   });
   it('a unity buffer is feasible only when the zero already matches', () => {
     const d = design((x) => { x.target.scale = 0.0125; x.target.zero = 2.5; });

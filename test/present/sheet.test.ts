@@ -3,6 +3,7 @@ import { errorBudgetRows, sheetStatus, trimmerStarts } from '../../src/present/s
 import { chartText } from '../../src/present/charts.js';
 import { analyse } from '../../src/analysis/report.js';
 import { designFrom } from '../helpers.js';
+import { verdictsOf } from '../../src/present/verdicts.js';
 
 describe('build sheet rows', () => {
   it('sheetStatus marks a design with a failing verdict as failed and names the failures', () => {
@@ -10,7 +11,7 @@ describe('build sheet rows', () => {
     expect(sheetStatus(bad)).toMatchObject({ failed: true });
     expect(sheetStatus(bad).line).toMatch(/^FAILED DESIGN: do not build\. No design/);
     const good = analyse(designFrom('generic-sensor'), { spreadTrials: 0 });
-    expect(sheetStatus(good).failed).toBe(good.verdicts.some((v) => v.level === 'fail'));
+    expect(sheetStatus(good).failed).toBe(verdictsOf(good).some((v) => v.level === 'fail'));
   });
   it('errorBudgetRows lists every term of the budget, then the totals before and after calibration', () => {
     const r = analyse(designFrom('bench-clamp'), { spreadTrials: 0 });
