@@ -1,6 +1,6 @@
 import type { ReactiveController, ReactiveControllerHost } from 'lit';
 import {
-  MAX_OPAMP_LIST_BYTES, MAX_OPAMPS, OPAMP_LIST_KEY, compareOpAmps, parseOpAmpListText, problemWords, serialiseOpAmpList, supplyOptions,
+  MAX_OPAMP_LIST_BYTES, MAX_OPAMPS, OPAMP_LIST_KEY, comparisonRows, parseOpAmpListText, problemWords, serialiseOpAmpList, supplyChoices,
   type ComparisonRow, type Design, type OpAmpSpec, type Problem, type Report, type SupplyOption,
 } from '../src/index.js';
 
@@ -107,12 +107,12 @@ export class ComparisonController implements ReactiveController {
     const design = this.host.currentDesign;
     const report = this.host.currentReport ?? undefined;
     if (this.stale('opamps')) {
-      this.rows = compareOpAmps(design, this.own, report);
+      this.rows = comparisonRows(design, this.own, report);
       this.computed.opamps = design;
       this.rowsOwnVersion = this.ownVersion;
     }
     if (this.stale('supplies')) {
-      this.supplies = supplyOptions(design, report);
+      this.supplies = supplyChoices(design, report);
       this.computed.supplies = design;
     }
     this.host.requestUpdate();

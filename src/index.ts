@@ -58,9 +58,9 @@ export type { SensorFromReadings } from './analysis/sensor-readings.js';
 export { fitLines, sensorReadingsLines, trimLines, residualChart, probeSheetRows } from './present/readings.js';
 
 // Op-amps side by side and supply choices (issue 18).
-export { compareOpAmps, candidates, withOpAmp } from './analysis/compare.js';
+export { candidates, withOpAmp } from './analysis/compare.js';
 export type { ComparisonRow, Misfit, OpAmpCandidate, RowFigures } from './analysis/compare.js';
-export { supplyOptions, withSupply } from './analysis/supply-options.js';
+export { withSupply } from './analysis/supply-options.js';
 export type { SupplyKind, SupplyOption } from './analysis/supply-options.js';
 export { OPAMP_LIST_KEY, MAX_OPAMPS, MAX_OPAMP_LIST_BYTES, parseOpAmpListText, serialiseOpAmpList } from './model/opamp-list.js';
-export { LIMIT_WORDS, SOURCE_WORDS, SUPPLY_WORDS, hoursText, misfitWords, railsText, rangeText } from './present/comparison.js';
+export { LIMIT_WORDS, SOURCE_WORDS, SUPPLY_WORDS, comparisonRows, hoursText, misfitWords, railsText, rangeText, supplyChoices, worstVerdict } from './present/comparison.js';

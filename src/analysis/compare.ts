@@ -5,7 +5,8 @@
  */
 import type { Design, OpAmpSpec } from '../model/design.js';
 import { OPAMP_ARCHETYPES } from '../model/opamps.js';
-import { analyse, peakRange, type Report } from './report.js';
+import { analyse, type Report } from './report.js';
+import { peakRange } from '../physics/topology.js';
 import type { ClipCause } from './analysis.js';
 
 /** One op-amp to try: where it comes from, and its figures. */
@@ -49,8 +50,8 @@ export interface RowFigures {
   batteryLife: number | null;
   /** Hours until the output first clips inside the range as the battery sags (null: never, or no battery). */
   hoursToClip: number | null;
-  /** The worst line of the report's verdict. */
-  verdict: 'pass' | 'caution' | 'fail';
+  /** The worst line of the report's verdict (judged by the caller: the verdict's thresholds are the presentation's). */
+  verdict: VerdictLevel;
   /** Codes of the report's fail and caution findings, in its order. */
   findings: string[];
 }
@@ -63,6 +64,13 @@ export interface ComparisonRow extends RowFigures {
   /** Whether this op-amp is the design's own (the same figures). */
   current: boolean;
 }
+
+export type VerdictLevel = 'pass' | 'caution' | 'fail';
+/**
+ * How a report is judged: its worst verdict level. The verdict lines and their thresholds live in the
+ * presentation layer (src/present/verdicts.ts), which passes this in (`comparisonRows`, `supplyChoices`).
+ */
+export type Judge = (r: Report) => VerdictLevel;
 
 /** What the comparison runs the report with: the row needs no Monte Carlo and no waveform. */
 export const COMPARE_OPTIONS = { spreadTrials: 0 } as const;
@@ -87,7 +95,7 @@ export function candidates(design: Design, own: readonly OpAmpSpec[] = []): OpAm
 }
 
 /** Reads a row's figures off a full report. */
-export function figuresOf(r: Report): RowFigures {
+export function figuresOf(r: Report, judge: Judge): RowFigures {
   const d = r.design;
   const [a, b] = peakRange(d);
   const misfits: Misfit[] = [];
@@ -117,14 +125,14 @@ export function figuresOf(r: Report): RowFigures {
     errorAfterTrim: r.errors?.afterTrim ?? null,
     supplyCurrent: r.supply?.current ?? null, batteryLife: r.supply?.batteryLife ?? null,
     hoursToClip: r.batteryClip?.hoursToClip ?? null,
-    verdict: r.verdicts[0]?.level ?? 'fail',
+    verdict: judge(r),
     findings: r.warnings.filter((w) => w.level === 'fail' || w.level === 'caution').map((w) => w.code),
   };
 }
 
 /** Reads one row off the full report of the design with the candidate's op-amp. */
-export function rowOf(candidate: OpAmpCandidate, r: Report, current: boolean): ComparisonRow {
-  return { source: candidate.source, id: candidate.id, name: candidate.opamp.name, opamp: candidate.opamp, current, ...figuresOf(r) };
+export function rowOf(candidate: OpAmpCandidate, r: Report, current: boolean, judge: Judge): ComparisonRow {
+  return { source: candidate.source, id: candidate.id, name: candidate.opamp.name, opamp: candidate.opamp, current, ...figuresOf(r, judge) };
 }
 
 const RANK = { pass: 0, caution: 1, fail: 2 } as const;
@@ -144,11 +152,11 @@ export function sortRows<T extends RowFigures>(rows: T[]): T[] {
  * the person's own), one row each, passing first. `report` may pass the design's report already computed
  * (the app has it), so the design's own op-amp is not analysed twice.
  */
-export function compareOpAmps(design: Design, own: readonly OpAmpSpec[] = [], report?: Report): ComparisonRow[] {
+export function compareOpAmps(design: Design, judge: Judge, own: readonly OpAmpSpec[] = [], report?: Report): ComparisonRow[] {
   const rows = candidates(design, own).map((cand) => {
     const current = sameFigures(cand.opamp, design.opamp);
     const r = current && report ? report : analyse(withOpAmp(design, cand.opamp), COMPARE_OPTIONS);
-    return rowOf(cand, r, current);
+    return rowOf(cand, r, current, judge);
   });
   return sortRows(rows);
 }

@@ -8,7 +8,7 @@
 import type { Design, Supply } from '../model/design.js';
 import { REGULATOR_DROPOUT } from '../model/constants.js';
 import { analyse, type Report } from './report.js';
-import { COMPARE_OPTIONS, figuresOf, type RowFigures } from './compare.js';
+import { COMPARE_OPTIONS, figuresOf, type Judge, type RowFigures } from './compare.js';
 
 export type SupplyKind = 'as-is' | 'regulator' | 'split' | 'pair';
 
@@ -79,14 +79,14 @@ const KINDS: readonly SupplyKind[] = ['as-is', 'regulator', 'split', 'pair'];
  * split rails, a second battery), each a full analysis; empty without a battery. `report` may pass the
  * design's own report (the app has it).
  */
-export function supplyOptions(design: Design, report?: Report): SupplyOption[] {
+export function supplyOptions(design: Design, judge: Judge, report?: Report): SupplyOption[] {
   if (!design.supply.battery) return [];
   const out: SupplyOption[] = [];
   for (const kind of KINDS) {
     const v = withSupply(design, kind);
     if (!v) continue;
     const r = kind === 'as-is' && report ? report : analyse(v.design, COMPARE_OPTIONS);
-    out.push({ kind, supply: v.design.supply, zero: v.design.target.zero, regulatorDropped: v.regulatorDropped, current: kind === 'as-is', ...figuresOf(r) });
+    out.push({ kind, supply: v.design.supply, zero: v.design.target.zero, regulatorDropped: v.regulatorDropped, current: kind === 'as-is', ...figuresOf(r, judge) });
   }
   return out;
 }

@@ -26,12 +26,11 @@ import { MAX_READINGS_TEXT, parseReadings, unitFactor, type ParsedReadings } fro
 import { fitJson, fitReadings } from '../analysis/fit.js';
 import { trimFromReadings, trimJson } from '../analysis/trim.js';
 import { fitLines, trimLines } from '../present/readings.js';
-import { compareOpAmps } from '../analysis/compare.js';
-import { comparisonJson, comparisonLines } from '../present/comparison.js';
+import { comparisonJson, comparisonLines, comparisonRows } from '../present/comparison.js';
 import { MAX_OPAMP_LIST_BYTES, parseOpAmpListText } from '../model/opamp-list.js';
 import { terminalLine } from '../present/inert.js';
 import { sensorFrontAtRail } from '../physics/sensors.js';
-import { SAFETY_CAUTIONS } from '../analysis/report.js';
+import { cautionsFor } from '../present/cautions.js';
 import type { OpAmpSpec } from '../model/design.js';
 
 export interface Io {
@@ -270,13 +269,13 @@ function compareCommand(args: string[], json: boolean, io: Io, opampsFile: strin
     if (!parsed.ok) { io.err(`gainwright: ${shown(opampsFile)} is not a valid op-amp list:\n${problemLines(parsed.problems).map((l) => `  ${l}`).join('\n')}\n`); return 2; }
     own = parsed.opamps;
   }
-  const rows = compareOpAmps(v.design, own);
+  const rows = comparisonRows(v.design, own);
   if (json) {
     for (const r of rows) io.out(JSON.stringify(comparisonJson(r)) + '\n');
     return 0;
   }
   const d = v.design;
-  const cautions = [...SAFETY_CAUTIONS, ...sensorFrontAtRail(d.sensor, d).cautions];
+  const cautions = cautionsFor(d.sensor.type, sensorFrontAtRail(d.sensor, d).cautions);
   const title = terminalLine(d.title);
   io.out([`${title}: op-amps compared`, '='.repeat(Math.min(title.length + 19, 80)), ...comparisonLines(rows, d.sensor.measurand, !!d.supply.battery), '', 'Safety', '------', ...cautions.map((c) => `  ${c}`)].join('\n') + '\n');
   return 0;

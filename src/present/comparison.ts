@@ -3,11 +3,28 @@
  * `--json`, and the short words the app's table uses. The rows themselves come from src/analysis/compare.ts.
  */
 import type { ClipCause } from '../analysis/analysis.js';
-import type { ComparisonRow, Misfit } from '../analysis/compare.js';
-import type { SupplyKind } from '../analysis/supply-options.js';
-import type { Supply } from '../model/design.js';
+import { compareOpAmps, type ComparisonRow, type Misfit, type VerdictLevel } from '../analysis/compare.js';
+import { supplyOptions, type SupplyKind, type SupplyOption } from '../analysis/supply-options.js';
+import type { Report } from '../analysis/report.js';
+import type { Design, OpAmpSpec, Supply } from '../model/design.js';
+import { verdictsOf } from './verdicts.js';
 import { formatEng } from '../model/units.js';
 import { terminalLine } from './inert.js';
+
+/** A report's worst verdict level: the first of its verdict lines (worst first), `fail` when there are none. */
+export function worstVerdict(r: Report): VerdictLevel {
+  return verdictsOf(r)[0]?.level ?? 'fail';
+}
+
+/** The op-amp comparison judged by the verdict lines (`compareOpAmps` with `worstVerdict`). */
+export function comparisonRows(design: Design, own: readonly OpAmpSpec[] = [], report?: Report): ComparisonRow[] {
+  return compareOpAmps(design, worstVerdict, own, report);
+}
+
+/** The supply choices judged by the verdict lines (`supplyOptions` with `worstVerdict`). */
+export function supplyChoices(design: Design, report?: Report): SupplyOption[] {
+  return supplyOptions(design, worstVerdict, report);
+}
 
 const f = (x: number | null, unit = '', d = 3) => (x === null ? '—' : formatEng(x, unit, d));
 

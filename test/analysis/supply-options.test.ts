@@ -1,7 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { analyse } from '../../src/analysis/report.js';
 import { batteryRails } from '../../src/analysis/analysis.js';
-import { regulatorVoltage, supplyOptions, withSupply } from '../../src/analysis/supply-options.js';
+import { regulatorVoltage, withSupply } from '../../src/analysis/supply-options.js';
+import { supplyChoices } from '../../src/present/comparison.js';
+import { verdictsOf } from '../../src/present/verdicts.js';
 import { validateDesign } from '../../src/model/design.js';
 import { archetype } from '../../src/model/opamps.js';
 import { designFrom, shuntOnSplitSupply } from '../helpers.js';
@@ -58,10 +60,10 @@ describe('a split battery in the report', () => {
   });
 });
 
-describe('supplyOptions(design)', () => {
+describe('supplyChoices(design)', () => {
   it('each option is the full report of its own design: figures equal, and the design is a valid file', () => {
     for (const design of [designFrom('bench-clamp'), designFrom('generic-sensor', (x) => { x.supply.battery = battery; })]) {
-      const options = supplyOptions(design);
+      const options = supplyChoices(design);
       expect(options.length).toBeGreaterThanOrEqual(3);
       for (const o of options) {
         const d = o.kind === 'as-is' ? design : withSupply(design, o.kind)!.design;
@@ -70,7 +72,7 @@ describe('supplyOptions(design)', () => {
         const r = analyse(d, { spreadTrials: 0 });
         const end = r.battery[r.battery.length - 1]!;
         expect({ low: o.measurandLow, high: o.measurandHigh, endLow: o.endOfLifeLow, endHigh: o.endOfLifeHigh, life: o.batteryLife, clip: o.hoursToClip, verdict: o.verdict })
-          .toEqual({ low: r.clip!.measurandLow, high: r.clip!.measurandHigh, endLow: end.measurandLow, endHigh: end.measurandHigh, life: r.supply!.batteryLife, clip: r.batteryClip!.hoursToClip, verdict: r.verdicts[0]!.level });
+          .toEqual({ low: r.clip!.measurandLow, high: r.clip!.measurandHigh, endLow: end.measurandLow, endHigh: end.measurandHigh, life: r.supply!.batteryLife, clip: r.batteryClip!.hoursToClip, verdict: verdictsOf(r)[0]!.level });
       }
     }
   });
@@ -79,7 +81,7 @@ describe('supplyOptions(design)', () => {
   // 4.5 V, the zero itself: the high end of the range falls to (4.5 − 4.5)/0.1 = 0 A (closed form).
   it('a regulator holds the zero but cannot buy back the swing the battery loses', () => {
     const d = designFrom('generic-sensor', (x) => { x.supply.battery = battery; });
-    const reg = supplyOptions(d).find((o) => o.kind === 'regulator')!;
+    const reg = supplyChoices(d).find((o) => o.kind === 'regulator')!;
     expect(reg.supply.regulated!.voltage).toBe(5);
     expect(reg.supply.sensorRail).toBe('regulated');
     expect(reg.endOfLifeHigh!).toBeCloseTo(0, 1);
@@ -87,19 +89,19 @@ describe('supplyOptions(design)', () => {
   });
   it('split rails re-centre the zero on the new ground and leave out a regulator that cannot fit under the + rail', () => {
     const d = designFrom('bench-clamp');
-    const split = supplyOptions(d).find((o) => o.kind === 'split')!;
+    const split = supplyChoices(d).find((o) => o.kind === 'split')!;
     expect([split.supply.positive, split.supply.negative, split.zero]).toEqual([4.5, -4.5, 0]);
     // 5 V plus 0.3 V dropout does not fit under a 4.5 V rail.
     expect(split.regulatorDropped).toBe(true);
     expect(split.supply.regulated).toBeNull();
-    const pair = supplyOptions(d).find((o) => o.kind === 'pair')!;
+    const pair = supplyChoices(d).find((o) => o.kind === 'pair')!;
     expect([pair.supply.positive, pair.supply.negative, pair.zero, pair.regulatorDropped]).toEqual([9, -9, 0, false]);
   });
   it('the choice already in the design is not offered twice; no battery, no options', () => {
-    expect(supplyOptions(designFrom('bench-clamp')).map((o) => o.kind)).toEqual(['as-is', 'split', 'pair']);
-    expect(supplyOptions(designFrom('generic-sensor'))).toEqual([]);
+    expect(supplyChoices(designFrom('bench-clamp')).map((o) => o.kind)).toEqual(['as-is', 'split', 'pair']);
+    expect(supplyChoices(designFrom('generic-sensor'))).toEqual([]);
     // A split battery of 9 V: a 5 V regulator needs 5.3 V under a 4.5 V rail, so the 3.3 V one is offered.
-    const onSplit = supplyOptions(shuntOnSplitBattery('cmos-rail-to-rail'));
+    const onSplit = supplyChoices(shuntOnSplitBattery('cmos-rail-to-rail'));
     expect(onSplit.map((o) => o.kind)).toEqual(['as-is', 'regulator', 'pair']);
     expect(onSplit[1]!.supply.regulated!.voltage).toBe(3.3);
   });

@@ -9,8 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { startHarness, watchedPage, type Harness } from './harness.js';
-import { compareOpAmps } from '../../src/analysis/compare.js';
-import { supplyOptions } from '../../src/analysis/supply-options.js';
+import { comparisonRows, supplyChoices } from '../../src/present/comparison.js';
 import { demoDesign } from '../../src/model/demos.js';
 import { archetype } from '../../src/model/opamps.js';
 import { serialiseOpAmpList } from '../../src/model/opamp-list.js';
@@ -78,7 +77,7 @@ describe('the comparisons in the app', () => {
     // A wide window, so that the screenshot for the README holds every column.
     const { page, errors } = await openApp(h, { viewport: { width: 1760, height: 1000 } });
     await page.locator('gw-opamp-compare summary').click();
-    const expected = compareOpAmps(demoDesign()).map((r) => `${r.source}:${r.id}`);
+    const expected = comparisonRows(demoDesign()).map((r) => `${r.source}:${r.id}`);
     await expect.poll(() => rowIds(page)).toEqual(expected);
     // The demo's 9 V battery ends at 6.0 V: the general-purpose part's output stops at 4.5 V, the zero, there.
     expect(await page.locator('gw-opamp-compare tr[data-id="archetype:bipolar-general"]').getAttribute('class')).toBe('current');
@@ -134,7 +133,7 @@ describe('the comparisons in the app', () => {
   it('lists the supply choices for the battery demo and "Use" on split rails sets the rails and the zero', async () => {
     const { page, errors } = await openApp(h);
     await page.locator('gw-supply-options summary').click();
-    const expected = supplyOptions(demoDesign()).map((o) => o.kind);
+    const expected = supplyChoices(demoDesign()).map((o) => o.kind);
     await expect.poll(() => supplyRows(page).evaluateAll((rows) => rows.map((r) => r.getAttribute('data-kind')))).toEqual(expected);
     await page.locator('gw-supply-options tr[data-kind="split"] button').click();
     await expect.poll(() => field(page, 'supply.negative').inputValue()).toBe('-4.5 V');
