@@ -150,13 +150,13 @@ console.log('\n2. Full analysis (demo "bench-clamp")');
 // same design in the same run, so the ratio says how many reports the comparison costs.
 console.log('\n2b. Op-amp comparison (demo design, 20 op-amps)');
 {
-  const { compareOpAmps } = await b('analysis/compare.js');
+  const { comparisonRows } = await b('present/comparison.js');
   const { OPAMP_ARCHETYPES } = await b('model/opamps.js');
   const d = demoDesign();
   const own = [0.5, 2, 4].flatMap((k) => OPAMP_ARCHETYPES.map((a) => ({ ...a.spec, name: `${a.id} ×${k}`, gbw: a.spec.gbw * k, supplyCurrent: a.spec.supplyCurrent * k })));
-  const rows = compareOpAmps(d, own);
+  const rows = comparisonRows(d, own);
   const one = time(() => analyse(d, { spreadTrials: 0 }), 20);
-  const all = time(() => compareOpAmps(d, own), 5);
+  const all = time(() => comparisonRows(d, own), 5);
   line(`compare ${rows.length} op-amps, median`, ms(all), 'budget 100 ms');
   line('  one analyse() of the same design (baseline)', ms(one), `${(all / one).toFixed(1)} reports' worth`);
   const front = sensorFront(d.sensor, d);
