@@ -241,7 +241,17 @@ export interface Supply {
    */
   tolerance: number;
   /** Battery feeding the positive rail (and the regulator), or null for a bench supply. */
-  battery: { fresh: number; endOfLife: number; capacity: number } | null;
+  battery: {
+    fresh: number; endOfLife: number; capacity: number;
+    /**
+     * What the battery makes of the rails: `positive` (it is the positive rail, over `negative`), `split` (one
+     * battery split about the amplifier's ground by a rail splitter: ±half its voltage), `pair` (a second,
+     * equal battery makes the negative rail: ±its voltage). Default `positive`.
+     */
+    rails?: 'positive' | 'split' | 'pair';
+    /** Current the rail splitter itself draws, A (used with `split`; absent: SPLITTER_CURRENT, 1 mA). */
+    splitterCurrent?: number;
+  } | null;
 }
 
 export interface OpAmpSpec {
@@ -533,6 +543,32 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
   },
 };
 
+/** The op-amp's figures: the design's `opamp`, and each entry of an op-amp list file (src/model/opamp-list.ts). */
+export const OPAMP_SCHEMA: Spec = {
+  t: 'obj',
+  fields: {
+    name: { t: 'str', def: 'custom', maxLength: 80 },
+    gbw: num('hertz', 'positive', { min: 1, max: 1e11 }),
+    slewRate: num('volts per second', 'positive', { min: 1, max: 1e12 }),
+    openLoopGainDb: num('decibels', 'any', { min: 20, max: 200 }),
+    inputLow: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
+    inputHigh: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
+    outputLow: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
+    outputHigh: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
+    voltageNoise: num('volts per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-15 }),
+    currentNoise: num('amperes per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-18 }),
+    offsetVoltage: num('volts', 'nonneg', { max: 1, minAbs: 1e-12 }),
+    biasCurrent: num('amperes', 'any', { maxAbs: 1e-2, minAbs: 1e-18 }),
+    supplyCurrent: num('amperes', 'nonneg', { max: 10, minAbs: 1e-12 }),
+    outputResistance: opt(num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6 }), 50),
+    outputCurrent: opt(num('amperes', 'positive', { min: 1e-6, max: 100 }), 0.02),
+    offsetDrift: opt(num('volts per kelvin', 'nonneg', { max: 1e-2, minAbs: 1e-15 }), 0),
+    psrrDb: opt(num('decibels', 'any', { min: 20, max: 200 }), 80),
+    voltageNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
+    currentNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
+  },
+};
+
 const SCHEMA: Spec = {
   t: 'obj',
   fields: {
@@ -565,34 +601,13 @@ const SCHEMA: Spec = {
             fresh: num('volts', 'positive', { min: 0.1, max: 1000 }),
             endOfLife: num('volts', 'positive', { min: 0.1, max: 1000 }),
             capacity: num('coulombs', 'positive', { min: 0.36, max: 1e9 }),
+            rails: { t: 'str', oneOf: ['positive', 'split', 'pair'], def: 'positive' },
+            splitterCurrent: num('amperes', 'nonneg', { max: 1, minAbs: 1e-9, optional: true }),
           },
         },
       },
     },
-    opamp: {
-      t: 'obj',
-      fields: {
-        name: { t: 'str', def: 'custom', maxLength: 80 },
-        gbw: num('hertz', 'positive', { min: 1, max: 1e11 }),
-        slewRate: num('volts per second', 'positive', { min: 1, max: 1e12 }),
-        openLoopGainDb: num('decibels', 'any', { min: 20, max: 200 }),
-        inputLow: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
-        inputHigh: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
-        outputLow: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
-        outputHigh: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
-        voltageNoise: num('volts per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-15 }),
-        currentNoise: num('amperes per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-18 }),
-        offsetVoltage: num('volts', 'nonneg', { max: 1, minAbs: 1e-12 }),
-        biasCurrent: num('amperes', 'any', { maxAbs: 1e-2, minAbs: 1e-18 }),
-        supplyCurrent: num('amperes', 'nonneg', { max: 10, minAbs: 1e-12 }),
-        outputResistance: opt(num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6 }), 50),
-        outputCurrent: opt(num('amperes', 'positive', { min: 1e-6, max: 100 }), 0.02),
-        offsetDrift: opt(num('volts per kelvin', 'nonneg', { max: 1e-2, minAbs: 1e-15 }), 0),
-        psrrDb: opt(num('decibels', 'any', { min: 20, max: 200 }), 80),
-        voltageNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
-        currentNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
-      },
-    },
+    opamp: OPAMP_SCHEMA,
     target: {
       t: 'obj',
       fields: {
@@ -779,6 +794,10 @@ function crossCheck(d: Design, problems: Problem[]): void {
   if (e.temperatureMin > e.temperature) p('environment.temperatureMin', 'must not be above environment.temperature: lower environment.temperatureMin or raise environment.temperature', ['environment.temperature']);
   if (e.temperature > e.temperatureMax) p('environment.temperatureMax', 'must not be below environment.temperature: raise environment.temperatureMax or lower environment.temperature', ['environment.temperature']);
   if (d.supply.battery && d.supply.battery.fresh <= d.supply.battery.endOfLife) p('supply.battery.endOfLife', 'must be below supply.battery.fresh', ['supply.battery.fresh']);
+  // A split battery or a pair of batteries makes symmetric rails about the amplifier's ground.
+  if (d.supply.battery && d.supply.battery.rails !== 'positive' && Math.abs(d.supply.negative + d.supply.positive) > 1e-9 * d.supply.positive) {
+    p('supply.negative', `must be −supply.positive with ${d.supply.battery.rails === 'split' ? 'a split battery' : 'a second battery'} (the rails are symmetric about ground): set supply.negative to ${-d.supply.positive} V`, ['supply.positive', 'supply.battery.rails']);
+  }
   if (d.supply.sensorRail === 'regulated' && !d.supply.regulated) p('supply.sensorRail', 'is the regulated rail, but supply.regulated is off: feed the sensor from the positive rail or keep supply.regulated', ['supply.regulated']);
   if (d.supply.referenceRail === 'regulated' && !d.supply.regulated) p('supply.referenceRail', 'is the regulated rail, but supply.regulated is off: take the reference from the positive rail or keep supply.regulated', ['supply.regulated']);
   if (d.supply.regulated && d.supply.regulated.voltage + d.supply.regulated.dropout > span) {
