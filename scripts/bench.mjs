@@ -146,6 +146,26 @@ console.log('\n2. Full analysis (demo "bench-clamp")');
   line('  the same with mathjs lusolve (baseline)', ms(theirs), `${(theirs / ours).toFixed(0)}× slower`);
 }
 
+// 2b. Op-amp comparison ----------------------------------------------------------------------------------
+// The demo design with 20 op-amps: the five archetypes and fifteen variants of them (a person's own list, a
+// scenario of our own: each archetype with its GBW and supply current scaled). Baseline: one analyse() of the
+// same design in the same run, so the ratio says how many reports the comparison costs.
+console.log('\n2b. Op-amp comparison (demo design, 20 op-amps)');
+{
+  const { comparisonRows } = await b('present/comparison.js');
+  const { OPAMP_ARCHETYPES } = await b('model/opamps.js');
+  const d = demoDesign();
+  const own = [0.5, 2, 4].flatMap((k) => OPAMP_ARCHETYPES.map((a) => ({ ...a.spec, name: `${a.id} ×${k}`, gbw: a.spec.gbw * k, supplyCurrent: a.spec.supplyCurrent * k })));
+  const rows = comparisonRows(d, own);
+  const one = time(() => analyse(d, { spreadTrials: 0 }), 20);
+  const all = time(() => comparisonRows(d, own), 5);
+  line(`compare ${rows.length} op-amps, median`, ms(all), 'budget 100 ms');
+  line('  one analyse() of the same design (baseline)', ms(one), `${(all / one).toFixed(1)} reports' worth`);
+  const front = sensorFront(d.sensor, d);
+  const ideal = chooseTopology(d, front).chosen;
+  line('  of one report, the stage solve', ms(time(() => solveStage(d, front, ideal), 20)));
+}
+
 // 3. The app ---------------------------------------------------------------------------------------------
 console.log('\n3. The app');
 {
