@@ -155,8 +155,10 @@ export function score(err: number, parts: number, a: number, pref: number, floor
 
 /** 1.5^(parts − 2) for two to four parts: the part-count factor of `score`, exact in binary. */
 const PARTS_FACTOR = [1, 1, 1, 1.5, 2.25];
-/** First arms visited outward before the rest are left to the ascending scan (a few hundred: where the bound prunes, it has by then). */
+/** First arms visited outward before the rest may be left to the ascending scan. */
 const OUTWARD_VISITS = 256;
+/** About how many arms the ascending scan covers in the time of one outward visit. */
+const SCAN_PER_VISIT = 6;
 /** Relative margin on the stopping bound, far above the rounding of the logarithm (about 1e-16). */
 const BOUND_MARGIN = 1e-12;
 
@@ -271,8 +273,10 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
     if (!(bi > 0) || !Number.isFinite(bi)) return hint;
     const j0 = seek(bv, bn, hint, bi);
     let aF = -1;
+    const pairA = ak[i] !== ARM_SINGLE;
     for (let j = j0 - 1; j <= j0; j++) {
       if (j < 0 || j >= bn) continue;
+      if (pairSingleDone && pairA && bk[j] === ARM_SINGLE) continue;
       evaluated++;
       const e = rf ? rm * ((a + cA) / (bv[j]! + cB) / rk - 1) : fns.error(a, bv[j]!);
       if (!Number.isFinite(e)) continue;
@@ -285,6 +289,8 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
     return j0;
   };
 
+  // Set once every candidate of a two-part first arm with a single-part second arm has been offered (below).
+  let pairSingleDone = false;
   const logs = log10Values(tA), logPref = Math.log10(pref);
   // The least error anywhere (null: none; undefined: not yet scanned).
   let best: PairCandidate | null | undefined;
@@ -293,7 +299,8 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
     // The fewest parts a candidate can have with a single-part or a two-part first arm: the second arm adds one
     // part, or two when its table has no single parts (e.g. a window of series and parallel pairs only).
     const bLeast = singleIndices(tB).length > 0 ? 1 : 2;
-    const singleFactor = PARTS_FACTOR[1 + bLeast]!, pairFactor = PARTS_FACTOR[2 + bLeast]!;
+    const singleFactor = PARTS_FACTOR[1 + bLeast]!;
+    let pairFactor = PARTS_FACTOR[2 + bLeast]!;
     // A ratio form with k > 0 and cA, cB ≥ 0 has its ideal partner rising with a. Once that partner lies beyond
     // the last arm of the table (going up) or below the first (going down), no arm farther out on that side can
     // do better than the end of the table does for this one: |e| ≥ |m|·|(a + cA)/(b_end + cB)/k − 1|. A lower
@@ -306,6 +313,55 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
       const gap = goingUp ? (q > bHi ? (a + cA) / bHi / rk - 1 : 0) : (q < bLo ? 1 - (a + cA) / bLo / rk : 0);
       return gap > 0 ? Math.max(0, Math.abs(rm) * (gap - 1e-12) * (1 - 1e-9)) : 0;
     };
+    const singlesB = singleIndices(tB);
+    /**
+     * Offers every candidate of a two-part first arm outside [vLo, vHi) (those inside were visited) with a
+     * single-part second arm: for each single part s of the second table, the first arms whose ideal partner has
+     * s beside it (s = j0 − 1 or j0, so the partner lies in (b[s−1], b[s+1]]) form a run, a = k·(b + cB) − cA,
+     * widened a hair and checked exactly. The two-part first arms visited after it have only two-part partners
+     * left: four parts, so their bound takes 1.5². Not done (false) when the runs hold more than `most` arms.
+     */
+    const offerPairSingles = (vLo: number, vHi: number, most: number): boolean => {
+      if (!monotone || singlesB.length === 0 || singles.length === tA.size) return false;
+      const biOf = (a: number) => (a + cA) / rk - cB;
+      const bFirst = biOf(av[iStart]!), bLast = biOf(av[iEnd - 1]!);
+      let p0 = 0, p1 = singlesB.length;
+      { let lo = 0, hi = singlesB.length; while (lo < hi) { const mid = (lo + hi) >>> 1; if (bv[singlesB[mid]!]! < bFirst) lo = mid + 1; else hi = mid; } p0 = Math.max(lo - 1, 0); }
+      { let lo = 0, hi = singlesB.length; while (lo < hi) { const mid = (lo + hi) >>> 1; if (bv[singlesB[mid]!]! <= bLast) lo = mid + 1; else hi = mid; } p1 = Math.min(lo + 1, singlesB.length); }
+      const runFrom = new Int32Array(Math.max(p1 - p0, 0)), runTo = new Int32Array(Math.max(p1 - p0, 0));
+      let total = 0;
+      for (let p = p0; p < p1; p++) {
+        const sj = singlesB[p]!;
+        const aLo = sj > 0 ? rk * (bv[sj - 1]! + cB) - cA : -Infinity;
+        const aHi = sj + 1 < bn ? rk * (bv[sj + 1]! + cB) - cA : Infinity;
+        const from = Math.max(iStart, lowerBound(av, aLo - Math.abs(aLo) * 1e-9 - 1e-9));
+        const to = Math.min(iEnd, upperBound(av, aHi + Math.abs(aHi) * 1e-9 + 1e-9));
+        runFrom[p - p0] = from; runTo[p - p0] = to;
+        total += Math.max(to - from, 0);
+        if (total > most) return false;
+      }
+      let hint = -1;
+      for (let p = p0; p < p1; p++) {
+        const sj = singlesB[p]!;
+        for (let i = runFrom[p - p0]!; i < runTo[p - p0]!; i++) {
+          if (ak[i] === ARM_SINGLE || (i >= vLo && i < vHi)) continue;
+          const a = av[i]!;
+          const bi = biOf(a);
+          if (!(bi > 0) || !Number.isFinite(bi)) continue;
+          const j0 = hint = seek(bv, bn, hint, bi);
+          if (sj !== j0 - 1 && sj !== j0) continue;
+          evaluated++;
+          const e = rm * ((a + cA) / (bv[sj]! + cB) / rk - 1);
+          if (!Number.isFinite(e)) continue;
+          const lead = Math.max(Math.abs(e), floor) * PARTS_FACTOR[3]!;
+          if (lead * (1 + 0.5 * Math.abs(logs[i]! - logPref)) > worstKept * (1 + BOUND_MARGIN)) continue;
+          offer(i, sj, e, 3, lead * (1 + 0.5 * Math.abs(Math.log10(a / pref))));
+        }
+      }
+      pairSingleDone = true;
+      pairFactor = PARTS_FACTOR[4]!;
+      return true;
+    };
     // Each side: the next index, whether only single parts are left to visit (then `s` steps through
     // `singles`), and whether it is done.
     const iP = Math.min(Math.max(lowerBound(av, pref), iStart), iEnd);
@@ -314,13 +370,21 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
     let dnS = -1, upS = -1;
     // Each side's last partner index, where the next partner search starts.
     let jUp = -1, jDn = -1;
+    let split = false;
     for (let visits = 0; dn >= iStart || up < iEnd; visits++) {
-      // Where the bound does not prune (say a tiny floor with every arm near the preferred value), the
-      // arms left are offered by the cheaper ascending scan instead: the list kept is the same either way.
-      if (visits === OUTWARD_VISITS) {
-        scan(iStart, dn + 1, true);
-        scan(up, iEnd, true);
-        break;
+      // Where the bound does not prune (say a tiny floor, with low-error four-part pairs all around the
+      // preferred value), the candidates with a single part on one side only are offered at once, so that the
+      // two-part first arms left need a four-part bound; where even that does not prune, the arms left are
+      // offered by the ascending scan, several times cheaper per arm. Each is tried once the arms visited
+      // reach a sixth of those left (so the visit costs at most about twice what the better of the two would).
+      // The list kept is the same either way.
+      if (visits >= OUTWARD_VISITS && visits * SCAN_PER_VISIT >= dn + 1 - iStart + iEnd - up) {
+        if (!split && offerPairSingles(dn + 1, up, (dn + 1 - iStart + iEnd - up) >> 2)) { split = true; visits = 0; }
+        else {
+          scan(iStart, dn + 1, true);
+          scan(up, iEnd, true);
+          break;
+        }
       }
       const goUp = up < iEnd && (dn < iStart || av[up]! / pref <= pref / av[dn]!);
       const i = goUp ? up : dn;
@@ -375,7 +439,7 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
         const ae = Math.abs(e);
         if (ae < bestErr) { bestErr = ae; bestI = i; bestJ = j; }
         // The score is at least max(|e|, floor) (every other factor is ≥ 1, and rounding is monotone).
-        if (!rank || Math.max(ae, fl) > wk) continue;
+        if (!rank || Math.max(ae, fl) > wk || (pairSingleDone && ak[i] !== ARM_SINGLE && bk[j] === ARM_SINGLE)) continue;
         const parts = (ak[i] === ARM_SINGLE ? 1 : 2) + (bk[j] === ARM_SINGLE ? 1 : 2);
         const lead = Math.max(ae, fl) * PARTS_FACTOR[parts]!;
         if (lead * (1 + 0.5 * Math.abs(lg[i]! - lp)) > wk * (1 + BOUND_MARGIN)) continue;

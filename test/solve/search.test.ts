@@ -92,9 +92,10 @@ function rankedByBruteForce(t: ArmTable, prob: PairProblem, keep: number): Array
     if (a < (prob.aMin ?? 0) || a > (prob.aMax ?? Infinity)) continue;
     const bi = idealB(a);
     if (!(bi > 0) || !Number.isFinite(bi)) continue;
-    const j0 = t.value.findIndex((v) => v >= bi);
-    for (const j of j0 < 0 ? [t.size - 1] : [j0 - 1, j0]) {
-      if (j < 0) continue;
+    let lo = 0, hi = t.size;
+    while (lo < hi) { const mid = (lo + hi) >> 1; if (t.value[mid]! < bi) lo = mid + 1; else hi = mid; }
+    for (const j of [lo - 1, lo]) {
+      if (j < 0 || j >= t.size) continue;
       const e = error(a, t.value[j]!);
       if (!Number.isFinite(e)) continue;
       const parts = (t.kind[i] ? 2 : 1) + (t.kind[j] ? 2 : 1);
@@ -120,6 +121,18 @@ describe('the ranked list', () => {
       const floor = [0, 5e-4, 1e-3, 1e-2][n % 4]!;
       const keep = [1, 2, 3, 10][(n >> 2) % 4]!;
       const prob: PairProblem = { preferredA: pref, floor, aMin, aMax, ratio };
+      const got = searchPairs(t, t, prob, keep).ranked.map((c) => [c.a.ohms, c.b.ohms, c.error, c.score]);
+      expect(got, JSON.stringify(prob)).toEqual(rankedByBruteForce(t, prob, keep));
+    }
+  });
+  it('equals the brute-force ranking for divider-like problems on E96 two-part arms: a tiny floor in volts, one kept, a window of 2× about the preferred arm', () => {
+    // Low-error four-part pairs everywhere near the preferred arm, so the score bound prunes little by itself.
+    const t = armTable('E96', 1e3, 1e6, ['single', 'series', 'parallel']);
+    const rand = mulberry32(13);
+    for (let n = 0; n < 12; n++) {
+      const r = 0.05 + 0.9 * rand(), pref = 10 ** (3.5 + 2 * rand());
+      const prob: PairProblem = { preferredA: pref, floor: [1e-6, 1e-5, 1e-4][n % 3]!, aMin: pref / 2, aMax: pref * 2, ratio: { cA: 0, cB: 0, k: (1 - r) / r, m: -10 * r * (1 - r) } };
+      const keep = [1, 3][n % 2]!;
       const got = searchPairs(t, t, prob, keep).ranked.map((c) => [c.a.ohms, c.b.ohms, c.error, c.score]);
       expect(got, JSON.stringify(prob)).toEqual(rankedByBruteForce(t, prob, keep));
     }
