@@ -730,7 +730,7 @@ function crossCheck(d: Design, problems: Problem[]): void {
   if (d.supply.referenceRail === 'regulated' && !d.supply.regulated) p('supply.referenceRail', 'is the regulated rail, but supply.regulated is off: take the reference from the positive rail or keep supply.regulated', ['supply.regulated']);
   if (d.supply.regulated && d.supply.regulated.voltage + d.supply.regulated.dropout > span) {
     const need = +(d.supply.regulated.voltage + d.supply.regulated.dropout + d.supply.negative).toPrecision(4);
-    p('supply.regulated.voltage', `needs supply.positive of at least ${need} V (its ${+d.supply.regulated.voltage.toPrecision(4)} V plus ${+d.supply.regulated.dropout.toPrecision(3)} V dropout): raise supply.positive, lower supply.regulated.voltage or switch supply.regulated off`, ['supply.positive', 'supply.regulated']);
+    p('supply.regulated.voltage', `needs supply.positive of at least ${need} V (its ${+d.supply.regulated.voltage.toPrecision(4)} V plus ${+d.supply.regulated.dropout.toPrecision(3)} V dropout): raise supply.positive, lower supply.regulated.voltage or switch supply.regulated off`, ['supply.positive', 'supply.regulated', 'supply.regulated.dropout']);
   }
   if (d.opamp.inputLow + d.opamp.inputHigh >= span) {
     p('opamp.inputHigh', 'leaves no input common-mode range on these rails (opamp.inputLow + opamp.inputHigh is larger than the supply span): widen the rails or choose an op-amp whose inputs reach closer to them', ['opamp.inputLow', 'supply.positive']);
