@@ -136,3 +136,15 @@ export function closedLoopFigureRows(r: Report): FigureRow[] {
   if (c.proposal) rows.push({ label: 'Proposed winding', value: `${c.proposal.turns} turns, R_M ${f(c.proposal.measurementResistance, 'Ω')}`, note: `R_i ${f(c.proposal.compensation.inputResistance, 'Ω')}, C_i ${f(c.proposal.compensation.capacitance, 'F')}, R_z ${f(c.proposal.compensation.zeroResistance, 'Ω')}; holds ${f(c.proposal.maxCurrent, m)}` });
   return rows;
 }
+
+/** The turns trade as rows for the app (one per turn count, the proposal marked); empty for another sensor. */
+export function closedLoopTradeRows(r: Report): FigureRow[] {
+  const c = r.closedLoop;
+  if (!c) return [];
+  const m = r.design.sensor.measurand;
+  return c.trade.map((o) => ({
+    label: `${o.turns} turns${c.proposal?.turns === o.turns ? ' (proposed)' : ''}`,
+    value: o.fits ? `R_M ${f(o.measurementResistance, 'Ω')}, ${f(o.sensitivity, `V/${m}`)}` : 'does not hold the range',
+    note: `${f(o.supplyCurrent, 'A')} at the range end; ${f(o.inductance, 'H')}, corner ${f(o.windingCorner, 'Hz')}; margin ${o.phaseMargin === null ? '—' : `${o.phaseMargin.toFixed(0)}°`} with R_z ${f(o.compensation.zeroResistance, 'Ω')}, C_i ${f(o.compensation.capacitance, 'F')}${o.fits ? `; holds ${f(o.maxCurrent, m)}` : ''}`,
+  }));
+}

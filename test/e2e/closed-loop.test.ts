@@ -28,6 +28,8 @@ describe('closed-loop Hall sensor in the app', () => {
     expect(await partsText(page)).toMatch(/1000 turns/);
     await expect.poll(() => allText(page)).toMatch(/Largest current held at zero flux/);
     expect(await allText(page)).toMatch(/compensation winding/i);
+    // The turns trade, with its proposal marked.
+    expect(await page.locator('#turns-trade table').innerText()).toMatch(/\(proposed\)/);
     // Twice the turns: the sensitivity at R_M halves (Ampère: N_p·I_p = N_s·I_s).
     const turns = page.locator('input[data-path="sensor.compensationTurns"]');
     await turns.fill('2000');
