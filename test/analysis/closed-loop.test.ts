@@ -130,3 +130,22 @@ describe('closed-loop Hall sensor in the report', () => {
     expect(validateDesign(structuredClone(doc)).ok).toBe(true);
   });
 });
+
+describe('closed-loop Hall sensor on a sagging battery', () => {
+  it('the held range shrinks with the rail and a mid-rail reference follows it: (V/2 − swing − drop)/(R_o + R_w + R_M)·N_s', () => {
+    const d = designFrom('closed-loop-clamp', (x) => {
+      x.supply = { positive: 9, negative: 0, battery: { fresh: 9.6, endOfLife: 7.2, capacity: 565e-3 * 3600 } };
+      delete x.sensor.reference;
+      x.target = { ...x.target, zero: 4.5, range: [-20, 20] };
+    });
+    const r = analyse(d, { spreadTrials: 0 });
+    const s = d.sensor as ClosedLoopHallSensor;
+    const loop = 1 + 0.35123 * 36 + 82; // R_o + R_w (0.25 mm copper, IEC 60028) + R_M
+    const fresh = r.battery[0]!, end = r.battery[r.battery.length - 1]!;
+    expect(fresh.voltage).toBeCloseTo(9.6, 9);
+    expect(fresh.measurandHigh).toBeCloseTo(((9.6 / 2 - 1.7) / loop) * s.compensationTurns, 1);
+    expect(end.measurandHigh).toBeCloseTo(((7.2 / 2 - 1.7) / loop) * s.compensationTurns, 1);
+    // A rail splitter at V/2: the zero at R_M moves by half the sag, times the stage's gain on it.
+    expect(Math.abs(end.zeroShift)).toBeGreaterThan(0.5);
+  });
+});
