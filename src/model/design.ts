@@ -173,8 +173,11 @@ export interface ClosedLoopHallSensor extends SensorCommon {
   compensationTurns: number;
   /** Resistance of the compensation winding, Ω; when absent it is computed from `wire`. */
   windingResistance?: number;
-  /** The winding's copper wire: diameter and mean length of one turn, m (for R_w when not given). */
-  wire?: { diameter: number; turnLength: number } | null;
+  /**
+   * The winding's copper wire, for R_w when it is not given: its diameter (m) or its American wire gauge
+   * (`gauge`, used when no diameter is given), and the mean length of one turn (m).
+   */
+  wire?: { diameter?: number; gauge?: number; turnLength: number } | null;
   /** The measurement resistor R_M, Ω. */
   measurementResistance: number;
   /** Voltage R_M's low end is tied to, V (default: the middle of the rails). */
@@ -461,7 +464,7 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     windingResistance: num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6, optional: true }),
     wire: {
       t: 'obj', nullable: true, def: null,
-      fields: { diameter: num('metres', 'positive', { min: 1e-6, max: 0.1 }), turnLength: num('metres', 'positive', { min: 1e-4, max: 10 }) },
+      fields: { diameter: num('metres', 'positive', { min: 1e-6, max: 0.1, optional: true }), gauge: num('(AWG)', 'nonneg', { max: 56, whole: true, optional: true }), turnLength: num('metres', 'positive', { min: 1e-4, max: 10 }) },
     },
     measurementResistance: num('ohms', 'positive', { min: 1e-3, max: 1e7 }),
     reference: V({ optional: true }),
@@ -759,6 +762,7 @@ function crossCheck(d: Design, problems: Problem[]): void {
   if (s.type === 'closed-loop-hall') {
     if (s.hallSensitivity === 0) p('sensor.hallSensitivity', 'must not be zero');
     if (s.windingResistance === undefined && !s.wire) p('sensor.windingResistance', 'is needed, or sensor.wire (its diameter and mean turn length) to compute it', ['sensor.wire']);
+    if (s.wire && s.wire.diameter === undefined && s.wire.gauge === undefined) p('sensor.wire.diameter', 'is needed, or sensor.wire.gauge (AWG), to compute the winding\'s resistance', ['sensor.wire.gauge']);
     const ref = s.reference ?? (d.supply.positive + d.supply.negative) / 2;
     if (!(ref > d.supply.negative && ref < d.supply.positive)) p('sensor.reference', 'must lie between the rails so that the driver can drive the winding both ways', ['supply.positive', 'supply.negative']);
   }

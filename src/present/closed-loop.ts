@@ -7,7 +7,7 @@ import type { BomRow } from './bom.js';
 import type { Prim } from './schematic.js';
 import type { FigureRow } from './figures.js';
 import { formatEng } from '../model/units.js';
-import { closedLoopParts } from '../physics/closed-loop.js';
+import { awgDiameter, closedLoopParts, wireDiameter } from '../physics/closed-loop.js';
 import { rkmCode } from '../model/units.js';
 
 const f = (x: number, u: string) => formatEng(x, u, 3);
@@ -20,7 +20,7 @@ export function closedLoopBomRows(r: Report, dissipation: Map<string, number>, r
   const p = closedLoopParts(s, d.supply);
   const rows: BomRow[] = [];
   const wire = s.wire
-    ? `${f(s.wire.diameter, 'm')} enamelled copper, ${f(s.wire.turnLength, 'm')} mean turn, ${f(s.compensationTurns * s.wire.turnLength, 'm')} of wire, about ${f(p.windingResistance, 'Ω')} at 20 °C`
+    ? `${s.wire.diameter === undefined && s.wire.gauge !== undefined ? `AWG ${s.wire.gauge} (${f(awgDiameter(s.wire.gauge), 'm')})` : f(wireDiameter(s.wire), 'm')} enamelled copper, ${f(s.wire.turnLength, 'm')} mean turn, ${f(s.compensationTurns * s.wire.turnLength, 'm')} of wire, about ${f(p.windingResistance, 'Ω')} at 20 °C`
     : `copper, ${f(p.windingResistance, 'Ω')} as given`;
   rows.push({ ref: 'W1', value: `${s.compensationTurns} turns`, code: '', spec: `${wire}; ${f(p.inductance, 'H')} on this core`, dissipation: dissipation.get('RW') ?? null, rating: null, quantity: 1, role: 'compensation winding, spread evenly round the core; its lead order sets the loop\'s polarity' });
   rows.push({ ref: 'T1', value: 'gapped core', code: '', spec: `${f(s.core.pathLength, 'm')} mean path, ${f(s.core.area * 1e6, '')} mm² section, ${f(s.core.gap, 'm')} gap, μr ${s.core.permeability}`, dissipation: null, rating: null, quantity: 1, role: 'the clamp\'s core; the Hall sensor sits in its gap' });

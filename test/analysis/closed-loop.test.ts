@@ -121,6 +121,11 @@ describe('closed-loop Hall sensor in the report', () => {
     let v = validateDesign(structuredClone(doc));
     expect(v.ok).toBe(false);
     if (!v.ok) expect(v.problems.map((p) => p.path)).toContain('sensor.windingResistance');
+    doc.sensor.wire = { turnLength: 0.036 };
+    v = validateDesign(structuredClone(doc));
+    expect(v.ok).toBe(false);
+    if (!v.ok) expect(v.problems.map((p) => p.path)).toContain('sensor.wire.diameter');
+    doc.sensor.wire = null;
     doc.sensor.windingResistance = 12;
     doc.sensor.reference = 6;
     v = validateDesign(structuredClone(doc));
