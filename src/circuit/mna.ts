@@ -9,9 +9,23 @@
 
 export type ElementKind = 'R' | 'C' | 'L' | 'V' | 'I' | 'E' | 'H';
 
+/**
+ * What an element stands for in the stage, so that analyses find it by meaning rather than by its netlist
+ * name: the signal source, the sensor's zero, each rail, the op-amp's offset source and gain block, the
+ * sensor's source resistance.
+ */
+export type ElementRole = 'signal' | 'sensor-zero' | 'rail-positive' | 'rail-negative' | 'rail-regulated' | 'opamp-offset' | 'opamp-gain' | 'sensor-source';
+
 export interface Element {
   kind: ElementKind;
+  /** The netlist designator (unique in a circuit). */
   name: string;
+  /** What the element stands for, when an analysis needs to find it. */
+  role?: ElementRole;
+  /** The parts-list reference of the part this resistor realises (a trimmer gives two halves with the same part). */
+  part?: string;
+  /** That part's tolerance (fraction; a trimmer's is on its whole track). */
+  tolerance?: number;
   /** Node indices (0 = ground). For V, E: + and −. For I: current flows from `a` through the source into `b`. */
   a: number;
   b: number;

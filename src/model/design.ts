@@ -135,6 +135,15 @@ export interface CurrentTransformerSensor extends SensorCommon {
   windingResistance: number;
   /** Voltage the low end of the burden is tied to, V. */
   quiescent: number;
+  // --- issue 19 (turns and burden trade): optional core figures for the saturation current.
+  /**
+   * The core's magnetic cross-section, width × depth (m; depth absent: a square section), and its saturation
+   * flux density (T); absent or null: not stated.
+   */
+  core?: { width: number; depth?: number; saturation: number } | null;
+  /** Lowest frequency of interest, Hz (absent: 50 Hz, the lower mains frequency): the core saturates first there. */
+  lowestFrequency?: number;
+  // --- end issue 19
 }
 
 export interface ShuntSensor extends SensorCommon {
@@ -235,7 +244,17 @@ export interface Supply {
    */
   tolerance: number;
   /** Battery feeding the positive rail (and the regulator), or null for a bench supply. */
-  battery: { fresh: number; endOfLife: number; capacity: number } | null;
+  battery: {
+    fresh: number; endOfLife: number; capacity: number;
+    /**
+     * What the battery makes of the rails: `positive` (it is the positive rail, over `negative`), `split` (one
+     * battery split about the amplifier's ground by a rail splitter: ±half its voltage), `pair` (a second,
+     * equal battery makes the negative rail: ±its voltage). Default `positive`.
+     */
+    rails?: 'positive' | 'split' | 'pair';
+    /** Current the rail splitter itself draws, A (used with `split`; absent: SPLITTER_CURRENT, 1 mA). */
+    splitterCurrent?: number;
+  } | null;
 }
 
 export interface OpAmpSpec {
@@ -293,7 +312,31 @@ export interface Target {
   bandwidth: number;
   /** Which of the solver's ranked gain-network alternatives to build (0 = the top-ranked one). */
   alternative: number;
+  // --- issue 19: a range switch.
+  /**
+   * The switch's further positions: 1 to 3 ranges `{ scale, range }` after the first, which is this target's
+   * own `scale` and `range` (so a probe has 2 to 4 ranges; the zero and everything else are shared). Absent
+   * or empty: no switch.
+   */
+  ranges?: RangeSpec[];
+  /**
+   * How the switch is wired: `single-pole` switches the feedback arm alone (the zero moves with the gain and
+   * each range is zeroed on its own), `two-pole` also switches the reference so the zero holds; `auto`
+   * (absent) takes a single pole when the zero would move less than `analysis.zeroLimit` on every range.
+   */
+  rangeSwitch?: RangeSwitchChoice;
+  // --- end issue 19
 }
+
+/** Issue 19: one further position of a range switch. */
+export interface RangeSpec {
+  /** Output volts per measurand unit on this range (the same sign as the target's). */
+  scale: number;
+  /** The measurand range this position covers, [low, high]. */
+  range: [number, number];
+}
+export type RangeSwitchWiring = 'single-pole' | 'two-pole';
+export type RangeSwitchChoice = 'auto' | RangeSwitchWiring;
 
 export interface Output {
   /** Optional RC at the op-amp output: series resistance then capacitance to ground. */
@@ -439,6 +482,10 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     inductanceFactor: num('henries per turn squared', 'positive', { min: 1e-12, max: 1 }),
     windingResistance: opt(num('ohms', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
     quiescent: opt(V(), 0),
+    // --- issue 19: core cross-section and saturation for the trade sweep's saturation current.
+    core: { t: 'obj', nullable: true, optional: true, fields: { width: num('metres', 'positive', { min: 1e-5, max: 10 }), depth: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }), saturation: num('teslas', 'positive', { min: 1e-3, max: 100 }) } },
+    lowestFrequency: num('hertz', 'positive', { min: 1e-3, max: 1e6, optional: true }),
+    // --- end issue 19
   },
   // --- closed-loop Hall sensor (issue #20) ---
   'closed-loop-hall': {
@@ -499,6 +546,32 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
   },
 };
 
+/** The op-amp's figures: the design's `opamp`, and each entry of an op-amp list file (src/model/opamp-list.ts). */
+export const OPAMP_SCHEMA: Spec = {
+  t: 'obj',
+  fields: {
+    name: { t: 'str', def: 'custom', maxLength: 80 },
+    gbw: num('hertz', 'positive', { min: 1, max: 1e11 }),
+    slewRate: num('volts per second', 'positive', { min: 1, max: 1e12 }),
+    openLoopGainDb: num('decibels', 'any', { min: 20, max: 200 }),
+    inputLow: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
+    inputHigh: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
+    outputLow: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
+    outputHigh: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
+    voltageNoise: num('volts per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-15 }),
+    currentNoise: num('amperes per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-18 }),
+    offsetVoltage: num('volts', 'nonneg', { max: 1, minAbs: 1e-12 }),
+    biasCurrent: num('amperes', 'any', { maxAbs: 1e-2, minAbs: 1e-18 }),
+    supplyCurrent: num('amperes', 'nonneg', { max: 10, minAbs: 1e-12 }),
+    outputResistance: opt(num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6 }), 50),
+    outputCurrent: opt(num('amperes', 'positive', { min: 1e-6, max: 100 }), 0.02),
+    offsetDrift: opt(num('volts per kelvin', 'nonneg', { max: 1e-2, minAbs: 1e-15 }), 0),
+    psrrDb: opt(num('decibels', 'any', { min: 20, max: 200 }), 80),
+    voltageNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
+    currentNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
+  },
+};
+
 const SCHEMA: Spec = {
   t: 'obj',
   fields: {
@@ -531,34 +604,13 @@ const SCHEMA: Spec = {
             fresh: num('volts', 'positive', { min: 0.1, max: 1000 }),
             endOfLife: num('volts', 'positive', { min: 0.1, max: 1000 }),
             capacity: num('coulombs', 'positive', { min: 0.36, max: 1e9 }),
+            rails: { t: 'str', oneOf: ['positive', 'split', 'pair'], def: 'positive' },
+            splitterCurrent: num('amperes', 'nonneg', { max: 1, minAbs: 1e-9, optional: true }),
           },
         },
       },
     },
-    opamp: {
-      t: 'obj',
-      fields: {
-        name: { t: 'str', def: 'custom', maxLength: 80 },
-        gbw: num('hertz', 'positive', { min: 1, max: 1e11 }),
-        slewRate: num('volts per second', 'positive', { min: 1, max: 1e12 }),
-        openLoopGainDb: num('decibels', 'any', { min: 20, max: 200 }),
-        inputLow: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
-        inputHigh: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
-        outputLow: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
-        outputHigh: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
-        voltageNoise: num('volts per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-15 }),
-        currentNoise: num('amperes per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-18 }),
-        offsetVoltage: num('volts', 'nonneg', { max: 1, minAbs: 1e-12 }),
-        biasCurrent: num('amperes', 'any', { maxAbs: 1e-2, minAbs: 1e-18 }),
-        supplyCurrent: num('amperes', 'nonneg', { max: 10, minAbs: 1e-12 }),
-        outputResistance: opt(num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6 }), 50),
-        outputCurrent: opt(num('amperes', 'positive', { min: 1e-6, max: 100 }), 0.02),
-        offsetDrift: opt(num('volts per kelvin', 'nonneg', { max: 1e-2, minAbs: 1e-15 }), 0),
-        psrrDb: opt(num('decibels', 'any', { min: 20, max: 200 }), 80),
-        voltageNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
-        currentNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
-      },
-    },
+    opamp: OPAMP_SCHEMA,
     target: {
       t: 'obj',
       fields: {
@@ -580,6 +632,16 @@ const SCHEMA: Spec = {
         },
         bandwidth: opt(num('hertz', 'nonneg', { max: 1e10, minAbs: 1e-3 }), 0),
         alternative: opt(num('(index)', 'nonneg', { max: 50, whole: true }), 0),
+        // --- issue 19: a range switch's further positions and its wiring.
+        ranges: {
+          t: 'list', optional: true, maxItems: 3,
+          item: { t: 'obj', fields: {
+            scale: num('volts per measurand unit', 'any', { maxAbs: 1e6, minAbs: 1e-9 }),
+            range: { t: 'tuple', items: [num('measurand units', 'any', { maxAbs: 1e9, minAbs: 1e-12 }), num('measurand units', 'any', { maxAbs: 1e9, minAbs: 1e-12 })] },
+          } },
+        },
+        rangeSwitch: { t: 'str', oneOf: ['auto', 'single-pole', 'two-pole'], optional: true },
+        // --- end issue 19
       },
     },
     output: {
@@ -723,12 +785,22 @@ function crossCheck(d: Design, problems: Problem[]): void {
   if (d.supply.negative > 0) p('supply.negative', 'must be 0 V (single supply) or below 0 V (split supply)');
   if (d.target.range[0] >= d.target.range[1]) p('target.range[0]', 'must be below target.range[1]: the range runs from low to high', ['target.range[1]']);
   if (d.target.scale === 0) p('target.scale', 'must not be zero');
+  // Issue 19: each further range runs low to high and keeps the target's polarity (one stage, one sign).
+  (d.target.ranges ?? []).forEach((r, i) => {
+    if (r.range[0] >= r.range[1]) p(`target.ranges[${i}].range[0]`, `must be below target.ranges[${i}].range[1]: the range runs from low to high`, [`target.ranges[${i}].range[1]`]);
+    if (r.scale === 0) p(`target.ranges[${i}].scale`, 'must not be zero');
+    else if (Math.sign(r.scale) !== Math.sign(d.target.scale)) p(`target.ranges[${i}].scale`, 'must have the same sign as target.scale: one stage gives one polarity on every range', ['target.scale']);
+  });
   if (d.target.resistanceMin >= d.target.resistanceMax) p('target.resistanceMin', 'must be below target.resistanceMax', ['target.resistanceMax']);
   else if (d.target.resistanceMax / d.target.resistanceMin < 10) p('target.resistanceMax', 'must be at least ten times target.resistanceMin so that arms can be found: raise target.resistanceMax or lower target.resistanceMin', ['target.resistanceMin']);
   const e = d.environment;
   if (e.temperatureMin > e.temperature) p('environment.temperatureMin', 'must not be above environment.temperature: lower environment.temperatureMin or raise environment.temperature', ['environment.temperature']);
   if (e.temperature > e.temperatureMax) p('environment.temperatureMax', 'must not be below environment.temperature: raise environment.temperatureMax or lower environment.temperature', ['environment.temperature']);
   if (d.supply.battery && d.supply.battery.fresh <= d.supply.battery.endOfLife) p('supply.battery.endOfLife', 'must be below supply.battery.fresh', ['supply.battery.fresh']);
+  // A split battery or a pair of batteries makes symmetric rails about the amplifier's ground.
+  if (d.supply.battery && d.supply.battery.rails !== 'positive' && Math.abs(d.supply.negative + d.supply.positive) > 1e-9 * d.supply.positive) {
+    p('supply.negative', `must be −supply.positive with ${d.supply.battery.rails === 'split' ? 'a split battery' : 'a second battery'} (the rails are symmetric about ground): set supply.negative to ${-d.supply.positive} V`, ['supply.positive', 'supply.battery.rails']);
+  }
   if (d.supply.sensorRail === 'regulated' && !d.supply.regulated) p('supply.sensorRail', 'is the regulated rail, but supply.regulated is off: feed the sensor from the positive rail or keep supply.regulated', ['supply.regulated']);
   if (d.supply.referenceRail === 'regulated' && !d.supply.regulated) p('supply.referenceRail', 'is the regulated rail, but supply.regulated is off: take the reference from the positive rail or keep supply.regulated', ['supply.regulated']);
   if (d.supply.regulated && d.supply.regulated.voltage + d.supply.regulated.dropout > span) {
@@ -795,7 +867,11 @@ export function decodeDesignBytes(bytes: Uint8Array): { ok: true; text: string }
   }
 }
 
-const tooLarge = (): Problem => ({ path: '(file)', message: `is larger than ${MAX_DESIGN_BYTES / 1e6} MB; a design file is a few kB` });
+/** The one wording of a file over its size limit: `is larger than 1 MB; a design file is a few kB`. */
+export function tooLargeMessage(limit: number, what = 'a design file is a few kB'): string {
+  return `is larger than ${limit >= 1e6 ? `${limit / 1e6} MB` : `${limit / 1e3} kB`}; ${what}`;
+}
+const tooLarge = (): Problem => ({ path: '(file)', message: tooLargeMessage(MAX_DESIGN_BYTES) });
 
 /** Where JSON.parse stopped, as one line: the engine's own message quotes the text, control characters and all. */
 function jsonErrorAt(text: string, err: unknown): string {

@@ -115,6 +115,12 @@ export interface FindingData {
   'battery-zero-shift': { shift: number; cause: 'reference-on-battery' | 'ratiometric-sensor' | 'regulator-dropout' | 'battery-fed'; regulated: number | null; dropsOutBelow: number | null };
   'sensor-over-voltage': { high: number; rated: number; from: 'regulated' | 'battery' | 'positive' };
   'sensor-under-voltage': { low: number; rated: number; from: 'regulated' | 'battery' | 'positive' };
+  // --- issue 19: the range switch (src/analysis/ranges.ts).
+  'range-stage': { topology: string | null };
+  'range-wiring': { wiring: 'single-pole' | 'two-pole'; decidedBy: 'asked' | 'zero-holds' | 'zero-moves' | 'zero-unreachable'; singlePoleShift: number; limit: number; throws: number; idleCurrent: number };
+  'range-unbuilt': { position: number; scale: number; cause: 'zero-unreachable' | 'gain-unreachable'; measurand: string };
+  'range-zero-shift': { position: number; scale: number; shift: number; zero: number; residual: number; measurand: string };
+  // --- end issue 19
 }
 
 export type FindingCode = keyof FindingData;

@@ -147,6 +147,34 @@ export function calibrationSteps(r: Report): CalibrationStep[] {
   // The instrument advice (offset to null, polarity, probe ratio) is the one the findings give.
   const probe = r.warnings.find((w) => w.code === 'probe-ratio');
   if (probe) steps.push({ text: sayFinding(probe) });
+  rangeSteps(r, steps);
   steps.push({ text: 'Seal the trimmers (a dab of varnish) and write the date, the scale and the zero on the probe.' });
   return steps;
+}
+
+/**
+ * Issue 19: a range switch is calibrated range by range. The steps above are the first range's (switch at
+ * position 1); each further range repeats its own span (and, with two poles, its own zero) at its position.
+ * With one pole the zero trimmer is shared and stays where the first range set it: the zero of a further
+ * range is read, not turned.
+ */
+function rangeSteps(r: Report, steps: CalibrationStep[]): void {
+  const rs = r.ranges?.ok ? r.ranges.value : null;
+  if (!rs) return;
+  const m = r.design.sensor.measurand;
+  const name = (i: number, scale: number) => `Range ${i + 1} (${formatEng(scale, `V/${m}`, 3)})`;
+  const at = steps.findIndex((x) => x.trimmer !== undefined || x.expect !== undefined);
+  steps.splice(at < 0 ? steps.length : at, 0, { text: `${name(0, r.design.target.scale)}: set ${rs.switchRef} to position 1 and calibrate this range first.` });
+  const shared = rs.wiring === 'single-pole' ? r.stage?.parts.find((p) => p.role === 'zero-trim')?.ref : undefined;
+  for (const pos of rs.positions.slice(1)) {
+    if (!pos.report?.dc) continue;
+    const n = name(pos.index, pos.scale);
+    const zero = pos.report.dc.out[0];
+    steps.push({ text: `${n}: set ${rs.switchRef} to position ${pos.index + 1}.${shared ? ` Leave ${shared} (${ROLE_NAMES['zero-trim']}) where range 1 set it: with nothing applied this range reads ${formatEng(zero, 'V', 4)}; note it, or null it on the instrument.` : ''}` });
+    for (const x of calibrationSteps(pos.report)) {
+      const own = x.text.startsWith('Before power') || x.trimmer !== undefined || x.expect !== undefined;
+      if (!own || (shared && x.trimmer === shared) || x.text.startsWith('Range ')) continue;
+      steps.push({ ...x, text: `${n}: ${x.text}` });
+    }
+  }
 }

@@ -79,6 +79,13 @@ export const FIELDS: readonly FieldDef[] = [
   S('sensor.burdenPower', 'Burden power rating', 'W', 'W', CT),
   S('sensor.inductanceFactor', 'Core inductance factor A_L', 'H', 'nH', CT, 'per turn²'),
   S('sensor.windingResistance', 'Winding resistance', 'ohm', 'Ω', CT),
+  // --- issue 19: the CT core's cross-section and saturation (the trade's saturation current), and the lowest frequency.
+  { path: 'sensor.core', label: 'Core cross-section and saturation known', section: 'sensor', kind: 'bool', group: 'sensor.core', sensors: CT },
+  { ...S('sensor.core.width', 'Core cross-section: width', 'm', 'mm', CT), group: 'sensor.core' },
+  { ...S('sensor.core.depth', 'Core cross-section: depth', 'm', 'mm', CT, 'empty = a square section'), group: 'sensor.core', clearable: true },
+  { ...S('sensor.core.saturation', 'Core saturation flux density', 'T', 'mT', CT), group: 'sensor.core' },
+  { ...S('sensor.lowestFrequency', 'Lowest frequency of interest', 'Hz', 'Hz', CT, 'empty = 50 Hz; the core saturates first there'), clearable: true },
+  // --- end issue 19
   S('sensor.resistance', 'Shunt resistance', 'ohm', 'Ω', SH),
   S('sensor.powerRating', 'Shunt power rating', 'W', 'W', SH),
   { ...S('sensor.commonMode', 'High side: supply-end voltage', 'V', 'V', SH, 'leave empty for a low-side shunt'), clearable: true },
@@ -157,6 +164,15 @@ export const FIELDS: readonly FieldDef[] = [
   N('target', 'target.zero', 'Output at zero', 'V', 'V'),
   N('target', 'target.range.0', 'Range from', '1', ''),
   N('target', 'target.range.1', 'Range to', '1', ''),
+  // --- issue 19: a range switch: the further ranges (the first is the target above) and the wiring.
+  { path: 'target.ranges', label: 'Range switch (a second range)', section: 'target', kind: 'bool', group: 'target.ranges', hint: 'the range above is position 1' },
+  ...[0, 1, 2].flatMap((i): FieldDef[] => [
+    { ...N('target', `target.ranges.${i}.scale`, `Range ${i + 2}: scale`, 'V/A', 'mV/A', 'same sign as the wanted scale'), group: `target.ranges.${i}` },
+    { ...N('target', `target.ranges.${i}.range.0`, `Range ${i + 2}: from`, '1', ''), group: `target.ranges.${i}` },
+    { ...N('target', `target.ranges.${i}.range.1`, `Range ${i + 2}: to`, '1', ''), group: `target.ranges.${i}` },
+  ]),
+  { path: 'target.rangeSwitch', label: 'Range switch wiring', section: 'target', kind: 'select', group: 'target.ranges', options: [['auto', 'Choose for me'], ['single-pole', 'One pole: feedback only (zero moves)'], ['two-pole', 'Two poles: feedback and reference (zero holds)']] },
+  // --- end issue 19
   { path: 'target.signal', label: 'Signal', section: 'target', kind: 'select', options: [['dc', 'DC (range is peak values)'], ['ac-rms', 'AC (range is rms)']] },
   { path: 'target.topology', label: 'Stage', section: 'target', kind: 'select', options: [['auto', 'Choose for me'], ...TOPOLOGIES.map((t): [string, string] => [t, STAGE_NAMES[t][0]!.toUpperCase() + STAGE_NAMES[t].slice(1)])] },
   { path: 'target.series', label: 'Resistor series', section: 'target', kind: 'select', options: ['E12', 'E24', 'E48', 'E96', 'E192'].map((s) => [s, s]) },
@@ -193,6 +209,8 @@ export const FIELDS: readonly FieldDef[] = [
   N('supply', 'supply.battery.fresh', 'Fresh voltage', 'V', 'V', undefined, 'supply.battery'),
   N('supply', 'supply.battery.endOfLife', 'End-of-life voltage', 'V', 'V', undefined, 'supply.battery'),
   N('supply', 'supply.battery.capacity', 'Capacity', 'C', 'mAh', undefined, 'supply.battery'),
+  { path: 'supply.battery.rails', label: 'Battery makes', section: 'supply', kind: 'select', group: 'supply.battery', options: [['positive', 'The positive rail'], ['split', 'Split rails (rail splitter)'], ['pair', 'Split rails (a second battery)']] },
+  { ...N('supply', 'supply.battery.splitterCurrent', 'Rail splitter current', 'A', 'mA', 'with split rails: what the splitter itself draws (1 mA when empty)', 'supply.battery'), clearable: true },
 
   N('environment', 'environment.temperature', 'Design temperature', 'K', '°C'),
   N('environment', 'environment.temperatureMin', 'Lowest temperature', 'K', '°C'),
@@ -219,13 +237,24 @@ export const GROUP_DEFAULTS: Record<string, unknown> = {
   'supply.battery': { fresh: 9.6, endOfLife: 6, capacity: 2034 },
   'analysis.noiseBand': [1, 1e5],
   'sensor.wire': { diameter: 0.25e-3, turnLength: 0.036 },
+  // Issue 19: a small ferrite toroid's section, 5 mm × 5 mm, and 0.3 T (common practice for ferrite, from memory).
+  'sensor.core': { width: 0.005, depth: 0.005, saturation: 0.3 },
+  // Replaced by a range derived from the target when switched on (groupDefault).
+  'target.ranges': [],
   // Replaced by a step over the design's own range when switched on (groupDefault).
   'analysis.waveform': { shape: 'step', low: 0, high: 1, frequency: 1000, duty: 0.5 },
 };
 
+/** Issue 19: the value an optional group takes when switched off: null, or nothing at all for a list the file leaves out. */
+export function groupOff(path: string): null | undefined {
+  return path === 'target.ranges' ? undefined : null;
+}
+
 /** The value an optional group takes when switched on: the scope waveform starts as a step over the range (a periodic shape gets 1 kHz). */
 export function groupDefault(path: string, design: Design): unknown {
   if (path === 'analysis.waveform') return { ...stepOverRange(design), frequency: 1000 };
+  // Issue 19: a second range at 2.5 times the span and a 2.5th of the scale (a common bench step).
+  if (path === 'target.ranges') return [{ scale: Number((design.target.scale / 2.5).toPrecision(3)), range: design.target.range.map((x) => Number((x * 2.5).toPrecision(3))) }];
   return GROUP_DEFAULTS[path];
 }
 

@@ -12,6 +12,8 @@ import { rkmCode } from '../model/units.js';
 import { calibrationSteps } from './calibration.js';
 import { cautionsFor } from './cautions.js';
 import { findingTitle, sayFinding, topologyWhy } from './finding-words.js';
+import { tradeJson } from './trade.js'; // issue 19
+import { rangesJson } from './ranges.js'; // issue 19
 
 /** The report as the CLI's JSON object ("gainwright-report", version 1). Non-finite numbers become null. */
 export function reportJson(r: Report): Record<string, unknown> {
@@ -57,6 +59,9 @@ export function reportJson(r: Report): Record<string, unknown> {
     absent: r.absent,
     // --- closed-loop Hall sensor (issue #20) ---
     ...(r.closedLoop ? { closedLoop: closedLoopJson(r.closedLoop, num) } : {}),
+    // Issue 19: the turns trade ([] unless asked for) and the range switch (each position; the first = the figures above).
+    trade: tradeJson(r.trade),
+    ...rangesJson(r.ranges),
   };
 }
 
