@@ -59,6 +59,8 @@ describe('gainwright report', () => {
     expect(r.code).toBe(0);
     expect(r.out).toMatch(/^\* Gainwright closed-loop Hall sensor alone: /);
     for (const el of ['ISIG', 'LM', 'V_LM_SENSE', 'HHALL', 'RI', 'CI', 'RZ', 'EDRV', 'RW', 'RM']) expect(r.out).toMatch(new RegExp(`^${el} `, 'm'));
+    expect(r.out).toMatch(/^\* CAUTION: Never break the compensation winding/m);
+    expect(r.out).toMatch(/^\* CAUTION: Clamp only onto insulated conductors/m);
     const other = await run(['report', join(dir, 'probe.json'), '--spice-sensor']);
     expect(other.code).toBe(2);
     expect(other.err).toMatch(/closed-loop-hall/);
