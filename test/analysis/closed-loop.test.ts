@@ -10,6 +10,7 @@ import { analyse } from '../../src/analysis/report.js';
 import { closedLoopStep } from '../../src/analysis/closed-loop.js';
 import { reportJson } from '../../src/present/json.js';
 import { textReport } from '../../src/present/text-report.js';
+import { keyFigures } from '../../src/present/figures.js';
 import { bomRows, bomCsv } from '../../src/present/bom.js';
 import { calibrationSteps } from '../../src/present/calibration.js';
 import { schematic } from '../../src/present/schematic.js';
@@ -107,6 +108,11 @@ describe('closed-loop Hall sensor in the report', () => {
     expect(sch.prims.some((p) => p.t === 'res' && p.ref === 'W1')).toBe(true);
     expect(sch.prims.some((p) => p.t === 'res' && p.ref === 'RM')).toBe(true);
     expect(textReport(r)).toMatch(/Turns trade/);
+    // The printed sheet and the app read the same key figures: the held current, the step and the proposal.
+    const rowsShown = keyFigures(r).map((x) => `${x.label}: ${x.value}`).join('\n');
+    expect(rowsShown).toMatch(/Largest current held at zero flux \(the smaller way\): 34\.5 A/);
+    expect(rowsShown).toMatch(/Sensor step \(half the range\): sag 1\.\d\d %/);
+    expect(rowsShown).toMatch(/Proposed winding: 1500 turns/);
     const net = spiceNetlist(r)!;
     expect(net).toMatch(/^HHALL /m);
     expect(net).toMatch(/^V_LM_SENSE /m);
