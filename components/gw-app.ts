@@ -9,7 +9,7 @@ import { archetype } from '../src/index.js';
 import { allCharts, waveformChart, type ChartData } from '../src/index.js';
 import { schematic, type Schematic } from '../src/index.js';
 import { bomCsv, bomRows, type BomRow } from '../src/index.js';
-import { keyFigures, waveformFigures, waveformLine, type FigureRow } from '../src/index.js';
+import { closedLoopTradeRows, keyFigures, waveformFigures, waveformLine, type FigureRow } from '../src/index.js';
 import { decodeDesignBytes, designFromFragment, fileName, problemWords, serialiseDesign, shareFragment } from '../src/index.js';
 import { sensorTemplate } from '../src/index.js';
 import { formatEng } from '../src/index.js';
@@ -52,13 +52,15 @@ interface Derived {
   /** The scope view and its figures. */
   wave: ChartData | null;
   waveRows: FigureRow[];
+  /** A closed-loop Hall sensor's turns trade (issue #20; empty for another sensor). */
+  trade: FigureRow[];
 }
 
 /** Everything shown that is derived from the design (throws only on a fault of ours). */
 function derive(design: Design, trials: number): Derived {
   performance.mark('gw-analyse-start');
   const report = analyse(design, { spreadTrials: trials, defaultWaveform: true });
-  const derived = { report, words: reportWords(report), charts: allCharts(report), drawing: schematic(report), rows: bomRows(report), figures: keyFigures(report), wave: waveformChart(report), waveRows: waveformFigures(report) };
+  const derived = { report, words: reportWords(report), charts: allCharts(report), drawing: schematic(report), rows: bomRows(report), figures: keyFigures(report), wave: waveformChart(report), waveRows: waveformFigures(report), trade: closedLoopTradeRows(report) };
   performance.mark('gw-analyse-end');
   performance.measure('gw-analyse', 'gw-analyse-start', 'gw-analyse-end');
   return derived;
@@ -570,6 +572,7 @@ export class GwApp extends LitElement {
             <gw-trade .trade=${this._trade} .measurand=${this._design.sensor.measurand} ?pending=${this._tradeFor !== this._design} @gw-trade-adopt=${this._onTradeAdopt}></gw-trade></details>
           <div class="panel scroll"><h2>Parts list</h2><gw-parts .rows=${d?.rows ?? []} .alternatives=${r?.stage?.alternatives ?? []} .chosen=${r?.stage?.chosen ?? 0} @gw-set=${this._onSet}></gw-parts></div>
           <div class="panel scroll"><h2>Figures</h2><gw-figures caption="Figures" .rows=${d?.figures ?? []}></gw-figures></div>
+          ${d?.trade.length ? html`<div class="panel scroll" id="turns-trade"><h2>Winding turns: the trade</h2><gw-figures caption="Winding turns trade" .rows=${d.trade}></gw-figures></div>` : nothing}
           <div class="panel"><h2>Findings</h2><ul>${(d?.words.findings ?? []).map((w) => html`<li data-code=${w.code}><strong>${w.level}</strong>: ${w.message}</li>`)}</ul></div>
           <div class="panel"><h2>Calibration</h2><ol class="cal">${(d?.words.calibration ?? []).map((c) => html`<li>${c.text}</li>`)}</ol></div>
           <div class="panel" id="probe-readings"><h2>Measured on the built probe</h2><gw-bench mode="probe" .report=${r ?? null} @gw-set=${this._onSet}></gw-bench></div>

@@ -136,6 +136,18 @@ console.log('\n2. Full analysis (demo "bench-clamp")');
     const cl2 = A.clipping(ct, f2, dc2);
     line('  CT demo, 50 Hz square (settles 60 periods first)', ms(time(() => W.waveform(ct, { shape: 'square', low: -10, high: 10, frequency: 50, duty: 0.5 }, c2, f2, dc2, cl2, sp2, 2000), 10)));
   }
+  {
+    // The closed-loop Hall clamp (issue #20): its loop sits in the stage's circuit, and the report adds the
+    // sensor's own step and the winding turns trade. Ratio against the open-loop clamp measured above.
+    const cl = demoDesign('closed-loop-clamp');
+    const CL = await b('physics/closed-loop.js');
+    const CA = await b('analysis/closed-loop.js');
+    const clWhole = time(() => analyse(cl, { spreadTrials: 0 }), 20);
+    line('closed-loop clamp demo: analyse(), median', ms(clWhole), `${(clWhole / whole).toFixed(1)}× the open-loop clamp`);
+    line('  of which the sensor front (loop figures, compensation)', ms(time(() => sensorFront(cl.sensor, cl), 50)));
+    line('  of which the turns trade (10 turn counts)', ms(time(() => CL.turnsTrade(cl.sensor, cl.supply, 25), 20)));
+    line('  of which the step on the sensor alone', ms(time(() => CA.closedLoopStep(cl.sensor, cl.supply, 12.5), 20)));
+  }
   // Baseline: the same complex solve done with mathjs matrices.
   const math = await import('mathjs');
   const n = sc.circuit.size;

@@ -23,6 +23,7 @@ export { allCharts, chartText, waveformChart, traceDrawing } from './present/cha
 export { sheetStatus, errorBudgetRows, trimmerStarts } from './present/sheet.js';
 export { schematic, drawingBounds } from './present/schematic.js';
 export { keyFigures, waveformFigures, waveformLine } from './present/figures.js';
+export { closedLoopTradeRows } from './present/closed-loop.js';
 export { parseQuantity, formatEng, rkmCode, parseRkm, colourBands, toleranceLetter, setUnitEngine, unitEngineReady } from './model/units.js';
 export { nearest, neighbours, isMember, usualTolerance, valuesInRange, mantissas, SERIES_NAMES, TRIMMER_VALUES } from './model/eseries.js';
 export type { SeriesName } from './model/eseries.js';

@@ -9,7 +9,7 @@ import { buildCircuit, type StageCircuit } from '../circuit/build.js';
 import { adjointAt, signalTransfer, solveDc, stampReal, luFactorReal, luSolveReal, rhs, workspace, type Element } from '../circuit/mna.js';
 import { integratePower, logGrid, peakToPeak } from '../physics/noise.js';
 import { noiseSpectrum, type NoiseSpectrum } from '../circuit/noise.js';
-import { atSensorSupply, type SensorFront, type SensorLimitKind } from '../physics/sensors.js';
+import { atSensorSupply, sensorFront, type SensorFront, type SensorLimitKind } from '../physics/sensors.js';
 import type { SolvedStage } from '../solve/stage.js';
 import { peakRange } from '../physics/topology.js';
 import { mulberry32 } from '../model/random.js';
@@ -563,7 +563,8 @@ function batteryStep(design: Design, stage: SolvedStage, front: SensorFront, zer
   const regulated = !reg || pos - neg >= reg.voltage + dropout;
   const regOut = reg ? (regulated ? reg.voltage : Math.max(pos - dropout - neg, 0.01)) : 0;
   const sensorSupply = design.supply.sensorRail === 'regulated' && reg ? regOut : pos;
-  const f2 = atSensorSupply(front, sensorSupply);
+  // A closed-loop Hall sensor's held range and mid-rail reference follow the rails (issue #20).
+  const f2 = design.sensor.type === 'closed-loop-hall' ? sensorFront(design.sensor, { ...design, supply: { ...design.supply, positive: pos, negative: neg } }) : atSensorSupply(front, sensorSupply);
   const sup2 = { ...design.supply, negative: neg, ...(reg && !regulated ? { regulated: { ...reg, voltage: regOut } } : {}) };
   const d2: Design = (reg && !regulated) || neg !== design.supply.negative ? { ...design, supply: sup2 } : design;
   const sc = buildCircuit(d2, stage, front, { positive: pos, front: f2 });

@@ -84,7 +84,8 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
     R('RB', 'sens', 'sq', spec.burden);
   } else if (spec.type === 'closed-loop-hall') {
     // The whole loop (core, Hall sensor, compensation, driver, winding, R_M) is part of the stage's circuit.
-    const net = closedLoopNetlist(spec, closedLoopParts(spec, design.supply), false, scaleOf);
+    // On a battery sweep the rails move, and with them a mid-rail reference (a rail splitter follows the battery).
+    const net = closedLoopNetlist(spec, closedLoopParts(spec, { positive, negative: design.supply.negative }), false, scaleOf);
     for (const e of net.elements) el(e);
     for (const [a, b] of net.wires) nm.wire(a, b);
   } else if (spec.type === 'shunt') {

@@ -182,8 +182,11 @@ export interface ClosedLoopHallSensor extends SensorCommon {
   compensationTurns: number;
   /** Resistance of the compensation winding, Ω; when absent it is computed from `wire`. */
   windingResistance?: number;
-  /** The winding's copper wire: diameter and mean length of one turn, m (for R_w when not given). */
-  wire?: { diameter: number; turnLength: number } | null;
+  /**
+   * The winding's copper wire, for R_w when it is not given: its diameter (m) or its American wire gauge
+   * (`gauge`, used when no diameter is given), and the mean length of one turn (m).
+   */
+  wire?: { diameter?: number; gauge?: number; turnLength: number } | null;
   /** The measurement resistor R_M, Ω. */
   measurementResistance: number;
   /** Voltage R_M's low end is tied to, V (default: the middle of the rails). */
@@ -508,7 +511,7 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     windingResistance: num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6, optional: true }),
     wire: {
       t: 'obj', nullable: true, def: null,
-      fields: { diameter: num('metres', 'positive', { min: 1e-6, max: 0.1 }), turnLength: num('metres', 'positive', { min: 1e-4, max: 10 }) },
+      fields: { diameter: num('metres', 'positive', { min: 1e-6, max: 0.1, optional: true }), gauge: num('(AWG)', 'nonneg', { max: 56, whole: true, optional: true }), turnLength: num('metres', 'positive', { min: 1e-4, max: 10 }) },
     },
     measurementResistance: num('ohms', 'positive', { min: 1e-3, max: 1e7 }),
     reference: V({ optional: true }),
@@ -802,7 +805,7 @@ function crossCheck(d: Design, problems: Problem[]): void {
   if (d.supply.referenceRail === 'regulated' && !d.supply.regulated) p('supply.referenceRail', 'is the regulated rail, but supply.regulated is off: take the reference from the positive rail or keep supply.regulated', ['supply.regulated']);
   if (d.supply.regulated && d.supply.regulated.voltage + d.supply.regulated.dropout > span) {
     const need = +(d.supply.regulated.voltage + d.supply.regulated.dropout + d.supply.negative).toPrecision(4);
-    p('supply.regulated.voltage', `needs supply.positive of at least ${need} V (its ${+d.supply.regulated.voltage.toPrecision(4)} V plus ${+d.supply.regulated.dropout.toPrecision(3)} V dropout): raise supply.positive, lower supply.regulated.voltage or switch supply.regulated off`, ['supply.positive', 'supply.regulated']);
+    p('supply.regulated.voltage', `needs supply.positive of at least ${need} V (its ${+d.supply.regulated.voltage.toPrecision(4)} V plus ${+d.supply.regulated.dropout.toPrecision(3)} V dropout): raise supply.positive, lower supply.regulated.voltage or switch supply.regulated off`, ['supply.positive', 'supply.regulated', 'supply.regulated.dropout']);
   }
   if (d.opamp.inputLow + d.opamp.inputHigh >= span) {
     p('opamp.inputHigh', 'leaves no input common-mode range on these rails (opamp.inputLow + opamp.inputHigh is larger than the supply span): widen the rails or choose an op-amp whose inputs reach closer to them', ['opamp.inputLow', 'supply.positive']);
@@ -831,6 +834,7 @@ function crossCheck(d: Design, problems: Problem[]): void {
   if (s.type === 'closed-loop-hall') {
     if (s.hallSensitivity === 0) p('sensor.hallSensitivity', 'must not be zero');
     if (s.windingResistance === undefined && !s.wire) p('sensor.windingResistance', 'is needed, or sensor.wire (its diameter and mean turn length) to compute it', ['sensor.wire']);
+    if (s.wire && s.wire.diameter === undefined && s.wire.gauge === undefined) p('sensor.wire.diameter', 'is needed, or sensor.wire.gauge (AWG), to compute the winding\'s resistance', ['sensor.wire.gauge']);
     const ref = s.reference ?? (d.supply.positive + d.supply.negative) / 2;
     if (!(ref > d.supply.negative && ref < d.supply.positive)) p('sensor.reference', 'must lie between the rails so that the driver can drive the winding both ways', ['supply.positive', 'supply.negative']);
   }

@@ -17,6 +17,8 @@ export function sensorTemplate(design: Design, type: SensorType): Record<string,
   const sensor = type === 'shunt'
     ? { type: 'shunt', measurand: 'A', resistance: 0.01, powerRating: 1 }
     : structuredClone(demo.sensor);
+  // A closed-loop sensor's R_M returns to the middle of whatever rails the design has (its demo's 0 V is for ±5 V).
+  if (type === 'closed-loop-hall') delete (sensor as Record<string, unknown>).reference;
   const target = { ...design.target };
   if (type === 'current-transformer') target.signal = 'ac-rms';
   return { ...design, sensor, target } as unknown as Record<string, unknown>;

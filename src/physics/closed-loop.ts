@@ -38,6 +38,19 @@ export function windingResistanceOf(turns: number, diameter: number, turnLength:
   return (COPPER_RESISTIVITY * turns * turnLength) / ((Math.PI * diameter * diameter) / 4);
 }
 
+/**
+ * Diameter of American wire gauge n, m: d = 0.127 mm × 92^((36 − n)/39) (ASTM B258; the gauge's definition).
+ * `awgDiameter(30)` → 0.2546 mm.
+ */
+export function awgDiameter(gauge: number): number {
+  return 0.127e-3 * 92 ** ((36 - gauge) / 39);
+}
+
+/** The wire's diameter, m: as given, else from its gauge. */
+export function wireDiameter(wire: { diameter?: number; gauge?: number }): number {
+  return wire.diameter ?? (wire.gauge !== undefined ? awgDiameter(wire.gauge) : NaN);
+}
+
 /** A complex number as a pair, for the loop's transfer functions. */
 export type Complex = [number, number];
 const mul = (a: Complex, b: Complex): Complex => [a[0] * b[0] - a[1] * b[1], a[0] * b[1] + a[1] * b[0]];
@@ -83,7 +96,7 @@ export function closedLoopParts(spec: ClosedLoopHallSensor, supply: Pick<Supply,
   const c = spec.core;
   const per = gappedCorePerAmp(1, c.gap, c.pathLength, c.permeability, gapAreaRatio(c));
   const al = per.core * c.area;
-  const rw = spec.windingResistance ?? (spec.wire ? windingResistanceOf(spec.compensationTurns, spec.wire.diameter, spec.wire.turnLength) : 0);
+  const rw = spec.windingResistance ?? (spec.wire ? windingResistanceOf(spec.compensationTurns, wireDiameter(spec.wire), spec.wire.turnLength) : 0);
   const a0 = 10 ** (spec.driver.openLoopGainDb / 20);
   return {
     primaryTurns: spec.primaryTurns,
@@ -378,7 +391,7 @@ export function turnsTrade(spec: ClosedLoopHallSensor, supply: Pick<Supply, 'pos
   const base = closedLoopParts(spec, supply);
   const perTurnR = base.windingResistance / spec.compensationTurns;
   return TURNS_CHOICES.map((n) => {
-    const rw = spec.wire ? windingResistanceOf(n, spec.wire.diameter, spec.wire.turnLength) : perTurnR * n;
+    const rw = spec.wire ? windingResistanceOf(n, wireDiameter(spec.wire), spec.wire.turnLength) : perTurnR * n;
     const is = (1.2 * Math.abs(rangeEnd) * spec.primaryTurns) / n;
     const room = Math.min(supply.positive - base.reference, base.reference - supply.negative) - spec.driver.swing - spec.driver.drop;
     const rmMax = room / is - rw - spec.driver.outputResistance;

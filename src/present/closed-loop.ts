@@ -5,8 +5,9 @@
 import type { Report } from '../analysis/report.js';
 import type { BomRow } from './bom.js';
 import type { Prim } from './schematic.js';
+import type { FigureRow } from './figures.js';
 import { formatEng } from '../model/units.js';
-import { closedLoopParts } from '../physics/closed-loop.js';
+import { awgDiameter, closedLoopParts, wireDiameter } from '../physics/closed-loop.js';
 import { rkmCode } from '../model/units.js';
 
 const f = (x: number, u: string) => formatEng(x, u, 3);
@@ -19,7 +20,7 @@ export function closedLoopBomRows(r: Report, dissipation: Map<string, number>, r
   const p = closedLoopParts(s, d.supply);
   const rows: BomRow[] = [];
   const wire = s.wire
-    ? `${f(s.wire.diameter, 'm')} enamelled copper, ${f(s.wire.turnLength, 'm')} mean turn, ${f(s.compensationTurns * s.wire.turnLength, 'm')} of wire, about ${f(p.windingResistance, 'Ω')} at 20 °C`
+    ? `${s.wire.diameter === undefined && s.wire.gauge !== undefined ? `AWG ${s.wire.gauge} (${f(awgDiameter(s.wire.gauge), 'm')})` : f(wireDiameter(s.wire), 'm')} enamelled copper, ${f(s.wire.turnLength, 'm')} mean turn, ${f(s.compensationTurns * s.wire.turnLength, 'm')} of wire, about ${f(p.windingResistance, 'Ω')} at 20 °C`
     : `copper, ${f(p.windingResistance, 'Ω')} as given`;
   rows.push({ ref: 'W1', value: `${s.compensationTurns} turns`, code: '', spec: `${wire}; ${f(p.inductance, 'H')} on this core`, dissipation: dissipation.get('RW') ?? null, rating: null, quantity: 1, role: 'compensation winding, spread evenly round the core; its lead order sets the loop\'s polarity' });
   rows.push({ ref: 'T1', value: 'gapped core', code: '', spec: `${f(s.core.pathLength, 'm')} mean path, ${f(s.core.area * 1e6, '')} mm² section, ${f(s.core.gap, 'm')} gap, μr ${s.core.permeability}`, dissipation: null, rating: null, quantity: 1, role: 'the clamp\'s core; the Hall sensor sits in its gap' });
@@ -97,8 +98,8 @@ export function closedLoopPrims(r: Report, y0: number): Prim[] {
   W([190, 90], [300, 90]);
   P.push({ t: 'dot', x: 250, y: y(90) });
   P.push({ t: 'opamp', x: 340, y: y(110), invertingOnTop: true });
-  W([300, 130], [270, 130]);
-  P.push({ t: 'terminal', x: 265, y: y(130), label: `Hall zero ${formatEng(s.quiescent, 'V', 3)} (RV3)` });
+  W([300, 130], [245, 130]);
+  P.push({ t: 'terminal', x: 240, y: y(130), label: `Hall zero ${formatEng(s.quiescent, 'V', 3)} (RV3)` });
   W([250, 90], [250, 70]);
   P.push({ t: 'cap', x: 250, y: y(55), ref: 'CI', value: formatEng(s.compensation.capacitance, 'F', 2).replace(' ', '') });
   if (s.compensation.zeroResistance > 0) {
@@ -112,14 +113,38 @@ export function closedLoopPrims(r: Report, y0: number): Prim[] {
   P.push({ t: 'dot', x: 420, y: y(110) });
   P.push({ t: 'text', x: 400, y: y(150), text: s.driver.outputStage === 'push-pull' ? 'U3 + Q1/Q2' : 'U3' });
   P.push({ t: 'res', x: 520, y: y(110), vertical: false, ref: 'W1', value: `${s.compensationTurns} t`, trimmer: false });
-  W([570, 110], [640, 110]);
-  P.push({ t: 'dot', x: 600, y: y(110) });
-  P.push({ t: 'terminal', x: 645, y: y(110), label: 'to the stage' });
-  W([600, 110], [600, 125]);
-  P.push({ t: 'res', x: 600, y: y(160), vertical: true, ref: 'RM', value: ohms(s.measurementResistance), trimmer: false });
-  W([600, 195], [600, 205]);
+  W([570, 110], [675, 110]);
+  P.push({ t: 'dot', x: 590, y: y(110) });
+  P.push({ t: 'terminal', x: 680, y: y(110), label: 'to the stage' });
+  W([590, 110], [590, 125]);
+  P.push({ t: 'res', x: 590, y: y(160), vertical: true, ref: 'RM', value: ohms(s.measurementResistance), trimmer: false });
+  W([590, 195], [590, 205]);
   const ref = closedLoopParts(s, r.design.supply).reference;
-  if (ref === 0) P.push({ t: 'ground', x: 600, y: y(205) });
-  else P.push({ t: 'rail', x: 600, y: y(210), label: `${formatEng(ref, 'V', 3)} (U4)` });
+  if (ref === 0) P.push({ t: 'ground', x: 590, y: y(205) });
+  else P.push({ t: 'rail', x: 590, y: y(210), label: `${formatEng(ref, 'V', 3)} (U4)` });
   return P;
+}
+
+/** Key-figure rows for the app and the printed sheet: the step, the supply at the range end, the proposal. */
+export function closedLoopFigureRows(r: Report): FigureRow[] {
+  const c = r.closedLoop;
+  if (!c) return [];
+  const m = r.design.sensor.measurand;
+  const rows: FigureRow[] = [];
+  if (c.step) rows.push({ label: 'Sensor step (half the range)', value: `sag ${(c.step.sag * 100).toFixed(2)} %`, note: `overshoot ${(c.step.overshoot * 100).toFixed(2)} %, ${c.step.settlingTime === null ? 'not settled in view' : `settles to 1 % in ${f(c.step.settlingTime, 's')}`}; ${c.step.crossings > 3 ? 'it rings' : 'no sustained ringing'}` });
+  rows.push({ label: 'Supply at the range end', value: f(c.supplyAtRangeEnd, 'A'), note: c.batteryLifeAtRangeEnd !== null ? `battery life ${f(c.batteryLifeAtRangeEnd, 'h')} measuring the range end, ${f(c.batteryLifeAtZero ?? 0, 'h')} idle` : `${f(c.supplyAtZero, 'A')} idle` });
+  if (c.proposal) rows.push({ label: 'Proposed winding', value: `${c.proposal.turns} turns, R_M ${f(c.proposal.measurementResistance, 'Ω')}`, note: `R_i ${f(c.proposal.compensation.inputResistance, 'Ω')}, C_i ${f(c.proposal.compensation.capacitance, 'F')}, R_z ${f(c.proposal.compensation.zeroResistance, 'Ω')}; holds ${f(c.proposal.maxCurrent, m)}` });
+  return rows;
+}
+
+/** The turns trade as rows for the app (one per turn count, the proposal marked); empty for another sensor. */
+export function closedLoopTradeRows(r: Report): FigureRow[] {
+  const c = r.closedLoop;
+  if (!c) return [];
+  const m = r.design.sensor.measurand;
+  return c.trade.map((o) => ({
+    label: `${o.turns} turns${c.proposal?.turns === o.turns ? ' (proposed)' : ''}`,
+    value: o.fits ? `R_M ${f(o.measurementResistance, 'Ω')}, ${f(o.sensitivity, `V/${m}`)}` : 'does not hold the range',
+    note: `${f(o.supplyCurrent, 'A')} at the range end; ${f(o.inductance, 'H')}, corner ${f(o.windingCorner, 'Hz')}; margin ${o.phaseMargin === null ? '—' : `${o.phaseMargin.toFixed(0)}°`} with R_z ${f(o.compensation.zeroResistance, 'Ω')}, C_i ${f(o.compensation.capacitance, 'F')}${o.fits ? `; holds ${f(o.maxCurrent, m)}` : ''}`,
+  }));
 }

@@ -4,6 +4,7 @@ import { noiseLabel } from './charts.js';
 import { formatEng } from '../model/units.js';
 import { STAGE_NAMES } from './words.js';
 import { stageReasonWords } from './finding-words.js';
+import { closedLoopFigureRows } from './closed-loop.js';
 
 export interface FigureRow { label: string; value: string; note?: string }
 
@@ -21,6 +22,7 @@ export function keyFigures(r: Report): FigureRow[] {
   rows.push({ label: 'Zero', value: f(r.dc.out[0], 'V', 5) });
   if (Number.isFinite(s.reference)) rows.push({ label: 'Reference', value: f(s.reference, 'V', 4) });
   for (const fig of r.front.figures) rows.push({ label: fig.label, value: fig.unit === '' ? `${(fig.value * 100).toFixed(2)} %` : f(fig.value, fig.unit) });
+  rows.push(...closedLoopFigureRows(r)); // closed-loop Hall sensor (issue #20)
   if (r.clip) {
     rows.push({ label: 'Linear range', value: `${f(r.clip.measurandLow, m)} … ${f(r.clip.measurandHigh, m)}`, note: `first to saturate: ${r.clip.firstLow ?? '—'} / ${r.clip.firstHigh ?? '—'}` });
     rows.push({ label: 'Output clips at', value: `${f(r.clip.outputLow, 'V')} / ${f(r.clip.outputHigh, 'V')}` });

@@ -52,7 +52,7 @@ export function schematic(r: Report): Schematic | null {
   P.push({ t: 'opamp', x: 340, y: 170, invertingOnTop: true });
   // The burden is a listed part (RB): the CT symbol names it with its value.
   const burden = parts.find((p) => p.role === 'burden');
-  const sensorLabel = r.design.sensor.type === 'closed-loop-hall' ? 'Sensor loop (below)' : r.design.sensor.type === 'hall-gap-core' ? 'Hall sensor' : r.design.sensor.type === 'current-transformer' ? `CT + ${burden ? `${burden.ref} ${partValue(burden)}` : 'burden'}` : r.design.sensor.type === 'shunt' ? 'Shunt' : 'Sensor';
+  const sensorLabel = r.design.sensor.type === 'closed-loop-hall' ? 'RM (below)' : r.design.sensor.type === 'hall-gap-core' ? 'Hall sensor' : r.design.sensor.type === 'current-transformer' ? `CT + ${burden ? `${burden.ref} ${partValue(burden)}` : 'burden'}` : r.design.sensor.type === 'shunt' ? 'Shunt' : 'Sensor';
   const sensorY = inv || topo === 'summing-inverting' ? 150 : 190;
   P.push({ t: 'source', x: 40, y: sensorY, label: sensorLabel });
   const fb = arm(parts, 'feedback');

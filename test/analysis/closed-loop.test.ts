@@ -10,6 +10,7 @@ import { analyse } from '../../src/analysis/report.js';
 import { closedLoopStep } from '../../src/analysis/closed-loop.js';
 import { reportJson } from '../../src/present/json.js';
 import { textReport } from '../../src/present/text-report.js';
+import { keyFigures } from '../../src/present/figures.js';
 import { bomRows, bomCsv } from '../../src/present/bom.js';
 import { calibrationSteps } from '../../src/present/calibration.js';
 import { schematic } from '../../src/present/schematic.js';
@@ -107,6 +108,11 @@ describe('closed-loop Hall sensor in the report', () => {
     expect(sch.prims.some((p) => p.t === 'res' && p.ref === 'W1')).toBe(true);
     expect(sch.prims.some((p) => p.t === 'res' && p.ref === 'RM')).toBe(true);
     expect(textReport(r)).toMatch(/Turns trade/);
+    // The printed sheet and the app read the same key figures: the held current, the step and the proposal.
+    const rowsShown = keyFigures(r).map((x) => `${x.label}: ${x.value}`).join('\n');
+    expect(rowsShown).toMatch(/Largest current held at zero flux \(the smaller way\): 34\.5 A/);
+    expect(rowsShown).toMatch(/Sensor step \(half the range\): sag 1\.\d\d %/);
+    expect(rowsShown).toMatch(/Proposed winding: 1500 turns/);
     const net = spiceNetlist(r)!;
     expect(net).toMatch(/^HHALL /m);
     expect(net).toMatch(/^V_LM_SENSE /m);
@@ -121,6 +127,11 @@ describe('closed-loop Hall sensor in the report', () => {
     let v = validateDesign(structuredClone(doc));
     expect(v.ok).toBe(false);
     if (!v.ok) expect(v.problems.map((p) => p.path)).toContain('sensor.windingResistance');
+    doc.sensor.wire = { turnLength: 0.036 };
+    v = validateDesign(structuredClone(doc));
+    expect(v.ok).toBe(false);
+    if (!v.ok) expect(v.problems.map((p) => p.path)).toContain('sensor.wire.diameter');
+    doc.sensor.wire = null;
     doc.sensor.windingResistance = 12;
     doc.sensor.reference = 6;
     v = validateDesign(structuredClone(doc));
@@ -128,5 +139,24 @@ describe('closed-loop Hall sensor in the report', () => {
     if (!v.ok) expect(v.problems.map((p) => p.path)).toContain('sensor.reference');
     doc.sensor.reference = 0;
     expect(validateDesign(structuredClone(doc)).ok).toBe(true);
+  });
+});
+
+describe('closed-loop Hall sensor on a sagging battery', () => {
+  it('the held range shrinks with the rail and a mid-rail reference follows it: (V/2 − swing − drop)/(R_o + R_w + R_M)·N_s', () => {
+    const d = designFrom('closed-loop-clamp', (x) => {
+      x.supply = { positive: 9, negative: 0, battery: { fresh: 9.6, endOfLife: 7.2, capacity: 565e-3 * 3600 } };
+      delete x.sensor.reference;
+      x.target = { ...x.target, zero: 4.5, range: [-20, 20] };
+    });
+    const r = analyse(d, { spreadTrials: 0 });
+    const s = d.sensor as ClosedLoopHallSensor;
+    const loop = 1 + 0.35123 * 36 + 82; // R_o + R_w (0.25 mm copper, IEC 60028) + R_M
+    const fresh = r.battery[0]!, end = r.battery[r.battery.length - 1]!;
+    expect(fresh.voltage).toBeCloseTo(9.6, 9);
+    expect(fresh.measurandHigh).toBeCloseTo(((9.6 / 2 - 1.7) / loop) * s.compensationTurns, 1);
+    expect(end.measurandHigh).toBeCloseTo(((7.2 / 2 - 1.7) / loop) * s.compensationTurns, 1);
+    // A rail splitter at V/2: the zero at R_M moves by half the sag, times the stage's gain on it.
+    expect(Math.abs(end.zeroShift)).toBeGreaterThan(0.5);
   });
 });

@@ -53,6 +53,18 @@ describe('gainwright report', () => {
     expect(r.out).toMatch(/^R1 /m);
     expect(r.out).toMatch(/^\.end$/m);
   });
+  it('--spice-sensor prints the closed-loop sensor alone; another sensor type exits 2 saying why', async () => {
+    writeFileSync(join(dir, 'closed.json'), JSON.stringify(DEMOS.find((d) => d.id === 'closed-loop-clamp')!.document));
+    const r = await run(['report', join(dir, 'closed.json'), '--spice-sensor']);
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/^\* Gainwright closed-loop Hall sensor alone: /);
+    for (const el of ['ISIG', 'LM', 'V_LM_SENSE', 'HHALL', 'RI', 'CI', 'RZ', 'EDRV', 'RW', 'RM']) expect(r.out).toMatch(new RegExp(`^${el} `, 'm'));
+    expect(r.out).toMatch(/^\* CAUTION: Never break the compensation winding/m);
+    expect(r.out).toMatch(/^\* CAUTION: Clamp only onto insulated conductors/m);
+    const other = await run(['report', join(dir, 'probe.json'), '--spice-sensor']);
+    expect(other.code).toBe(2);
+    expect(other.err).toMatch(/closed-loop-hall/);
+  });
   it('a bad design exits 2 naming each field, with no stack trace', async () => {
     const r = await run(['report', join(dir, 'bad.json')]);
     expect(r.code).toBe(2);

@@ -12,7 +12,7 @@ import { validateDesign, type ClosedLoopHallSensor, type Design } from '../../sr
 import { MU0 } from '../../src/model/constants.js';
 import {
   closedLoopFigures, closedLoopParts, closedLoopTransferAt, heldRange, loopFigures, loopGainAt, proposeTurns,
-  suggestCompensation, supplyCurrentAt, turnsTrade, windingResistanceOf, COPPER_RESISTIVITY,
+  suggestCompensation, supplyCurrentAt, turnsTrade, windingResistanceOf, COPPER_RESISTIVITY, awgDiameter,
 } from '../../src/physics/closed-loop.js';
 import { sensorFront } from '../../src/physics/sensors.js';
 import { circuitLoopGainAt, circuitTransferAt, closedLoopCircuit } from '../../src/circuit/closed-loop.js';
@@ -33,6 +33,16 @@ describe('closed-loop Hall sensor: closed forms', () => {
     // IEC 60028: annealed copper 0.017241 Ω·mm²/m at 20 °C; 0.25 mm → 0.049087 mm² → 0.35123 Ω/m (derived).
     expect(COPPER_RESISTIVITY).toBeCloseTo(0.017241e-6, 10);
     expect(windingResistanceOf(1000, 0.25e-3, 0.036)).toBeCloseTo(0.35123 * 36, 2);
+  });
+
+  it('awgDiameter: AWG 30 is 0.2546 mm and AWG 24 0.5106 mm (ASTM B258: 0.127 mm × 92^((36 − n)/39))', () => {
+    // Published gauge tables (e.g. Wikipedia "American wire gauge"): AWG 30 0.255 mm, AWG 24 0.511 mm, AWG 36 0.127 mm.
+    expect(awgDiameter(30)).toBeCloseTo(0.2546e-3, 7);
+    expect(awgDiameter(24)).toBeCloseTo(0.5106e-3, 7);
+    expect(awgDiameter(36)).toBeCloseTo(0.127e-3, 12);
+    // A winding given by its gauge: 1000 turns of AWG 30 at 36 mm a turn, 12.20 Ω (IEC 60028 copper).
+    const d = patched((x) => { x.sensor.wire = { gauge: 30, turnLength: 0.036 }; });
+    expect(closedLoopParts(specOf(d), d.supply).windingResistance).toBeCloseTo((0.017241 * 36) / (Math.PI * 0.25463 ** 2 / 4), 1);
   });
 
   it('sensitivity is (N_p/N_s)·R_M (Ampère: N_p·I_p = N_s·I_s at zero flux), less 1/(1+T0)', () => {
