@@ -298,7 +298,10 @@ export function rangeSwitch(design: Design, first: Report, analyse: Analyse, opt
     } : null;
     const report = i === 0 ? first : stage ? analyse(d, { ...opts, stage, trade: false }) : null;
     const unbuilt = net ? null : wiring === 'two-pole' ? 'range-zero-unreachable' : 'range-gain-unreachable';
-    return { index: i, scale: d.target.scale, range: d.target.range, network: net ?? net1, parts: per[i]!, report, zeroShift, zeroShiftClosedForm: closed, sharedTrimResidual: residual, unbuilt };
+    // The shift as the circuit solver gives it (a CT's DC path runs through its winding, which the closed
+    // transfer folds into the burden): what the report states at each position.
+    const solved = report?.dc && first.dc ? report.dc.out[0] - first.dc.out[0] : zeroShift;
+    return { index: i, scale: d.target.scale, range: d.target.range, network: net ?? net1, parts: per[i]!, report, zeroShift: solved, zeroShiftClosedForm: closed, sharedTrimResidual: residual, unbuilt };
   });
   // Two poles: every divider stays on its rail whichever position is in; the ones not in use still draw.
   const { lo, hi } = referenceSpan(design);
