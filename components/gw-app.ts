@@ -1,6 +1,6 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, state, query } from 'lit/decorators.js';
-import { validateDesign, parseDesignText, MAX_DESIGN_BYTES, type Design, type Problem } from '../src/index.js';
+import { validateDesign, parseDesignText, MAX_DESIGN_BYTES, tooLargeMessage, type Design, type Problem } from '../src/index.js';
 import { analyse, reportWords, SAFETY_CAUTIONS, type Report, type ReportWords } from '../src/index.js';
 import { DEMOS, demoDesign } from '../src/index.js';
 import { FIELDS, GROUP_DEFAULTS, groupDefault, groupOff, readField, setPath } from '../src/index.js';
@@ -29,6 +29,10 @@ import './gw-build-sheet.js';
 import './gw-trade.js'; // issue 19
 import './gw-ranges.js'; // issue 19
 import { positionNetlist, tradeSweep, type TradeResult } from '../src/index.js'; // issue 19
+// Op-amps side by side and supply choices (issue 18).
+import { ComparisonController } from './comparison-controller.js';
+import './gw-opamp-compare.js';
+import './gw-supply-options.js';
 
 /** The unit engine (mathjs units) loads after the first render so that it does not delay it. */
 let unitsLoading: Promise<unknown> | null = null;
@@ -151,12 +155,16 @@ export class GwApp extends LitElement {
   // --- end issue 19
 
   private readonly _persist = new PersistController(this);
+  /** The op-amp comparison and supply choices (and the person's own op-amps): rows computed by the core. */
+  private readonly _compare = new ComparisonController(this);
   /** Edits run one after another, in the order they were made, even while the unit engine is loading. */
   private _queue: Promise<void> = Promise.resolve();
   private _spreadTimer = 0;
 
   /** The design in force (read by the persistence controller). */
   get currentDesign(): Design { return this._design; }
+  /** The report of the design in force (read by the comparison controller). */
+  get currentReport(): Report | null { return this._derived?.report ?? null; }
 
   override connectedCallback(): void {
     super.connectedCallback();
@@ -393,6 +401,17 @@ export class GwApp extends LitElement {
     if (a) this._enqueue(() => this._apply({ ...this._design, opamp: { ...a.spec } }, null));
   };
 
+  // Picking a row of a comparison makes it the design's: an edit like any other, undone by editing back.
+  private _onAdoptOpAmp = (e: HTMLElementEventMap['gw-adopt-opamp']): void => {
+    const opamp = e.detail.opamp;
+    this._enqueue(() => this._apply({ ...this._design, opamp: { ...opamp } }, null));
+  };
+
+  private _onAdoptSupply = (e: HTMLElementEventMap['gw-adopt-supply']): void => {
+    const { supply, zero } = e.detail;
+    this._enqueue(() => this._apply({ ...this._design, supply, target: { ...this._design.target, zero } }, null));
+  };
+
   private _download(text: string, name: string, type: string): void {
     const url = URL.createObjectURL(new Blob([text], { type }));
     const a = document.createElement('a');
@@ -415,7 +434,7 @@ export class GwApp extends LitElement {
     if (!file) return;
     const name = file.name.replace(/[\u0000-\u001f\u007f-\u009f]/g, ' ').slice(0, 80);
     if (file.size > MAX_DESIGN_BYTES) {
-      this._notice = { text: `${name} is larger than 1 MB; a design file is a few kB. The current design stays.`, bad: true };
+      this._notice = { text: `${name} ${tooLargeMessage(MAX_DESIGN_BYTES)}. The current design stays.`, bad: true };
       return;
     }
     // Decoded as the CLI decodes it: UTF-8 with or without a byte-order mark, or UTF-16.
@@ -545,6 +564,12 @@ export class GwApp extends LitElement {
             @gw-sensor-type=${this._onSensorType} @gw-opamp-archetype=${this._onArchetype}></gw-editor>
         </section>
         <section class="area-results" aria-label="Results">
+          <div class="panel" id="compare-opamps"><gw-opamp-compare .rows=${this._compare.rows} .own=${this._compare.own} .message=${this._compare.message}
+            .measurand=${this._design.sensor.measurand} ?battery=${!!this._design.supply.battery} ?open=${this._compare.open.opamps}
+            @gw-panel-toggle=${(e: HTMLElementEventMap['gw-panel-toggle']) => this._compare.setOpen(e.detail.panel, e.detail.open)}
+            @gw-own-opamps=${(e: HTMLElementEventMap['gw-own-opamps']) => this._compare.edit(e.detail)} @gw-adopt-opamp=${this._onAdoptOpAmp}></gw-opamp-compare></div>
+          <div class="panel" id="compare-supplies"><gw-supply-options .options=${this._compare.supplies} .measurand=${this._design.sensor.measurand} ?open=${this._compare.open.supplies}
+            @gw-panel-toggle=${(e: HTMLElementEventMap['gw-panel-toggle']) => this._compare.setOpen(e.detail.panel, e.detail.open)} @gw-adopt-supply=${this._onAdoptSupply}></gw-supply-options></div>
           <div class="panel"><h2>Schematic</h2><gw-schematic .drawing=${d?.drawing ?? null}></gw-schematic></div>
           <div class="panel scroll" id="scope"><h2>What the scope shows</h2><div class="scope">
             ${d?.wave ? html`<gw-chart data-chart="waveform" .data=${d.wave}></gw-chart>` : nothing}

@@ -2,7 +2,7 @@
  * Gainwright's calculation core: the one public entry. Pure TypeScript, no DOM; SI units throughout.
  * Import `./units-mathjs.js` once as well to read unit expressions beyond the common forms.
  */
-export { validateDesign, parseDesignText, serialiseDesign, formatProblems, migrate, DESIGN_FORMAT, DESIGN_VERSION, MAX_DESIGN_BYTES } from './model/design.js';
+export { validateDesign, parseDesignText, serialiseDesign, formatProblems, migrate, DESIGN_FORMAT, DESIGN_VERSION, MAX_DESIGN_BYTES, tooLargeMessage } from './model/design.js';
 export type { Design, SensorSpec, SensorType, Supply, OpAmpSpec, Target, Output, Environment, AnalysisOptions, MeasurandWaveform, Topology, TopologyChoice, Arrangement, Problem } from './model/design.js';
 export { analyse } from './analysis/report.js';
 export type { Report, AnalyseOptions } from './analysis/report.js';
@@ -66,3 +66,10 @@ export { gappedCoreInductance, ctSaturationCurrent, coreCrossSection } from './p
 export { rangeTable, rangeLines, rangesJson, positionNetlist } from './present/ranges.js';
 export type { RangeTable } from './present/ranges.js';
 export type { RangeSwitch, RangePosition } from './analysis/ranges.js';
+// Op-amps side by side and supply choices (issue 18).
+export { candidates, withOpAmp } from './analysis/compare.js';
+export type { ComparisonRow, Misfit, OpAmpCandidate, RowFigures } from './analysis/compare.js';
+export { withSupply } from './analysis/supply-options.js';
+export type { SupplyKind, SupplyOption } from './analysis/supply-options.js';
+export { OPAMP_LIST_KEY, MAX_OPAMPS, MAX_OPAMP_LIST_BYTES, parseOpAmpListText, serialiseOpAmpList } from './model/opamp-list.js';
+export { LIMIT_WORDS, SOURCE_WORDS, SUPPLY_WORDS, comparisonRows, hoursText, misfitWords, railsText, rangeText, supplyChoices, worstVerdict } from './present/comparison.js';

@@ -13,7 +13,7 @@ import { atSensorSupply, type SensorFront, type SensorLimitKind } from '../physi
 import type { SolvedStage } from '../solve/stage.js';
 import { peakRange } from '../physics/topology.js';
 import { mulberry32 } from '../model/random.js';
-import { HOUR } from '../model/constants.js';
+import { HOUR, SPLITTER_CURRENT } from '../model/constants.js';
 import { formatEng } from '../model/units.js';
 
 export type ClipCause = 'opamp-output' | 'opamp-current' | 'opamp-input' | SensorLimitKind;
@@ -411,8 +411,8 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
   const sup = design.supply;
   const oa = design.opamp;
   const sol = solveDc(sc.circuit, [
-    (e) => e.extra?.vos ?? 0, (e) => (e.extra?.ibp ?? 0) + (e.extra?.ibn ?? 0), (e) => (e.name === 'VSIG' || e.name === 'VQ' ? 1 : 0),
-    (e) => (e.name === 'VREG' ? 1 : 0), (e) => (e.name === 'VPOS' ? 1 : 0), (e) => (e.name === 'VNEG' ? 1 : 0),
+    (e) => e.extra?.vos ?? 0, (e) => (e.extra?.ibp ?? 0) + (e.extra?.ibn ?? 0), (e) => (e.kind === 'V' && (e.role === 'signal' || e.role === 'sensor-zero') ? 1 : 0),
+    (e) => (e.role === 'rail-regulated' ? 1 : 0), (e) => (e.role === 'rail-positive' ? 1 : 0), (e) => (e.role === 'rail-negative' ? 1 : 0),
   ], passband);
   if (sol) {
     const [cVos, cIb, cVq, cReg, cPos, cNeg] = sol.columns.map((c) => c[o]!) as [number, number, number, number, number, number];
@@ -437,7 +437,8 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
     const psrr = 10 ** (-oa.psrrDb / 20);
     if (sup.battery) {
       // A battery sags after calibration: its sweep shows the rail's own effect; the offset's share remains.
-      add(lin(`op-amp supply rejection over the battery's sag (${oa.psrrDb} dB)`, vosPerVolt * (sup.battery.fresh - sup.battery.endOfLife) * psrr, 0, 'none'));
+      const span = (v: number) => { const [p, n] = batteryRails(design, v); return p - n; };
+      add(lin(`op-amp supply rejection over the battery's sag (${oa.psrrDb} dB)`, vosPerVolt * (span(sup.battery.fresh) - span(sup.battery.endOfLife)) * psrr, 0, 'none'));
     } else if (sup.tolerance) {
       const [dzP, dsP] = railShift('positive', cPos, sup.positive, sup.tolerance);
       const dzN = cNeg * sup.negative * sup.tolerance;
@@ -455,7 +456,7 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
   const drift = { resistor: { low: 0, high: 0 }, trimmer: { low: 0, high: 0 } };
   for (const p of stage.parts) {
     if (p.kind === 'capacitor') continue;
-    const names = sc.circuit.elements.filter((e) => e.kind === 'R' && (e.name === p.ref || e.name === `${p.ref}A` || e.name === `${p.ref}B`)).map((e) => e.name);
+    const names = sc.circuit.elements.filter((e) => e.kind === 'R' && e.part === p.ref).map((e) => e.name);
     if (!names.length) continue;
     const shift = (rel: number) => {
       const sc2 = buildCircuit(design, stage, front, { scale: Object.fromEntries(names.map((n) => [n, 1 + rel])) });
@@ -529,6 +530,7 @@ export function supply(design: Design, front: SensorFront, sc: StageCircuit, dc:
   const iout = dc.iOut[0];
   if (iout > 0) parts.push({ name: 'op-amp output current into the load at zero', current: iout });
   if (design.supply.regulated?.quiescentCurrent) parts.push({ name: 'regulator quiescent', current: design.supply.regulated.quiescentCurrent });
+  if (design.supply.battery?.rails === 'split') parts.push({ name: 'rail splitter', current: design.supply.battery.splitterCurrent ?? SPLITTER_CURRENT });
   const current = parts.reduce((s, p) => s + p.current, 0);
   const bat = design.supply.battery;
   return { current, parts, batteryLife: bat && current > 0 ? bat.capacity / current / HOUR : null };
@@ -557,17 +559,29 @@ function batteryStep(design: Design, stage: SolvedStage, front: SensorFront, zer
   const passband = !front.passesDc;
   const reg = design.supply.regulated;
   const dropout = reg?.dropout ?? 0;
-  const neg = design.supply.negative;
-  const regulated = !reg || v - neg >= reg.voltage + dropout;
-  const regOut = reg ? (regulated ? reg.voltage : Math.max(v - dropout - neg, 0.01)) : 0;
-  const sensorSupply = design.supply.sensorRail === 'regulated' && reg ? regOut : v;
+  const [pos, neg] = batteryRails(design, v);
+  const regulated = !reg || pos - neg >= reg.voltage + dropout;
+  const regOut = reg ? (regulated ? reg.voltage : Math.max(pos - dropout - neg, 0.01)) : 0;
+  const sensorSupply = design.supply.sensorRail === 'regulated' && reg ? regOut : pos;
   const f2 = atSensorSupply(front, sensorSupply);
-  const d2: Design = reg && !regulated ? { ...design, supply: { ...design.supply, regulated: { ...reg, voltage: regOut } } } : design;
-  const sc = buildCircuit(d2, stage, front, { positive: v, front: f2 });
+  const sup2 = { ...design.supply, negative: neg, ...(reg && !regulated ? { regulated: { ...reg, voltage: regOut } } : {}) };
+  const d2: Design = (reg && !regulated) || neg !== design.supply.negative ? { ...design, supply: sup2 } : design;
+  const sc = buildCircuit(d2, stage, front, { positive: pos, front: f2 });
   const dc = dcLinear(sc, passband);
   if (!dc) return null;
-  const c = clipping(d2, f2, dc, v);
+  const c = clipping(d2, f2, dc, pos);
   return { voltage: v, measurandLow: c.measurandLow, measurandHigh: c.measurandHigh, headroomLow: c.headroom.low, headroomHigh: c.headroom.high, zeroShift: dc.out[0] - zero, scale: dc.out[1], first: c.first, regulated };
+}
+
+/**
+ * The rails, V, that a battery at `v` volts makes (`supply.battery.rails`): the positive rail itself over the
+ * design's negative rail; one battery split about the amplifier's ground by a rail splitter (±v/2); or a
+ * second, equal battery below ground (±v; both taken to sag alike, which is pessimistic for the lower one,
+ * which carries less current).
+ */
+export function batteryRails(design: Design, v: number): [number, number] {
+  const rails = design.supply.battery?.rails ?? 'positive';
+  return rails === 'split' ? [v / 2, -v / 2] : rails === 'pair' ? [v, -v] : [v, design.supply.negative];
 }
 
 /** Sweep of the positive rail from a fresh battery to its end of life: clip points, headroom, zero and scale. */
@@ -635,17 +649,13 @@ export interface SpreadResult {
 export function spread(design: Design, front: SensorFront, sc: StageCircuit, dc: DcPoint, trials = design.analysis.spreadTrials, seed = design.analysis.spreadSeed): SpreadResult {
   const rand = mulberry32(seed);
   const c = sc.circuit;
-  const tolOf = (e: Element): number => {
-    if (e.kind !== 'R' || e.value === 0 || e.noisy === false) return 0;
-    if (/^RV\d+/.test(e.name)) return 0.2;
-    if (/^R\d+$/.test(e.name)) return design.target.tolerance;
-    return 0;
-  };
+  // Only the listed parts vary (the sensor's own resistances are its figures, not parts we choose).
+  const tolOf = (e: Element): number => (e.kind !== 'R' || e.value === 0 || e.noisy === false || !e.part ? 0 : e.tolerance ?? 0);
   const nominal = c.elements.map((e) => e.value);
   const tols = c.elements.map(tolOf);
-  // A potentiometer's tolerance scales its whole track: its two halves (RV2A, RV2B) share one draw, so the
+  // A potentiometer's tolerance scales its whole track: its two halves (one part) share one draw, so the
   // wiper ratio holds. Every other part draws on its own.
-  const groupOf = c.elements.map((e, i) => /^(RV\d+)[AB]?$/.exec(e.name)?.[1] ?? `#${i}`);
+  const groupOf = c.elements.map((e, i) => e.part ?? `#${i}`);
   const groups = [...new Set(groupOf)];
   const groupIdx = Int32Array.from(groupOf, (g) => groups.indexOf(g));
   const draw = new Float64Array(groups.length);

@@ -15,6 +15,7 @@ import {
 } from './analysis.js';
 import { stepOverRange, waveform, type WaveformResult } from './waveform.js';
 import { finding, type Finding } from '../model/findings.js';
+import { closedLoopSummary, type ClosedLoopSummary } from './closed-loop.js';
 import { frontWithReadings, sensorFromReadings, type SensorFromReadings } from './sensor-readings.js';
 import { trimFromReadings, type TrimResult } from './trim.js';
 import { tradeSweep, type TradeResult } from './trade.js'; // issue 19
@@ -55,6 +56,8 @@ export interface Report {
   warnings: Finding[];
   /** Figures that could not be computed, with the reason. */
   absent: Record<string, string>;
+  /** A closed-loop Hall sensor's step, supply at the range end and turns trade (issue #20; absent otherwise). */
+  closedLoop?: ClosedLoopSummary | null;
 }
 
 export interface AnalyseOptions {
@@ -149,6 +152,9 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
     warnings.push(...rangeFindings(report.ranges, design.sensor.measurand));
   }
   if (design.probeReadings?.length) report.trim = trimFromReadings({ design, front, stage }, design.probeReadings, design.probeSettings ?? []);
+  // --- closed-loop Hall sensor (issue #20) ---
+  if (design.sensor.type === 'closed-loop-hall') report.closedLoop = closedLoopSummary(design, sup?.current ?? front.supplyCurrent);
+  // --- end closed-loop Hall sensor ---
   warnings.push(...findings(report));
   return report;
 }
@@ -320,7 +326,7 @@ function sensorDraw(r: Report): number | null {
   const sc = r.circuit;
   if (!sc || !r.clip || !r.dc) return null;
   // The sensor output node and the amplifier input node: the current in between is what the sensor drives.
-  const rsIdx = sc.circuit.elements.findIndex((e) => e.name === 'RS' && e.kind === 'R');
+  const rsIdx = sc.circuit.elements.findIndex((e) => e.role === 'sensor-source');
   const [a, b] = r.clip.rangePeak;
   let worst = 0;
   if (rsIdx >= 0) {

@@ -2,10 +2,12 @@
  * The command line twin of the app. Node-only (reads files); the calculation is all in the core.
  *
  *   gainwright report FILE [--json] [--spice]   solve one design
+ *   gainwright report FILE --spice-sensor       a closed-loop Hall sensor alone as a SPICE netlist
  *   gainwright report DIR --json                 one JSON line per design file in DIR
  *   gainwright new [DEMO]                        print a demo design to start from
  *   gainwright fit READINGS.csv [--json]         fit a sensor from bench readings
  *   gainwright trim DESIGN READINGS.csv [--json] trim a built probe from its readings
+ *   gainwright compare DESIGN [--opamps FILE] [--json]  the design across op-amps, one row each
  *
  * Exit codes: 0 done, 1 the design was solved but fails a check (with --strict), 2 bad input, 3 a fault of
  * Gainwright's own (one line, never a stack trace). Every message is one line.
@@ -13,7 +15,7 @@
 import { closeSync, constants, fstatSync, openSync, readSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import '../model/units-mathjs.js';
-import { decodeDesignBytes, formatProblems, MAX_DESIGN_BYTES, parseDesignText } from '../model/design.js';
+import { decodeDesignBytes, formatProblems, MAX_DESIGN_BYTES, parseDesignText, tooLargeMessage } from '../model/design.js';
 import { quoteText } from '../model/validate.js';
 import { analyse } from '../analysis/report.js';
 import { reportJson } from '../present/json.js';
@@ -21,11 +23,18 @@ import { sayFinding } from '../present/finding-words.js';
 import { textReport } from '../present/text-report.js';
 import { spiceNetlist } from '../present/spice.js';
 import { positionNetlist } from '../present/ranges.js';
+import { closedLoopSpiceNetlist } from '../present/spice-closed-loop.js';
 import { DEMOS } from '../model/demos.js';
 import { MAX_READINGS_TEXT, parseReadings, unitFactor, type ParsedReadings } from '../model/readings.js';
 import { fitJson, fitReadings } from '../analysis/fit.js';
 import { trimFromReadings, trimJson } from '../analysis/trim.js';
 import { fitLines, trimLines } from '../present/readings.js';
+import { comparisonJson, comparisonLines, comparisonRows } from '../present/comparison.js';
+import { MAX_OPAMP_LIST_BYTES, parseOpAmpListText } from '../model/opamp-list.js';
+import { terminalLine } from '../present/inert.js';
+import { sensorFrontAtRail } from '../physics/sensors.js';
+import { cautionsFor } from '../present/cautions.js';
+import type { OpAmpSpec } from '../model/design.js';
 
 export interface Io {
   out: (s: string) => void;
@@ -53,15 +62,17 @@ const shown = (path: string) => (/^[\w./\\:~+-]+$/.test(path) ? path : quoteText
 const USAGE = `usage:
   gainwright report FILE [--json] [--spice] [--no-spread] [--range=N]
                                          (--range=N with --spice: the range switch's position N)
+  gainwright report FILE --spice-sensor  a closed-loop Hall sensor alone as a SPICE netlist
   gainwright report DIR --json           one JSON line per *.json design in DIR
   gainwright new [${DEMOS.map((d) => d.id).join('|')}]
   gainwright fit READINGS.csv [--json]   fit a sensor from readings (measurand, output volts)
   gainwright trim DESIGN.json READINGS.csv [--json] [--at=RV1=0.47,RV2=0.55]
                                          trimmer settings for a built probe from its readings
                                          (--at: where the trimmers sat while reading, if turned)
+  gainwright compare DESIGN.json [--opamps FILE.json] [--json]
+                                         the design with each op-amp (built-in and your own), passing first
 `;
 
-const tooLarge = (limit: number, what: string) => `is larger than ${limit >= 1e6 ? `${limit / 1e6} MB` : `${limit / 1e3} kB`}; ${what}`;
 
 /**
  * Reads a design (or readings) file: only a regular file, and at most the limit plus one byte whatever its stated size
@@ -76,11 +87,11 @@ function readDesign(path: string, limit = MAX_DESIGN_BYTES, what = 'a design fil
     fd = openSync(path, constants.O_RDONLY | (constants.O_NONBLOCK ?? 0));
     const st = fstatSync(fd);
     if (!st.isFile()) return { ok: false, message: 'is not a regular file' };
-    if (st.size > limit) return { ok: false, message: tooLarge(limit, what) };
+    if (st.size > limit) return { ok: false, message: tooLargeMessage(limit, what) };
     const buf = Buffer.alloc(limit + 1);
     let n = 0;
     for (let got = 1; got > 0 && n < buf.length; n += got) got = readSync(fd, buf, n, buf.length - n, null);
-    if (n > limit) return { ok: false, message: tooLarge(limit, what) };
+    if (n > limit) return { ok: false, message: tooLargeMessage(limit, what) };
     const text = decodeDesignBytes(buf.subarray(0, n));
     if (!text.ok) return { ok: false, message: text.problems[0]!.message };
     return { ok: true, text: text.text };
@@ -110,10 +121,22 @@ export async function main(argv: string[], io: Io = nodeIo): Promise<number> {
 const oneLine = (e: unknown) => String(e instanceof Error ? e.message : e).replace(/\s+/g, ' ').slice(0, 300);
 
 function run(argv: string[], io: Io): number {
-  const [cmd, ...rest] = argv;
+  const [cmd, ...given] = argv;
+  // `--opamps FILE` (or `--opamps=FILE`): the person's own op-amps for `compare`.
+  let opampsFile: string | null = null;
+  const rest: string[] = [];
+  for (let i = 0; i < given.length; i++) {
+    const a = given[i]!;
+    if (a === '--opamps') {
+      if (i + 1 >= given.length) { io.err(`gainwright: --opamps takes a file\n${USAGE}`); return 2; }
+      opampsFile = given[++i]!;
+    } else if (a.startsWith('--opamps=')) opampsFile = a.slice('--opamps='.length);
+    else rest.push(a);
+  }
+  if (opampsFile !== null && cmd !== 'compare') { io.err(`gainwright: --opamps goes with compare\n${USAGE}`); return 2; }
   const flags = new Set(rest.filter((a) => a.startsWith('--')));
   const args = rest.filter((a) => !a.startsWith('--'));
-  const known = new Set(['--json', '--spice', '--no-spread', '--help']);
+  const known = new Set(['--json', '--spice', '--spice-sensor', '--no-spread', '--help']);
   // `--at=RV1=0.47,RV2=0.55`: where the trimmers sat while the probe readings were taken (gainwright trim).
   const atFlag = [...flags].find((fl) => fl.startsWith('--at='));
   if (atFlag) flags.delete(atFlag);
@@ -132,6 +155,7 @@ function run(argv: string[], io: Io): number {
   }
   if (cmd === 'fit') return fitCommand(args, flags.has('--json'), io);
   if (cmd === 'trim') return trimCommand(args, flags.has('--json'), io, atFlag?.slice('--at='.length) ?? null);
+  if (cmd === 'compare') return compareCommand(args, flags.has('--json'), io, opampsFile);
   if (cmd !== 'report') { io.err(`gainwright: unknown command ${quoteText(cmd)}\n${USAGE}`); return 2; }
   if (args.length !== 1) { io.err(`gainwright: report takes one design file or folder\n${USAGE}`); return 2; }
   const path = args[0]!;
@@ -164,6 +188,12 @@ function run(argv: string[], io: Io): number {
   if (!read.ok) { io.err(`gainwright: ${shown(path)}: ${read.message}\n`); return 2; }
   const v = parseDesignText(read.text);
   if (!v.ok) { io.err(`gainwright: ${shown(path)} is not a valid design:\n${problemLines(v.problems).map((l) => `  ${l}`).join('\n')}\n`); return 2; }
+  if (flags.has('--spice-sensor')) {
+    const net = closedLoopSpiceNetlist(v.design);
+    if (!net) { io.err('gainwright: --spice-sensor exports a closed-loop Hall sensor (sensor.type "closed-loop-hall"); use --spice for the whole stage\n'); return 2; }
+    io.out(net.netlist);
+    return 0;
+  }
   // The trade sweep (issue 19) is part of a single design's report; a folder's batch leaves it out.
   const r = analyse(v.design, { spreadTrials, trade: !flags.has('--spice') });
   if (flags.has('--spice')) {
@@ -244,5 +274,31 @@ function trimCommand(args: string[], json: boolean, io: Io, atText: string | nul
     if (json) io.err(`gainwright: ${trimLines(t, r.stage?.parts ?? [], m).join(' ')}\n`);
     return 1;
   }
+  return 0;
+}
+
+function compareCommand(args: string[], json: boolean, io: Io, opampsFile: string | null): number {
+  if (args.length !== 1) { io.err(`gainwright: compare takes one design file\n${USAGE}`); return 2; }
+  const read = readDesign(args[0]!);
+  if (!read.ok) { io.err(`gainwright: ${shown(args[0]!)}: ${read.message}\n`); return 2; }
+  const v = parseDesignText(read.text);
+  if (!v.ok) { io.err(`gainwright: ${shown(args[0]!)} is not a valid design:\n${problemLines(v.problems).map((l) => `  ${l}`).join('\n')}\n`); return 2; }
+  let own: OpAmpSpec[] = [];
+  if (opampsFile !== null) {
+    const list = readDesign(opampsFile, MAX_OPAMP_LIST_BYTES, 'an op-amp list is a few kB');
+    if (!list.ok) { io.err(`gainwright: ${shown(opampsFile)}: ${list.message}\n`); return 2; }
+    const parsed = parseOpAmpListText(list.text);
+    if (!parsed.ok) { io.err(`gainwright: ${shown(opampsFile)} is not a valid op-amp list:\n${problemLines(parsed.problems).map((l) => `  ${l}`).join('\n')}\n`); return 2; }
+    own = parsed.opamps;
+  }
+  const rows = comparisonRows(v.design, own);
+  if (json) {
+    for (const r of rows) io.out(JSON.stringify(comparisonJson(r)) + '\n');
+    return 0;
+  }
+  const d = v.design;
+  const cautions = cautionsFor(d.sensor.type, sensorFrontAtRail(d.sensor, d).cautions);
+  const title = terminalLine(d.title);
+  io.out([`${title}: op-amps compared`, '='.repeat(Math.min(title.length + 19, 80)), ...comparisonLines(rows, d.sensor.measurand, !!d.supply.battery), '', 'Safety', '------', ...cautions.map((c) => `  ${c}`)].join('\n') + '\n');
   return 0;
 }

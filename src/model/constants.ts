@@ -13,3 +13,8 @@ export const HOUR = 3600;
  * (common practice for a low-dropout part).
  */
 export const REGULATOR_DROPOUT = 0.3;
+/**
+ * Current a rail splitter draws from the battery, A: a buffer op-amp's quiescent current and the divider it
+ * follows (a few hundred microamperes each; common practice, from memory).
+ */
+export const SPLITTER_CURRENT = 1e-3;

@@ -159,7 +159,61 @@ export interface ShuntSensor extends SensorCommon {
   commonMode: number | null;
 }
 
-export type SensorSpec = VoltageOutputSensor | HallGapCoreSensor | CurrentTransformerSensor | ShuntSensor;
+// --- closed-loop Hall sensor (issue #20) ------------------------------------------------------------------
+/**
+ * A closed-loop (zero-flux) Hall current sensor: the Hall sensor in the core's gap drives, through the loop's
+ * compensation network and a driver, a current through a compensation winding on the same core that cancels
+ * the primary's ampere-turns; the output is that current across the measurement resistor R_M, whose low end
+ * sits at `reference`. See docs/method.md ("Closed-loop Hall sensor").
+ */
+export interface ClosedLoopHallSensor extends SensorCommon {
+  type: 'closed-loop-hall';
+  /** Hall sensor output per flux density, V/T (its sign is matched by the winding's polarity). */
+  hallSensitivity: number;
+  /** Hall sensor output at zero field, V; the driver's + input is held at the same voltage. */
+  quiescent: number;
+  /** Largest |B| over which the Hall sensor stays linear, T. */
+  linearField: number;
+  /** The core as for `hall-gap-core`, plus its cross-section `area`, m². */
+  core: HallGapCoreSensor['core'] & { area: number };
+  /** Turns of the measured conductor through the core (1: one pass). */
+  primaryTurns: number;
+  /** Turns of the compensation winding, N_s. */
+  compensationTurns: number;
+  /** Resistance of the compensation winding, Ω; when absent it is computed from `wire`. */
+  windingResistance?: number;
+  /** The winding's copper wire: diameter and mean length of one turn, m (for R_w when not given). */
+  wire?: { diameter: number; turnLength: number } | null;
+  /** The measurement resistor R_M, Ω. */
+  measurementResistance: number;
+  /** Voltage R_M's low end is tied to, V (default: the middle of the rails). */
+  reference?: number;
+  /** The driver: an op-amp alone or with a complementary (push-pull) transistor output stage. */
+  driver: {
+    outputStage: 'op-amp' | 'push-pull';
+    /** Driver op-amp's gain-bandwidth product, Hz, and open-loop gain, dB. */
+    gbw: number;
+    openLoopGainDb: number;
+    /** How close the op-amp's output comes to each rail, V. */
+    swing: number;
+    /** Further drop of the output stage (a push-pull pair's base-emitter voltage), V. */
+    drop: number;
+    /** Largest current the driver can deliver either way, A. */
+    currentLimit: number;
+    /** Driver's own quiescent current, A. */
+    quiescentCurrent: number;
+    /** Output resistance of the driver in series with the winding, Ω. */
+    outputResistance: number;
+  };
+  /**
+   * The loop's compensation: an inverting integrator, R_i from the Hall sensor to the driver's − input and
+   * C_i (with R_z in series, a zero at 1/(2π·R_z·C_i); 0 = a pure integrator) from its output back to it.
+   */
+  compensation: { inputResistance: number; capacitance: number; zeroResistance: number };
+}
+// --- end closed-loop Hall sensor ----------------------------------------------------------------------------
+
+export type SensorSpec = VoltageOutputSensor | HallGapCoreSensor | CurrentTransformerSensor | ShuntSensor | ClosedLoopHallSensor;
 export type SensorType = SensorSpec['type'];
 
 export interface Supply {
@@ -187,7 +241,17 @@ export interface Supply {
    */
   tolerance: number;
   /** Battery feeding the positive rail (and the regulator), or null for a bench supply. */
-  battery: { fresh: number; endOfLife: number; capacity: number } | null;
+  battery: {
+    fresh: number; endOfLife: number; capacity: number;
+    /**
+     * What the battery makes of the rails: `positive` (it is the positive rail, over `negative`), `split` (one
+     * battery split about the amplifier's ground by a rail splitter: ±half its voltage), `pair` (a second,
+     * equal battery makes the negative rail: ±its voltage). Default `positive`.
+     */
+    rails?: 'positive' | 'split' | 'pair';
+    /** Current the rail splitter itself draws, A (used with `split`; absent: SPLITTER_CURRENT, 1 mA). */
+    splitterCurrent?: number;
+  } | null;
 }
 
 export interface OpAmpSpec {
@@ -420,11 +484,88 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     lowestFrequency: num('hertz', 'positive', { min: 1e-3, max: 1e6, optional: true }),
     // --- end issue 19
   },
+  // --- closed-loop Hall sensor (issue #20) ---
+  'closed-loop-hall': {
+    ...sensorCommon,
+    hallSensitivity: num('volts per tesla', 'any', { maxAbs: 1e6, minAbs: 1e-6 }),
+    quiescent: V(),
+    linearField: num('teslas', 'positive', { min: 1e-6, max: 100 }),
+    core: {
+      t: 'obj',
+      fields: {
+        pathLength: num('metres', 'positive', { min: 1e-4, max: 100 }),
+        permeability: num('(relative permeability)', 'positive', { min: 1, max: 1e7 }),
+        gap: num('metres', 'positive', { min: 1e-6, max: 1 }),
+        saturation: num('teslas', 'positive', { min: 1e-3, max: 100 }),
+        fringing: opt(num('(factor)', 'positive', { min: 0.1, max: 10 }), 1),
+        width: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }),
+        depth: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }),
+        area: num('square metres', 'positive', { min: 1e-9, max: 10 }),
+      },
+    },
+    primaryTurns: opt(num('turns', 'positive', { min: 1, max: 1e6, whole: true }), 1),
+    compensationTurns: num('turns', 'positive', { min: 1, max: 1e6, whole: true }),
+    windingResistance: num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6, optional: true }),
+    wire: {
+      t: 'obj', nullable: true, def: null,
+      fields: { diameter: num('metres', 'positive', { min: 1e-6, max: 0.1 }), turnLength: num('metres', 'positive', { min: 1e-4, max: 10 }) },
+    },
+    measurementResistance: num('ohms', 'positive', { min: 1e-3, max: 1e7 }),
+    reference: V({ optional: true }),
+    driver: {
+      t: 'obj',
+      fields: {
+        outputStage: { t: 'str', oneOf: ['op-amp', 'push-pull'], def: 'op-amp' },
+        gbw: opt(num('hertz', 'positive', { min: 1, max: 1e11 }), 1e6),
+        openLoopGainDb: opt(num('decibels', 'any', { min: 20, max: 200 }), 100),
+        swing: opt(num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }), 1.5),
+        drop: opt(num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }), 0),
+        currentLimit: opt(num('amperes', 'positive', { min: 1e-6, max: 100 }), 0.02),
+        quiescentCurrent: opt(num('amperes', 'nonneg', { max: 10, minAbs: 1e-12 }), 1e-3),
+        outputResistance: opt(num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6 }), 1),
+      },
+    },
+    compensation: {
+      t: 'obj',
+      fields: {
+        inputResistance: num('ohms', 'positive', { min: 1, max: 1e9 }),
+        capacitance: num('farads', 'positive', { min: 1e-15, max: 1 }),
+        zeroResistance: opt(num('ohms', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
+      },
+    },
+  },
+  // --- end closed-loop Hall sensor ---
   shunt: {
     ...sensorCommon,
     resistance: num('ohms', 'positive', { min: 1e-6, max: 1e9 }),
     powerRating: opt(num('watts', 'positive', { min: 1e-4, max: 1e6 }), 0.25),
     commonMode: V({ optional: true }),
+  },
+};
+
+/** The op-amp's figures: the design's `opamp`, and each entry of an op-amp list file (src/model/opamp-list.ts). */
+export const OPAMP_SCHEMA: Spec = {
+  t: 'obj',
+  fields: {
+    name: { t: 'str', def: 'custom', maxLength: 80 },
+    gbw: num('hertz', 'positive', { min: 1, max: 1e11 }),
+    slewRate: num('volts per second', 'positive', { min: 1, max: 1e12 }),
+    openLoopGainDb: num('decibels', 'any', { min: 20, max: 200 }),
+    inputLow: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
+    inputHigh: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
+    outputLow: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
+    outputHigh: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
+    voltageNoise: num('volts per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-15 }),
+    currentNoise: num('amperes per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-18 }),
+    offsetVoltage: num('volts', 'nonneg', { max: 1, minAbs: 1e-12 }),
+    biasCurrent: num('amperes', 'any', { maxAbs: 1e-2, minAbs: 1e-18 }),
+    supplyCurrent: num('amperes', 'nonneg', { max: 10, minAbs: 1e-12 }),
+    outputResistance: opt(num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6 }), 50),
+    outputCurrent: opt(num('amperes', 'positive', { min: 1e-6, max: 100 }), 0.02),
+    offsetDrift: opt(num('volts per kelvin', 'nonneg', { max: 1e-2, minAbs: 1e-15 }), 0),
+    psrrDb: opt(num('decibels', 'any', { min: 20, max: 200 }), 80),
+    voltageNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
+    currentNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
   },
 };
 
@@ -460,34 +601,13 @@ const SCHEMA: Spec = {
             fresh: num('volts', 'positive', { min: 0.1, max: 1000 }),
             endOfLife: num('volts', 'positive', { min: 0.1, max: 1000 }),
             capacity: num('coulombs', 'positive', { min: 0.36, max: 1e9 }),
+            rails: { t: 'str', oneOf: ['positive', 'split', 'pair'], def: 'positive' },
+            splitterCurrent: num('amperes', 'nonneg', { max: 1, minAbs: 1e-9, optional: true }),
           },
         },
       },
     },
-    opamp: {
-      t: 'obj',
-      fields: {
-        name: { t: 'str', def: 'custom', maxLength: 80 },
-        gbw: num('hertz', 'positive', { min: 1, max: 1e11 }),
-        slewRate: num('volts per second', 'positive', { min: 1, max: 1e12 }),
-        openLoopGainDb: num('decibels', 'any', { min: 20, max: 200 }),
-        inputLow: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
-        inputHigh: num('volts', 'any', { min: -100, max: 100, minAbs: 1e-9 }),
-        outputLow: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
-        outputHigh: num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }),
-        voltageNoise: num('volts per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-15 }),
-        currentNoise: num('amperes per root hertz', 'nonneg', { max: 1e-3, minAbs: 1e-18 }),
-        offsetVoltage: num('volts', 'nonneg', { max: 1, minAbs: 1e-12 }),
-        biasCurrent: num('amperes', 'any', { maxAbs: 1e-2, minAbs: 1e-18 }),
-        supplyCurrent: num('amperes', 'nonneg', { max: 10, minAbs: 1e-12 }),
-        outputResistance: opt(num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6 }), 50),
-        outputCurrent: opt(num('amperes', 'positive', { min: 1e-6, max: 100 }), 0.02),
-        offsetDrift: opt(num('volts per kelvin', 'nonneg', { max: 1e-2, minAbs: 1e-15 }), 0),
-        psrrDb: opt(num('decibels', 'any', { min: 20, max: 200 }), 80),
-        voltageNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
-        currentNoiseCorner: opt(num('hertz', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
-      },
-    },
+    opamp: OPAMP_SCHEMA,
     target: {
       t: 'obj',
       fields: {
@@ -674,6 +794,10 @@ function crossCheck(d: Design, problems: Problem[]): void {
   if (e.temperatureMin > e.temperature) p('environment.temperatureMin', 'must not be above environment.temperature: lower environment.temperatureMin or raise environment.temperature', ['environment.temperature']);
   if (e.temperature > e.temperatureMax) p('environment.temperatureMax', 'must not be below environment.temperature: raise environment.temperatureMax or lower environment.temperature', ['environment.temperature']);
   if (d.supply.battery && d.supply.battery.fresh <= d.supply.battery.endOfLife) p('supply.battery.endOfLife', 'must be below supply.battery.fresh', ['supply.battery.fresh']);
+  // A split battery or a pair of batteries makes symmetric rails about the amplifier's ground.
+  if (d.supply.battery && d.supply.battery.rails !== 'positive' && Math.abs(d.supply.negative + d.supply.positive) > 1e-9 * d.supply.positive) {
+    p('supply.negative', `must be −supply.positive with ${d.supply.battery.rails === 'split' ? 'a split battery' : 'a second battery'} (the rails are symmetric about ground): set supply.negative to ${-d.supply.positive} V`, ['supply.positive', 'supply.battery.rails']);
+  }
   if (d.supply.sensorRail === 'regulated' && !d.supply.regulated) p('supply.sensorRail', 'is the regulated rail, but supply.regulated is off: feed the sensor from the positive rail or keep supply.regulated', ['supply.regulated']);
   if (d.supply.referenceRail === 'regulated' && !d.supply.regulated) p('supply.referenceRail', 'is the regulated rail, but supply.regulated is off: take the reference from the positive rail or keep supply.regulated', ['supply.regulated']);
   if (d.supply.regulated && d.supply.regulated.voltage + d.supply.regulated.dropout > span) {
@@ -702,7 +826,15 @@ function crossCheck(d: Design, problems: Problem[]): void {
   if (s.readings?.use && s.type !== 'voltage-output' && s.type !== 'hall-gap-core') {
     p('sensor.readings.use', 'can only be true for a voltage-output or hall-gap-core sensor: a current transformer or shunt is set by its parts');
   }
-  if (s.type === 'hall-gap-core' && s.core.gap >= s.core.pathLength) p('sensor.core.gap', 'must be shorter than sensor.core.pathLength', ['sensor.core.pathLength']);
+  if ((s.type === 'hall-gap-core' || s.type === 'closed-loop-hall') && s.core.gap >= s.core.pathLength) p('sensor.core.gap', 'must be shorter than sensor.core.pathLength', ['sensor.core.pathLength']);
+  // --- closed-loop Hall sensor (issue #20) ---
+  if (s.type === 'closed-loop-hall') {
+    if (s.hallSensitivity === 0) p('sensor.hallSensitivity', 'must not be zero');
+    if (s.windingResistance === undefined && !s.wire) p('sensor.windingResistance', 'is needed, or sensor.wire (its diameter and mean turn length) to compute it', ['sensor.wire']);
+    const ref = s.reference ?? (d.supply.positive + d.supply.negative) / 2;
+    if (!(ref > d.supply.negative && ref < d.supply.positive)) p('sensor.reference', 'must lie between the rails so that the driver can drive the winding both ways', ['supply.positive', 'supply.negative']);
+  }
+  // --- end closed-loop Hall sensor ---
 }
 
 /** Formats problems one per line: `opamp.gbw: must be a positive number of hertz`. */
@@ -731,7 +863,11 @@ export function decodeDesignBytes(bytes: Uint8Array): { ok: true; text: string }
   }
 }
 
-const tooLarge = (): Problem => ({ path: '(file)', message: `is larger than ${MAX_DESIGN_BYTES / 1e6} MB; a design file is a few kB` });
+/** The one wording of a file over its size limit: `is larger than 1 MB; a design file is a few kB`. */
+export function tooLargeMessage(limit: number, what = 'a design file is a few kB'): string {
+  return `is larger than ${limit >= 1e6 ? `${limit / 1e6} MB` : `${limit / 1e3} kB`}; ${what}`;
+}
+const tooLarge = (): Problem => ({ path: '(file)', message: tooLargeMessage(MAX_DESIGN_BYTES) });
 
 /** Where JSON.parse stopped, as one line: the engine's own message quotes the text, control characters and all. */
 function jsonErrorAt(text: string, err: unknown): string {

@@ -9,6 +9,7 @@ import { cautionsFor } from './cautions.js';
 import { peakRange } from '../physics/topology.js';
 import { formatEng } from '../model/units.js';
 import { csvCell, spiceCommentText } from './inert.js';
+import { closedLoopBomRows } from './closed-loop.js';
 
 export interface BomRow {
   ref: string;
@@ -102,8 +103,11 @@ export function bomRows(r: Report): BomRow[] {
     'current-transformer': 'current transformer (its burden is RB above)',
     shunt: `shunt ${formatEng(r.design.sensor.type === 'shunt' ? r.design.sensor.resistance : 0, 'Ω')}`,
     'voltage-output': 'voltage-output sensor',
+    'closed-loop-hall': 'linear Hall sensor in the core gap',
   };
   rows.push({ ref: 'S1', value: sensorName[r.design.sensor.type] ?? 'sensor', code: '', spec: `${formatEng(r.front.sensitivity, `V/${r.design.sensor.measurand}`)} as designed`, dissipation: null, rating: null, quantity: 1, role: 'sensor' });
+  // --- closed-loop Hall sensor (issue #20): the winding, R_M, the compensation and the driver ---
+  rows.push(...closedLoopBomRows(r, diss, powerRating));
   if (r.design.supply.regulated) {
     rows.push({ ref: 'U2', value: `${formatEng(r.design.supply.regulated.voltage, 'V')} regulator`, code: '', spec: `low-dropout, ±${r.design.supply.regulated.tolerance * 100} %, with its input and output capacitors`, dissipation: null, rating: null, quantity: 1, role: 'regulated rail for the sensor and/or reference' });
   }

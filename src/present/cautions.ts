@@ -24,6 +24,7 @@ const SHUNT_CAUTIONS: readonly string[] = [
 /** The cautions that belong to one kind of sensor. */
 export const SENSOR_CAUTIONS: Record<SensorCaution, string> = {
   'ct-open-secondary': 'Never leave a current transformer secondary open while the primary carries current: the open secondary can rise to a dangerous voltage. Keep the burden soldered in place.',
+  'closed-loop-open-winding': 'Never break the compensation winding\'s circuit (the measurement resistor, the driver or its supply) while the clamped conductor carries current: at AC the winding is a current transformer\'s secondary and its open ends can rise to a dangerous voltage. Switch the probe on before clamping it round the conductor, and take it off before switching off.',
 };
 
 /** Every caution for a design's sensor: the general list for its kind, then the sensor's own. */

@@ -28,6 +28,7 @@ export const LIMIT_NAMES: Record<LimitCause, string> = {
   sensor: 'the sensor reaches its limit',
   core: 'the core saturates',
   burden: 'the burden or shunt reaches its power rating',
+  driver: 'the compensation driver runs out and the core leaves zero flux',
 };
 
 /** Why a limit bounds the linear range, in words: `the op-amp output swings only from 0.05 V to 7.5 V`. */
@@ -42,6 +43,7 @@ export function limitWhy(l: LimitData): string {
       return `the readings leave the straight line ${l.low !== null && l.high !== null ? `below ${p3(l.low)} and above ${p3(l.high)} ${l.measurand}` : l.high !== null ? `above ${p3(l.high)} ${l.measurand}` : `below ${p3(l.low ?? NaN)} ${l.measurand}`}`;
     case 'core': return `the core saturates at ${l.saturation} T`;
     case 'burden': return `the ${l.part} reaches its ${l.power} W rating`;
+    case 'driver': return `the compensation driver runs out of ${l.runsOut === 'current' ? 'current' : 'voltage'} and the core leaves zero flux (the output stops rising; the core saturates at ${p3(l.saturation)} ${l.measurand})`;
   }
 }
 
@@ -51,6 +53,7 @@ function limitFix(l: LimitData | null): string {
     case 'opamp-output': case 'opamp-current': return ' To fit, move the zero towards the middle of the swing, lower the scale, use a split supply, or an op-amp whose output swings closer to the rails.';
     case 'opamp-input': return ' An op-amp whose input range includes the rail, a lower sensor offset, or the inverting stage (its inputs sit still) would fit.';
     case 'core': return ' Fewer turns or a longer gap raise the core\'s limit.';
+    case 'driver': return ' A smaller measurement resistor, more compensation turns, wider rails or a driver with more current (a push-pull pair) hold more.';
     case 'sensor': return ' The sensor itself runs out first: fewer turns, a longer gap, or a sensor with a wider range.';
     default: return '';
   }
@@ -112,6 +115,9 @@ export function topologyWhy(choice: { chosen: { topology: string; reasons: Stage
   return choice.chosen ? line(choice.chosen) : `no single-stage topology fits: ${choice.considered.map(line).join(' | ')}`;
 }
 
+/** The compensation a closed-loop finding suggests, in words. */
+const COMP = (d: { inputResistance: number; capacitance: number; zeroResistance: number }) => `R_i ${ohms(d.inputResistance)}, C_i ${f3(d.capacitance, 'F')} with R_z ${ohms(d.zeroResistance)} in series (the zero on the winding's corner)`;
+
 type Words = { [K in FindingCode]: { title: string; say: (d: FindingData[K]) => string } };
 
 const SOURCE_FROM = { regulated: 'the regulated rail', battery: 'the battery', positive: 'the positive rail' } as const;
@@ -133,6 +139,17 @@ export const FINDING_WORDS: Words = {
   'ct-no-dc': { title: 'A current transformer passes no DC', say: () => 'A current transformer passes no DC: set the signal to AC (rms), or use a Hall sensor or a shunt for DC.' },
   'low-side-only': { title: 'Shunt in the low side', say: () => 'The shunt sits in the low side, on the amplifier ground; for a shunt in the high side give its supply-end voltage (the High side: supply-end voltage field) and use the difference stage.' },
   'shunt-power': { title: 'Shunt overloaded', say: (d) => `The shunt dissipates ${p3(d.power)} W at the range end, above its ${d.rating} W rating.` },
+  // --- closed-loop Hall sensor (issue #20) ---
+  'closed-loop-unstable': { title: 'The sensor loop is unstable', say: (d) => `The compensation loop is unstable (phase margin ${d.phaseMargin === null ? 'none' : `${p3(d.phaseMargin)}°`}): the output will oscillate. Try ${COMP(d)}.` },
+  'closed-loop-margin': { title: 'The sensor loop rings', say: (d) => `The compensation loop's phase margin is ${p3(d.phaseMargin)}° at ${f3(d.crossover, 'Hz')}: a step will ring. Try ${COMP(d)}.` },
+  'closed-loop-flatness': { title: 'The response steps at the hand-over', say: (d) => `The response steps by ${pct(d.flatness, 1)} at ${f3(d.at, 'Hz')}, where the Hall path hands over to the transformer path. A zero in the compensation flattens it: ${COMP(d)} leaves ${pct(d.dip, 1)}.` },
+  'closed-loop-flatness-limit': { title: 'The response steps a little at the hand-over', say: (d) => `The response steps by ${pct(d.flatness, 1)} at ${f3(d.at, 'Hz')}, where the Hall path hands over to the transformer path: about what a 60° phase margin allows with this Hall sensor's bandwidth and this driver's gain-bandwidth. A faster driver or Hall sensor flattens it.` },
+  'closed-loop-overload': { title: 'Past the held current', say: (d) => `Past ${p3(d.high)} ${d.measurand} (or ${p3(d.low)} ${d.measurand}) the driver runs out of ${d.limitHigh === 'current' ? 'current' : 'voltage'}: the core is no longer held at zero flux, the output stops rising and reads low, the core saturates at ${p3(d.saturationHigh)} ${d.measurand} and the output collapses. Re-zero after any overload (the core may stay magnetised).` },
+  'closed-loop-residual': { title: 'Scale error of the finite loop gain', say: (d) => `The loop's DC gain of ${p3(d.dcLoopGain)} leaves a scale error of ${pct(d.residual, 4)} (included in the sensitivity).` },
+  'closed-loop-polarity': { title: 'Winding polarity', say: () => 'If the voltage across the measurement resistor sits at a rail at power-up with no current flowing, the compensation winding is connected the wrong way round: switch off and swap its two leads.' },
+  'closed-loop-unmodelled': { title: 'The transformer path\'s upper end is not modelled', say: () => 'The transformer path is modelled with perfect coupling: the winding\'s own capacitance and the core\'s losses, which end it at high frequency, are not modelled.' },
+  'closed-loop-driver-current': { title: 'The driver cannot supply the range', say: (d) => `The range end needs ${f3(d.need, 'A')} from the driver, more than its ${f3(d.limit, 'A')} limit: more turns, or a push-pull output stage.` },
+  // --- end closed-loop Hall sensor ---
   'readings-too-few': {
     title: 'Too few sensor readings to fit',
     say: (d) => d.allAtOneValue

@@ -4,9 +4,10 @@
  */
 import type { Report } from '../analysis/report.js';
 import type { Part, PartRole } from '../circuit/network.js';
-import { partValue } from './parts.js';
+import { armJoint, partValue } from './parts.js';
 import { STAGE_NAMES } from './words.js';
 import { formatEng } from '../model/units.js';
+import { closedLoopPrims } from './closed-loop.js';
 
 export type Prim =
   | { t: 'wire'; pts: Array<[number, number]> }
@@ -32,7 +33,7 @@ export interface Schematic {
 function arm(parts: Part[], role: PartRole): { ref: string; value: string } | null {
   const ps = parts.filter((p) => p.role === role);
   if (!ps.length) return null;
-  const joint = ps.length > 1 && ps[0]!.arrangement === 'parallel' ? ' ∥ ' : ' + ';
+  const joint = armJoint(ps[0]!.arrangement);
   return { ref: ps.map((p) => p.ref).join(joint), value: ps.map((p) => formatEng(p.ohms, 'Ω', 3).replace(' ', '')).join(joint) };
 }
 
@@ -51,7 +52,7 @@ export function schematic(r: Report): Schematic | null {
   P.push({ t: 'opamp', x: 340, y: 170, invertingOnTop: true });
   // The burden is a listed part (RB): the CT symbol names it with its value.
   const burden = parts.find((p) => p.role === 'burden');
-  const sensorLabel = r.design.sensor.type === 'hall-gap-core' ? 'Hall sensor' : r.design.sensor.type === 'current-transformer' ? `CT + ${burden ? `${burden.ref} ${partValue(burden)}` : 'burden'}` : r.design.sensor.type === 'shunt' ? 'Shunt' : 'Sensor';
+  const sensorLabel = r.design.sensor.type === 'closed-loop-hall' ? 'Sensor loop (below)' : r.design.sensor.type === 'hall-gap-core' ? 'Hall sensor' : r.design.sensor.type === 'current-transformer' ? `CT + ${burden ? `${burden.ref} ${partValue(burden)}` : 'burden'}` : r.design.sensor.type === 'shunt' ? 'Shunt' : 'Sensor';
   const sensorY = inv || topo === 'summing-inverting' ? 150 : 190;
   P.push({ t: 'source', x: 40, y: sensorY, label: sensorLabel });
   const fb = arm(parts, 'feedback');
@@ -217,6 +218,8 @@ export function schematic(r: Report): Schematic | null {
   }
   P.push({ t: 'terminal', x: 610, y: 170, label: 'To instrument' });
   P.push({ t: 'text', x: 400, y: 440, text: `U1 ${STAGE_NAMES[topo]}` });
+  // --- closed-loop Hall sensor (issue #20): its loop drawn below the stage ---
+  if (r.design.sensor.type === 'closed-loop-hall') return { width: 700, height: 700, prims: [...P, ...closedLoopPrims(r, 470)] };
   // Issue 19: the switch's second pole picks each range's reference divider (drawn for range 1 above).
   if (rs && rs.poles > 1) {
     P.push({ t: 'text', x: 20, y: 465, text: `${rs.switchRef}b picks the reference divider ${topo === 'inverting' ? 'at the + input' : "at the ground leg's foot"}:` });

@@ -1,5 +1,5 @@
 /** The report as plain text for a terminal: verdicts first, then parts, figures, calibration, cautions. */
-import { partCode, partRole, partValue } from './parts.js';
+import { armJoint, partCode, partRole, partValue } from './parts.js';
 import type { Report } from '../analysis/report.js';
 import { calibrationSteps } from './calibration.js';
 import { cautionsFor } from './cautions.js';
@@ -8,6 +8,7 @@ import { verdictsOf } from './verdicts.js';
 import { formatEng } from '../model/units.js';
 import { terminalLine } from './inert.js';
 import { waveformFigures } from './figures.js';
+import { closedLoopLines } from './closed-loop.js';
 import { tradeLines } from './trade.js';
 import { rangeLines } from './ranges.js';
 
@@ -35,12 +36,14 @@ export function textReport(r: Report): string {
     }
     if (s.alternatives.length > 1) {
       out.push('  Alternatives for the gain network (feedback / leg, error):');
-      s.alternatives.slice(0, 5).forEach((a, i) => out.push(`   ${i === s.chosen ? '*' : ' '}${i}: ${a.a.parts.map((p) => formatEng(p, 'Ω')).join(a.a.arrangement === 'parallel' ? ' ∥ ' : ' + ')} / ${a.b.parts.map((p) => formatEng(p, 'Ω')).join(a.b.arrangement === 'parallel' ? ' ∥ ' : ' + ')}, ${(a.error * 100).toFixed(4)} %`));
+      s.alternatives.slice(0, 5).forEach((a, i) => out.push(`   ${i === s.chosen ? '*' : ' '}${i}: ${a.a.parts.map((p) => formatEng(p, 'Ω')).join(armJoint(a.a.arrangement))} / ${a.b.parts.map((p) => formatEng(p, 'Ω')).join(armJoint(a.b.arrangement))}, ${(a.error * 100).toFixed(4)} %`));
     }
   }
   if (r.front.figures.length) {
     h('Sensor');
     for (const fig of r.front.figures) out.push(`  ${fig.label}: ${fig.unit === '' ? `${(fig.value * 100).toFixed(2)} %` : f(fig.value, fig.unit)}`);
+    // --- closed-loop Hall sensor (issue #20) ---
+    out.push(...closedLoopLines(r));
   }
   if (r.clip) {
     const c = r.clip;
