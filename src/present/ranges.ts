@@ -12,7 +12,7 @@ import { spiceCommentText } from './inert.js';
 /** The range switch as the report JSON's `ranges` list and `rangeSwitch` object (non-finite numbers become null). */
 export function rangesJson(rs: RangeSwitchResult | null): { ranges: Array<Record<string, unknown>>; rangeSwitch: Record<string, unknown> | null } {
   if (!rs) return { ranges: [], rangeSwitch: null };
-  if (!rs.ok) return { ranges: [], rangeSwitch: { ok: false, code: rs.code, topology: rs.topology } };
+  if (!rs.ok) return { ranges: [], rangeSwitch: { ok: false, code: rs.code, topology: rs.topology, buffer: rs.buffer } };
   const v = rs.value;
   const fin = (x: number) => (Number.isFinite(x) ? x : null);
   return {
