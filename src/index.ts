@@ -11,6 +11,7 @@ export { verdictsOf } from './present/verdicts.js';
 export type { Verdict } from './present/verdicts.js';
 export { SAFETY_CAUTIONS, cautionsFor } from './present/cautions.js';
 export { reportWords } from './present/report-words.js';
+export { pageText } from './present/inert.js';
 export type { ReportWords, WordedFinding } from './present/report-words.js';
 export { sayFinding, findingTitle, topologyWhy, stageReasonWords } from './present/finding-words.js';
 export type { Finding, FindingCode, FindingLevel } from './model/findings.js';

@@ -41,9 +41,9 @@ export function closedLoopNetlist(spec: ClosedLoopHallSensor, p: ClosedLoopParts
   };
   const k = p.primaryTurns / p.turns;
   // The reference R_M returns to: the sensor's zero.
-  elements.push({ kind: 'V', name: 'VQ', na: 'clref', nb: '0', value: 0, dc0: p.reference, dc1: 0, ac: 0 });
+  elements.push({ kind: 'V', name: 'VQ', role: 'sensor-zero', na: 'clref', nb: '0', value: 0, dc0: p.reference, dc1: 0, ac: 0 });
   // Core: the reflected primary across the magnetising inductance (I_m = I_s − (N_p/N_s)·I_p).
-  elements.push({ kind: 'I', name: 'ISIG', na: 'clwa', nb: 'sens', value: 0, dc0: 0, dc1: k, ac: breakLoop ? 0 : k });
+  elements.push({ kind: 'I', name: 'ISIG', role: 'signal', na: 'clwa', nb: 'sens', value: 0, dc0: 0, dc1: k, ac: breakLoop ? 0 : k });
   elements.push({ kind: 'L', name: 'LM', na: 'clwa', nb: 'sens', value: p.inductance });
   R('RM', 'sens', 'clref', p.measurementResistance);
   // Hall sensor: its zero, the flux-controlled part, its bandwidth and output resistance.

@@ -81,7 +81,7 @@ export function bomRows(r: Report): BomRow[] {
         ref: p.ref,
         value: partValue(p),
         code: partCode(p),
-        spec: p.kind === 'trimmer' ? `trimmer ±${p.tolerance * 100} %, single-turn cermet` : p.kind === 'capacitor' ? 'ceramic C0G/NP0 ±10 %' : `${p.series} ±${+(p.tolerance * 100).toFixed(2)} % metal film`,
+        spec: p.kind === 'trimmer' ? `trimmer ±${+(p.tolerance * 100).toFixed(2)} %, single-turn cermet` : p.kind === 'capacitor' ? 'ceramic C0G/NP0 ±10 %' : `${p.series} ±${+(p.tolerance * 100).toFixed(2)} % metal film`,
         dissipation: pw,
         // The burden is bought at the rating the design states, or higher if the range needs it.
         rating: pw === null ? null : p.role === 'burden' && r.design.sensor.type === 'current-transformer' ? Math.max(powerRating(pw), r.design.sensor.burdenPower) : powerRating(pw),
@@ -109,7 +109,7 @@ export function bomRows(r: Report): BomRow[] {
   // --- closed-loop Hall sensor (issue #20): the winding, R_M, the compensation and the driver ---
   rows.push(...closedLoopBomRows(r, diss, powerRating));
   if (r.design.supply.regulated) {
-    rows.push({ ref: 'U2', value: `${formatEng(r.design.supply.regulated.voltage, 'V')} regulator`, code: '', spec: `low-dropout, ±${r.design.supply.regulated.tolerance * 100} %, with its input and output capacitors`, dissipation: null, rating: null, quantity: 1, role: 'regulated rail for the sensor and/or reference' });
+    rows.push({ ref: 'U2', value: `${formatEng(r.design.supply.regulated.voltage, 'V')} regulator`, code: '', spec: `low-dropout, ±${+(r.design.supply.regulated.tolerance * 100).toFixed(2)} %, with its input and output capacitors`, dissipation: null, rating: null, quantity: 1, role: 'regulated rail for the sensor and/or reference' });
   }
   rows.push({ ref: 'U1', value: r.design.opamp.name || 'op-amp', code: '', spec: `GBW ${formatEng(r.design.opamp.gbw, 'Hz')}, SR ${formatEng(r.design.opamp.slewRate, 'V/s')}`, dissipation: null, rating: null, quantity: 1, role: 'amplifier' });
   rows.push({ ref: 'C9', value: '100 nF', code: '104', spec: 'ceramic X7R, 50 V', dissipation: null, rating: null, quantity: 1, role: 'supply decoupling at U1 (common practice)' });

@@ -38,11 +38,11 @@ export function limitWhy(l: LimitData): string {
     case 'opamp-current': return `the op-amp can drive only ±${+(l.current * 1e3).toPrecision(6)} mA into the feedback network and load`;
     case 'opamp-input': return `the op-amp inputs must stay within ${+l.low.toFixed(3)} V … ${+l.high.toFixed(3)} V`;
     case 'sensor':
-      if (l.what === 'output') return `the sensor's output reaches its ${l.low}…${l.high} V limits`;
-      if (l.what === 'hall-linear') return `the Hall sensor is linear only to ±${l.field} T`;
+      if (l.what === 'output') return `the sensor's output reaches its ${p3(l.low)}…${p3(l.high)} V limits`;
+      if (l.what === 'hall-linear') return `the Hall sensor is linear only to ±${p3(l.field)} T`;
       return `the readings leave the straight line ${l.low !== null && l.high !== null ? `below ${p3(l.low)} and above ${p3(l.high)} ${l.measurand}` : l.high !== null ? `above ${p3(l.high)} ${l.measurand}` : `below ${p3(l.low ?? NaN)} ${l.measurand}`}`;
-    case 'core': return `the core saturates at ${l.saturation} T`;
-    case 'burden': return `the ${l.part} reaches its ${l.power} W rating`;
+    case 'core': return `the core saturates at ${p3(l.saturation)} T`;
+    case 'burden': return `the ${l.part} reaches its ${p3(l.power)} W rating`;
     case 'driver': return `the compensation driver runs out of ${l.runsOut === 'current' ? 'current' : 'voltage'} and the core leaves zero flux (the output stops rising; the core saturates at ${p3(l.saturation)} ${l.measurand})`;
   }
 }
@@ -87,10 +87,10 @@ export function stageReasonWords(r: StageReason): string {
     case 'differential-needs-difference': return 'the sensor\'s output is differential (its − terminal is not at ground): only the difference stage reads it';
     case 'inputs-outside': return `${INPUTS_WHAT[r.what]} ${r.low === r.high ? `at ${r.low.toPrecision(3)} V` : `from ${r.low.toPrecision(3)} to ${r.high.toPrecision(3)} V`}, outside the op-amp's input range ${r.inputLow.toPrecision(3)}…${r.inputHigh.toPrecision(3)} V`;
     case 'cannot-attenuate': return `a non-inverting stage cannot attenuate: the target needs a gain of ${r.gain.toPrecision(3)}`;
-    case 'buffer-zero-fixed': return `a unity-gain buffer keeps the sensor's ${r.sensorZero} V zero and cannot move it to ${r.wanted.toPrecision(4)} V`;
+    case 'buffer-zero-fixed': return `a unity-gain buffer keeps the sensor's ${p3(r.sensorZero)} V zero and cannot move it to ${r.wanted.toPrecision(4)} V`;
     case 'reference-outside': return r.node === 'plus-input'
-      ? `the + input would have to sit at ${r.voltage.toPrecision(3)} V, outside the ${r.railLow}…${r.railHigh} V it can be taken from`
-      : `the reference would have to be ${r.voltage.toPrecision(3)} V, outside the ${r.railLow}…${r.railHigh} V it can be taken from`;
+      ? `the + input would have to sit at ${r.voltage.toPrecision(3)} V, outside the ${p3(r.railLow)}…${p3(r.railHigh)} V it can be taken from`
+      : `the reference would have to be ${r.voltage.toPrecision(3)} V, outside the ${p3(r.railLow)}…${p3(r.railHigh)} V it can be taken from`;
     case 'no-offset': return r.plain === 'non-inverting'
       ? 'with no offset to add, this is the plain non-inverting stage'
       : 'with no offset to add, this is the plain inverting stage with its + input grounded';
@@ -135,10 +135,10 @@ export const FINDING_WORDS: Words = {
   remanence: { title: 'Re-zero after an overload', say: () => 'An overload can leave the core magnetised and shift the zero: re-zero after any overload.' },
   'earth-field': { title: 'The Earth\'s field reads', say: (d) => `The Earth's field alone reads as about ${p3(d.reading)} ${d.measurand}: zero the probe where it will be used.` },
   'gap-critical': { title: 'Gap is critical', say: (d) => `Sensitivity changes by ${(d.changePerTenthMm * 100).toFixed(1)} % for each 0.1 mm of gap: a hand-cut gap will need the span trimmer.` },
-  'burden-power': { title: 'Burden overloaded', say: (d) => `The burden dissipates ${p3(d.power)} W at the top of the range, above its ${d.rating} W rating.` },
+  'burden-power': { title: 'Burden overloaded', say: (d) => `The burden dissipates ${p3(d.power)} W at the top of the range, above its ${p3(d.rating)} W rating.` },
   'ct-no-dc': { title: 'A current transformer passes no DC', say: () => 'A current transformer passes no DC: set the signal to AC (rms), or use a Hall sensor or a shunt for DC.' },
   'low-side-only': { title: 'Shunt in the low side', say: () => 'The shunt sits in the low side, on the amplifier ground; for a shunt in the high side give its supply-end voltage (the High side: supply-end voltage field) and use the difference stage.' },
-  'shunt-power': { title: 'Shunt overloaded', say: (d) => `The shunt dissipates ${p3(d.power)} W at the range end, above its ${d.rating} W rating.` },
+  'shunt-power': { title: 'Shunt overloaded', say: (d) => `The shunt dissipates ${p3(d.power)} W at the range end, above its ${p3(d.rating)} W rating.` },
   // --- closed-loop Hall sensor (issue #20) ---
   'closed-loop-unstable': { title: 'The sensor loop is unstable', say: (d) => `The compensation loop is unstable (phase margin ${d.phaseMargin === null ? 'none' : `${p3(d.phaseMargin)}°`}): the output will oscillate. Try ${COMP(d)}.` },
   'closed-loop-margin': { title: 'The sensor loop rings', say: (d) => `The compensation loop's phase margin is ${p3(d.phaseMargin)}° at ${f3(d.crossover, 'Hz')}: a step will ring. Try ${COMP(d)}.` },
@@ -156,14 +156,14 @@ export const FINDING_WORDS: Words = {
       ? `The sensor readings are all at one ${d.measurand} value: take readings at three or more different values; the datasheet figures are used meanwhile.`
       : `The sensor readings give ${d.have} usable point${d.have === 1 ? '' : 's'}; a fit needs at least ${d.need} (${d.need - d.have} more, at different ${d.measurand} values): the datasheet figures are used meanwhile.`,
   },
-  'readings-implausible': { title: 'Sensor readings do not fit this core', say: (d) => `The readings imply a fringing factor of ${d.fringing.toPrecision(3)} for this core, outside ${d.low}…${d.high}: check the turns, the Hall sensitivity and the sign of the readings; the datasheet figures are used meanwhile.` },
+  'readings-implausible': { title: 'Sensor readings do not fit this core', say: (d) => `The readings imply a fringing factor of ${d.fringing.toPrecision(3)} for this core, outside ${p3(d.low)}…${p3(d.high)}: check the turns, the Hall sensitivity and the sign of the readings; the datasheet figures are used meanwhile.` },
   'buffer-no-trim': {
     title: 'Nothing to trim',
     say: (d) => d.stage === 'unity'
       ? 'A unity buffer has no gain or zero to trim; the sensor\'s own scale and zero pass straight through.'
       : 'The stage is a follower of the summed input (K = 1): there is no feedback arm to trim the span with; the sensor\'s spread passes through.',
   },
-  'gain-beyond-loop': { title: 'Gain beyond the op-amp', say: (d) => `A gain of ${d.gain.toPrecision(4)} is beyond what the op-amp's open-loop gain (${d.openLoopGainDb} dB) can hold: use two stages or an op-amp with more open-loop gain.` },
+  'gain-beyond-loop': { title: 'Gain beyond the op-amp', say: (d) => `A gain of ${d.gain.toPrecision(4)} is beyond what the op-amp's open-loop gain (${p3(d.openLoopGainDb)} dB) can hold: use two stages or an op-amp with more open-loop gain.` },
   'gain-unrealisable': {
     title: 'No resistor network gives the gain',
     say: (d) => d.with === 'window' || d.gain === null
@@ -190,8 +190,8 @@ export const FINDING_WORDS: Words = {
     say: (d) => d.cause === 'near-rail'
       ? `No standard zero trimmer covers ${d.coverage} × the worst-case zero stack from a reference this near a rail, so the divider is fixed: null the zero at the instrument, or move the zero.`
       : d.summed
-        ? `The offset comes straight from the ${d.rail} V rail, where a trimmer cannot straddle it: null the zero at the instrument, or choose a zero that needs a reference between the rails.`
-        : `The zero needs the reference on the rail itself (${d.rail} V), where a trimmer cannot straddle it, so the leg is tied to the rail: null the zero at the instrument, or choose a zero away from the rail.`,
+        ? `The offset comes straight from the ${p3(d.rail)} V rail, where a trimmer cannot straddle it: null the zero at the instrument, or choose a zero that needs a reference between the rails.`
+        : `The zero needs the reference on the rail itself (${p3(d.rail)} V), where a trimmer cannot straddle it, so the leg is tied to the rail: null the zero at the instrument, or choose a zero away from the rail.`,
   },
   'zero-trim-off-centre': { title: 'Zero trimmer starts off centre', say: (d) => `The reference sits near a rail, so the zero trimmer starts at ${(d.setting * 100).toFixed(0)} % of its travel.` },
   'gain-not-computable': { title: 'Gain cannot be computed', say: () => 'The gain cannot be computed, because the wanted scale divided by the sensor\'s sensitivity is beyond any number: check both for a slipped prefix or exponent.' },

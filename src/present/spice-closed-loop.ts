@@ -9,6 +9,7 @@ import { closedLoopParts, loopFigures } from '../physics/closed-loop.js';
 import { closedLoopCircuit } from '../circuit/closed-loop.js';
 import { plainElementLines, spiceName, spiceNode, spiceNumber as fmt } from './spice.js';
 import { spiceCommentText } from './inert.js';
+import { cautionsFor } from './cautions.js';
 
 export interface ClosedLoopSpice {
   netlist: string;
@@ -40,6 +41,7 @@ export function closedLoopSpiceNetlist(design: Design, opts: { step?: number; da
   lines.push('* Hall sensor: HHALL controlled by LM\'s current, on its zero VHQ; compensation RI, CI, RZ; linear driver EDRV');
   lines.push('* (no swing or current limit); winding resistance RW, driver output resistance RO, measurement resistor RM to VQ.');
   lines.push(`* Output: V(sens) above the reference ${fmt(p.reference)} V. Step of ${fmt(step)} A primary at ${fmt(stepAt)} s.`);
+  for (const caution of cautionsFor(design.sensor.type, ['closed-loop-open-winding'])) lines.push(`* CAUTION: ${spiceCommentText(caution, 1000)}`);
   const k = s.primaryTurns / s.compensationTurns;
   c.elements.forEach((e, i) => {
     const a = spiceNode(c.nodeNames, e.a), b = spiceNode(c.nodeNames, e.b);

@@ -17,6 +17,7 @@ import type { Report } from '../analysis/report.js';
 import { spiceCommentText } from './inert.js';
 import { opampSwing } from '../analysis/analysis.js';
 import { waveformPlan } from '../analysis/waveform.js';
+import { cautionsFor } from './cautions.js';
 
 const fmt = (x: number) => (Number.isFinite(x) ? Number(x.toPrecision(9)).toString() : '0');
 const node = (names: string[], i: number) => (i === 0 ? '0' : names[i]!.replace(/[^A-Za-z0-9_]/g, '_'));
@@ -31,6 +32,8 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
   const sc = r.circuit;
   if (!sc || !r.speed) return null;
   const c = sc.circuit;
+  // A value that is not a finite number has no netlist: none is written rather than a silent 0.
+  if (!c.elements.every((e) => [e.value, e.dc0 ?? 0, e.dc1 ?? 0, e.ac ?? 0].every(Number.isFinite))) return null;
   const names = c.nodeNames;
   const d = r.design;
   const T = d.environment.temperature;
@@ -56,6 +59,7 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
   }
   lines.push(`* Measurand ${measurand}: the signal source is ${c.elements[sc.signalIndex]?.name ?? '?'}; its value is quiescent + sensitivity x measurand.`);
   lines.push(`* Output node: ${node(names, sc.nodes.out)}. Temperature ${fmt(tempC)} C.`);
+  for (const caution of cautionsFor(d.sensor.type, r.front.cautions)) lines.push(`* CAUTION: ${spiceCommentText(caution, 1000)}`);
   lines.push('*');
   lines.push(`.temp ${fmt(tempC)}`);
   const sigIdx = sc.signalIndex;
