@@ -88,7 +88,8 @@ describe('the two-range bench clamp demo (a scenario of our own)', () => {
 });
 
 describe('a single-pole switch: the zero moves by the closed form of the stage', () => {
-  // The closed forms (Mancini (ed.), Op Amps for Everyone, ch. 4; the method's stage table): non-inverting
+  // The closed forms by superposition (Franco, Design with Operational Amplifiers and Analog Integrated Circuits,
+  // 4th ed., ch. 1, from memory; the method's stage table): non-inverting
   // z = G·Vq − (G − 1)·Vref, so a new gain moves the zero by (G₂ − G₁)·(Vq − Vref); inverting
   // z = (1 + G)·Vp − G·Vq, by (G₂ − G₁)·(Vp − Vq). The exact circuit adds only the finite open-loop gain
   // (100 dB here) and the output resistance into the load: a few parts in 10⁵.
