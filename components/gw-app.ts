@@ -27,7 +27,8 @@ import './gw-trace.js';
 import './gw-toolbar.js';
 import './gw-build-sheet.js';
 import './gw-trade.js'; // issue 19
-import { tradeSweep, type TradeResult } from '../src/index.js'; // issue 19
+import './gw-ranges.js'; // issue 19
+import { positionNetlist, tradeSweep, type TradeResult } from '../src/index.js'; // issue 19
 // Op-amps side by side and supply choices (issue 18).
 import { ComparisonController } from './comparison-controller.js';
 import './gw-opamp-compare.js';
@@ -145,6 +146,14 @@ export class GwApp extends LitElement {
   @state() private _tradeFor: Design | null = null;
   @state() private _tradeOpen = false;
   private _tradeTimer = 0;
+
+  /** A range switch position's own netlist, downloaded (issue 19). */
+  private _onRangeSpice = (e: HTMLElementEventMap['gw-range-spice']): void => {
+    const r = this._derived?.report;
+    const net = r ? positionNetlist(r, e.detail.position) : null;
+    if (net) this._download(net, fileName(this._design, 'cir').replace(/\.cir$/, `-range-${e.detail.position}.cir`), 'text/plain');
+    else this._notice = { text: `No SPICE netlist for range ${e.detail.position}: that position has no working stage.`, bad: true };
+  };
   // --- end issue 19
 
   private readonly _persist = new PersistController(this);
@@ -568,6 +577,7 @@ export class GwApp extends LitElement {
             ${d?.wave ? html`<gw-chart data-chart="waveform" .data=${d.wave}></gw-chart>` : nothing}
             <gw-figures caption="Waveform figures" .rows=${d?.waveRows ?? []}></gw-figures></div></div>
           <div class="panel"><h2>Plots</h2><div class="charts">${(d?.charts ?? []).map((c) => html`<gw-chart data-chart=${c.id} .data=${c}></gw-chart>`)}</div></div>
+          ${r?.ranges?.ok ? html`<div class="panel scroll" id="ranges"><h2>Range switch</h2><gw-ranges .report=${r} @gw-range-spice=${this._onRangeSpice}></gw-ranges></div>` : nothing}
           <details class="panel" id="trade" @toggle=${this._onTradeToggle}><summary><h2 class="inline">Turns and gap: what each one buys</h2></summary>
             <gw-trade .trade=${this._trade} .measurand=${this._design.sensor.measurand} ?pending=${this._tradeFor !== this._design} @gw-trade-adopt=${this._onTradeAdopt}></gw-trade></details>
           <div class="panel scroll"><h2>Parts list</h2><gw-parts .rows=${d?.rows ?? []} .alternatives=${r?.stage?.alternatives ?? []} .chosen=${r?.stage?.chosen ?? 0} @gw-set=${this._onSet}></gw-parts></div>

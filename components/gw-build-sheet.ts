@@ -6,6 +6,7 @@ import { base } from './styles.js';
 import './gw-schematic.js';
 import './gw-parts.js';
 import './gw-figures.js';
+import './gw-ranges.js';
 
 const WORD = { pass: 'Pass', caution: 'Caution', fail: 'Fail', info: 'Note' } as const;
 
@@ -65,6 +66,7 @@ export class GwBuildSheet extends LitElement {
           <section><h2>Findings</h2>${w.findings.length ? html`<ul class="findings">${w.findings.map((f) => html`<li><span class="lvl">${WORD[f.level]}</span> ${f.message}</li>`)}</ul>` : html`<p>None.</p>`}</section>
         </div>
         <section><h2>Schematic</h2><gw-schematic .drawing=${this.drawing}></gw-schematic></section>
+        ${r.ranges?.ok ? html`<section><h2>Ranges</h2><gw-ranges compact .report=${r}></gw-ranges></section>` : nothing}
         <section><h2>Safety</h2><ul class="safety">${w.cautions.map((c) => html`<li>${c}</li>`)}</ul></section>
         <section><h2>Parts list</h2><gw-parts compact .rows=${this.rows}></gw-parts></section>
         ${w.calibration.length ? html`<section><h2>Calibration</h2><ol>${w.calibration.map((c) => html`<li>${c.text}</li>`)}</ol></section>` : nothing}

@@ -181,6 +181,21 @@ console.log('\n2b. Op-amp comparison (demo design, 20 op-amps)');
   line('  of one report, the stage solve', ms(time(() => solveStage(d, front, ideal), 20)));
 }
 
+// Issue 19: the turns trade (a stage solve and analysis per point) and a two-range switch (each position
+// analysed), each against one analyse() of the same single-range design in the same run.
+console.log('\n2c. Turns trade and range switch (demos "bench-clamp", "two-range-clamp")');
+{
+  const { tradeSweep } = await b('analysis/trade.js');
+  const d = demoDesign('bench-clamp');
+  const one = time(() => analyse(d, { spreadTrials: 0 }), 10);
+  const trade = time(() => tradeSweep(d), 3);
+  line('turns trade, 15 builds, median', ms(trade), `${(trade / one).toFixed(1)} reports' worth`);
+  const two = demoDesign('two-range-clamp');
+  const ranged = time(() => analyse(two, { spreadTrials: 0 }), 5);
+  line('report with a two-range switch, median', ms(ranged), `${(ranged / one).toFixed(1)} reports' worth`);
+  line('  one analyse() of the single-range design (baseline)', ms(one));
+}
+
 // 3. The app ---------------------------------------------------------------------------------------------
 console.log('\n3. The app');
 {

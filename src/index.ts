@@ -64,6 +64,10 @@ export { tradeSweep, adoptTradePoint } from './analysis/trade.js';
 export type { TradeResult, TradePoint, HallTradePoint, CtTradePoint } from './analysis/trade.js';
 export { tradeCharts, tradeTable, tradeLines, tradeNotes, tradeSweeps, sweepPoints, tradeJson } from './present/trade.js';
 export { gappedCoreInductance, ctSaturationCurrent, coreCrossSection } from './physics/magnetics.js';
+// Issue 19: the range switch.
+export { rangeTable, rangeLines, rangesJson, positionNetlist } from './present/ranges.js';
+export type { RangeTable } from './present/ranges.js';
+export type { RangeSwitch, RangePosition } from './analysis/ranges.js';
 // Op-amps side by side and supply choices (issue 18).
 export { candidates, withOpAmp } from './analysis/compare.js';
 export type { ComparisonRow, Misfit, OpAmpCandidate, RowFigures } from './analysis/compare.js';

@@ -77,7 +77,7 @@ export interface RangeSwitch {
   idleCurrent: number;
 }
 
-export type RangeSwitchResult = { ok: true; value: RangeSwitch } | { ok: false; code: 'range-stage'; topology: Topology | null };
+export type RangeSwitchResult = { ok: true; value: RangeSwitch } | { ok: false; code: 'range-stage'; topology: Topology | null; buffer: boolean };
 
 type Analyse = (design: Design, opts: AnalyseOptions) => Report;
 
@@ -251,7 +251,7 @@ function numberParts(nets: StageNetwork[], design: Design, wiring: RangeSwitchWi
 export function rangeSwitch(design: Design, first: Report, analyse: Analyse, opts: AnalyseOptions = {}): RangeSwitchResult {
   const s1 = first.stage;
   const top = s1?.ideal.topology ?? null;
-  if (!s1 || !top || !RANGE_TOPOLOGIES.includes(top) || !s1.network.feedback) return { ok: false, code: 'range-stage', topology: top };
+  if (!s1 || !top || !RANGE_TOPOLOGIES.includes(top) || !s1.network.feedback) return { ok: false, code: 'range-stage', topology: top, buffer: !!s1 && !s1.network.feedback };
   const front = first.front;
   const { series, resistanceMin, resistanceMax, arrangements } = design.target;
   const table = armTable(series, resistanceMin, resistanceMax, arrangements);
@@ -298,7 +298,10 @@ export function rangeSwitch(design: Design, first: Report, analyse: Analyse, opt
     } : null;
     const report = i === 0 ? first : stage ? analyse(d, { ...opts, stage, trade: false }) : null;
     const unbuilt = net ? null : wiring === 'two-pole' ? 'range-zero-unreachable' : 'range-gain-unreachable';
-    return { index: i, scale: d.target.scale, range: d.target.range, network: net ?? net1, parts: per[i]!, report, zeroShift, zeroShiftClosedForm: closed, sharedTrimResidual: residual, unbuilt };
+    // The shift as the circuit solver gives it (a CT's DC path runs through its winding, which the closed
+    // transfer folds into the burden): what the report states at each position.
+    const solved = report?.dc && first.dc ? report.dc.out[0] - first.dc.out[0] : zeroShift;
+    return { index: i, scale: d.target.scale, range: d.target.range, network: net ?? net1, parts: per[i]!, report, zeroShift: solved, zeroShiftClosedForm: closed, sharedTrimResidual: residual, unbuilt };
   });
   // Two poles: every divider stays on its rail whichever position is in; the ones not in use still draw.
   const { lo, hi } = referenceSpan(design);
@@ -346,7 +349,7 @@ export function positionFigures(p: RangePosition): PositionFigures {
 
 /** What the range switch found, as data: its wiring and why, ranges it cannot build, zeros that move. */
 export function rangeFindings(rs: RangeSwitchResult, measurand: string): Finding[] {
-  if (!rs.ok) return [finding('range-stage', 'fail', { topology: rs.topology })];
+  if (!rs.ok) return [finding('range-stage', 'fail', { topology: rs.topology, buffer: rs.buffer })];
   const v = rs.value;
   const out: Finding[] = [finding('range-wiring', 'info', { wiring: v.wiring, decidedBy: v.decidedBy, singlePoleShift: v.singlePoleShift, limit: v.shiftLimit, throws: v.throws, idleCurrent: v.idleCurrent })];
   for (const p of v.positions) {

@@ -22,6 +22,7 @@ import { reportJson } from '../present/json.js';
 import { sayFinding } from '../present/finding-words.js';
 import { textReport } from '../present/text-report.js';
 import { spiceNetlist } from '../present/spice.js';
+import { positionNetlist } from '../present/ranges.js';
 import { closedLoopSpiceNetlist } from '../present/spice-closed-loop.js';
 import { DEMOS } from '../model/demos.js';
 import { MAX_READINGS_TEXT, parseReadings, unitFactor, type ParsedReadings } from '../model/readings.js';
@@ -59,7 +60,8 @@ function quietOnClosedPipe(): void {
 const shown = (path: string) => (/^[\w./\\:~+-]+$/.test(path) ? path : quoteText(path, 200));
 
 const USAGE = `usage:
-  gainwright report FILE [--json] [--spice] [--no-spread]
+  gainwright report FILE [--json] [--spice] [--no-spread] [--range=N]
+                                         (--range=N with --spice: the range switch's position N)
   gainwright report FILE --spice-sensor  a closed-loop Hall sensor alone as a SPICE netlist
   gainwright report DIR --json           one JSON line per *.json design in DIR
   gainwright new [${DEMOS.map((d) => d.id).join('|')}]
@@ -138,6 +140,11 @@ function run(argv: string[], io: Io): number {
   // `--at=RV1=0.47,RV2=0.55`: where the trimmers sat while the probe readings were taken (gainwright trim).
   const atFlag = [...flags].find((fl) => fl.startsWith('--at='));
   if (atFlag) flags.delete(atFlag);
+  // `--range=2`: with --spice, the netlist of the range switch's position 2 (issue 19).
+  const rangeFlag = [...flags].find((fl) => fl.startsWith('--range='));
+  if (rangeFlag) flags.delete(rangeFlag);
+  const rangeAt = rangeFlag ? Number(rangeFlag.slice('--range='.length)) : null;
+  if (rangeAt !== null && !(Number.isInteger(rangeAt) && rangeAt >= 1 && rangeAt <= 4)) { io.err(`gainwright: --range takes a switch position, 1 to 4\n`); return 2; }
   for (const fl of flags) if (!known.has(fl)) { io.err(`gainwright: unknown option ${shown(fl)}\n${USAGE}`); return 2; }
   if (!cmd || cmd === '--help' || cmd === 'help') { io.out(USAGE); return cmd ? 0 : 2; }
   if (cmd === 'new') {
@@ -190,6 +197,12 @@ function run(argv: string[], io: Io): number {
   // The trade sweep (issue 19) is part of a single design's report; a folder's batch leaves it out.
   const r = analyse(v.design, { spreadTrials, trade: !flags.has('--spice') });
   if (flags.has('--spice')) {
+    if (rangeAt !== null) {
+      const pos = positionNetlist(r, rangeAt);
+      if (!pos) { io.err(`gainwright: no range switch position ${rangeAt} to export in this design\n`); return 1; }
+      io.out(pos);
+      return 0;
+    }
     const net = spiceNetlist(r);
     if (!net) { io.err(`gainwright: no circuit to export: ${oneLine(r.warnings.filter((w) => w.level === 'fail').map(sayFinding).join(' '))}\n`); return 1; }
     io.out(net);

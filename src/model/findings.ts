@@ -116,7 +116,7 @@ export interface FindingData {
   'sensor-over-voltage': { high: number; rated: number; from: 'regulated' | 'battery' | 'positive' };
   'sensor-under-voltage': { low: number; rated: number; from: 'regulated' | 'battery' | 'positive' };
   // --- issue 19: the range switch (src/analysis/ranges.ts).
-  'range-stage': { topology: string | null };
+  'range-stage': { topology: string | null; buffer: boolean };
   'range-wiring': { wiring: 'single-pole' | 'two-pole'; decidedBy: 'asked' | 'zero-holds' | 'zero-moves' | 'zero-unreachable'; singlePoleShift: number; limit: number; throws: number; idleCurrent: number };
   'range-unbuilt': { position: number; scale: number; cause: 'zero-unreachable' | 'gain-unreachable'; measurand: string };
   'range-zero-shift': { position: number; scale: number; shift: number; zero: number; residual: number; measurand: string };

@@ -172,8 +172,14 @@ function rangeSteps(r: Report, steps: CalibrationStep[]): void {
     const zero = pos.report.dc.out[0];
     steps.push({ text: `${n}: set ${rs.switchRef} to position ${pos.index + 1}.${shared ? ` Leave ${shared} (${ROLE_NAMES['zero-trim']}) where range 1 set it: with nothing applied this range reads ${formatEng(zero, 'V', 4)}; note it, or null it on the instrument.` : ''}` });
     for (const x of calibrationSteps(pos.report)) {
-      const own = x.text.startsWith('Before power') || x.trimmer !== undefined || x.expect !== undefined;
-      if (!own || (shared && x.trimmer === shared) || x.text.startsWith('Range ')) continue;
+      // The range's trimmers are preset with the others, before power.
+      if (x.text.startsWith('Before power')) {
+        const before = steps.findIndex((y) => y.text.startsWith('Before power'));
+        steps.splice(before < 0 ? 1 : before + 1, 0, { text: `Before power, ${n.replace(/^R/, 'r')}: ${x.text.replace(/^Before power: /, '')}` });
+        continue;
+      }
+      if (x.trimmer === undefined && x.expect === undefined) continue;
+      if ((shared && x.trimmer === shared) || x.text.startsWith('Range ')) continue;
       steps.push({ ...x, text: `${n}: ${x.text}` });
     }
   }

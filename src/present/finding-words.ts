@@ -241,7 +241,7 @@ export const FINDING_WORDS: Words = {
   },
   'sensor-over-voltage': { title: 'Sensor fed above its rated supply', say: (d) => `The sensor is fed up to ${f3(d.high, 'V')} from ${SOURCE_FROM[d.from]}, above the ${f3(d.rated, 'V')} it is specified for: it may be damaged. Feed it from a regulated rail (Supply: regulated rail, sensor fed from it) or use a sensor specified for this supply.` },
   // --- issue 19: the range switch.
-  'range-stage': { title: 'No range switch for this stage', say: (d) => `A range switch is designed for the non-inverting and inverting stages, whose gain one feedback arm sets; this design uses ${d.topology ? `the ${stageName(d.topology)} stage` : 'no working stage'}. Choose the non-inverting or inverting stage, or design each range as its own probe.` },
+  'range-stage': { title: 'No range switch for this stage', say: (d) => `A range switch is designed for the non-inverting and inverting stages, whose gain one feedback arm sets; this design uses ${d.buffer ? 'a unity buffer, which has no feedback arm to switch' : d.topology ? `the ${stageName(d.topology)} stage` : 'no working stage'}. ${d.buffer ? 'Ask for a gain above 1 on the first range' : 'Choose the non-inverting or inverting stage'}, or design each range as its own probe.` },
   'range-wiring': {
     title: 'Range switch wiring',
     say: (d) => {

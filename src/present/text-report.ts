@@ -10,6 +10,7 @@ import { terminalLine } from './inert.js';
 import { waveformFigures } from './figures.js';
 import { closedLoopLines } from './closed-loop.js';
 import { tradeLines } from './trade.js';
+import { rangeLines } from './ranges.js';
 
 const f = (x: number | null | undefined, u = '', d = 3) => (x === null || x === undefined ? '—' : formatEng(x, u, d));
 const MARK = { pass: 'PASS', caution: 'CAUTION', fail: 'FAIL' } as const;
@@ -97,6 +98,7 @@ export function textReport(r: Report): string {
   }
   // Issue 19: the turns / gap (or turns / burden) trade, when the report ran it.
   out.push(...tradeLines(r.trade, m));
+  out.push(...rangeLines(r)); // issue 19
   if (r.warnings.length) {
     h('Findings');
     for (const w of r.warnings) out.push(`  [${w.level}] ${sayFinding(w)}`);

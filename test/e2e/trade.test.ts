@@ -43,6 +43,24 @@ describe('the turns trade in Chromium (issue 19)', () => {
     await page.context().close();
   });
 
+  it('a current transformer trades its secondary turns and burden; giving its core shows the saturation current', async () => {
+    const { page, errors } = await watchedPage(h);
+    await page.goto(h.url);
+    await expect.poll(() => page.locator('gw-parts').first().locator('tbody').innerText()).toMatch(/R1/);
+    await page.selectOption('select[aria-label="Load a demo"]', 'appliance-ct');
+    await panel(page).locator('summary').click();
+    // The appliance CT demo: seven turn counts and seven burdens, the design's own in each.
+    await expect.poll(() => panel(page).locator('gw-trade tr[data-sweep]').count()).toBe(14);
+    expect(await panel(page).locator('gw-chart[data-chart="trade-burden"]').count()).toBe(1);
+    expect(await panel(page).locator('gw-trade p.notes').last().innerText()).toMatch(/give the core's cross-section and saturation flux density/);
+    await page.locator('gw-editor input[data-path="sensor.core"]').check();
+    // The editor's default core (5 mm × 5 mm, 0.3 T), by hand with the transformer equation's √2·π = 4.443:
+    // 4.443 × 50 Hz × 2000² × 25e-6 m² × 0.3 T / (33 + 60) Ω = 71.66 A rms, shown to three figures.
+    await expect.poll(() => panel(page).locator('gw-trade tr.own[data-sweep="turns"]').innerText()).toMatch(/71\.7 A rms/);
+    expect(errors).toEqual([]);
+    await page.context().close();
+  });
+
   it('a shunt design has no turns to trade and says so', async () => {
     const { page, errors } = await watchedPage(h);
     await page.goto(h.url);
