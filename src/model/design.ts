@@ -7,6 +7,7 @@ import { check, quoteText, type Problem, type Spec } from './validate.js';
 import type { SeriesName } from './eseries.js';
 import { MAX_READINGS, type Reading } from './readings.js';
 import { REGULATOR_DROPOUT } from './constants.js';
+import { kitValues } from './kit.js';
 
 export const DESIGN_FORMAT = 'gainwright-design';
 export const DESIGN_VERSION = 1;
@@ -246,6 +247,23 @@ export interface Target {
   bandwidth: number;
   /** Which of the solver's ranked gain-network alternatives to build (0 = the top-ranked one). */
   alternative: number;
+  /** The resistors at hand (src/model/kit.ts): the solver picks from these instead of the whole series (null: the whole series). */
+  kit?: ResistorKit | null;
+}
+
+/**
+ * A resistor kit: every value of a series between two limits (optionally so many of each), plus further
+ * values, each with an optional count; without a series, the listed values are the whole kit. A count left
+ * out means as many as needed.
+ */
+export interface ResistorKit {
+  series?: SeriesName | null;
+  /** Limits of the series part, Ω. */
+  min: number;
+  max: number;
+  /** How many of each series value (absent or null: as many as needed). */
+  count?: number | null;
+  parts: Array<{ ohms: number; count?: number | null }>;
 }
 
 export interface Output {
@@ -487,6 +505,19 @@ const SCHEMA: Spec = {
         },
         bandwidth: opt(num('hertz', 'nonneg', { max: 1e10, minAbs: 1e-3 }), 0),
         alternative: opt(num('(index)', 'nonneg', { max: 50, whole: true }), 0),
+        kit: {
+          t: 'obj', nullable: true, def: null,
+          fields: {
+            series: { t: 'str', oneOf: ['E3', 'E6', 'E12', 'E24', 'E48', 'E96', 'E192'], optional: true },
+            min: opt(num('ohms', 'positive', { min: 0.1, max: 1e10 }), 10),
+            max: opt(num('ohms', 'positive', { min: 0.1, max: 1e10 }), 1e6),
+            count: num('(count)', 'positive', { max: 1e6, whole: true, optional: true }),
+            parts: {
+              t: 'list', def: [], maxItems: 500,
+              item: { t: 'obj', fields: { ohms: num('ohms', 'positive', { min: 0.01, max: 1e10 }), count: num('(count)', 'positive', { max: 1e6, whole: true, optional: true }) } },
+            },
+          },
+        },
       },
     },
     output: {
@@ -667,6 +698,13 @@ function crossCheck(d: Design, problems: Problem[]): void {
   }
   if (s.readings?.use && s.type !== 'voltage-output' && s.type !== 'hall-gap-core') {
     p('sensor.readings.use', 'can only be true for a voltage-output or hall-gap-core sensor: a current transformer or shunt is set by its parts');
+  }
+  const kit = d.target.kit;
+  if (kit) {
+    if (kit.series && kit.min >= kit.max) p('target.kit.min', 'must be below target.kit.max', ['target.kit.max']);
+    else if (!kitValues(kit, d.target.resistanceMin, d.target.resistanceMax).length) {
+      p('target.kit', 'holds no value between target.resistanceMin and target.resistanceMax: add values to the kit or widen the window', ['target.resistanceMin', 'target.resistanceMax']);
+    }
   }
   if (s.type === 'hall-gap-core' && s.core.gap >= s.core.pathLength) p('sensor.core.gap', 'must be shorter than sensor.core.pathLength', ['sensor.core.pathLength']);
 }

@@ -7,9 +7,9 @@
 import { valuesInRange, type SeriesName } from '../model/eseries.js';
 import type { Arrangement } from '../model/design.js';
 
-const ARM_SINGLE = 0;
-const ARM_SERIES = 1;
-const ARM_PARALLEL = 2;
+export const ARM_SINGLE = 0;
+export const ARM_SERIES = 1;
+export const ARM_PARALLEL = 2;
 
 export interface ArmTable {
   /** Arm resistance, ascending. */
@@ -153,8 +153,14 @@ export function score(err: number, parts: number, a: number, pref: number, floor
   return Math.max(Math.abs(err), floor) * 1.5 ** (parts - 2) * (1 + 0.5 * Math.abs(Math.log10(a / pref)));
 }
 
-/** Fast search: each first arm with the two arms around its ideal partner. */
-export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep = 10): PairResult {
+/**
+ * Whether arm i of one table and arm j of another can be built together (a kit holds each value a limited
+ * number of times; src/solve/kit.ts). Absent: any two arms can.
+ */
+export type PairFits = (tA: ArmTable, i: number, tB: ArmTable, j: number) => boolean;
+
+/** Fast search: each first arm with the two arms around its ideal partner (the nearest that `fits`, on a kit). */
+export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep = 10, fits?: PairFits): PairResult {
   const ranked: PairCandidate[] = [];
   let bestErr = Infinity, bestI = -1, bestJ = -1;
   let evaluated = 0;
@@ -178,7 +184,15 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
       while (j0 < bn && bv[j0]! < bi) j0++;
       while (j0 > 0 && bv[j0 - 1]! >= bi) j0--;
     }
-    for (let j = j0 - 1; j <= j0; j++) {
+    // On a kit, the partners next to the ideal one may take a value the first arm already uses up: the
+    // nearest partner that fits on each side is then the best on that side (the error grows with distance).
+    let jLow = j0 - 1, jHigh = j0;
+    if (fits) {
+      while (jLow >= 0 && !fits(tA, i, tB, jLow)) jLow--;
+      while (jHigh < bn && !fits(tA, i, tB, jHigh)) jHigh++;
+    }
+    for (let side = 0; side < 2; side++) {
+      const j = side === 0 ? jLow : jHigh;
       if (j < 0 || j >= tB.size) continue;
       evaluated++;
       const e = rf ? rf.m * ((a + rf.cA) / (bv[j]! + rf.cB) / rf.k - 1) : fns.error(a, bv[j]!);
