@@ -58,6 +58,11 @@ export function targetArmTable(target: Target, arrangements: readonly Arrangemen
   return target.kit ? kitArmTable(kitValues(target.kit, target.resistanceMin, target.resistanceMax), arrangements) : armTable(target.series, target.resistanceMin, target.resistanceMax, arrangements);
 }
 
+/** What the parts are drawn from, for a finding: the kit, or the series. */
+export function seriesLabel(target: Target): string {
+  return target.kit ? 'kit' : target.series;
+}
+
 const isKit = (t: ArmTable): t is KitArmTable => 'held' in t;
 
 /**
