@@ -257,13 +257,13 @@ export interface Target {
  * out means as many as needed.
  */
 export interface ResistorKit {
-  series?: SeriesName | null;
+  series?: SeriesName;
   /** Limits of the series part, Ω. */
   min: number;
   max: number;
-  /** How many of each series value (absent or null: as many as needed). */
-  count?: number | null;
-  parts: Array<{ ohms: number; count?: number | null }>;
+  /** How many of each series value (absent: as many as needed). */
+  count?: number;
+  parts: Array<{ ohms: number; count?: number }>;
 }
 
 export interface Output {

@@ -7,7 +7,8 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { kitArmTable, kitShortfall, pairFitsKit } from '../../src/solve/kit.js';
 import { searchPairs, type RatioForm } from '../../src/solve/search.js';
-import { kitValues, seriesToBuyFrom, type KitValue } from '../../src/model/kit.js';
+import { kitListText, kitValues, parseKitList, seriesToBuyFrom, type KitValue } from '../../src/model/kit.js';
+import { formatEng, parseQuantity } from '../../src/model/units.js';
 import { valuesInRange } from '../../src/model/eseries.js';
 import type { Arrangement } from '../../src/model/design.js';
 
@@ -105,4 +106,21 @@ describe('kitValues and friends', () => {
     expect(kitShortfall(parts, [{ ohms: 1e4, count: 2 }, { ohms: 1e3, count: 1 }])).toEqual([{ ohms: 1e4, used: 3, held: 2 }]);
     expect(kitShortfall(parts, [{ ohms: 1e4, count: Infinity }])).toEqual([]);
   });
+});
+
+describe('parseKitList(text) and kitListText(parts)', () => {
+  const read = (s: string) => parseQuantity(s, 'ohm');
+  // Codes from IEC 60062 (published examples): 4K7 = 4.7 kΩ, 470R = 470 Ω, 47K3 = 47.3 kΩ.
+  it('reads values as fields do (IEC 60062 codes, prefixes, units) with optional counts, and names what it cannot read', () => {
+    const r = parseKitList('10k x2, 4K7;470R\n47K3 ×3, 1 MΩ, banana, 10k x0', read);
+    expect(r.parts).toEqual([{ ohms: 1e4, count: 2 }, { ohms: 4700 }, { ohms: 470 }, { ohms: 47300, count: 3 }, { ohms: 1e6 }]);
+    expect(r.problems).toEqual(['"banana" is not a resistance', '"10k x0" has a count that is not a whole number from 1']);
+  });
+  it('reads back what kitListText wrote', () => {
+    const parts = [{ ohms: 4700, count: 2 }, { ohms: 150e3 }];
+    const text = kitListText(parts, (x) => formatEng(x, 'Ω', 4));
+    expect(text).toBe('4.700 kΩ ×2, 150.0 kΩ');
+    expect(parseKitList(text, read)).toEqual({ parts, problems: [] });
+  });
+  it('an empty text is an empty list', () => expect(parseKitList(' , \n', read)).toEqual({ parts: [], problems: [] }));
 });
