@@ -28,6 +28,8 @@ export function chartConfig(d: ChartData): ChartConfiguration {
     yAxisID: s.axis === 'y2' ? 'y2' : 'y', ...styleFor(s, i),
     // Readings are points, not a curve.
     ...(d.dots ? { showLine: false, pointRadius: 3 } : {}),
+    // Each point a choice (the trade sweep): a marker on the line, larger under the pointer.
+    ...(d.markers ? { pointRadius: 3.5, pointHoverRadius: 6 } : {}),
   }));
   const scales: Record<string, unknown> = {
     x: { type: d.x.log ? 'logarithmic' : 'linear', title: { display: true, text: d.x.label }, ...(d.bars ? { offset: true } : {}) },
@@ -45,10 +47,13 @@ export function chartConfig(d: ChartData): ChartConfiguration {
   } as ChartConfiguration;
 }
 
+/** A point of the data picked by a click: its series and index, and its values. */
+export interface PickedPoint { series: string; index: number; x: number; y: number }
+
 /** Owns one Chart.js instance on a canvas of its host; updates it when the data change. */
 export class ChartController implements ReactiveController {
   private chart: Chart | null = null;
-  constructor(private host: ReactiveControllerHost & { canvas: HTMLCanvasElement | null; data: ChartData | null }) {
+  constructor(private host: ReactiveControllerHost & { canvas: HTMLCanvasElement | null; data: ChartData | null; picked?(p: PickedPoint): void }) {
     host.addController(this);
   }
   private pending = false;
@@ -68,6 +73,16 @@ export class ChartController implements ReactiveController {
     const { canvas, data } = this.host;
     if (!canvas || !data) return;
     const cfg = chartConfig(data);
+    // A pickable chart reports the point nearest the click along x (a point is small to hit exactly).
+    if (data.pickable && this.host.picked) {
+      (cfg.options as Record<string, unknown>).onClick = (e: unknown) => {
+        const hit = this.chart?.getElementsAtEventForMode(e as Event, 'nearest', { intersect: false, axis: 'xy' }, true)[0];
+        const d = this.host.data;
+        const s = hit && d?.series[hit.datasetIndex];
+        const p = s?.points[hit!.index];
+        if (s && p) this.host.picked!({ series: s.label, index: hit!.index, x: p.x, y: p.y });
+      };
+    }
     if (!this.chart || this.chart.canvas !== canvas || (this.chart.config as { type?: string }).type !== cfg.type) {
       this.chart?.destroy();
       this.chart = new Chart(canvas, cfg);
@@ -76,6 +91,11 @@ export class ChartController implements ReactiveController {
       this.chart.options = cfg.options ?? {};
       this.chart.update('none');
     }
+  }
+  /** Where a point is drawn on the canvas, in CSS pixels from its top left (null before the first drawing). */
+  pixelOf(series: number, index: number): { x: number; y: number } | null {
+    const el = this.chart?.getDatasetMeta(series)?.data[index];
+    return el ? { x: el.x, y: el.y } : null;
   }
   hostDisconnected(): void {
     this.chart?.destroy();

@@ -1,9 +1,9 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, state, query } from 'lit/decorators.js';
-import { validateDesign, parseDesignText, MAX_DESIGN_BYTES, type Design, type Problem } from '../src/index.js';
+import { validateDesign, parseDesignText, MAX_DESIGN_BYTES, tooLargeMessage, type Design, type Problem } from '../src/index.js';
 import { analyse, reportWords, SAFETY_CAUTIONS, type Report, type ReportWords } from '../src/index.js';
 import { DEMOS, demoDesign } from '../src/index.js';
-import { FIELDS, GROUP_DEFAULTS, groupDefault, readField, setPath } from '../src/index.js';
+import { FIELDS, GROUP_DEFAULTS, groupDefault, groupOff, readField, setPath } from '../src/index.js';
 import { spiceNetlist } from '../src/index.js';
 import { archetype } from '../src/index.js';
 import { allCharts, waveformChart, type ChartData } from '../src/index.js';
@@ -12,6 +12,7 @@ import { bomCsv, bomRows, type BomRow } from '../src/index.js';
 import { keyFigures, waveformFigures, waveformLine, type FigureRow } from '../src/index.js';
 import { decodeDesignBytes, designFromFragment, fileName, problemWords, serialiseDesign, shareFragment } from '../src/index.js';
 import { sensorTemplate } from '../src/index.js';
+import { formatEng } from '../src/index.js';
 import { base } from './styles.js';
 import { PersistController } from './persist-controller.js';
 import type { ToolbarActionDetail } from './gw-toolbar.js';
@@ -25,6 +26,8 @@ import './gw-bench.js';
 import './gw-trace.js';
 import './gw-toolbar.js';
 import './gw-build-sheet.js';
+import './gw-trade.js'; // issue 19
+import { tradeSweep, type TradeResult } from '../src/index.js'; // issue 19
 // Op-amps side by side and supply choices (issue 18).
 import { ComparisonController } from './comparison-controller.js';
 import './gw-opamp-compare.js';
@@ -95,6 +98,7 @@ export class GwApp extends LitElement {
     @media (max-width: 1100px) { .scope { grid-template-columns: minmax(0, 1fr); } }
     .charts { display: grid; grid-template-columns: repeat(auto-fit, minmax(min(320px, 100%), 1fr)); gap: 0.8rem; }
     .scroll { overflow-x: auto; }
+    summary h2.inline { display: inline; }
     main > section { min-width: 0; }
     .share { width: 100%; font-size: 0.8rem; }
     ol.cal li { margin-bottom: 0.3rem; }
@@ -135,6 +139,13 @@ export class GwApp extends LitElement {
   /** A replacement waiting for the person's yes, because the design in force has unsaved edits. */
   @state() private _confirm: { design: Design; what: string; done: string } | null = null;
 
+  // --- issue 19: the turns trade, worked out only while its panel is open (a stage solve per point).
+  @state() private _trade: TradeResult | null = null;
+  @state() private _tradeFor: Design | null = null;
+  @state() private _tradeOpen = false;
+  private _tradeTimer = 0;
+  // --- end issue 19
+
   private readonly _persist = new PersistController(this);
   /** The op-amp comparison and supply choices (and the person's own op-amps): rows computed by the core. */
   private readonly _compare = new ComparisonController(this);
@@ -160,6 +171,7 @@ export class GwApp extends LitElement {
   override disconnectedCallback(): void {
     window.removeEventListener('hashchange', this._onHash);
     clearTimeout(this._spreadTimer);
+    clearTimeout(this._tradeTimer);
     super.disconnectedCallback();
   }
 
@@ -219,8 +231,40 @@ export class GwApp extends LitElement {
     // The Monte Carlo spread a moment later, so that the verdict of the first render does not wait for it.
     // The design's own trial count (analysis.spreadTrials).
     if (trials === 0) this._spreadTimer = window.setTimeout(() => { try { this._derived = derive(this._design, this._design.analysis.spreadTrials); } catch (e) { this._fault(e); } }, 50);
+    this._scheduleTrade();
     return true;
   }
+
+  // --- issue 19: the trade follows the design a moment after each change, while its panel is open.
+  private _scheduleTrade(): void {
+    clearTimeout(this._tradeTimer);
+    if (!this._tradeOpen || this._tradeFor === this._design) return;
+    this._tradeTimer = window.setTimeout(() => {
+      const design = this._design;
+      try { this._trade = tradeSweep(design); this._tradeFor = design; } catch (e) { this._fault(e); }
+    }, 60);
+  }
+
+  private _onTradeToggle(e: Event): void {
+    this._tradeOpen = (e.target as HTMLDetailsElement).open;
+    this._scheduleTrade();
+  }
+
+  /** Adopts a point of the trade: its fields applied together, as one edit. */
+  private _onTradeAdopt = (e: HTMLElementEventMap['gw-trade-adopt']): void => {
+    const { set, point } = e.detail;
+    this._enqueue(() => {
+      const before = this._design;
+      let next: unknown = before;
+      for (const s of set) next = setPath(next as Design, s.path, s.value);
+      this._apply(next, null);
+      if (this._design !== before) {
+        const what = 'gap' in point ? `${point.turns} turn${point.turns === 1 ? '' : 's'} and a ${formatEng(point.gap, 'm')} gap` : `${point.turns} secondary turns and a ${formatEng(point.burden, 'Ω')} burden`;
+        this._notice = { text: `Now built with ${what}.`, bad: false };
+      }
+    });
+  };
+  // --- end issue 19
 
   private _fault(e: unknown): void {
     const why = String(e instanceof Error ? e.message : e).replace(/\s+/g, ' ').slice(0, 160);
@@ -334,7 +378,7 @@ export class GwApp extends LitElement {
   private _onSet = (e: HTMLElementEventMap['gw-set']): void => {
     const { path, value } = e.detail;
     this._enqueue(() => {
-      if (path in GROUP_DEFAULTS) this._apply(setPath(this._design, path, value ? groupDefault(path, this._design) : null), path);
+      if (path in GROUP_DEFAULTS) this._apply(setPath(this._design, path, value ? groupDefault(path, this._design) : groupOff(path)), path);
       else this._apply(setPath(this._design, path, value), path);
     });
   };
@@ -382,7 +426,7 @@ export class GwApp extends LitElement {
     if (!file) return;
     const name = file.name.replace(/[\u0000-\u001f\u007f-\u009f]/g, ' ').slice(0, 80);
     if (file.size > MAX_DESIGN_BYTES) {
-      this._notice = { text: `${name} is larger than 1 MB; a design file is a few kB. The current design stays.`, bad: true };
+      this._notice = { text: `${name} ${tooLargeMessage(MAX_DESIGN_BYTES)}. The current design stays.`, bad: true };
       return;
     }
     // Decoded as the CLI decodes it: UTF-8 with or without a byte-order mark, or UTF-16.
@@ -524,6 +568,8 @@ export class GwApp extends LitElement {
             ${d?.wave ? html`<gw-chart data-chart="waveform" .data=${d.wave}></gw-chart>` : nothing}
             <gw-figures caption="Waveform figures" .rows=${d?.waveRows ?? []}></gw-figures></div></div>
           <div class="panel"><h2>Plots</h2><div class="charts">${(d?.charts ?? []).map((c) => html`<gw-chart data-chart=${c.id} .data=${c}></gw-chart>`)}</div></div>
+          <details class="panel" id="trade" @toggle=${this._onTradeToggle}><summary><h2 class="inline">Turns and gap: what each one buys</h2></summary>
+            <gw-trade .trade=${this._trade} .measurand=${this._design.sensor.measurand} ?pending=${this._tradeFor !== this._design} @gw-trade-adopt=${this._onTradeAdopt}></gw-trade></details>
           <div class="panel scroll"><h2>Parts list</h2><gw-parts .rows=${d?.rows ?? []} .alternatives=${r?.stage?.alternatives ?? []} .chosen=${r?.stage?.chosen ?? 0} @gw-set=${this._onSet}></gw-parts></div>
           <div class="panel scroll"><h2>Figures</h2><gw-figures caption="Figures" .rows=${d?.figures ?? []}></gw-figures></div>
           <div class="panel"><h2>Findings</h2><ul>${(d?.words.findings ?? []).map((w) => html`<li data-code=${w.code}><strong>${w.level}</strong>: ${w.message}</li>`)}</ul></div>

@@ -1,7 +1,7 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import type { BomRow, FigureRow, Report, ReportWords, Schematic } from '../src/index.js';
-import { errorBudgetRows, sheetStatus, trimmerStarts } from '../src/index.js';
+import { errorBudgetRows, pageText, sheetStatus, trimmerStarts } from '../src/index.js';
 import { base } from './styles.js';
 import './gw-schematic.js';
 import './gw-parts.js';
@@ -56,10 +56,10 @@ export class GwBuildSheet extends LitElement {
     const trims = trimmerStarts(r);
     const half = Math.ceil(this.figures.length / 2);
     return html`<table class="page" data-failed=${status.failed ? 'true' : 'false'}>
-      <thead><tr><th><div class="status ${status.failed ? 'failed' : ''}">${r.design.title}: ${status.line}</div></th></tr></thead>
+      <thead><tr><th><div class="status ${status.failed ? 'failed' : ''}">${pageText(r.design.title)}: ${status.line}</div></th></tr></thead>
       <tbody><tr><td>
-        <h1>${r.design.title}</h1>
-        ${r.design.notes ? html`<p>${r.design.notes}</p>` : nothing}
+        <h1>${pageText(r.design.title)}</h1>
+        ${r.design.notes ? html`<p>${pageText(r.design.notes)}</p>` : nothing}
         <div class="grid">
           <section><h2>Verdict</h2><ul class="verdicts">${w.verdicts.map((v) => html`<li><span class="lvl">${WORD[v.level]}</span> ${v.title}</li>`)}</ul></section>
           <section><h2>Findings</h2>${w.findings.length ? html`<ul class="findings">${w.findings.map((f) => html`<li><span class="lvl">${WORD[f.level]}</span> ${f.message}</li>`)}</ul>` : html`<p>None.</p>`}</section>

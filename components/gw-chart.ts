@@ -3,11 +3,12 @@ import { customElement, property, query } from 'lit/decorators.js';
 import type { ChartData } from '../src/index.js';
 import { chartText } from '../src/index.js';
 import { base } from './styles.js';
-import { ChartController } from './chart-controller.js';
+import { ChartController, type PickedPoint } from './chart-controller.js';
 
 /**
  * One plot. The data come ready-made from the core (src/present/charts.ts); this element only draws them,
  * with a text alternative: a short summary under the plot and the data as a table on request.
+ * @fires gw-chart-pick - a point of a pickable chart was clicked (`detail`: its series, index and values).
  * @cssproperty --gw-chart-height - plot height (default 260px).
  */
 @customElement('gw-chart')
@@ -27,9 +28,16 @@ export class GwChart extends LitElement {
   /** What to plot. */
   @property({ attribute: false }) data: ChartData | null = null;
 
-  constructor() {
-    super();
-    new ChartController(this);
+  private readonly _chart = new ChartController(this);
+
+  /** Called by the controller when a point of a pickable chart is clicked. */
+  picked(p: PickedPoint): void {
+    this.dispatchEvent(new CustomEvent<ChartPickDetail>('gw-chart-pick', { detail: { chart: this.data?.id ?? '', ...p }, bubbles: true, composed: true }));
+  }
+
+  /** Where a point is drawn, in CSS pixels from the canvas's top left (null before the first drawing). */
+  pointPosition(series: number, index: number): { x: number; y: number } | null {
+    return this._chart.pixelOf(series, index);
   }
 
   override render() {
@@ -44,6 +52,10 @@ export class GwChart extends LitElement {
   }
 }
 
+/** A clicked point of a pickable chart: which chart, which series and point, and its values. */
+export interface ChartPickDetail extends PickedPoint { chart: string }
+
 declare global {
   interface HTMLElementTagNameMap { 'gw-chart': GwChart; }
+  interface HTMLElementEventMap { 'gw-chart-pick': CustomEvent<ChartPickDetail>; }
 }

@@ -44,8 +44,10 @@ console.log('\n1. Resistor search');
     const prob = { idealB: (a) => a / k, error: (a, b) => a / b / k - 1, preferredA: 1e5, floor: 5e-4, ratio: { cA: 0, cB: 0, k, m: 1 } };
     t0 = performance.now();
     const r = searchPairs(e96, e96, prob, 10);
+    // The least error anywhere is found when first read (a scan of the whole window): read it inside the timing.
+    const found = r.best;
     per.push(performance.now() - t0);
-    if (!r.best) none++;
+    if (!found) none++;
   }
   line('E96 two-part arms, 1 k–1 M, 1000 targets in 1…10 000: median', ms(median(per)), `budget 20 ms; ${none} targets beyond the window's reach`);
   line('  95th percentile', ms([...per].sort((a, b) => a - b)[950]));
@@ -56,7 +58,7 @@ console.log('\n1. Resistor search');
   for (let n = 0; n < 12; n++) {
     const k = 10 ** (r2() * 3);
     const prob = { idealB: (a) => a / k, error: (a, b) => a / b / k - 1, preferredA: 1e5, floor: 0 };
-    t0 = performance.now(); const f = searchPairs(e24, e24, prob, 10); fast.push(performance.now() - t0);
+    t0 = performance.now(); const f = searchPairs(e24, e24, prob, 10); void f.best; fast.push(performance.now() - t0);
     t0 = performance.now(); const s = searchPairsExhaustive(e24, e24, prob); slow.push(performance.now() - t0);
     if (Math.abs(f.best.error) === s.bestError) same++;
   }
@@ -87,7 +89,7 @@ console.log('\n1b. Stage solve per stage (E96, two-part arms, 1 kΩ–1 MΩ, tri
     if (!ideal) { line(name, 'no stage'); continue; }
     const t = time(() => solveStage(d, f, ideal), 20);
     const prob = { preferredA: 1e5, floor: 5e-4, ratio: { cA: 0, cB: 0, k: ideal.feedbackRatio, m: 1 } };
-    const fast = time(() => searchPairs(table, table, prob, 10), 5);
+    const fast = time(() => searchPairs(table, table, prob, 10).best, 5);
     const slow = time(() => searchPairsExhaustive(table, table, prob), 1);
     line(`${name}: full solve, median`, ms(t), `budget 20 ms; its feedback pair on E24: exhaustive/fast ${(slow / fast).toFixed(0)}×`);
   }

@@ -2,7 +2,7 @@
  * Gainwright's calculation core: the one public entry. Pure TypeScript, no DOM; SI units throughout.
  * Import `./units-mathjs.js` once as well to read unit expressions beyond the common forms.
  */
-export { validateDesign, parseDesignText, serialiseDesign, formatProblems, migrate, DESIGN_FORMAT, DESIGN_VERSION, MAX_DESIGN_BYTES } from './model/design.js';
+export { validateDesign, parseDesignText, serialiseDesign, formatProblems, migrate, DESIGN_FORMAT, DESIGN_VERSION, MAX_DESIGN_BYTES, tooLargeMessage } from './model/design.js';
 export type { Design, SensorSpec, SensorType, Supply, OpAmpSpec, Target, Output, Environment, AnalysisOptions, MeasurandWaveform, Topology, TopologyChoice, Arrangement, Problem } from './model/design.js';
 export { analyse } from './analysis/report.js';
 export type { Report, AnalyseOptions } from './analysis/report.js';
@@ -11,6 +11,7 @@ export { verdictsOf } from './present/verdicts.js';
 export type { Verdict } from './present/verdicts.js';
 export { SAFETY_CAUTIONS, cautionsFor } from './present/cautions.js';
 export { reportWords } from './present/report-words.js';
+export { pageText } from './present/inert.js';
 export type { ReportWords, WordedFinding } from './present/report-words.js';
 export { sayFinding, findingTitle, topologyWhy, stageReasonWords } from './present/finding-words.js';
 export type { Finding, FindingCode, FindingLevel } from './model/findings.js';
@@ -41,7 +42,7 @@ export type { PairCandidate } from './solve/search.js';
 export type { Prim, Schematic } from './present/schematic.js';
 export type { ChartData, Series, TraceDrawing, ChartText } from './present/charts.js';
 export type { FigureRow } from './present/figures.js';
-export { FIELDS, GROUP_DEFAULTS, groupDefault, parseField, readField, fieldHint, setPath, displayValue, fieldsFor, getPath, SENSOR_TYPES, fieldForPath, problemWords } from './present/fields.js';
+export { FIELDS, GROUP_DEFAULTS, groupDefault, groupOff, parseField, readField, fieldHint, setPath, displayValue, fieldsFor, getPath, SENSOR_TYPES, fieldForPath, problemWords } from './present/fields.js';
 export type { FieldEdit } from './present/fields.js';
 export type { FieldDef, Section } from './present/fields.js';
 export { AUTOSAVE_KEY, DAMAGED_KEY, HISTORY_KEY, HISTORY_SIZE, autosaveEntry, designFromFragment, fileName, historyText, readHistory, restoreAutosave, shareFragment, withHistory } from './model/persist.js';
@@ -57,6 +58,11 @@ export type { TrimResult } from './analysis/trim.js';
 export type { SensorFromReadings } from './analysis/sensor-readings.js';
 export { fitLines, sensorReadingsLines, trimLines, residualChart, probeSheetRows } from './present/readings.js';
 
+// Issue 19: the turns / gap (or turns / burden) trade.
+export { tradeSweep, adoptTradePoint } from './analysis/trade.js';
+export type { TradeResult, TradePoint, HallTradePoint, CtTradePoint } from './analysis/trade.js';
+export { tradeCharts, tradeTable, tradeLines, tradeNotes, tradeSweeps, sweepPoints, tradeJson } from './present/trade.js';
+export { gappedCoreInductance, ctSaturationCurrent, coreCrossSection } from './physics/magnetics.js';
 // Op-amps side by side and supply choices (issue 18).
 export { candidates, withOpAmp } from './analysis/compare.js';
 export type { ComparisonRow, Misfit, OpAmpCandidate, RowFigures } from './analysis/compare.js';

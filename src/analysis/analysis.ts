@@ -411,8 +411,8 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
   const sup = design.supply;
   const oa = design.opamp;
   const sol = solveDc(sc.circuit, [
-    (e) => e.extra?.vos ?? 0, (e) => (e.extra?.ibp ?? 0) + (e.extra?.ibn ?? 0), (e) => (e.name === 'VSIG' || e.name === 'VQ' ? 1 : 0),
-    (e) => (e.name === 'VREG' ? 1 : 0), (e) => (e.name === 'VPOS' ? 1 : 0), (e) => (e.name === 'VNEG' ? 1 : 0),
+    (e) => e.extra?.vos ?? 0, (e) => (e.extra?.ibp ?? 0) + (e.extra?.ibn ?? 0), (e) => (e.kind === 'V' && (e.role === 'signal' || e.role === 'sensor-zero') ? 1 : 0),
+    (e) => (e.role === 'rail-regulated' ? 1 : 0), (e) => (e.role === 'rail-positive' ? 1 : 0), (e) => (e.role === 'rail-negative' ? 1 : 0),
   ], passband);
   if (sol) {
     const [cVos, cIb, cVq, cReg, cPos, cNeg] = sol.columns.map((c) => c[o]!) as [number, number, number, number, number, number];
@@ -456,7 +456,7 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
   const drift = { resistor: { low: 0, high: 0 }, trimmer: { low: 0, high: 0 } };
   for (const p of stage.parts) {
     if (p.kind === 'capacitor') continue;
-    const names = sc.circuit.elements.filter((e) => e.kind === 'R' && (e.name === p.ref || e.name === `${p.ref}A` || e.name === `${p.ref}B`)).map((e) => e.name);
+    const names = sc.circuit.elements.filter((e) => e.kind === 'R' && e.part === p.ref).map((e) => e.name);
     if (!names.length) continue;
     const shift = (rel: number) => {
       const sc2 = buildCircuit(design, stage, front, { scale: Object.fromEntries(names.map((n) => [n, 1 + rel])) });
@@ -649,17 +649,13 @@ export interface SpreadResult {
 export function spread(design: Design, front: SensorFront, sc: StageCircuit, dc: DcPoint, trials = design.analysis.spreadTrials, seed = design.analysis.spreadSeed): SpreadResult {
   const rand = mulberry32(seed);
   const c = sc.circuit;
-  const tolOf = (e: Element): number => {
-    if (e.kind !== 'R' || e.value === 0 || e.noisy === false) return 0;
-    if (/^RV\d+/.test(e.name)) return 0.2;
-    if (/^R\d+$/.test(e.name)) return design.target.tolerance;
-    return 0;
-  };
+  // Only the listed parts vary (the sensor's own resistances are its figures, not parts we choose).
+  const tolOf = (e: Element): number => (e.kind !== 'R' || e.value === 0 || e.noisy === false || !e.part ? 0 : e.tolerance ?? 0);
   const nominal = c.elements.map((e) => e.value);
   const tols = c.elements.map(tolOf);
-  // A potentiometer's tolerance scales its whole track: its two halves (RV2A, RV2B) share one draw, so the
+  // A potentiometer's tolerance scales its whole track: its two halves (one part) share one draw, so the
   // wiper ratio holds. Every other part draws on its own.
-  const groupOf = c.elements.map((e, i) => /^(RV\d+)[AB]?$/.exec(e.name)?.[1] ?? `#${i}`);
+  const groupOf = c.elements.map((e, i) => e.part ?? `#${i}`);
   const groups = [...new Set(groupOf)];
   const groupIdx = Int32Array.from(groupOf, (g) => groups.indexOf(g));
   const draw = new Float64Array(groups.length);

@@ -16,8 +16,11 @@ import {
 } from './analysis.js';
 import { stepOverRange, waveform, type WaveformResult } from './waveform.js';
 import { finding, type Finding } from '../model/findings.js';
+import { closedLoopSummary, type ClosedLoopSummary } from './closed-loop.js';
 import { frontWithReadings, sensorFromReadings, type SensorFromReadings } from './sensor-readings.js';
 import { trimFromReadings, type TrimResult } from './trim.js';
+import { tradeSweep, type TradeResult } from './trade.js'; // issue 19
+import { rangeFindings, rangeSwitch, type RangeSwitchResult } from './ranges.js'; // issue 19
 
 export interface Report {
   design: Design;
@@ -46,10 +49,16 @@ export interface Report {
   readings: SensorFromReadings | null;
   /** The trim solved from the built probe's readings (design.probeReadings; null: none given). */
   trim: TrimResult | null;
+  /** Issue 19: the turns / gap (or turns / burden) trade sweep, when asked for (`AnalyseOptions.trade`) and the sensor has one. */
+  trade: TradeResult | null;
+  /** Issue 19: the range switch (design.target.ranges), each position analysed with its own parts; null without one. */
+  ranges: RangeSwitchResult | null;
   /** What was found, as data (codes and numbers); src/present/finding-words.ts words them. */
   warnings: Finding[];
   /** Figures that could not be computed, with the reason. */
   absent: Record<string, string>;
+  /** A closed-loop Hall sensor's step, supply at the range end and turns trade (issue #20; absent otherwise). */
+  closedLoop?: ClosedLoopSummary | null;
 }
 
 export interface AnalyseOptions {
@@ -61,6 +70,13 @@ export interface AnalyseOptions {
   defaultWaveform?: boolean;
   /** Samples of the waveform (default 2000). */
   waveformSamples?: number;
+  /** Issue 19: run the trade sweep (a stage solve per point, so only where it is shown). */
+  trade?: boolean;
+  /**
+   * Issue 19: analyse these parts instead of solving the stage (a range switch's position, built with the
+   * parts the switch puts in). The design's chosen stage must be the one they were built for.
+   */
+  stage?: SolvedStage;
 }
 
 /** Analyses a (validated) design. Never throws for a valid design: what cannot be computed is in `absent`. */
@@ -72,9 +88,11 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
   const choice = chooseTopology(design, front);
   const warnings: Finding[] = [...front.warnings, ...fromReadings.warnings, ...sensorSupplyFindings(design)];
   const absent: Record<string, string> = {};
+  // Issue 19: the trade is worth most when the design itself fails, so it is run before any early return.
+  const trade = opts.trade ? tradeSweep(given) : null;
   const empty: Report = {
     design, front, choice, stage: null, circuit: null, dc: null, clip: null, transfer: null, response: null, speed: null, noise: null,
-    errors: null, supply: null, battery: [], batteryClip: null, spread: null, drive: null, waveform: null, waveformSpec: null, readings: fromReadings.readings, trim: null, warnings, absent,
+    errors: null, supply: null, battery: [], batteryClip: null, spread: null, drive: null, waveform: null, waveformSpec: null, readings: fromReadings.readings, trim: null, trade, ranges: null, warnings, absent,
   };
   // The gain the target asks of the stage: a ratio that is not a finite, non-zero number cannot be built.
   const needed = design.target.scale / front.sensitivity;
@@ -89,7 +107,7 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
     absent.all = 'no topology can reach the target on these rails';
     return empty;
   }
-  const stage = solveStage(design, front, choice.chosen);
+  const stage = opts.stage ?? solveStage(design, front, choice.chosen);
   // A resistor kit: a value used beyond the kit's count, or how close the kit gets and the value to buy.
   warnings.push(...stage.warnings, ...kitFindings(design, front, choice.chosen, stage));
   if (stage.warnings.some((w) => w.level === 'fail') || !Number.isFinite(stage.gain)) {
@@ -128,9 +146,17 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
   if (waveformSpec && !wave) absent.waveform = clip && sp ? 'the time-domain solve did not finish (a singular network, or more than 400 000 steps)' : 'the waveform cannot be computed, because the clipping points or the bandwidth cannot';
   const report: Report = {
     design, front, choice, stage, circuit, dc, clip, transfer, response, speed: sp, noise: nz, errors, supply: sup, battery, batteryClip: bClip, spread: spr, drive,
-    waveform: wave, waveformSpec: wave ? waveformSpec : null, readings: fromReadings.readings, trim: null, warnings, absent,
+    waveform: wave, waveformSpec: wave ? waveformSpec : null, readings: fromReadings.readings, trim: null, trade, ranges: null, warnings, absent,
   };
+  // Issue 19: a range switch's further positions, each analysed as a single-range design with its own parts.
+  if (design.target.ranges?.length && !opts.stage) {
+    report.ranges = rangeSwitch(design, report, analyse, { spreadTrials: 0, acPoints: opts.acPoints });
+    warnings.push(...rangeFindings(report.ranges, design.sensor.measurand));
+  }
   if (design.probeReadings?.length) report.trim = trimFromReadings({ design, front, stage }, design.probeReadings, design.probeSettings ?? []);
+  // --- closed-loop Hall sensor (issue #20) ---
+  if (design.sensor.type === 'closed-loop-hall') report.closedLoop = closedLoopSummary(design, sup?.current ?? front.supplyCurrent);
+  // --- end closed-loop Hall sensor ---
   warnings.push(...findings(report));
   return report;
 }
@@ -302,7 +328,7 @@ function sensorDraw(r: Report): number | null {
   const sc = r.circuit;
   if (!sc || !r.clip || !r.dc) return null;
   // The sensor output node and the amplifier input node: the current in between is what the sensor drives.
-  const rsIdx = sc.circuit.elements.findIndex((e) => e.name === 'RS' && e.kind === 'R');
+  const rsIdx = sc.circuit.elements.findIndex((e) => e.role === 'sensor-source');
   const [a, b] = r.clip.rangePeak;
   let worst = 0;
   if (rsIdx >= 0) {

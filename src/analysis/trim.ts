@@ -130,7 +130,7 @@ function evaluate(input: TrimInput, m: Model): [number, number] | null {
   const front = { ...input.front, sensitivity: m.sensitivity, quiescent: m.quiescent };
   const sc = buildCircuit(input.design, { network: input.stage!.network, parts: m.parts }, front, { scale: m.scale, front });
   if (m.offset !== 0) {
-    const vos = sc.circuit.elements.find((e) => e.name === 'VOS');
+    const vos = sc.circuit.elements.find((e) => e.role === 'opamp-offset');
     if (vos) vos.dc0 = m.offset;
   }
   const dc = dcLinear(sc, !front.passesDc);

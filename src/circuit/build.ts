@@ -8,6 +8,8 @@ import type { Design } from '../model/design.js';
 import { compile, type Circuit, type Element } from './mna.js';
 import type { SensorFront } from '../physics/sensors.js';
 import type { Arm, Part, StageNetwork } from './network.js';
+import { closedLoopNetlist } from './closed-loop.js';
+import { closedLoopParts } from '../physics/closed-loop.js';
 
 export interface StageCircuit {
   circuit: Circuit;
@@ -53,39 +55,46 @@ export interface StageParts { network: StageNetwork; parts: Part[] }
 export function buildCircuit(design: Design, stage: StageParts, front: SensorFront, opts: CircuitOptions = {}): StageCircuit {
   const f = opts.front ?? front;
   const nm = new NodeMap();
-  const pending: Array<Omit<Element, 'a' | 'b'> & { na: string; nb: string; cpn?: string; cnn?: string }> = [];
-  const el = (e: Omit<Element, 'a' | 'b'> & { na: string; nb: string; cpn?: string; cnn?: string }) => pending.push(e);
+  const pending: Array<Omit<Element, 'a' | 'b'> & { na: string; nb: string; cpn?: string; cnn?: string; ctrlName?: string }> = [];
+  const el = (e: Omit<Element, 'a' | 'b'> & { na: string; nb: string; cpn?: string; cnn?: string; ctrlName?: string }) => pending.push(e);
   const scaleOf = (name: string) => opts.scale?.[name] ?? 1;
-  const R = (name: string, na: string, nb: string, ohms: number, noisy = true) => {
+  const R = (name: string, na: string, nb: string, ohms: number, noisy = true, extra: Pick<Element, 'role' | 'part' | 'tolerance'> = {}) => {
     if (ohms === 0) { nm.wire(na, nb); return; }
-    el({ kind: 'R', name, na, nb, value: ohms * scaleOf(name), noisy });
+    el({ kind: 'R', name, na, nb, value: ohms * scaleOf(name), noisy, ...extra });
   };
+  /** A resistor that realises a listed part. */
+  const RP = (p: Part, name: string, na: string, nb: string, ohms: number) => R(name, na, nb, ohms, true, { part: p.ref, tolerance: p.tolerance });
 
   const positive = opts.positive ?? design.supply.positive;
   const negative = design.supply.negative;
-  el({ kind: 'V', name: 'VPOS', na: 'vpos', nb: '0', value: 0, dc0: positive, dc1: 0, ac: 0 });
-  if (negative !== 0) el({ kind: 'V', name: 'VNEG', na: 'vneg', nb: '0', value: 0, dc0: negative, dc1: 0, ac: 0 });
+  el({ kind: 'V', name: 'VPOS', role: 'rail-positive', na: 'vpos', nb: '0', value: 0, dc0: positive, dc1: 0, ac: 0 });
+  if (negative !== 0) el({ kind: 'V', name: 'VNEG', role: 'rail-negative', na: 'vneg', nb: '0', value: 0, dc0: negative, dc1: 0, ac: 0 });
   else nm.wire('vneg', '0');
   const reg = design.supply.regulated;
-  if (reg) el({ kind: 'V', name: 'VREG', na: 'vreg', nb: 'vneg', value: 0, dc0: reg.voltage, dc1: 0, ac: 0 });
+  if (reg) el({ kind: 'V', name: 'VREG', role: 'rail-regulated', na: 'vreg', nb: 'vneg', value: 0, dc0: reg.voltage, dc1: 0, ac: 0 });
 
   // Sensor.
   const spec = design.sensor;
   if (spec.type === 'current-transformer') {
-    el({ kind: 'V', name: 'VQ', na: 'sq', nb: '0', value: 0, dc0: f.quiescent, dc1: 0, ac: 0 });
+    el({ kind: 'V', name: 'VQ', role: 'sensor-zero', na: 'sq', nb: '0', value: 0, dc0: f.quiescent, dc1: 0, ac: 0 });
     const ratio = spec.primaryTurns / spec.secondaryTurns;
-    el({ kind: 'I', name: 'ISIG', na: 'sq', nb: 'sm', value: 0, dc0: 0, dc1: ratio, ac: ratio });
+    el({ kind: 'I', name: 'ISIG', role: 'signal', na: 'sq', nb: 'sm', value: 0, dc0: 0, dc1: ratio, ac: ratio });
     el({ kind: 'L', name: 'LM', na: 'sm', nb: 'sq', value: spec.inductanceFactor * spec.secondaryTurns ** 2 });
     R('RW', 'sm', 'sens', spec.windingResistance);
     R('RB', 'sens', 'sq', spec.burden);
+  } else if (spec.type === 'closed-loop-hall') {
+    // The whole loop (core, Hall sensor, compensation, driver, winding, R_M) is part of the stage's circuit.
+    const net = closedLoopNetlist(spec, closedLoopParts(spec, design.supply), false, scaleOf);
+    for (const e of net.elements) el(e);
+    for (const [a, b] of net.wires) nm.wire(a, b);
   } else if (spec.type === 'shunt') {
     if (f.commonMode !== null) {
       // High side: the supply end at the common-mode voltage is the + terminal; the load end, I·R below it, the −.
       el({ kind: 'V', name: 'VCM', na: 'sens', nb: '0', value: 0, dc0: f.commonMode, dc1: 0, ac: 0 });
-      el({ kind: 'I', name: 'ISIG', na: 'sensn', nb: '0', value: 0, dc0: 0, dc1: 1, ac: 1 });
+      el({ kind: 'I', name: 'ISIG', role: 'signal', na: 'sensn', nb: '0', value: 0, dc0: 0, dc1: 1, ac: 1 });
       R('RSH', 'sens', 'sensn', spec.resistance);
     } else {
-      el({ kind: 'I', name: 'ISIG', na: '0', nb: 'sens', value: 0, dc0: 0, dc1: 1, ac: 1 });
+      el({ kind: 'I', name: 'ISIG', role: 'signal', na: '0', nb: 'sens', value: 0, dc0: 0, dc1: 1, ac: 1 });
       R('RSH', 'sens', '0', spec.resistance);
     }
   } else {
@@ -95,7 +104,7 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
       el({ kind: 'V', name: 'VCM', na: 'cm', nb: '0', value: 0, dc0: f.commonMode, dc1: 0, ac: 0 });
       R('RSN', 'cm', 'sensn', f.minusResistance, f.sourceNoisy);
     }
-    el({ kind: 'V', name: 'VSIG', na: 'src', nb: low, value: 0, dc0: f.quiescent, dc1: f.sensitivity, ac: f.sensitivity, noise: f.noiseDensity });
+    el({ kind: 'V', name: 'VSIG', role: 'signal', na: 'src', nb: low, value: 0, dc0: f.quiescent, dc1: f.sensitivity, ac: f.sensitivity, noise: f.noiseDensity });
     let node = 'src';
     if (f.bandwidth < 1e8) {
       // Sensor bandwidth as a noiseless RC followed by a unity buffer, so the source resistance stays as given.
@@ -104,7 +113,7 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
       el({ kind: 'E', name: 'ESP', na: 'sb', nb: low, value: 1, cpn: 'sp', cnn: low });
       node = 'sb';
     }
-    R('RS', node, 'sens', f.sourceResistance, f.sourceNoisy);
+    R('RS', node, 'sens', f.sourceResistance, f.sourceNoisy, { role: 'sensor-source' });
   }
   // A single-ended sensor's − terminal is the ground.
   if (f.commonMode === null) nm.wire('sensn', '0');
@@ -112,10 +121,10 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
   // Op-amp macromodel: VOS (offset, voltage noise) in series with the + input, bias and current noise at both inputs.
   const oa = design.opamp;
   const a0 = 10 ** (oa.openLoopGainDb / 20);
-  el({ kind: 'V', name: 'VOS', na: 'inp', nb: 'inpi', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { vos: oa.offsetVoltage }, noise: oa.voltageNoise, noiseCorner: oa.voltageNoiseCorner });
+  el({ kind: 'V', name: 'VOS', role: 'opamp-offset', na: 'inp', nb: 'inpi', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { vos: oa.offsetVoltage }, noise: oa.voltageNoise, noiseCorner: oa.voltageNoiseCorner });
   el({ kind: 'I', name: 'IBP', na: 'inpi', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibp: oa.biasCurrent }, noise: oa.currentNoise, noiseCorner: oa.currentNoiseCorner });
   el({ kind: 'I', name: 'IBN', na: 'inn', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibn: oa.biasCurrent }, noise: oa.currentNoise, noiseCorner: oa.currentNoiseCorner });
-  el({ kind: 'E', name: 'EOA', na: 'int', nb: '0', value: a0, pole: oa.gbw / a0, cpn: 'inpi', cnn: 'inn' });
+  el({ kind: 'E', name: 'EOA', role: 'opamp-gain', na: 'int', nb: '0', value: a0, pole: oa.gbw / a0, cpn: 'inpi', cnn: 'inn' });
   R('ROUT', 'int', 'pin', Math.max(oa.outputResistance, 1e-3), false);
 
   // Networks.
@@ -126,17 +135,17 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
     if (!a) { nm.wire(from, to); return; }
     const ps = partsFor(role);
     if (a.arrangement === 'series' && ps.length === 2) {
-      R(ps[0]!.ref, from, `${ps[0]!.ref}_${ps[1]!.ref}`, ps[0]!.ohms);
-      R(ps[1]!.ref, `${ps[0]!.ref}_${ps[1]!.ref}`, to, ps[1]!.ohms);
+      RP(ps[0]!, ps[0]!.ref, from, `${ps[0]!.ref}_${ps[1]!.ref}`, ps[0]!.ohms);
+      RP(ps[1]!, ps[1]!.ref, `${ps[0]!.ref}_${ps[1]!.ref}`, to, ps[1]!.ohms);
     } else {
-      for (const p of ps) R(p.ref, from, to, p.ohms);
+      for (const p of ps) RP(p, p.ref, from, to, p.ohms);
     }
   };
   const trimRheostat = (role: Part['role'], from: string, to: string) => {
     const t = partsFor(role)[0];
     if (!t) { nm.wire(from, to); return; }
     const s = t.setting ?? 0.5;
-    R(t.ref, from, to, t.ohms * s);
+    RP(t, t.ref, from, to, t.ohms * s);
   };
 
   const feedbackPath = () => {
@@ -191,8 +200,8 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
     const t = partsFor('zero-trim')[0];
     if (t) {
       const s = t.setting ?? 0.5;
-      R(`${t.ref}A`, 'rpt', 'ref', t.ohms * (1 - s));
-      R(`${t.ref}B`, 'ref', 'rpb', t.ohms * s);
+      RP(t, `${t.ref}A`, 'rpt', 'ref', t.ohms * (1 - s));
+      RP(t, `${t.ref}B`, 'ref', 'rpb', t.ohms * s);
     } else {
       nm.wire('rpt', 'ref'); nm.wire('ref', 'rpb');
     }
@@ -203,7 +212,8 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
   const filt = design.output.filter;
   if (filt) {
     const rPart = partsFor('output-series')[0];
-    R(rPart?.ref ?? 'RFIL', 'pin', 'out', filt.resistance);
+    if (rPart) RP(rPart, rPart.ref, 'pin', 'out', filt.resistance);
+    else R('RFIL', 'pin', 'out', filt.resistance);
     if (filt.capacitance > 0) el({ kind: 'C', name: 'C1', na: 'out', nb: '0', value: filt.capacitance });
   } else {
     nm.wire('pin', 'out');
@@ -221,22 +231,27 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
     return i;
   };
   const elements: Element[] = pending.map((p) => {
-    const { na, nb, cpn, cnn, ...rest } = p;
-    const e: Element = { ...rest, a: idx(na), b: idx(nb) };
+    const { na, nb, cpn, cnn, ctrlName, ...rest } = p;
+    const e: Element & { ctrlName?: string } = { ...rest, a: idx(na), b: idx(nb) };
     if (cpn !== undefined) e.cp = idx(cpn);
     if (cnn !== undefined) e.cn = idx(cnn);
+    if (ctrlName !== undefined) e.ctrlName = ctrlName;
     return e;
   }).filter((e) => !(e.kind === 'R' && e.a === e.b));
+  // A current-controlled source names its controlling element; its index is known only now.
+  for (const e of elements as Array<Element & { ctrlName?: string }>) {
+    if (e.ctrlName !== undefined) { e.ctrl = elements.findIndex((x) => x.name === e.ctrlName); delete e.ctrlName; }
+  }
   const circuit = compile(names, elements);
-  const find = (name: string) => elements.findIndex((e) => e.name === name);
+  const find = (role: Element['role']) => elements.findIndex((e) => e.role === role);
   return {
     circuit,
     nodes: {
       sensor: idx('sens'), inP: idx('inpi'), inN: idx('inn'), internal: idx('int'), pin: idx('pin'), out: idx('out'), ref: idx('ref'),
       source: idx('src'),
     },
-    opampIndex: find('EOA'),
-    signalIndex: elements.findIndex((e) => e.name === 'VSIG' || e.name === 'ISIG'),
-    rails: { positive: find('VPOS'), negative: find('VNEG'), regulated: find('VREG') },
+    opampIndex: find('opamp-gain'),
+    signalIndex: find('signal'),
+    rails: { positive: find('rail-positive'), negative: find('rail-negative'), regulated: find('rail-regulated') },
   };
 }

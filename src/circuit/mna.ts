@@ -7,15 +7,29 @@
  * numbers cost an allocation per operation. Typed arrays and an in-place LU keep a solve allocation-free.
  */
 
-export type ElementKind = 'R' | 'C' | 'L' | 'V' | 'I' | 'E';
+export type ElementKind = 'R' | 'C' | 'L' | 'V' | 'I' | 'E' | 'H';
+
+/**
+ * What an element stands for in the stage, so that analyses find it by meaning rather than by its netlist
+ * name: the signal source, the sensor's zero, each rail, the op-amp's offset source and gain block, the
+ * sensor's source resistance.
+ */
+export type ElementRole = 'signal' | 'sensor-zero' | 'rail-positive' | 'rail-negative' | 'rail-regulated' | 'opamp-offset' | 'opamp-gain' | 'sensor-source';
 
 export interface Element {
   kind: ElementKind;
+  /** The netlist designator (unique in a circuit). */
   name: string;
+  /** What the element stands for, when an analysis needs to find it. */
+  role?: ElementRole;
+  /** The parts-list reference of the part this resistor realises (a trimmer gives two halves with the same part). */
+  part?: string;
+  /** That part's tolerance (fraction; a trimmer's is on its whole track). */
+  tolerance?: number;
   /** Node indices (0 = ground). For V, E: + and −. For I: current flows from `a` through the source into `b`. */
   a: number;
   b: number;
-  /** R: ohms (0 = wire), C: farads, L: henries, E: low-frequency gain. */
+  /** R: ohms (0 = wire), C: farads, L: henries, E: low-frequency gain, H: transresistance (V/A). */
   value: number;
   /** Sources: DC value at zero measurand and per unit of measurand. */
   dc0?: number;
@@ -33,6 +47,8 @@ export interface Element {
   cp?: number;
   cn?: number;
   pole?: number;
+  /** H: the element (index) whose branch current controls it: V(a) − V(b) = value · I(ctrl). */
+  ctrl?: number;
 }
 
 export interface Circuit {
@@ -43,12 +59,12 @@ export interface Circuit {
   size: number;
 }
 
-/** Numbers the branch currents after the node voltages: V, E, L and zero-ohm R each get one. */
+/** Numbers the branch currents after the node voltages: V, E, H, L and zero-ohm R each get one. */
 export function compile(nodeNames: string[], elements: Element[]): Circuit {
   const branch = new Int32Array(elements.length).fill(-1);
   let k = nodeNames.length - 1;
   elements.forEach((e, i) => {
-    if (e.kind === 'V' || e.kind === 'E' || e.kind === 'L' || (e.kind === 'R' && e.value === 0)) branch[i] = k++;
+    if (e.kind === 'V' || e.kind === 'E' || e.kind === 'H' || e.kind === 'L' || (e.kind === 'R' && e.value === 0)) branch[i] = k++;
   });
   return { nodeNames, elements, branch, size: k };
 }
@@ -111,6 +127,13 @@ function eachStamp(c: Circuit, omega: number, openInductors: boolean, add: Stamp
         }
         add(a, k, 1, 0); add(b, k, -1, 0); add(k, a, 1, 0); add(k, b, -1, 0);
         add(k, (e.cp ?? 0) - 1, -gr, -gi); add(k, (e.cn ?? 0) - 1, gr, gi);
+        break;
+      }
+      case 'H': {
+        // A current-controlled voltage source (SPICE's H): V(a) − V(b) − r·I(ctrl) = 0, I(ctrl) a branch current.
+        const kc = c.branch[e.ctrl ?? -1] ?? -1;
+        add(a, k, 1, 0); add(b, k, -1, 0); add(k, a, 1, 0); add(k, b, -1, 0);
+        add(k, kc, -e.value, 0);
         break;
       }
       case 'I':
@@ -316,7 +339,7 @@ export function signalTransfer(c: Circuit, ws: Workspace): [number, number] {
 /** Transfer (re, im) to the output from element i's unit source, after adjointAt. */
 export function transferFrom(c: Circuit, i: number, ws: Workspace): [number, number] {
   const e = c.elements[i]!;
-  if (e.kind === 'V' || e.kind === 'E' || e.kind === 'L' || (e.kind === 'R' && e.value === 0)) {
+  if (e.kind === 'V' || e.kind === 'E' || e.kind === 'H' || e.kind === 'L' || (e.kind === 'R' && e.value === 0)) {
     const k = c.branch[i]!;
     return [ws.yr[k]!, ws.yi[k]!];
   }

@@ -2,6 +2,7 @@
  * The command line twin of the app. Node-only (reads files); the calculation is all in the core.
  *
  *   gainwright report FILE [--json] [--spice]   solve one design
+ *   gainwright report FILE --spice-sensor       a closed-loop Hall sensor alone as a SPICE netlist
  *   gainwright report DIR --json                 one JSON line per design file in DIR
  *   gainwright new [DEMO]                        print a demo design to start from
  *   gainwright fit READINGS.csv [--json]         fit a sensor from bench readings
@@ -14,13 +15,14 @@
 import { closeSync, constants, fstatSync, openSync, readSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import '../model/units-mathjs.js';
-import { decodeDesignBytes, formatProblems, MAX_DESIGN_BYTES, parseDesignText } from '../model/design.js';
+import { decodeDesignBytes, formatProblems, MAX_DESIGN_BYTES, parseDesignText, tooLargeMessage } from '../model/design.js';
 import { quoteText } from '../model/validate.js';
 import { analyse } from '../analysis/report.js';
 import { reportJson } from '../present/json.js';
 import { sayFinding } from '../present/finding-words.js';
 import { textReport } from '../present/text-report.js';
 import { spiceNetlist } from '../present/spice.js';
+import { closedLoopSpiceNetlist } from '../present/spice-closed-loop.js';
 import { DEMOS } from '../model/demos.js';
 import { MAX_READINGS_TEXT, parseReadings, unitFactor, type ParsedReadings } from '../model/readings.js';
 import { fitJson, fitReadings } from '../analysis/fit.js';
@@ -28,7 +30,7 @@ import { trimFromReadings, trimJson } from '../analysis/trim.js';
 import { fitLines, trimLines } from '../present/readings.js';
 import { comparisonJson, comparisonLines, comparisonRows } from '../present/comparison.js';
 import { MAX_OPAMP_LIST_BYTES, parseOpAmpListText } from '../model/opamp-list.js';
-import { terminalLine } from '../present/inert.js';
+import { jsonText, terminalLine } from '../present/inert.js';
 import { sensorFrontAtRail } from '../physics/sensors.js';
 import { cautionsFor } from '../present/cautions.js';
 import type { OpAmpSpec } from '../model/design.js';
@@ -58,6 +60,7 @@ const shown = (path: string) => (/^[\w./\\:~+-]+$/.test(path) ? path : quoteText
 
 const USAGE = `usage:
   gainwright report FILE [--json] [--spice] [--no-spread]
+  gainwright report FILE --spice-sensor  a closed-loop Hall sensor alone as a SPICE netlist
   gainwright report DIR --json           one JSON line per *.json design in DIR
   gainwright new [${DEMOS.map((d) => d.id).join('|')}]
   gainwright fit READINGS.csv [--json]   fit a sensor from readings (measurand, output volts)
@@ -68,7 +71,6 @@ const USAGE = `usage:
                                          the design with each op-amp (built-in and your own), passing first
 `;
 
-const tooLarge = (limit: number, what: string) => `is larger than ${limit >= 1e6 ? `${limit / 1e6} MB` : `${limit / 1e3} kB`}; ${what}`;
 
 /**
  * Reads a design (or readings) file: only a regular file, and at most the limit plus one byte whatever its stated size
@@ -83,11 +85,11 @@ function readDesign(path: string, limit = MAX_DESIGN_BYTES, what = 'a design fil
     fd = openSync(path, constants.O_RDONLY | (constants.O_NONBLOCK ?? 0));
     const st = fstatSync(fd);
     if (!st.isFile()) return { ok: false, message: 'is not a regular file' };
-    if (st.size > limit) return { ok: false, message: tooLarge(limit, what) };
+    if (st.size > limit) return { ok: false, message: tooLargeMessage(limit, what) };
     const buf = Buffer.alloc(limit + 1);
     let n = 0;
     for (let got = 1; got > 0 && n < buf.length; n += got) got = readSync(fd, buf, n, buf.length - n, null);
-    if (n > limit) return { ok: false, message: tooLarge(limit, what) };
+    if (n > limit) return { ok: false, message: tooLargeMessage(limit, what) };
     const text = decodeDesignBytes(buf.subarray(0, n));
     if (!text.ok) return { ok: false, message: text.problems[0]!.message };
     return { ok: true, text: text.text };
@@ -100,7 +102,7 @@ function readDesign(path: string, limit = MAX_DESIGN_BYTES, what = 'a design fil
 }
 
 /** A problem list as lines, each one line whatever the text in it. */
-const problemLines = (problems: Array<{ path: string; message: string }>) => formatProblems(problems).split('\n').map((l) => l.replace(/[\u0000-\u001f\u007f-\u009f]/g, ' '));
+const problemLines = (problems: Array<{ path: string; message: string }>) => formatProblems(problems).split('\n').map(terminalLine);
 
 /** Runs the CLI on `argv` (without node and the script), writing through `io`; resolves to the exit code (0 ok, 1 design fails, 2 bad input, 3 damaged files). */
 export async function main(argv: string[], io: Io = nodeIo): Promise<number> {
@@ -132,7 +134,7 @@ function run(argv: string[], io: Io): number {
   if (opampsFile !== null && cmd !== 'compare') { io.err(`gainwright: --opamps goes with compare\n${USAGE}`); return 2; }
   const flags = new Set(rest.filter((a) => a.startsWith('--')));
   const args = rest.filter((a) => !a.startsWith('--'));
-  const known = new Set(['--json', '--spice', '--no-spread', '--help']);
+  const known = new Set(['--json', '--spice', '--spice-sensor', '--no-spread', '--help']);
   // `--at=RV1=0.47,RV2=0.55`: where the trimmers sat while the probe readings were taken (gainwright trim).
   const atFlag = [...flags].find((fl) => fl.startsWith('--at='));
   if (atFlag) flags.delete(atFlag);
@@ -141,7 +143,7 @@ function run(argv: string[], io: Io): number {
   if (cmd === 'new') {
     const demo = DEMOS.find((d) => d.id === (args[0] ?? DEMOS[0]!.id));
     if (!demo) { io.err(`gainwright: no demo called ${quoteText(args[0] ?? '')}; choose one of ${DEMOS.map((d) => d.id).join(', ')}\n`); return 2; }
-    io.out(JSON.stringify(demo.document, null, 2) + '\n');
+    io.out(jsonText(demo.document, 2) + '\n');
     return 0;
   }
   if (cmd === 'fit') return fitCommand(args, flags.has('--json'), io);
@@ -161,15 +163,15 @@ function run(argv: string[], io: Io): number {
     for (const f of files) {
       const p = join(path, f);
       const read = readDesign(p);
-      if (!read.ok) { io.out(JSON.stringify({ file: f, ok: false, problems: [read.message] }) + '\n'); bad++; continue; }
+      if (!read.ok) { io.out(jsonText({ file: f, ok: false, problems: [read.message] }) + '\n'); bad++; continue; }
       const v = parseDesignText(read.text);
-      if (!v.ok) { io.out(JSON.stringify({ file: f, ok: false, problems: v.problems.map((q) => `${q.path}: ${q.message}`) }) + '\n'); bad++; continue; }
+      if (!v.ok) { io.out(jsonText({ file: f, ok: false, problems: v.problems.map((q) => `${q.path}: ${q.message}`) }) + '\n'); bad++; continue; }
       // One design that trips a fault of ours must not cost the report of the files after it.
       try {
         const r = analyse(v.design, { spreadTrials: spreadTrials ?? 0, acPoints: 50 });
-        io.out(JSON.stringify({ file: f, ok: true, ...reportJson(r) }) + '\n');
+        io.out(jsonText({ file: f, ok: true, ...reportJson(r) }) + '\n');
       } catch (e) {
-        io.out(JSON.stringify({ file: f, ok: false, problems: [`internal error: ${oneLine(e)}`] }) + '\n');
+        io.out(jsonText({ file: f, ok: false, problems: [`internal error: ${oneLine(e)}`] }) + '\n');
         broken++;
       }
     }
@@ -179,14 +181,21 @@ function run(argv: string[], io: Io): number {
   if (!read.ok) { io.err(`gainwright: ${shown(path)}: ${read.message}\n`); return 2; }
   const v = parseDesignText(read.text);
   if (!v.ok) { io.err(`gainwright: ${shown(path)} is not a valid design:\n${problemLines(v.problems).map((l) => `  ${l}`).join('\n')}\n`); return 2; }
-  const r = analyse(v.design, { spreadTrials });
+  if (flags.has('--spice-sensor')) {
+    const net = closedLoopSpiceNetlist(v.design);
+    if (!net) { io.err('gainwright: --spice-sensor exports a closed-loop Hall sensor (sensor.type "closed-loop-hall"); use --spice for the whole stage\n'); return 2; }
+    io.out(net.netlist);
+    return 0;
+  }
+  // The trade sweep (issue 19) is part of a single design's report; a folder's batch leaves it out.
+  const r = analyse(v.design, { spreadTrials, trade: !flags.has('--spice') });
   if (flags.has('--spice')) {
     const net = spiceNetlist(r);
     if (!net) { io.err(`gainwright: no circuit to export: ${oneLine(r.warnings.filter((w) => w.level === 'fail').map(sayFinding).join(' '))}\n`); return 1; }
     io.out(net);
     return 0;
   }
-  io.out(flags.has('--json') ? JSON.stringify(reportJson(r), null, 2) + '\n' : textReport(r));
+  io.out(flags.has('--json') ? jsonText(reportJson(r), 2) + '\n' : textReport(r));
   return 0;
 }
 
@@ -196,11 +205,11 @@ function readReadings(path: string, io: Io): ParsedReadings | null {
   if (!read.ok) { io.err(`gainwright: ${read.message}\n`); return null; }
   const parsed = parseReadings(read.text);
   // Text from the file is shown inert: control characters are dropped before it reaches a terminal.
-  for (const p of parsed.problems) io.err(`gainwright: ${path}: ${p.path}: ${inert(p.message)}\n`);
+  for (const p of parsed.problems) io.err(`gainwright: ${shown(path)}: ${inert(p.path)}: ${inert(p.message)}\n`);
   return parsed;
 }
 
-const inert = (s: string) => s.replace(/[\u0000-\u001f\u007f-\u009f\u202a-\u202e\u2066-\u2069]/g, '?');
+const inert = terminalLine;
 
 function fitCommand(args: string[], json: boolean, io: Io): number {
   if (args.length !== 1) { io.err(`gainwright: fit takes one readings file\n${USAGE}`); return 2; }
@@ -208,7 +217,7 @@ function fitCommand(args: string[], json: boolean, io: Io): number {
   if (!parsed) return 2;
   const fit = fitReadings(parsed.points);
   const measurand = inert(parsed.units[0] || 'unit');
-  if (json) io.out(JSON.stringify(fitJson(fit), null, 2) + '\n');
+  if (json) io.out(jsonText(fitJson(fit), 2) + '\n');
   else io.out(fitLines(fit, parsed.points, measurand).join('\n') + '\n');
   if (fit.problem) {
     if (json) io.err(`gainwright: ${fitLines(fit, parsed.points, measurand).join(' ')}\n`);
@@ -237,17 +246,19 @@ function trimCommand(args: string[], json: boolean, io: Io, atText: string | nul
   const read = readDesign(args[0]!);
   if (!read.ok) { io.err(`gainwright: ${read.message}\n`); return 2; }
   const v = parseDesignText(read.text);
-  if (!v.ok) { io.err(`gainwright: ${args[0]} is not a valid design:\n${formatProblems(v.problems).replace(/^/gm, '  ')}\n`); return 2; }
+  if (!v.ok) { io.err(`gainwright: ${shown(args[0]!)} is not a valid design:\n${problemLines(v.problems).map((l) => `  ${l}`).join('\n')}\n`); return 2; }
   const parsed = readReadings(args[1]!, io);
   if (!parsed) return 2;
   const m = v.design.sensor.measurand;
   const k = unitFactor(parsed.units[0], m);
-  if (k === null) { io.err(`gainwright: ${args[1]}: the readings are in "${inert(parsed.units[0])}" but the design measures ${m}\n`); return 2; }
+  if (k === null) { io.err(`gainwright: ${shown(args[1]!)}: the readings are in "${inert(parsed.units[0])}" but the design measures ${m}\n`); return 2; }
   const points = parsed.points.map(([x, y]) => [x * k, y] as [number, number]);
   const r = analyse(v.design, { spreadTrials: 0 });
   const t = trimFromReadings({ design: r.design, front: r.front, stage: r.circuit ? r.stage : null }, points, at.length ? at : r.design.probeSettings ?? []);
-  if (json) io.out(JSON.stringify(trimJson(t), null, 2) + '\n');
-  else io.out(trimLines(t, r.stage?.parts ?? [], m).join('\n') + '\n');
+  // The trim is done on a live probe: its cautions travel with it.
+  const cautions = cautionsFor(r.design.sensor.type, r.front.cautions);
+  if (json) io.out(jsonText({ ...trimJson(t), cautions }, 2) + '\n');
+  else io.out([...trimLines(t, r.stage?.parts ?? [], m), '', 'Safety', '------', ...cautions.map((c) => `  ! ${c}`)].join('\n') + '\n');
   if (t.problem && t.problem.code !== 'out-of-reach') {
     if (json) io.err(`gainwright: ${trimLines(t, r.stage?.parts ?? [], m).join(' ')}\n`);
     return 1;
@@ -271,7 +282,10 @@ function compareCommand(args: string[], json: boolean, io: Io, opampsFile: strin
   }
   const rows = comparisonRows(v.design, own);
   if (json) {
-    for (const r of rows) io.out(JSON.stringify(comparisonJson(r)) + '\n');
+    for (const r of rows) io.out(jsonText(comparisonJson(r)) + '\n');
+    // stdout stays one JSON object per op-amp; the cautions go to the person on stderr.
+    const d = v.design;
+    for (const c of cautionsFor(d.sensor.type, sensorFrontAtRail(d.sensor, d).cautions)) io.err(`gainwright: caution: ${c}\n`);
     return 0;
   }
   const d = v.design;

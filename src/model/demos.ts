@@ -74,6 +74,56 @@ export const DEMOS: readonly Demo[] = [
       calibration: { meterRelative: 0.001, meterDigits: 0.001 },
     },
   },
+  // --- closed-loop Hall sensor (issue #20) ---
+  {
+    id: 'closed-loop-clamp',
+    label: 'Closed-loop (zero-flux) DC clamp to ±25 A on ±5 V',
+    document: {
+      format: 'gainwright-design', version: 1,
+      title: 'Closed-loop clamp, ±25 A, 100 mV/A, ±5 V (demo)',
+      notes: 'Demo scenario of our own invention: the bench clamp\'s ferrite ring (1.5 mm gap, 8 mm × 8 mm section) with a 1000-turn compensation winding of 0.25 mm copper, a linear Hall sensor in the gap, an integrator with a zero driving the winding through a complementary transistor pair, and an 82 Ω measurement resistor to ground, on a ±5 V bench supply. The core is held at zero flux up to about ±34 A.',
+      sensor: {
+        type: 'closed-loop-hall', measurand: 'A', hallSensitivity: 25, quiescent: 2.5, linearField: 0.08,
+        sourceResistance: 50, noiseDensity: 400e-9, bandwidth: 100e3, sensitivityTolerance: 0.03, quiescentTolerance: 0.02, supplyCurrent: 6e-3,
+        core: { pathLength: 0.06, permeability: 2000, gap: 1.5e-3, saturation: 0.35, fringing: 1, width: 0.008, depth: 0.008, area: 64e-6 },
+        primaryTurns: 1, compensationTurns: 1000, wire: { diameter: 0.25e-3, turnLength: 0.036 }, measurementResistance: 82, reference: 0,
+        driver: { outputStage: 'push-pull', gbw: 1e7, openLoopGainDb: 100, swing: 1, drop: 0.7, currentLimit: 0.1, quiescentCurrent: 2e-3, outputResistance: 1 },
+        compensation: { inputResistance: 10e3, capacitance: 220e-12, zeroResistance: 3.3e6 },
+      },
+      supply: { positive: 5, negative: -5 },
+      opamp: { ...bipolar },
+      target: { scale: 0.1, zero: 0, range: [-25, 25], topology: 'auto', series: 'E96', tolerance: 0.01, arrangements: ['single', 'series', 'parallel'], resistanceMin: 1e3, resistanceMax: 1e6, bandwidth: 20e3 },
+      output: { filter: { resistance: 100, capacitance: 0 }, load: { resistance: 1e6, capacitance: 15e-12 } },
+      calibration: { meterRelative: 0.001, meterDigits: 0.001 },
+    },
+  },
+  // --- end closed-loop Hall sensor ---
+  // Issue 19: the bench clamp with a second range.
+  {
+    id: 'two-range-clamp',
+    label: 'Two-range bench clamp (100 mV/A and 40 mV/A) with a range switch',
+    document: {
+      format: 'gainwright-design', version: 1,
+      title: 'Two-range bench clamp, 100 mV/A and 40 mV/A (demo)',
+      notes: 'Demo scenario of our own invention (issue 19): the bench clamp with a range switch, 100 mV/A to ±20 A and 40 mV/A to ±50 A on one stage, the zero at 4.5 V on both. The switch picks the feedback arm and the reference together, so the zero holds when the range changes.',
+      sensor: {
+        type: 'hall-gap-core', measurand: 'A', hallSensitivity: 25, quiescent: 2.5, linearField: 0.08,
+        outputMin: 0.2, outputMax: 4.8, ratiometricSupply: 5, sourceResistance: 50, noiseDensity: 400e-9,
+        bandwidth: 100e3, sensitivityTolerance: 0.03, quiescentTolerance: 0.02, supplyCurrent: 6e-3,
+        turns: 1, core: { pathLength: 0.06, permeability: 2000, gap: 1.5e-3, saturation: 0.35, fringing: 1 },
+      },
+      supply: {
+        positive: 9, negative: 0, regulated: { voltage: 5, tolerance: 0.02, quiescentCurrent: 5e-6 },
+        sensorRail: 'regulated', referenceRail: 'regulated',
+        battery: { fresh: 9.6, endOfLife: 6.0, capacity: 565e-3 * 3600 },
+      },
+      opamp: { ...bipolar },
+      target: { scale: 0.1, zero: 4.5, range: [-20, 20], topology: 'auto', series: 'E96', tolerance: 0.01, arrangements: ['single', 'series', 'parallel'], resistanceMin: 1e3, resistanceMax: 1e6, bandwidth: 20e3, ranges: [{ scale: 0.04, range: [-50, 50] }] },
+      output: { filter: { resistance: 100, capacitance: 0 }, load: { resistance: 1e6, capacitance: 15e-12 } },
+      // Calibrated with a 4½-digit bench meter: about 0.1 % of the reading plus 1 mV (common practice).
+      calibration: { meterRelative: 0.001, meterDigits: 0.001 },
+    },
+  },
 ];
 
 /** A demo as a validated design (throws only if a demo itself is invalid, which a test guards). */

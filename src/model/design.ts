@@ -136,6 +136,15 @@ export interface CurrentTransformerSensor extends SensorCommon {
   windingResistance: number;
   /** Voltage the low end of the burden is tied to, V. */
   quiescent: number;
+  // --- issue 19 (turns and burden trade): optional core figures for the saturation current.
+  /**
+   * The core's magnetic cross-section, width × depth (m; depth absent: a square section), and its saturation
+   * flux density (T); absent or null: not stated.
+   */
+  core?: { width: number; depth?: number; saturation: number } | null;
+  /** Lowest frequency of interest, Hz (absent: 50 Hz, the lower mains frequency): the core saturates first there. */
+  lowestFrequency?: number;
+  // --- end issue 19
 }
 
 export interface ShuntSensor extends SensorCommon {
@@ -151,7 +160,61 @@ export interface ShuntSensor extends SensorCommon {
   commonMode: number | null;
 }
 
-export type SensorSpec = VoltageOutputSensor | HallGapCoreSensor | CurrentTransformerSensor | ShuntSensor;
+// --- closed-loop Hall sensor (issue #20) ------------------------------------------------------------------
+/**
+ * A closed-loop (zero-flux) Hall current sensor: the Hall sensor in the core's gap drives, through the loop's
+ * compensation network and a driver, a current through a compensation winding on the same core that cancels
+ * the primary's ampere-turns; the output is that current across the measurement resistor R_M, whose low end
+ * sits at `reference`. See docs/method.md ("Closed-loop Hall sensor").
+ */
+export interface ClosedLoopHallSensor extends SensorCommon {
+  type: 'closed-loop-hall';
+  /** Hall sensor output per flux density, V/T (its sign is matched by the winding's polarity). */
+  hallSensitivity: number;
+  /** Hall sensor output at zero field, V; the driver's + input is held at the same voltage. */
+  quiescent: number;
+  /** Largest |B| over which the Hall sensor stays linear, T. */
+  linearField: number;
+  /** The core as for `hall-gap-core`, plus its cross-section `area`, m². */
+  core: HallGapCoreSensor['core'] & { area: number };
+  /** Turns of the measured conductor through the core (1: one pass). */
+  primaryTurns: number;
+  /** Turns of the compensation winding, N_s. */
+  compensationTurns: number;
+  /** Resistance of the compensation winding, Ω; when absent it is computed from `wire`. */
+  windingResistance?: number;
+  /** The winding's copper wire: diameter and mean length of one turn, m (for R_w when not given). */
+  wire?: { diameter: number; turnLength: number } | null;
+  /** The measurement resistor R_M, Ω. */
+  measurementResistance: number;
+  /** Voltage R_M's low end is tied to, V (default: the middle of the rails). */
+  reference?: number;
+  /** The driver: an op-amp alone or with a complementary (push-pull) transistor output stage. */
+  driver: {
+    outputStage: 'op-amp' | 'push-pull';
+    /** Driver op-amp's gain-bandwidth product, Hz, and open-loop gain, dB. */
+    gbw: number;
+    openLoopGainDb: number;
+    /** How close the op-amp's output comes to each rail, V. */
+    swing: number;
+    /** Further drop of the output stage (a push-pull pair's base-emitter voltage), V. */
+    drop: number;
+    /** Largest current the driver can deliver either way, A. */
+    currentLimit: number;
+    /** Driver's own quiescent current, A. */
+    quiescentCurrent: number;
+    /** Output resistance of the driver in series with the winding, Ω. */
+    outputResistance: number;
+  };
+  /**
+   * The loop's compensation: an inverting integrator, R_i from the Hall sensor to the driver's − input and
+   * C_i (with R_z in series, a zero at 1/(2π·R_z·C_i); 0 = a pure integrator) from its output back to it.
+   */
+  compensation: { inputResistance: number; capacitance: number; zeroResistance: number };
+}
+// --- end closed-loop Hall sensor ----------------------------------------------------------------------------
+
+export type SensorSpec = VoltageOutputSensor | HallGapCoreSensor | CurrentTransformerSensor | ShuntSensor | ClosedLoopHallSensor;
 export type SensorType = SensorSpec['type'];
 
 export interface Supply {
@@ -249,6 +312,20 @@ export interface Target {
   alternative: number;
   /** The resistors at hand (src/model/kit.ts): the solver picks from these instead of the whole series (null: the whole series). */
   kit?: ResistorKit | null;
+  // --- issue 19: a range switch.
+  /**
+   * The switch's further positions: 1 to 3 ranges `{ scale, range }` after the first, which is this target's
+   * own `scale` and `range` (so a probe has 2 to 4 ranges; the zero and everything else are shared). Absent
+   * or empty: no switch.
+   */
+  ranges?: RangeSpec[];
+  /**
+   * How the switch is wired: `single-pole` switches the feedback arm alone (the zero moves with the gain and
+   * each range is zeroed on its own), `two-pole` also switches the reference so the zero holds; `auto`
+   * (absent) takes a single pole when the zero would move less than `analysis.zeroLimit` on every range.
+   */
+  rangeSwitch?: RangeSwitchChoice;
+  // --- end issue 19
 }
 
 /**
@@ -265,6 +342,16 @@ export interface ResistorKit {
   count?: number;
   parts: Array<{ ohms: number; count?: number }>;
 }
+
+/** Issue 19: one further position of a range switch. */
+export interface RangeSpec {
+  /** Output volts per measurand unit on this range (the same sign as the target's). */
+  scale: number;
+  /** The measurand range this position covers, [low, high]. */
+  range: [number, number];
+}
+export type RangeSwitchWiring = 'single-pole' | 'two-pole';
+export type RangeSwitchChoice = 'auto' | RangeSwitchWiring;
 
 export interface Output {
   /** Optional RC at the op-amp output: series resistance then capacitance to ground. */
@@ -410,7 +497,62 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     inductanceFactor: num('henries per turn squared', 'positive', { min: 1e-12, max: 1 }),
     windingResistance: opt(num('ohms', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
     quiescent: opt(V(), 0),
+    // --- issue 19: core cross-section and saturation for the trade sweep's saturation current.
+    core: { t: 'obj', nullable: true, optional: true, fields: { width: num('metres', 'positive', { min: 1e-5, max: 10 }), depth: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }), saturation: num('teslas', 'positive', { min: 1e-3, max: 100 }) } },
+    lowestFrequency: num('hertz', 'positive', { min: 1e-3, max: 1e6, optional: true }),
+    // --- end issue 19
   },
+  // --- closed-loop Hall sensor (issue #20) ---
+  'closed-loop-hall': {
+    ...sensorCommon,
+    hallSensitivity: num('volts per tesla', 'any', { maxAbs: 1e6, minAbs: 1e-6 }),
+    quiescent: V(),
+    linearField: num('teslas', 'positive', { min: 1e-6, max: 100 }),
+    core: {
+      t: 'obj',
+      fields: {
+        pathLength: num('metres', 'positive', { min: 1e-4, max: 100 }),
+        permeability: num('(relative permeability)', 'positive', { min: 1, max: 1e7 }),
+        gap: num('metres', 'positive', { min: 1e-6, max: 1 }),
+        saturation: num('teslas', 'positive', { min: 1e-3, max: 100 }),
+        fringing: opt(num('(factor)', 'positive', { min: 0.1, max: 10 }), 1),
+        width: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }),
+        depth: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }),
+        area: num('square metres', 'positive', { min: 1e-9, max: 10 }),
+      },
+    },
+    primaryTurns: opt(num('turns', 'positive', { min: 1, max: 1e6, whole: true }), 1),
+    compensationTurns: num('turns', 'positive', { min: 1, max: 1e6, whole: true }),
+    windingResistance: num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6, optional: true }),
+    wire: {
+      t: 'obj', nullable: true, def: null,
+      fields: { diameter: num('metres', 'positive', { min: 1e-6, max: 0.1 }), turnLength: num('metres', 'positive', { min: 1e-4, max: 10 }) },
+    },
+    measurementResistance: num('ohms', 'positive', { min: 1e-3, max: 1e7 }),
+    reference: V({ optional: true }),
+    driver: {
+      t: 'obj',
+      fields: {
+        outputStage: { t: 'str', oneOf: ['op-amp', 'push-pull'], def: 'op-amp' },
+        gbw: opt(num('hertz', 'positive', { min: 1, max: 1e11 }), 1e6),
+        openLoopGainDb: opt(num('decibels', 'any', { min: 20, max: 200 }), 100),
+        swing: opt(num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }), 1.5),
+        drop: opt(num('volts', 'nonneg', { max: 100, minAbs: 1e-9 }), 0),
+        currentLimit: opt(num('amperes', 'positive', { min: 1e-6, max: 100 }), 0.02),
+        quiescentCurrent: opt(num('amperes', 'nonneg', { max: 10, minAbs: 1e-12 }), 1e-3),
+        outputResistance: opt(num('ohms', 'nonneg', { max: 1e6, minAbs: 1e-6 }), 1),
+      },
+    },
+    compensation: {
+      t: 'obj',
+      fields: {
+        inputResistance: num('ohms', 'positive', { min: 1, max: 1e9 }),
+        capacitance: num('farads', 'positive', { min: 1e-15, max: 1 }),
+        zeroResistance: opt(num('ohms', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
+      },
+    },
+  },
+  // --- end closed-loop Hall sensor ---
   shunt: {
     ...sensorCommon,
     resistance: num('ohms', 'positive', { min: 1e-6, max: 1e9 }),
@@ -518,6 +660,16 @@ const SCHEMA: Spec = {
             },
           },
         },
+        // --- issue 19: a range switch's further positions and its wiring.
+        ranges: {
+          t: 'list', optional: true, maxItems: 3,
+          item: { t: 'obj', fields: {
+            scale: num('volts per measurand unit', 'any', { maxAbs: 1e6, minAbs: 1e-9 }),
+            range: { t: 'tuple', items: [num('measurand units', 'any', { maxAbs: 1e9, minAbs: 1e-12 }), num('measurand units', 'any', { maxAbs: 1e9, minAbs: 1e-12 })] },
+          } },
+        },
+        rangeSwitch: { t: 'str', oneOf: ['auto', 'single-pole', 'two-pole'], optional: true },
+        // --- end issue 19
       },
     },
     output: {
@@ -661,6 +813,12 @@ function crossCheck(d: Design, problems: Problem[]): void {
   if (d.supply.negative > 0) p('supply.negative', 'must be 0 V (single supply) or below 0 V (split supply)');
   if (d.target.range[0] >= d.target.range[1]) p('target.range[0]', 'must be below target.range[1]: the range runs from low to high', ['target.range[1]']);
   if (d.target.scale === 0) p('target.scale', 'must not be zero');
+  // Issue 19: each further range runs low to high and keeps the target's polarity (one stage, one sign).
+  (d.target.ranges ?? []).forEach((r, i) => {
+    if (r.range[0] >= r.range[1]) p(`target.ranges[${i}].range[0]`, `must be below target.ranges[${i}].range[1]: the range runs from low to high`, [`target.ranges[${i}].range[1]`]);
+    if (r.scale === 0) p(`target.ranges[${i}].scale`, 'must not be zero');
+    else if (Math.sign(r.scale) !== Math.sign(d.target.scale)) p(`target.ranges[${i}].scale`, 'must have the same sign as target.scale: one stage gives one polarity on every range', ['target.scale']);
+  });
   if (d.target.resistanceMin >= d.target.resistanceMax) p('target.resistanceMin', 'must be below target.resistanceMax', ['target.resistanceMax']);
   else if (d.target.resistanceMax / d.target.resistanceMin < 10) p('target.resistanceMax', 'must be at least ten times target.resistanceMin so that arms can be found: raise target.resistanceMax or lower target.resistanceMin', ['target.resistanceMin']);
   const e = d.environment;
@@ -706,7 +864,15 @@ function crossCheck(d: Design, problems: Problem[]): void {
       p('target.kit', 'holds no value between target.resistanceMin and target.resistanceMax: add values to the kit or widen the window', ['target.resistanceMin', 'target.resistanceMax']);
     }
   }
-  if (s.type === 'hall-gap-core' && s.core.gap >= s.core.pathLength) p('sensor.core.gap', 'must be shorter than sensor.core.pathLength', ['sensor.core.pathLength']);
+  if ((s.type === 'hall-gap-core' || s.type === 'closed-loop-hall') && s.core.gap >= s.core.pathLength) p('sensor.core.gap', 'must be shorter than sensor.core.pathLength', ['sensor.core.pathLength']);
+  // --- closed-loop Hall sensor (issue #20) ---
+  if (s.type === 'closed-loop-hall') {
+    if (s.hallSensitivity === 0) p('sensor.hallSensitivity', 'must not be zero');
+    if (s.windingResistance === undefined && !s.wire) p('sensor.windingResistance', 'is needed, or sensor.wire (its diameter and mean turn length) to compute it', ['sensor.wire']);
+    const ref = s.reference ?? (d.supply.positive + d.supply.negative) / 2;
+    if (!(ref > d.supply.negative && ref < d.supply.positive)) p('sensor.reference', 'must lie between the rails so that the driver can drive the winding both ways', ['supply.positive', 'supply.negative']);
+  }
+  // --- end closed-loop Hall sensor ---
 }
 
 /** Formats problems one per line: `opamp.gbw: must be a positive number of hertz`. */
@@ -735,7 +901,11 @@ export function decodeDesignBytes(bytes: Uint8Array): { ok: true; text: string }
   }
 }
 
-const tooLarge = (): Problem => ({ path: '(file)', message: `is larger than ${MAX_DESIGN_BYTES / 1e6} MB; a design file is a few kB` });
+/** The one wording of a file over its size limit: `is larger than 1 MB; a design file is a few kB`. */
+export function tooLargeMessage(limit: number, what = 'a design file is a few kB'): string {
+  return `is larger than ${limit >= 1e6 ? `${limit / 1e6} MB` : `${limit / 1e3} kB`}; ${what}`;
+}
+const tooLarge = (): Problem => ({ path: '(file)', message: tooLargeMessage(MAX_DESIGN_BYTES) });
 
 /** Where JSON.parse stopped, as one line: the engine's own message quotes the text, control characters and all. */
 function jsonErrorAt(text: string, err: unknown): string {

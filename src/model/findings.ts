@@ -9,7 +9,7 @@
 export type FindingLevel = 'fail' | 'caution' | 'info';
 
 /** The limits a stage can meet first (clipping causes). */
-export type LimitCause = 'opamp-output' | 'opamp-current' | 'opamp-input' | 'sensor' | 'core' | 'burden';
+export type LimitCause = 'opamp-output' | 'opamp-current' | 'opamp-input' | 'sensor' | 'core' | 'burden' | 'driver';
 
 /**
  * The numbers behind one limit on the linear range, for its wording: the op-amp's swing or input range
@@ -24,7 +24,9 @@ export type LimitData =
   | { cause: 'sensor'; what: 'hall-linear'; field: number }
   | { cause: 'sensor'; what: 'readings'; low: number | null; high: number | null; measurand: string }
   | { cause: 'core'; saturation: number }
-  | { cause: 'burden'; part: 'burden' | 'shunt'; power: number };
+  | { cause: 'burden'; part: 'burden' | 'shunt'; power: number }
+  /** A closed-loop Hall sensor's driver runs out of voltage or current; the core saturates at `saturation` (measurand units). */
+  | { cause: 'driver'; runsOut: 'swing' | 'current'; saturation: number; measurand: string };
 
 /** A reason a stage was or was not taken (see `src/physics/topology.ts`). */
 export type StageReason =
@@ -47,7 +49,7 @@ export type StageGuidance =
   | { code: 'check-rails' };
 
 /** A caution that belongs to one kind of sensor (worded in src/present/cautions.ts). */
-export type SensorCaution = 'ct-open-secondary';
+export type SensorCaution = 'ct-open-secondary' | 'closed-loop-open-winding';
 
 /** Every finding's code and the data it carries. */
 export interface FindingData {
@@ -61,6 +63,16 @@ export interface FindingData {
   'ct-no-dc': Record<string, never>;
   'low-side-only': Record<string, never>;
   'shunt-power': { power: number; rating: number };
+  // The closed-loop Hall sensor (src/physics/closed-loop.ts; issue #20). Resistances Ω, capacitance F, frequencies Hz, angles degrees.
+  'closed-loop-unstable': { phaseMargin: number | null; crossover: number | null; inputResistance: number; capacitance: number; zeroResistance: number };
+  'closed-loop-margin': { phaseMargin: number; crossover: number; inputResistance: number; capacitance: number; zeroResistance: number };
+  'closed-loop-flatness': { flatness: number; at: number; inputResistance: number; capacitance: number; zeroResistance: number; dip: number };
+  'closed-loop-flatness-limit': { flatness: number; at: number };
+  'closed-loop-overload': { high: number; low: number; saturationHigh: number; saturationLow: number; limitHigh: 'swing' | 'current'; limitLow: 'swing' | 'current'; measurand: string };
+  'closed-loop-residual': { dcLoopGain: number; residual: number };
+  'closed-loop-polarity': Record<string, never>;
+  'closed-loop-unmodelled': Record<string, never>;
+  'closed-loop-driver-current': { need: number; limit: number };
   // Sensor bench readings (src/analysis/sensor-readings.ts).
   'readings-too-few': { allAtOneValue: boolean; have: number; need: number; measurand: string };
   'readings-implausible': { fringing: number; low: number; high: number };
@@ -108,6 +120,12 @@ export interface FindingData {
   'battery-zero-shift': { shift: number; cause: 'reference-on-battery' | 'ratiometric-sensor' | 'regulator-dropout' | 'battery-fed'; regulated: number | null; dropsOutBelow: number | null };
   'sensor-over-voltage': { high: number; rated: number; from: 'regulated' | 'battery' | 'positive' };
   'sensor-under-voltage': { low: number; rated: number; from: 'regulated' | 'battery' | 'positive' };
+  // --- issue 19: the range switch (src/analysis/ranges.ts).
+  'range-stage': { topology: string | null };
+  'range-wiring': { wiring: 'single-pole' | 'two-pole'; decidedBy: 'asked' | 'zero-holds' | 'zero-moves' | 'zero-unreachable'; singlePoleShift: number; limit: number; throws: number; idleCurrent: number };
+  'range-unbuilt': { position: number; scale: number; cause: 'zero-unreachable' | 'gain-unreachable'; measurand: string };
+  'range-zero-shift': { position: number; scale: number; shift: number; zero: number; residual: number; measurand: string };
+  // --- end issue 19
 }
 
 export type FindingCode = keyof FindingData;

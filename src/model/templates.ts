@@ -7,6 +7,7 @@ const FROM: Record<SensorType, string> = {
   'current-transformer': 'appliance-ct',
   'voltage-output': 'generic-sensor',
   shunt: 'generic-sensor',
+  'closed-loop-hall': 'closed-loop-clamp',
 };
 
 /** The design with its sensor replaced by a starting sensor of `type`; the rest is kept. */

@@ -6,8 +6,9 @@
 import type { Design, SensorCommon, SensorSpec } from '../model/design.js';
 import { MU0 } from '../model/constants.js';
 import { finding, type Finding, type LimitData, type SensorCaution } from '../model/findings.js';
+import { closedLoopFront } from './closed-loop-front.js';
 
-export type SensorLimitKind = 'sensor' | 'core' | 'burden';
+export type SensorLimitKind = 'sensor' | 'core' | 'burden' | 'driver';
 
 /** A measurand interval beyond which the sensor itself stops being linear. */
 export interface SensorLimit {
@@ -227,6 +228,8 @@ export function sensorFront(spec: SensorSpec, design: Pick<Design, 'target' | 's
       }
       return front;
     }
+    case 'closed-loop-hall':
+      return closedLoopFront(spec, design, base);
     case 'shunt': {
       // Joule heating follows the rms current: P = I_rms²·R. A DC range end is its own rms; an AC range is
       // given in rms already. The rated current √(P/R) is therefore an rms figure too, and its clip limit

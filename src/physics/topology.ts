@@ -16,8 +16,8 @@
  * Difference: sensor + terminal through R3 to the + input, R4 from there to Vref; − terminal through Rin to
  * the − input, Rf feedback; with R4/R3 = Rf/Rin = G:
  *   Vout = G·(V+ − V−) + Vref
- * Noise gain is 1 + Rf/(everything from the − input to a fixed voltage) (Texas A&M ECEN 457 notes,
- * eqs. 1–2): G (non-inverting), 1 + G (inverting, difference), K (summing non-inverting), 1 + Rf/Rin +
+ * Noise gain is 1 + Rf/(everything from the − input to a fixed voltage) (Franco, Design with Operational Amplifiers and Analog Integrated Circuits, 4th ed., ch. 6, from memory):
+ * G (non-inverting), 1 + G (inverting, difference), K (summing non-inverting), 1 + Rf/Rin +
  * Rf/Roff (summing inverting). Resistances include the sensor's source resistance and the reference
  * network's Thevenin resistance where they sit in series.
  */
@@ -76,7 +76,7 @@ export function referenceFor(topology: Topology, gain: number, quiescent: number
 
 /**
  * Noise gain of the stage for a signal gain G: 1 + Rf/Rleg = G (non-inverting) or 1 + Rf/Rin = 1 + G
- * (inverting), the same expression 1 + Rf/R for both (Texas A&M ECEN 457 notes, eqs. 1–2). Example: inverting G = 4 → 5.
+ * (inverting), the same expression 1 + Rf/R for both (Franco, Design with Operational Amplifiers and Analog Integrated Circuits, 4th ed., ch. 6, from memory). Example: inverting G = 4 → 5.
  */
 export function noiseGain(topology: Topology, gain: number): number {
   return topology === 'non-inverting' ? gain : 1 + gain;

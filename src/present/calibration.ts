@@ -6,6 +6,7 @@ import type { Report } from '../analysis/report.js';
 import { formatEng } from '../model/units.js';
 import { peakRange } from '../physics/topology.js';
 import { ROLE_NAMES } from './parts.js';
+import { closedLoopCalibrationSteps } from './closed-loop.js';
 import { sayFinding } from './finding-words.js';
 
 export interface CalibrationStep {
@@ -73,6 +74,7 @@ function safetyStep(r: Report): string {
   const load = `connect the output to the instrument or ADC it will feed (designed for a ${formatEng(d.output.load.resistance, 'Ω')} input${d.target.signal === 'dc' ? '; on a scope use DC coupling' : ''})`;
   switch (d.sensor.type) {
     case 'hall-gap-core': return `Safety first: de-energise the circuit under test; fit the probe only to an insulated conductor; ${load}.`;
+    case 'closed-loop-hall': return `Safety first: de-energise the circuit under test; clamp only round an insulated conductor; power the probe before clamping it on and keep it powered until it is off the conductor (an unpowered or open compensation winding is a current transformer's open secondary); ${load}.`;
     case 'current-transformer': return `Safety first: de-energise the circuit under test; pass only an insulated conductor through the current transformer; keep the burden soldered across the secondary (never open it while the primary carries current); ${load}.`;
     case 'shunt': return `Safety first: de-energise the circuit under test; wire the shunt into its return path with the power off (it sits at the amplifier's ground, so the measured circuit must share that ground); ${load}.`;
     default: return `Safety first: de-energise the circuit under test before connecting the sensor; ${load}.`;
@@ -104,7 +106,9 @@ export function calibrationSteps(r: Report): CalibrationStep[] {
   const trims = stage.parts.filter((p) => p.kind === 'trimmer' && p.setting !== undefined);
   if (trims.length) steps.push({ text: `Before power: set ${trims.map((p) => `${p.ref} (${ROLE_NAMES[p.role]}) to ${(p.setting! * 100).toFixed(0)} % of its travel`).join(' and ')}, measured across it with an ohmmeter.` });
   steps.push({ text: 'Power the probe and let it settle for a minute (the op-amp and sensor warm up).' });
-  const zeroCond = d.sensor.type === 'hall-gap-core'
+  // --- closed-loop Hall sensor (issue #20): polarity and the loop's own zero before the stage's ---
+  for (const text of closedLoopCalibrationSteps(r)) steps.push({ text });
+  const zeroCond = d.sensor.type === 'hall-gap-core' || d.sensor.type === 'closed-loop-hall'
     ? `with no current in the conductor, the core closed, in the place and orientation where it will be used (the Earth's field and nearby steel shift the zero)`
     : `with zero ${m} applied`;
   const [, hi] = peakRange(d);
@@ -133,7 +137,7 @@ export function calibrationSteps(r: Report): CalibrationStep[] {
     steps.push({ text: `Zero: ${zeroCond}, read the output (expected ${f(zero, 'V')}) and note the difference as a correction; this design has no zero trimmer.`, expect: zero });
   }
   if (!ac && r.clip) {
-    const what = m === 'A' ? (d.sensor.type === 'hall-gap-core' ? 'the conductor through the core (or the bench supply leads)' : 'the bench supply leads') : `the ${m}`;
+    const what = m === 'A' ? (d.sensor.type === 'hall-gap-core' || d.sensor.type === 'closed-loop-hall' ? 'the conductor through the core (or the bench supply leads)' : 'the bench supply leads') : `the ${m}`;
     if (-x >= r.clip.measurandLow && -x <= r.clip.measurandHigh) {
       steps.push({ text: `Reverse ${what} and check the other polarity: the output should read ${f(zero - scale * x, 'V')}.`, expect: zero - scale * x });
     } else {
@@ -143,6 +147,34 @@ export function calibrationSteps(r: Report): CalibrationStep[] {
   // The instrument advice (offset to null, polarity, probe ratio) is the one the findings give.
   const probe = r.warnings.find((w) => w.code === 'probe-ratio');
   if (probe) steps.push({ text: sayFinding(probe) });
+  rangeSteps(r, steps);
   steps.push({ text: 'Seal the trimmers (a dab of varnish) and write the date, the scale and the zero on the probe.' });
   return steps;
+}
+
+/**
+ * Issue 19: a range switch is calibrated range by range. The steps above are the first range's (switch at
+ * position 1); each further range repeats its own span (and, with two poles, its own zero) at its position.
+ * With one pole the zero trimmer is shared and stays where the first range set it: the zero of a further
+ * range is read, not turned.
+ */
+function rangeSteps(r: Report, steps: CalibrationStep[]): void {
+  const rs = r.ranges?.ok ? r.ranges.value : null;
+  if (!rs) return;
+  const m = r.design.sensor.measurand;
+  const name = (i: number, scale: number) => `Range ${i + 1} (${formatEng(scale, `V/${m}`, 3)})`;
+  const at = steps.findIndex((x) => x.trimmer !== undefined || x.expect !== undefined);
+  steps.splice(at < 0 ? steps.length : at, 0, { text: `${name(0, r.design.target.scale)}: set ${rs.switchRef} to position 1 and calibrate this range first.` });
+  const shared = rs.wiring === 'single-pole' ? r.stage?.parts.find((p) => p.role === 'zero-trim')?.ref : undefined;
+  for (const pos of rs.positions.slice(1)) {
+    if (!pos.report?.dc) continue;
+    const n = name(pos.index, pos.scale);
+    const zero = pos.report.dc.out[0];
+    steps.push({ text: `${n}: set ${rs.switchRef} to position ${pos.index + 1}.${shared ? ` Leave ${shared} (${ROLE_NAMES['zero-trim']}) where range 1 set it: with nothing applied this range reads ${formatEng(zero, 'V', 4)}; note it, or null it on the instrument.` : ''}` });
+    for (const x of calibrationSteps(pos.report)) {
+      const own = x.text.startsWith('Before power') || x.trimmer !== undefined || x.expect !== undefined;
+      if (!own || (shared && x.trimmer === shared) || x.text.startsWith('Range ')) continue;
+      steps.push({ ...x, text: `${n}: ${x.text}` });
+    }
+  }
 }

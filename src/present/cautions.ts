@@ -21,12 +21,25 @@ const SHUNT_CAUTIONS: readonly string[] = [
   'Follow local electrical codes and defer to a licensed electrician for work on fixed installations.',
 ];
 
+/**
+ * A voltage-output sensor module: the measured current may pass through it (an in-line module) or it may sit
+ * beside or round a conductor; either way its isolation is the module's own (common practice).
+ */
+const MODULE_CAUTIONS: readonly string[] = [
+  'A sensor module that the measured current passes through is wired into that circuit: connect and disconnect it only with that circuit de-energised, and use it only within the isolation voltage its maker states; one that sits round a conductor goes only onto insulated conductors.',
+  'A home-built probe has no measurement-category (CAT) rating: do not rely on it for protection from mains voltages.',
+  'De-energise the circuit before fitting or removing the sensor, and re-check before switching on.',
+  'Follow local electrical codes and defer to a licensed electrician for work on fixed installations.',
+];
+
 /** The cautions that belong to one kind of sensor. */
 export const SENSOR_CAUTIONS: Record<SensorCaution, string> = {
   'ct-open-secondary': 'Never leave a current transformer secondary open while the primary carries current: the open secondary can rise to a dangerous voltage. Keep the burden soldered in place.',
+  'closed-loop-open-winding': 'Never break the compensation winding\'s circuit (the measurement resistor, the driver or its supply) while the clamped conductor carries current: at AC the winding is a current transformer\'s secondary and its open ends can rise to a dangerous voltage. Switch the probe on before clamping it round the conductor, and take it off before switching off.',
 };
 
 /** Every caution for a design's sensor: the general list for its kind, then the sensor's own. */
 export function cautionsFor(sensorType: SensorType, own: readonly SensorCaution[]): string[] {
-  return [...(sensorType === 'shunt' ? SHUNT_CAUTIONS : SAFETY_CAUTIONS), ...own.map((c) => SENSOR_CAUTIONS[c])];
+  const general = sensorType === 'shunt' ? SHUNT_CAUTIONS : sensorType === 'voltage-output' ? MODULE_CAUTIONS : SAFETY_CAUTIONS;
+  return [...general, ...own.map((c) => SENSOR_CAUTIONS[c])];
 }

@@ -13,7 +13,7 @@ export interface Series {
 }
 
 export interface ChartData {
-  id: 'transfer' | 'response' | 'noise' | 'battery' | 'spread' | 'residuals' | 'waveform';
+  id: 'transfer' | 'response' | 'noise' | 'battery' | 'spread' | 'residuals' | 'waveform' | 'trade-turns' | 'trade-gap' | 'trade-burden';
   title: string;
   x: { label: string; log?: boolean };
   y: { label: string; log?: boolean };
@@ -23,6 +23,10 @@ export interface ChartData {
   bars?: boolean;
   /** Points without joining lines (readings, residuals). */
   dots?: boolean;
+  /** Issue 19: lines with a marker at each point (each point is a choice, as in the trade sweep). */
+  markers?: boolean;
+  /** Issue 19: a click on a point is reported by the chart element (`gw-chart-pick`). */
+  pickable?: boolean;
 }
 
 const pts = (x: ArrayLike<number>, y: ArrayLike<number>) => Array.from({ length: x.length }, (_, i) => ({ x: x[i]!, y: y[i]! })).filter((p) => Number.isFinite(p.x) && Number.isFinite(p.y));

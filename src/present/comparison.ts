@@ -36,6 +36,7 @@ export const LIMIT_WORDS: Record<ClipCause, string> = {
   sensor: 'sensor limit',
   core: 'core saturation',
   burden: 'burden power',
+  driver: 'compensation driver',
 };
 
 /** Where a row's stage does not fit, as one phrase: "high end: output swing at end of battery life". */

@@ -43,9 +43,11 @@ const HALL: SensorType[] = ['hall-gap-core'];
 const VOUT: SensorType[] = ['voltage-output'];
 const CT: SensorType[] = ['current-transformer'];
 const SH: SensorType[] = ['shunt'];
+const CL: SensorType[] = ['closed-loop-hall'];
 
 export const SENSOR_TYPES: Array<[SensorType, string]> = [
   ['hall-gap-core', 'Hall sensor in a gapped core'],
+  ['closed-loop-hall', 'Closed-loop (zero-flux) Hall sensor'],
   ['current-transformer', 'Current transformer with burden'],
   ['shunt', 'Shunt (low or high side)'],
   ['voltage-output', 'Any voltage-output sensor'],
@@ -77,6 +79,13 @@ export const FIELDS: readonly FieldDef[] = [
   S('sensor.burdenPower', 'Burden power rating', 'W', 'W', CT),
   S('sensor.inductanceFactor', 'Core inductance factor A_L', 'H', 'nH', CT, 'per turn²'),
   S('sensor.windingResistance', 'Winding resistance', 'ohm', 'Ω', CT),
+  // --- issue 19: the CT core's cross-section and saturation (the trade's saturation current), and the lowest frequency.
+  { path: 'sensor.core', label: 'Core cross-section and saturation known', section: 'sensor', kind: 'bool', group: 'sensor.core', sensors: CT },
+  { ...S('sensor.core.width', 'Core cross-section: width', 'm', 'mm', CT), group: 'sensor.core' },
+  { ...S('sensor.core.depth', 'Core cross-section: depth', 'm', 'mm', CT, 'empty = a square section'), group: 'sensor.core', clearable: true },
+  { ...S('sensor.core.saturation', 'Core saturation flux density', 'T', 'mT', CT), group: 'sensor.core' },
+  { ...S('sensor.lowestFrequency', 'Lowest frequency of interest', 'Hz', 'Hz', CT, 'empty = 50 Hz; the core saturates first there'), clearable: true },
+  // --- end issue 19
   S('sensor.resistance', 'Shunt resistance', 'ohm', 'Ω', SH),
   S('sensor.powerRating', 'Shunt power rating', 'W', 'W', SH),
   { ...S('sensor.commonMode', 'High side: supply-end voltage', 'V', 'V', SH, 'leave empty for a low-side shunt'), clearable: true },
@@ -92,6 +101,42 @@ export const FIELDS: readonly FieldDef[] = [
   S('sensor.outputDrive', 'Sensor output drive (0 = not stated)', 'A', 'mA', [...VOUT, ...HALL]),
   S('sensor.sensitivityDrift', 'Sensitivity drift', '1/K', 'ppm/K'),
   S('sensor.quiescentDrift', 'Zero drift', 'V/K', 'µV/K', [...VOUT, ...HALL]),
+  // --- closed-loop Hall sensor (issue #20) ---
+  S('sensor.hallSensitivity', 'Hall sensitivity', 'V/T', 'mV/mT', CL, 'its sign only sets which way the winding is connected'),
+  S('sensor.quiescent', 'Hall zero (the driver\'s + input sits here)', 'V', 'V', CL),
+  S('sensor.linearField', 'Hall linear field range (±)', 'T', 'mT', CL),
+  S('sensor.sourceResistance', 'Hall output resistance', 'ohm', 'Ω', CL),
+  S('sensor.quiescentTolerance', 'Hall zero tolerance (±)', 'V', 'mV', CL),
+  S('sensor.quiescentDrift', 'Hall zero drift', 'V/K', 'µV/K', CL),
+  S('sensor.supplyCurrent', 'Hall supply current', 'A', 'mA', CL),
+  S('sensor.core.pathLength', 'Core mean path length', 'm', 'mm', CL),
+  S('sensor.core.permeability', 'Core relative permeability', '1', '', CL),
+  S('sensor.core.gap', 'Air gap', 'm', 'mm', CL),
+  S('sensor.core.saturation', 'Core saturation flux density', 'T', 'mT', CL),
+  S('sensor.core.area', 'Core cross-section area', '1', 'mm²', CL, 'sets the winding\'s inductance A_L·N²'),
+  S('sensor.core.fringing', 'Fringing factor (gap area / core area)', '1', '', CL, '1 = fringing neglected; unused when width and depth are given'),
+  { ...S('sensor.core.width', 'Core cross-section at the gap: width', 'm', 'mm', CL), clearable: true },
+  { ...S('sensor.core.depth', 'Core cross-section at the gap: depth', 'm', 'mm', CL), clearable: true },
+  S('sensor.primaryTurns', 'Primary passes', '1', '', CL),
+  S('sensor.compensationTurns', 'Compensation turns N_s', '1', '', CL, 'more turns: less supply current, more inductance'),
+  { ...S('sensor.windingResistance', 'Winding resistance', 'ohm', 'Ω', CL, 'empty: computed from the wire'), clearable: true },
+  { path: 'sensor.wire', label: 'Wire (computes the winding resistance)', section: 'sensor', kind: 'bool', group: 'sensor.wire', sensors: CL },
+  { ...S('sensor.wire.diameter', 'Wire diameter (copper)', 'm', 'mm', CL), group: 'sensor.wire' },
+  { ...S('sensor.wire.turnLength', 'Mean length of one turn', 'm', 'mm', CL), group: 'sensor.wire' },
+  S('sensor.measurementResistance', 'Measurement resistor R_M', 'ohm', 'Ω', CL),
+  { ...S('sensor.reference', 'R_M low end tied to', 'V', 'V', CL, 'empty: the middle of the rails'), clearable: true },
+  { path: 'sensor.driver.outputStage', label: 'Driver', section: 'sensor', kind: 'select', sensors: CL, options: [['op-amp', 'Op-amp alone'], ['push-pull', 'Op-amp with a complementary transistor pair']] },
+  S('sensor.driver.gbw', 'Driver op-amp GBW', 'Hz', 'Hz', CL),
+  S('sensor.driver.openLoopGainDb', 'Driver open-loop gain (dB)', '1', 'dB', CL),
+  S('sensor.driver.swing', 'Driver op-amp swing: from each rail', 'V', 'V', CL),
+  S('sensor.driver.drop', 'Output stage drop (a pair\'s V_BE)', 'V', 'V', CL, '0 for the op-amp alone; about 0.7 V for a transistor pair (common practice)'),
+  S('sensor.driver.currentLimit', 'Driver current limit', 'A', 'mA', CL),
+  S('sensor.driver.quiescentCurrent', 'Driver quiescent current', 'A', 'mA', CL),
+  S('sensor.driver.outputResistance', 'Driver output resistance', 'ohm', 'Ω', CL),
+  S('sensor.compensation.inputResistance', 'Loop compensation: R_i', 'ohm', 'Ω', CL),
+  S('sensor.compensation.capacitance', 'Loop compensation: C_i', 'F', 'nF', CL),
+  S('sensor.compensation.zeroResistance', 'Loop compensation: R_z in series with C_i', 'ohm', 'Ω', CL, '0 = a pure integrator (leaves a notch at the hand-over)'),
+  // --- end closed-loop Hall sensor ---
 
   { path: 'opamp.name', label: 'Part or archetype name', section: 'amplifier', kind: 'text' },
   N('amplifier', 'opamp.gbw', 'Gain-bandwidth (GBW)', 'Hz', 'Hz'),
@@ -118,6 +163,15 @@ export const FIELDS: readonly FieldDef[] = [
   N('target', 'target.zero', 'Output at zero', 'V', 'V'),
   N('target', 'target.range.0', 'Range from', '1', ''),
   N('target', 'target.range.1', 'Range to', '1', ''),
+  // --- issue 19: a range switch: the further ranges (the first is the target above) and the wiring.
+  { path: 'target.ranges', label: 'Range switch (a second range)', section: 'target', kind: 'bool', group: 'target.ranges', hint: 'the range above is position 1' },
+  ...[0, 1, 2].flatMap((i): FieldDef[] => [
+    { ...N('target', `target.ranges.${i}.scale`, `Range ${i + 2}: scale`, 'V/A', 'mV/A', 'same sign as the wanted scale'), group: `target.ranges.${i}` },
+    { ...N('target', `target.ranges.${i}.range.0`, `Range ${i + 2}: from`, '1', ''), group: `target.ranges.${i}` },
+    { ...N('target', `target.ranges.${i}.range.1`, `Range ${i + 2}: to`, '1', ''), group: `target.ranges.${i}` },
+  ]),
+  { path: 'target.rangeSwitch', label: 'Range switch wiring', section: 'target', kind: 'select', group: 'target.ranges', options: [['auto', 'Choose for me'], ['single-pole', 'One pole: feedback only (zero moves)'], ['two-pole', 'Two poles: feedback and reference (zero holds)']] },
+  // --- end issue 19
   { path: 'target.signal', label: 'Signal', section: 'target', kind: 'select', options: [['dc', 'DC (range is peak values)'], ['ac-rms', 'AC (range is rms)']] },
   { path: 'target.topology', label: 'Stage', section: 'target', kind: 'select', options: [['auto', 'Choose for me'], ...TOPOLOGIES.map((t): [string, string] => [t, STAGE_NAMES[t][0]!.toUpperCase() + STAGE_NAMES[t].slice(1)])] },
   { path: 'target.series', label: 'Resistor series', section: 'target', kind: 'select', options: ['E12', 'E24', 'E48', 'E96', 'E192'].map((s) => [s, s]) },
@@ -181,13 +235,25 @@ export const GROUP_DEFAULTS: Record<string, unknown> = {
   'supply.regulated': { voltage: 5, tolerance: 0.02, quiescentCurrent: 0, dropout: 0.3, drift: 100e-6 },
   'supply.battery': { fresh: 9.6, endOfLife: 6, capacity: 2034 },
   'analysis.noiseBand': [1, 1e5],
+  'sensor.wire': { diameter: 0.25e-3, turnLength: 0.036 },
+  // Issue 19: a small ferrite toroid's section, 5 mm × 5 mm, and 0.3 T (common practice for ferrite, from memory).
+  'sensor.core': { width: 0.005, depth: 0.005, saturation: 0.3 },
+  // Replaced by a range derived from the target when switched on (groupDefault).
+  'target.ranges': [],
   // Replaced by a step over the design's own range when switched on (groupDefault).
   'analysis.waveform': { shape: 'step', low: 0, high: 1, frequency: 1000, duty: 0.5 },
 };
 
+/** Issue 19: the value an optional group takes when switched off: null, or nothing at all for a list the file leaves out. */
+export function groupOff(path: string): null | undefined {
+  return path === 'target.ranges' ? undefined : null;
+}
+
 /** The value an optional group takes when switched on: the scope waveform starts as a step over the range (a periodic shape gets 1 kHz). */
 export function groupDefault(path: string, design: Design): unknown {
   if (path === 'analysis.waveform') return { ...stepOverRange(design), frequency: 1000 };
+  // Issue 19: a second range at 2.5 times the span and a 2.5th of the scale (a common bench step).
+  if (path === 'target.ranges') return [{ scale: Number((design.target.scale / 2.5).toPrecision(3)), range: design.target.range.map((x) => Number((x * 2.5).toPrecision(3))) }];
   return GROUP_DEFAULTS[path];
 }
 
@@ -222,7 +288,7 @@ const DISPLAY_UNITS: Record<string, { factor: number; offset?: number }> = {
   mm: { factor: 1e-3 }, mT: { factor: 1e-3 }, nH: { factor: 1e-9 }, nF: { factor: 1e-9 }, pF: { factor: 1e-12 },
   'mV/mT': { factor: 1 }, 'V/µs': { factor: 1e6 }, 'nV/√Hz': { factor: 1e-9 }, 'pA/√Hz': { factor: 1e-12 }, 'µV/K': { factor: 1e-6 },
   'mV/A': { factor: 1e-3 }, '%': { factor: 1e-2 }, 'ppm/K': { factor: 1e-6 }, mAh: { factor: 3.6 }, '°C': { factor: 1, offset: 273.15 },
-  '': { factor: 1 }, dB: { factor: 1 },
+  '': { factor: 1 }, dB: { factor: 1 }, 'mm²': { factor: 1e-6 },
 };
 
 /** The unit a field is shown in for this design: per-measurand fields follow the measurand (mV/A, mV/mT). */

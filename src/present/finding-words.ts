@@ -28,6 +28,7 @@ export const LIMIT_NAMES: Record<LimitCause, string> = {
   sensor: 'the sensor reaches its limit',
   core: 'the core saturates',
   burden: 'the burden or shunt reaches its power rating',
+  driver: 'the compensation driver runs out and the core leaves zero flux',
 };
 
 /** Why a limit bounds the linear range, in words: `the op-amp output swings only from 0.05 V to 7.5 V`. */
@@ -37,11 +38,12 @@ export function limitWhy(l: LimitData): string {
     case 'opamp-current': return `the op-amp can drive only ±${+(l.current * 1e3).toPrecision(6)} mA into the feedback network and load`;
     case 'opamp-input': return `the op-amp inputs must stay within ${+l.low.toFixed(3)} V … ${+l.high.toFixed(3)} V`;
     case 'sensor':
-      if (l.what === 'output') return `the sensor's output reaches its ${l.low}…${l.high} V limits`;
-      if (l.what === 'hall-linear') return `the Hall sensor is linear only to ±${l.field} T`;
+      if (l.what === 'output') return `the sensor's output reaches its ${p3(l.low)}…${p3(l.high)} V limits`;
+      if (l.what === 'hall-linear') return `the Hall sensor is linear only to ±${p3(l.field)} T`;
       return `the readings leave the straight line ${l.low !== null && l.high !== null ? `below ${p3(l.low)} and above ${p3(l.high)} ${l.measurand}` : l.high !== null ? `above ${p3(l.high)} ${l.measurand}` : `below ${p3(l.low ?? NaN)} ${l.measurand}`}`;
-    case 'core': return `the core saturates at ${l.saturation} T`;
-    case 'burden': return `the ${l.part} reaches its ${l.power} W rating`;
+    case 'core': return `the core saturates at ${p3(l.saturation)} T`;
+    case 'burden': return `the ${l.part} reaches its ${p3(l.power)} W rating`;
+    case 'driver': return `the compensation driver runs out of ${l.runsOut === 'current' ? 'current' : 'voltage'} and the core leaves zero flux (the output stops rising; the core saturates at ${p3(l.saturation)} ${l.measurand})`;
   }
 }
 
@@ -51,6 +53,7 @@ function limitFix(l: LimitData | null): string {
     case 'opamp-output': case 'opamp-current': return ' To fit, move the zero towards the middle of the swing, lower the scale, use a split supply, or an op-amp whose output swings closer to the rails.';
     case 'opamp-input': return ' An op-amp whose input range includes the rail, a lower sensor offset, or the inverting stage (its inputs sit still) would fit.';
     case 'core': return ' Fewer turns or a longer gap raise the core\'s limit.';
+    case 'driver': return ' A smaller measurement resistor, more compensation turns, wider rails or a driver with more current (a push-pull pair) hold more.';
     case 'sensor': return ' The sensor itself runs out first: fewer turns, a longer gap, or a sensor with a wider range.';
     default: return '';
   }
@@ -84,10 +87,10 @@ export function stageReasonWords(r: StageReason): string {
     case 'differential-needs-difference': return 'the sensor\'s output is differential (its − terminal is not at ground): only the difference stage reads it';
     case 'inputs-outside': return `${INPUTS_WHAT[r.what]} ${r.low === r.high ? `at ${r.low.toPrecision(3)} V` : `from ${r.low.toPrecision(3)} to ${r.high.toPrecision(3)} V`}, outside the op-amp's input range ${r.inputLow.toPrecision(3)}…${r.inputHigh.toPrecision(3)} V`;
     case 'cannot-attenuate': return `a non-inverting stage cannot attenuate: the target needs a gain of ${r.gain.toPrecision(3)}`;
-    case 'buffer-zero-fixed': return `a unity-gain buffer keeps the sensor's ${r.sensorZero} V zero and cannot move it to ${r.wanted.toPrecision(4)} V`;
+    case 'buffer-zero-fixed': return `a unity-gain buffer keeps the sensor's ${p3(r.sensorZero)} V zero and cannot move it to ${r.wanted.toPrecision(4)} V`;
     case 'reference-outside': return r.node === 'plus-input'
-      ? `the + input would have to sit at ${r.voltage.toPrecision(3)} V, outside the ${r.railLow}…${r.railHigh} V it can be taken from`
-      : `the reference would have to be ${r.voltage.toPrecision(3)} V, outside the ${r.railLow}…${r.railHigh} V it can be taken from`;
+      ? `the + input would have to sit at ${r.voltage.toPrecision(3)} V, outside the ${p3(r.railLow)}…${p3(r.railHigh)} V it can be taken from`
+      : `the reference would have to be ${r.voltage.toPrecision(3)} V, outside the ${p3(r.railLow)}…${p3(r.railHigh)} V it can be taken from`;
     case 'no-offset': return r.plain === 'non-inverting'
       ? 'with no offset to add, this is the plain non-inverting stage'
       : 'with no offset to add, this is the plain inverting stage with its + input grounded';
@@ -112,6 +115,9 @@ export function topologyWhy(choice: { chosen: { topology: string; reasons: Stage
   return choice.chosen ? line(choice.chosen) : `no single-stage topology fits: ${choice.considered.map(line).join(' | ')}`;
 }
 
+/** The compensation a closed-loop finding suggests, in words. */
+const COMP = (d: { inputResistance: number; capacitance: number; zeroResistance: number }) => `R_i ${ohms(d.inputResistance)}, C_i ${f3(d.capacitance, 'F')} with R_z ${ohms(d.zeroResistance)} in series (the zero on the winding's corner)`;
+
 type Words = { [K in FindingCode]: { title: string; say: (d: FindingData[K]) => string } };
 
 const SOURCE_FROM = { regulated: 'the regulated rail', battery: 'the battery', positive: 'the positive rail' } as const;
@@ -129,24 +135,35 @@ export const FINDING_WORDS: Words = {
   remanence: { title: 'Re-zero after an overload', say: () => 'An overload can leave the core magnetised and shift the zero: re-zero after any overload.' },
   'earth-field': { title: 'The Earth\'s field reads', say: (d) => `The Earth's field alone reads as about ${p3(d.reading)} ${d.measurand}: zero the probe where it will be used.` },
   'gap-critical': { title: 'Gap is critical', say: (d) => `Sensitivity changes by ${(d.changePerTenthMm * 100).toFixed(1)} % for each 0.1 mm of gap: a hand-cut gap will need the span trimmer.` },
-  'burden-power': { title: 'Burden overloaded', say: (d) => `The burden dissipates ${p3(d.power)} W at the top of the range, above its ${d.rating} W rating.` },
+  'burden-power': { title: 'Burden overloaded', say: (d) => `The burden dissipates ${p3(d.power)} W at the top of the range, above its ${p3(d.rating)} W rating.` },
   'ct-no-dc': { title: 'A current transformer passes no DC', say: () => 'A current transformer passes no DC: set the signal to AC (rms), or use a Hall sensor or a shunt for DC.' },
   'low-side-only': { title: 'Shunt in the low side', say: () => 'The shunt sits in the low side, on the amplifier ground; for a shunt in the high side give its supply-end voltage (the High side: supply-end voltage field) and use the difference stage.' },
-  'shunt-power': { title: 'Shunt overloaded', say: (d) => `The shunt dissipates ${p3(d.power)} W at the range end, above its ${d.rating} W rating.` },
+  'shunt-power': { title: 'Shunt overloaded', say: (d) => `The shunt dissipates ${p3(d.power)} W at the range end, above its ${p3(d.rating)} W rating.` },
+  // --- closed-loop Hall sensor (issue #20) ---
+  'closed-loop-unstable': { title: 'The sensor loop is unstable', say: (d) => `The compensation loop is unstable (phase margin ${d.phaseMargin === null ? 'none' : `${p3(d.phaseMargin)}°`}): the output will oscillate. Try ${COMP(d)}.` },
+  'closed-loop-margin': { title: 'The sensor loop rings', say: (d) => `The compensation loop's phase margin is ${p3(d.phaseMargin)}° at ${f3(d.crossover, 'Hz')}: a step will ring. Try ${COMP(d)}.` },
+  'closed-loop-flatness': { title: 'The response steps at the hand-over', say: (d) => `The response steps by ${pct(d.flatness, 1)} at ${f3(d.at, 'Hz')}, where the Hall path hands over to the transformer path. A zero in the compensation flattens it: ${COMP(d)} leaves ${pct(d.dip, 1)}.` },
+  'closed-loop-flatness-limit': { title: 'The response steps a little at the hand-over', say: (d) => `The response steps by ${pct(d.flatness, 1)} at ${f3(d.at, 'Hz')}, where the Hall path hands over to the transformer path: about what a 60° phase margin allows with this Hall sensor's bandwidth and this driver's gain-bandwidth. A faster driver or Hall sensor flattens it.` },
+  'closed-loop-overload': { title: 'Past the held current', say: (d) => `Past ${p3(d.high)} ${d.measurand} (or ${p3(d.low)} ${d.measurand}) the driver runs out of ${d.limitHigh === 'current' ? 'current' : 'voltage'}: the core is no longer held at zero flux, the output stops rising and reads low, the core saturates at ${p3(d.saturationHigh)} ${d.measurand} and the output collapses. Re-zero after any overload (the core may stay magnetised).` },
+  'closed-loop-residual': { title: 'Scale error of the finite loop gain', say: (d) => `The loop's DC gain of ${p3(d.dcLoopGain)} leaves a scale error of ${pct(d.residual, 4)} (included in the sensitivity).` },
+  'closed-loop-polarity': { title: 'Winding polarity', say: () => 'If the voltage across the measurement resistor sits at a rail at power-up with no current flowing, the compensation winding is connected the wrong way round: switch off and swap its two leads.' },
+  'closed-loop-unmodelled': { title: 'The transformer path\'s upper end is not modelled', say: () => 'The transformer path is modelled with perfect coupling: the winding\'s own capacitance and the core\'s losses, which end it at high frequency, are not modelled.' },
+  'closed-loop-driver-current': { title: 'The driver cannot supply the range', say: (d) => `The range end needs ${f3(d.need, 'A')} from the driver, more than its ${f3(d.limit, 'A')} limit: more turns, or a push-pull output stage.` },
+  // --- end closed-loop Hall sensor ---
   'readings-too-few': {
     title: 'Too few sensor readings to fit',
     say: (d) => d.allAtOneValue
       ? `The sensor readings are all at one ${d.measurand} value: take readings at three or more different values; the datasheet figures are used meanwhile.`
       : `The sensor readings give ${d.have} usable point${d.have === 1 ? '' : 's'}; a fit needs at least ${d.need} (${d.need - d.have} more, at different ${d.measurand} values): the datasheet figures are used meanwhile.`,
   },
-  'readings-implausible': { title: 'Sensor readings do not fit this core', say: (d) => `The readings imply a fringing factor of ${d.fringing.toPrecision(3)} for this core, outside ${d.low}…${d.high}: check the turns, the Hall sensitivity and the sign of the readings; the datasheet figures are used meanwhile.` },
+  'readings-implausible': { title: 'Sensor readings do not fit this core', say: (d) => `The readings imply a fringing factor of ${d.fringing.toPrecision(3)} for this core, outside ${p3(d.low)}…${p3(d.high)}: check the turns, the Hall sensitivity and the sign of the readings; the datasheet figures are used meanwhile.` },
   'buffer-no-trim': {
     title: 'Nothing to trim',
     say: (d) => d.stage === 'unity'
       ? 'A unity buffer has no gain or zero to trim; the sensor\'s own scale and zero pass straight through.'
       : 'The stage is a follower of the summed input (K = 1): there is no feedback arm to trim the span with; the sensor\'s spread passes through.',
   },
-  'gain-beyond-loop': { title: 'Gain beyond the op-amp', say: (d) => `A gain of ${d.gain.toPrecision(4)} is beyond what the op-amp's open-loop gain (${d.openLoopGainDb} dB) can hold: use two stages or an op-amp with more open-loop gain.` },
+  'gain-beyond-loop': { title: 'Gain beyond the op-amp', say: (d) => `A gain of ${d.gain.toPrecision(4)} is beyond what the op-amp's open-loop gain (${p3(d.openLoopGainDb)} dB) can hold: use two stages or an op-amp with more open-loop gain.` },
   'gain-unrealisable': {
     title: 'No resistor network gives the gain',
     say: (d) => d.with === 'window' || d.gain === null
@@ -185,8 +202,8 @@ export const FINDING_WORDS: Words = {
     say: (d) => d.cause === 'near-rail'
       ? `No standard zero trimmer covers ${d.coverage} × the worst-case zero stack from a reference this near a rail, so the divider is fixed: null the zero at the instrument, or move the zero.`
       : d.summed
-        ? `The offset comes straight from the ${d.rail} V rail, where a trimmer cannot straddle it: null the zero at the instrument, or choose a zero that needs a reference between the rails.`
-        : `The zero needs the reference on the rail itself (${d.rail} V), where a trimmer cannot straddle it, so the leg is tied to the rail: null the zero at the instrument, or choose a zero away from the rail.`,
+        ? `The offset comes straight from the ${p3(d.rail)} V rail, where a trimmer cannot straddle it: null the zero at the instrument, or choose a zero that needs a reference between the rails.`
+        : `The zero needs the reference on the rail itself (${p3(d.rail)} V), where a trimmer cannot straddle it, so the leg is tied to the rail: null the zero at the instrument, or choose a zero away from the rail.`,
   },
   'zero-trim-off-centre': { title: 'Zero trimmer starts off centre', say: (d) => `The reference sits near a rail, so the zero trimmer starts at ${(d.setting * 100).toFixed(0)} % of its travel.` },
   'gain-not-computable': { title: 'Gain cannot be computed', say: () => 'The gain cannot be computed, because the wanted scale divided by the sensor\'s sensitivity is beyond any number: check both for a slipped prefix or exponent.' },
@@ -235,6 +252,24 @@ export const FINDING_WORDS: Words = {
     },
   },
   'sensor-over-voltage': { title: 'Sensor fed above its rated supply', say: (d) => `The sensor is fed up to ${f3(d.high, 'V')} from ${SOURCE_FROM[d.from]}, above the ${f3(d.rated, 'V')} it is specified for: it may be damaged. Feed it from a regulated rail (Supply: regulated rail, sensor fed from it) or use a sensor specified for this supply.` },
+  // --- issue 19: the range switch.
+  'range-stage': { title: 'No range switch for this stage', say: (d) => `A range switch is designed for the non-inverting and inverting stages, whose gain one feedback arm sets; this design uses ${d.topology ? `the ${stageName(d.topology)} stage` : 'no working stage'}. Choose the non-inverting or inverting stage, or design each range as its own probe.` },
+  'range-wiring': {
+    title: 'Range switch wiring',
+    say: (d) => {
+      const why = d.decidedBy === 'asked' ? 'as the design asks'
+        : d.decidedBy === 'zero-holds' ? `because one pole moves the zero by at most ${f3(d.singlePoleShift, 'V')}, within the ${f3(d.limit, 'V')} allowed`
+        : d.decidedBy === 'zero-moves' ? `because one pole would move the zero by up to ${f3(d.singlePoleShift, 'V')}, more than the ${f3(d.limit, 'V')} allowed`
+        : 'because no reference within the rails holds the zero on every range, so each range keeps its own zero';
+      const what = d.wiring === 'single-pole'
+        ? `a single-pole ${d.throws}-way switch changes the feedback arm (and its span trimmer); the reference and the zero trimmer are shared, so the zero moves with the gain and each range is zeroed on its own`
+        : `a two-pole ${d.throws}-way switch changes the feedback arm and the reference divider together, each position with its own span and zero trimmer, so the zero holds on every range${d.idleCurrent > 0 ? ` (the dividers not in use still draw ${f3(d.idleCurrent, 'A')} from their rail)` : ''}`;
+      return `Range switch: ${what}; chosen ${why}. The other wiring can be asked for (Range switch wiring).`;
+    },
+  },
+  'range-unbuilt': { title: 'A range cannot be built', say: (d) => `Range ${d.position} (${f3(d.scale, `V/${d.measurand}`)}) cannot be built on this stage: ${d.cause === 'zero-unreachable' ? 'the reference that would hold the zero lies beyond the rails; wire the switch with one pole (the zero then moves) or move the zero' : 'its gain is beyond what the stage can give with its shared parts (a non-inverting stage cannot attenuate); change the scale or the stage'}.` },
+  'range-zero-shift': { title: 'Zero moves with the range', say: (d) => `On range ${d.position} (${f3(d.scale, `V/${d.measurand}`)}) the zero sits at ${f3(d.zero, 'V')}, ${f3(d.shift, 'V')} from the first range's: null it on the instrument (its offset) or read from it. The zero trimmer is set on the first range; it leaves up to ±${f3(d.residual, 'V')} of zero error here.` },
+  // --- end issue 19
   'sensor-under-voltage': { title: 'Sensor fed below its rated supply', say: (d) => `The sensor is fed down to ${f3(d.low, 'V')} from ${SOURCE_FROM[d.from]}, below the ${f3(d.rated, 'V')} it is specified for: its output is not specified there.` },
 };
 

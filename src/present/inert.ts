@@ -20,6 +20,22 @@ export function terminalLine(text: string): string {
 }
 
 /**
+ * JSON text for a terminal or a file: `JSON.stringify` escapes C0 controls but leaves C1 controls, DEL, the line
+ * separators and the bidirectional overrides raw, which a terminal can act on. They are written as `\uXXXX`
+ * escapes, which every JSON reader decodes back to the same string: the data is unchanged, the text is inert.
+ * `jsonText({ t: 'a\u009b2J' })` → `{"t":"a\u009b2J"}` with a backslash written out.
+ */
+export function jsonText(value: unknown, indent?: number): string {
+  // C0 controls are already escaped inside strings; outside them the only ones are the layout's line breaks.
+  return JSON.stringify(value, null, indent).replace(/[\u007f-\u009f\u2028\u2029\u202a-\u202e\u2066-\u2069]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
+}
+
+/** Page text: bidirectional overrides and isolates dropped (they would reorder what follows), line separators as spaces. */
+export function pageText(text: string): string {
+  return text.replace(/[\u202a-\u202e\u2066-\u2069]/g, '').replace(/[\u2028\u2029]/g, ' ');
+}
+
+/**
  * Text for the inside of one SPICE comment line (`* …`): active characters become spaces, runs of blanks one
  * space, at most `max` characters. A line break is the only way out of a SPICE comment; with none left, a
  * `.include` or `shell` in the text is just words in the comment.

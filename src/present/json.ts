@@ -4,6 +4,7 @@
  * The format is documented in docs/design-format.md.
  */
 import type { Report } from '../analysis/report.js';
+import type { ClosedLoopSummary } from '../analysis/closed-loop.js';
 import type { Part } from '../circuit/network.js';
 import type { Topology } from '../model/design.js';
 import { significantFigures } from '../model/eseries.js';
@@ -11,6 +12,8 @@ import { rkmCode } from '../model/units.js';
 import { calibrationSteps } from './calibration.js';
 import { cautionsFor } from './cautions.js';
 import { findingTitle, sayFinding, topologyWhy } from './finding-words.js';
+import { tradeJson } from './trade.js'; // issue 19
+import { rangesJson } from './ranges.js'; // issue 19
 
 /** The report as the CLI's JSON object ("gainwright-report", version 1). Non-finite numbers become null. */
 export function reportJson(r: Report): Record<string, unknown> {
@@ -54,5 +57,26 @@ export function reportJson(r: Report): Record<string, unknown> {
     warnings: r.warnings.map((w) => ({ code: w.code, level: w.level, title: findingTitle(w.code), message: sayFinding(w), data: w.data })),
     cautions: cautionsFor(r.design.sensor.type, r.front.cautions),
     absent: r.absent,
+    // --- closed-loop Hall sensor (issue #20) ---
+    ...(r.closedLoop ? { closedLoop: closedLoopJson(r.closedLoop, num) } : {}),
+    // Issue 19: the turns trade ([] unless asked for) and the range switch (each position; the first = the figures above).
+    trade: tradeJson(r.trade),
+    ...rangesJson(r.ranges),
   };
 }
+
+// --- closed-loop Hall sensor (issue #20) ---
+/** A closed-loop sensor's summary as JSON (`closedLoop` in the report): the step, the supply at the range end, the turns trade. */
+function closedLoopJson(c: ClosedLoopSummary, num: (x: number | null | undefined) => number | null): Record<string, unknown> {
+  return {
+    step: c.step ? { step: num(c.step.step), ideal: num(c.step.ideal), overshoot: num(c.step.overshoot), sag: num(c.step.sag), settlingTime: num(c.step.settlingTime), tailRipple: num(c.step.tailRipple), crossings: c.step.crossings } : null,
+    supplyAtZero: num(c.supplyAtZero), supplyAtRangeEnd: num(c.supplyAtRangeEnd), batteryLifeAtZero: num(c.batteryLifeAtZero), batteryLifeAtRangeEnd: num(c.batteryLifeAtRangeEnd),
+    trade: c.trade.map((o) => ({
+      turns: o.turns, measurementResistance: num(o.measurementResistance), sensitivity: num(o.sensitivity), windingResistance: num(o.windingResistance), inductance: num(o.inductance),
+      supplyCurrent: num(o.supplyCurrent), maxCurrent: num(o.maxCurrent), windingCorner: num(o.windingCorner), tail: num(o.tail), crossover: num(o.crossover), phaseMargin: num(o.phaseMargin), fits: o.fits,
+      compensation: { inputResistance: o.compensation.inputResistance, capacitance: o.compensation.capacitance, zeroResistance: o.compensation.zeroResistance, dip: num(o.compensation.dip) },
+    })),
+    proposal: c.proposal ? c.proposal.turns : null,
+  };
+}
+// --- end closed-loop Hall sensor ---

@@ -39,6 +39,11 @@ export function partCode(p: Part): string {
   return p.kind === 'capacitor' ? '' : rkmCode(p.ohms, figuresOf(p));
 }
 
+/** How two parts of an arm are joined in writing: `4.7 kΩ ∥ 10 kΩ` (parallel) or `4.7 kΩ + 100 Ω` (series). */
+export function armJoint(arrangement: Part['arrangement']): string {
+  return arrangement === 'parallel' ? ' ∥ ' : ' + ';
+}
+
 /** The role in words, with how the part joins its pair when its arm has two: `feedback (in series with its pair)`. */
 export function partRole(p: Part): string {
   const join = p.arrangement === 'series' ? ' (in series with its pair)' : p.arrangement === 'parallel' ? ' (in parallel with its pair)' : '';

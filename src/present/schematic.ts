@@ -4,9 +4,10 @@
  */
 import type { Report } from '../analysis/report.js';
 import type { Part, PartRole } from '../circuit/network.js';
-import { partValue } from './parts.js';
+import { armJoint, partValue } from './parts.js';
 import { STAGE_NAMES } from './words.js';
 import { formatEng } from '../model/units.js';
+import { closedLoopPrims } from './closed-loop.js';
 
 export type Prim =
   | { t: 'wire'; pts: Array<[number, number]> }
@@ -32,7 +33,7 @@ export interface Schematic {
 function arm(parts: Part[], role: PartRole): { ref: string; value: string } | null {
   const ps = parts.filter((p) => p.role === role);
   if (!ps.length) return null;
-  const joint = ps.length > 1 && ps[0]!.arrangement === 'parallel' ? ' ∥ ' : ' + ';
+  const joint = armJoint(ps[0]!.arrangement);
   return { ref: ps.map((p) => p.ref).join(joint), value: ps.map((p) => formatEng(p.ohms, 'Ω', 3).replace(' ', '')).join(joint) };
 }
 
@@ -51,14 +52,35 @@ export function schematic(r: Report): Schematic | null {
   P.push({ t: 'opamp', x: 340, y: 170, invertingOnTop: true });
   // The burden is a listed part (RB): the CT symbol names it with its value.
   const burden = parts.find((p) => p.role === 'burden');
-  const sensorLabel = r.design.sensor.type === 'hall-gap-core' ? 'Hall sensor' : r.design.sensor.type === 'current-transformer' ? `CT + ${burden ? `${burden.ref} ${partValue(burden)}` : 'burden'}` : r.design.sensor.type === 'shunt' ? 'Shunt' : 'Sensor';
+  const sensorLabel = r.design.sensor.type === 'closed-loop-hall' ? 'Sensor loop (below)' : r.design.sensor.type === 'hall-gap-core' ? 'Hall sensor' : r.design.sensor.type === 'current-transformer' ? `CT + ${burden ? `${burden.ref} ${partValue(burden)}` : 'burden'}` : r.design.sensor.type === 'shunt' ? 'Shunt' : 'Sensor';
   const sensorY = inv || topo === 'summing-inverting' ? 150 : 190;
   P.push({ t: 'source', x: 40, y: sensorY, label: sensorLabel });
   const fb = arm(parts, 'feedback');
   const gt = parts.find((p) => p.role === 'gain-trim');
   const follower = !fb && !gt;
   // Feedback path above the op-amp, from the − input node (250,150) to the output node (420,170).
-  if (fb || gt) {
+  // Issue 19: with a range switch, one feedback row per position stacked upwards, each from its throw of the
+  // switch's first pole (SW1a) to the output; the lever rests on position 1.
+  const rs = r.ranges?.ok ? r.ranges.value : null;
+  if (rs && (fb || gt)) {
+    const rowY = (j: number) => 80 - 50 * j;
+    W([250, 150], [250, 112]);
+    P.push({ t: 'dot', x: 250, y: 112 });
+    W([250, 112], [262, rowY(0) + 4]);
+    P.push({ t: 'text', x: 196, y: 108, text: `${rs.switchRef}${rs.poles > 1 ? 'a' : ''}` });
+    rs.positions.forEach((pos, j) => {
+      const y = rowY(j);
+      const pf = arm(pos.parts, 'feedback');
+      const pg = pos.parts.find((q) => q.role === 'gain-trim');
+      P.push({ t: 'dot', x: 262, y });
+      P.push({ t: 'text', x: 240, y: y - 4, text: String(j + 1) });
+      if (pf) P.push({ t: 'res', x: pg ? 312 : 340, y, vertical: false, ...pf, trimmer: false });
+      if (pg) P.push({ t: 'res', x: pf ? 377 : 340, y, vertical: false, ref: pg.ref, value: formatEng(pg.ohms, 'Ω', 2), trimmer: true });
+      if (j > 0) P.push({ t: 'dot', x: 420, y: rowY(j - 1) });
+    });
+    W([420, rowY(rs.positions.length - 1)], [420, 170]);
+    P.push({ t: 'dot', x: 420, y: 170 });
+  } else if (fb || gt) {
     W([250, 150], [250, 80]);
     if (fb) P.push({ t: 'res', x: gt ? 300 : 335, y: 80, vertical: false, ...fb, trimmer: false });
     if (gt) P.push({ t: 'res', x: fb ? 375 : 335, y: 80, vertical: false, ref: gt.ref, value: formatEng(gt.ohms, 'Ω', 2), trimmer: true });
@@ -196,6 +218,17 @@ export function schematic(r: Report): Schematic | null {
   }
   P.push({ t: 'terminal', x: 610, y: 170, label: 'To instrument' });
   P.push({ t: 'text', x: 400, y: 440, text: `U1 ${STAGE_NAMES[topo]}` });
+  // --- closed-loop Hall sensor (issue #20): its loop drawn below the stage ---
+  if (r.design.sensor.type === 'closed-loop-hall') return { width: 700, height: 700, prims: [...P, ...closedLoopPrims(r, 470)] };
+  // Issue 19: the switch's second pole picks each range's reference divider (drawn for range 1 above).
+  if (rs && rs.poles > 1) {
+    P.push({ t: 'text', x: 20, y: 465, text: `${rs.switchRef}b picks the reference divider ${topo === 'inverting' ? 'at the + input' : "at the ground leg's foot"}:` });
+    rs.positions.forEach((pos, j) => {
+      const refs = (['reference-top', 'zero-trim', 'reference-bottom'] as const).map((role) => pos.parts.filter((q) => q.role === role).map((q) => q.ref).join(' + ')).filter((x) => x);
+      P.push({ t: 'text', x: 30, y: 481 + 16 * j, text: `${j + 1}: ${refs.join(', ')}` });
+    });
+    return { width: 660, height: 490 + 16 * rs.positions.length, prims: P };
+  }
   return { width: 660, height: 450, prims: P };
 }
 

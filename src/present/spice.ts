@@ -12,10 +12,12 @@
  * √(4kTR·(1 + f_c/f)); resistors that are not physical parts (the model's own) carry `noisy=0`.
  */
 import { BOLTZMANN } from '../model/constants.js';
+import type { Circuit } from '../circuit/mna.js';
 import type { Report } from '../analysis/report.js';
 import { spiceCommentText } from './inert.js';
 import { opampSwing } from '../analysis/analysis.js';
 import { waveformPlan } from '../analysis/waveform.js';
+import { cautionsFor } from './cautions.js';
 
 const fmt = (x: number) => (Number.isFinite(x) ? Number(x.toPrecision(9)).toString() : '0');
 const node = (names: string[], i: number) => (i === 0 ? '0' : names[i]!.replace(/[^A-Za-z0-9_]/g, '_'));
@@ -30,6 +32,8 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
   const sc = r.circuit;
   if (!sc || !r.speed) return null;
   const c = sc.circuit;
+  // A value that is not a finite number has no netlist: none is written rather than a silent 0.
+  if (!c.elements.every((e) => [e.value, e.dc0 ?? 0, e.dc1 ?? 0, e.ac ?? 0].every(Number.isFinite))) return null;
   const names = c.nodeNames;
   const d = r.design;
   const T = d.environment.temperature;
@@ -46,9 +50,16 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
   lines.push('* Model assumptions: behavioural op-amp with a single pole at GBW/A0, open-loop output resistance, and its');
   lines.push('* internal output limited to the swing (outputLow above the - rail, outputHigh below the + rail) and its slew');
   lines.push('* rate; no output current limit, offsets and bias currents omitted; trimmers as two resistors at their settings;');
-  lines.push('* sensor as an ideal source with its resistance and bandwidth (its own output limits are not modelled).');
+  if (d.sensor.type === 'closed-loop-hall') {
+    lines.push('* Closed-loop Hall sensor: the core as the magnetising inductance LM with the primary reflected across it (ISIG =');
+    lines.push('* Np/Ns x measurand), the Hall sensor as HHALL controlled by LM\'s current, the compensation (RI, CI, RZ) and a');
+    lines.push('* linear driver EDRV (no swing or current limit: the report\'s largest held current is not in the netlist).');
+  } else {
+    lines.push('* sensor as an ideal source with its resistance and bandwidth (its own output limits are not modelled).');
+  }
   lines.push(`* Measurand ${measurand}: the signal source is ${c.elements[sc.signalIndex]?.name ?? '?'}; its value is quiescent + sensitivity x measurand.`);
   lines.push(`* Output node: ${node(names, sc.nodes.out)}. Temperature ${fmt(tempC)} C.`);
+  for (const caution of cautionsFor(d.sensor.type, r.front.cautions)) lines.push(`* CAUTION: ${spiceCommentText(caution, 1000)}`);
   lines.push('*');
   lines.push(`.temp ${fmt(tempC)}`);
   const sigIdx = sc.signalIndex;
@@ -90,14 +101,8 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
   c.elements.forEach((e, i) => {
     const a = node(names, e.a), b = node(names, e.b);
     switch (e.kind) {
-      case 'R':
-        lines.push(`${spiceName('R', e.name)} ${a} ${b} ${fmt(e.value)}${e.noisy === false ? ' noisy=0' : ''}`);
-        break;
-      case 'C':
-        lines.push(`${spiceName('C', e.name)} ${a} ${b} ${fmt(e.value)}`);
-        break;
-      case 'L':
-        lines.push(`${spiceName('L', e.name)} ${a} ${b} ${fmt(e.value)}`);
+      case 'R': case 'C': case 'L': case 'H':
+        lines.push(...plainElementLines(c, i));
         break;
       case 'V': {
         if (e.noise && e.noise > 0) {
@@ -120,7 +125,9 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
       }
       case 'E': {
         const cp = node(names, e.cp ?? 0), cn = node(names, e.cn ?? 0);
-        if (e.pole && e.pole > 0) {
+        if (!(e.pole && e.pole > 0) || i !== sc.opampIndex) {
+          lines.push(...plainElementLines(c, i));
+        } else {
           // A0/(1 + s/ωp): a current gm·v_d − V(p)/Rp (gm = A0/Rp) into Cp, Rp·Cp = 1/(2π·fp), which is
           // τ·dV(p)/dt + V(p) = A0·v_d. The current is limited to ±SR·Cp, so V(p) slews at most at SR.
           const rp = 1e6, cp2 = 1 / (2 * Math.PI * e.pole * rp);
@@ -133,8 +140,6 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
           lines.push(`${spiceName('B', `${e.name}_HOLD`)} ${p} 0 I=${fmt(1e4)}*(max(V(${p})-${fmt(hi)}, 0) + min(V(${p})-${fmt(lo)}, 0))`);
           // The internal output clips at the swing limits, as the report's clipping analysis assumes.
           lines.push(`${spiceName('B', e.name)} ${a} ${b} V=max(${fmt(lo)}, min(${fmt(hi)}, V(${p})))`);
-        } else {
-          lines.push(`${spiceName('E', e.name)} ${a} ${b} ${cp} ${cn} ${fmt(e.value)}`);
         }
         break;
       }
@@ -197,8 +202,53 @@ function nodesetLine(r: Report): string | null {
   return `.nodeset ${parts.join(' ')}`;
 }
 
+/**
+ * The SPICE lines of one element that needs no design-wide model: a resistor, capacitor, inductor (with a
+ * 0 V source in series when a current-controlled source reads its current), a current-controlled voltage
+ * source, or a gain block: without a pole an E; with one (any amplifier but the stage's op-amp, which carries
+ * its large-signal model) linear, A0/(1 + s/ωp) as a transconductance A0/Rp into Rp ∥ Cp (Rp·Cp = 1/(2π·fp))
+ * and a unity buffer. Null for the other kinds.
+ */
+export function plainElementLines(c: Circuit, i: number): string[] {
+  const names = c.nodeNames;
+  const e = c.elements[i]!;
+  const a = node(names, e.a), b = node(names, e.b);
+  switch (e.kind) {
+    case 'R':
+      return [`${spiceName('R', e.name)} ${a} ${b} ${fmt(e.value)}${e.noisy === false ? ' noisy=0' : ''}`];
+    case 'C':
+      return [`${spiceName('C', e.name)} ${a} ${b} ${fmt(e.value)}`];
+    case 'L':
+      if (c.elements.some((h) => h.kind === 'H' && h.ctrl === i)) {
+        return [`${spiceName('L', e.name)} ${a} ${a}_${e.name}_s ${fmt(e.value)}`, `${spiceName('V', `${e.name}_SENSE`)} ${a}_${e.name}_s ${b} DC 0`];
+      }
+      return [`${spiceName('L', e.name)} ${a} ${b} ${fmt(e.value)}`];
+    case 'H': {
+      const ce = c.elements[e.ctrl ?? -1];
+      return ce ? [`${spiceName('H', e.name)} ${a} ${b} ${spiceName('V', `${ce.name}_SENSE`)} ${fmt(e.value)}`] : [];
+    }
+    case 'E': {
+      const cp = node(names, e.cp ?? 0), cn = node(names, e.cn ?? 0);
+      if (!(e.pole && e.pole > 0)) return [`${spiceName('E', e.name)} ${a} ${b} ${cp} ${cn} ${fmt(e.value)}`];
+      const rp = 1e6, cp2 = 1 / (2 * Math.PI * e.pole * rp);
+      const p = `${a}_pole`;
+      return [
+        `${spiceName('G', `${e.name}_GM`)} 0 ${p} ${cp} ${cn} ${fmt(e.value / rp)}`,
+        `${spiceName('R', `${e.name}_RP`)} ${p} 0 ${fmt(rp)} noisy=0`,
+        `${spiceName('C', `${e.name}_CP`)} ${p} 0 ${fmt(cp2)}`,
+        `${spiceName('E', e.name)} ${a} ${b} ${p} 0 1`,
+      ];
+    }
+    default:
+      return [];
+  }
+}
+
+/** A number as SPICE text (nine significant figures; 0 for a non-finite value), and a node's SPICE name. */
+export { fmt as spiceNumber, node as spiceNode };
+
 /** SPICE wants the first letter to be the element type. */
-function spiceName(kind: string, name: string): string {
+export function spiceName(kind: string, name: string): string {
   const clean = name.replace(/[^A-Za-z0-9_]/g, '_');
   return clean.toUpperCase().startsWith(kind) ? clean : `${kind}_${clean}`;
 }

@@ -1,5 +1,5 @@
 /** The report as plain text for a terminal: verdicts first, then parts, figures, calibration, cautions. */
-import { partCode, partRole, partValue } from './parts.js';
+import { armJoint, partCode, partRole, partValue } from './parts.js';
 import type { Report } from '../analysis/report.js';
 import { calibrationSteps } from './calibration.js';
 import { cautionsFor } from './cautions.js';
@@ -8,6 +8,8 @@ import { verdictsOf } from './verdicts.js';
 import { formatEng } from '../model/units.js';
 import { terminalLine } from './inert.js';
 import { waveformFigures } from './figures.js';
+import { closedLoopLines } from './closed-loop.js';
+import { tradeLines } from './trade.js';
 
 const f = (x: number | null | undefined, u = '', d = 3) => (x === null || x === undefined ? '—' : formatEng(x, u, d));
 const MARK = { pass: 'PASS', caution: 'CAUTION', fail: 'FAIL' } as const;
@@ -33,12 +35,14 @@ export function textReport(r: Report): string {
     }
     if (s.alternatives.length > 1) {
       out.push('  Alternatives for the gain network (feedback / leg, error):');
-      s.alternatives.slice(0, 5).forEach((a, i) => out.push(`   ${i === s.chosen ? '*' : ' '}${i}: ${a.a.parts.map((p) => formatEng(p, 'Ω')).join(a.a.arrangement === 'parallel' ? ' ∥ ' : ' + ')} / ${a.b.parts.map((p) => formatEng(p, 'Ω')).join(a.b.arrangement === 'parallel' ? ' ∥ ' : ' + ')}, ${(a.error * 100).toFixed(4)} %`));
+      s.alternatives.slice(0, 5).forEach((a, i) => out.push(`   ${i === s.chosen ? '*' : ' '}${i}: ${a.a.parts.map((p) => formatEng(p, 'Ω')).join(armJoint(a.a.arrangement))} / ${a.b.parts.map((p) => formatEng(p, 'Ω')).join(armJoint(a.b.arrangement))}, ${(a.error * 100).toFixed(4)} %`));
     }
   }
   if (r.front.figures.length) {
     h('Sensor');
     for (const fig of r.front.figures) out.push(`  ${fig.label}: ${fig.unit === '' ? `${(fig.value * 100).toFixed(2)} %` : f(fig.value, fig.unit)}`);
+    // --- closed-loop Hall sensor (issue #20) ---
+    out.push(...closedLoopLines(r));
   }
   if (r.clip) {
     const c = r.clip;
@@ -91,6 +95,8 @@ export function textReport(r: Report): string {
     h('Waveform at the instrument');
     for (const row of wave) out.push(`  ${row.label}: ${row.value}${row.note ? ` (${row.note})` : ''}`);
   }
+  // Issue 19: the turns / gap (or turns / burden) trade, when the report ran it.
+  out.push(...tradeLines(r.trade, m));
   if (r.warnings.length) {
     h('Findings');
     for (const w of r.warnings) out.push(`  [${w.level}] ${sayFinding(w)}`);

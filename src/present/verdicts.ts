@@ -76,6 +76,18 @@ export function verdictsOf(r: Report): Verdict[] {
   for (const w of r.warnings.filter((x) => (x.level === 'fail' || x.level === 'caution') && !x.code.startsWith('clips-in-range') && x.code !== 'bandwidth-short')) {
     v.push({ level: w.level === 'fail' ? 'fail' : 'caution', title: findingTitle(w.code), detail: sayFinding(w) });
   }
+  // --- issue 19: with a range switch every range's own lines (range, inputs, scale, bandwidth, noise, error)
+  // name their range; the lines that belong to the whole probe (supply, sensor findings) are said once.
+  if (r.ranges?.ok) {
+    const own = /^(Covers the range|Clips inside the range|Op-amp input|Scale |Bandwidth|Noise |Error ±)/;
+    const name = (i: number, scale: number) => `Range ${i + 1} (${f3(scale, `V/${m}`)}): `;
+    for (const line of v) if (own.test(line.title)) line.title = name(0, d.target.scale) + line.title;
+    for (const p of r.ranges.value.positions.slice(1)) {
+      if (!p.report) continue;
+      for (const line of verdictsOf(p.report)) if (own.test(line.title)) v.push({ ...line, title: name(p.index, p.scale) + line.title });
+    }
+  }
+  // --- end issue 19
   // Worst first.
   const rank = { fail: 0, caution: 1, pass: 2 } as const;
   v.sort((a, b) => rank[a.level] - rank[b.level]);

@@ -138,11 +138,17 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
   const prefFactor = (a: number) => 1 + Math.abs(Math.log10(a / rfPref));
   const dividerCurrent = (ref: ReferenceNetwork) => (ref.kind === 'divider' ? vspan / ((ref.top?.ohms ?? 0) + (ref.trim?.ohms ?? 0) + (ref.bottom?.ohms ?? 0)) : 0);
   let best: Candidate | null = null;
+  const partsIn = (net: StageNetwork) => fixedParts(net.feedback) + fixedParts(net.leg) + fixedParts(net.plusArm) + fixedParts(net.offsetArm) + fixedParts(net.reference.top) + fixedParts(net.reference.bottom);
+  /** The current the feedback network and the divider draw. */
+  const loadsOf = (net: StageNetwork, opt: GainOption) => (net.feedback ? outMax / (net.feedback.ohms + opt.trim / 2 + (net.leg?.ohms ?? 0)) : 0) + dividerCurrent(net.reference);
 
   /** Scores a network (after the zero pot's wiper is solved) and keeps it when it beats the best. */
   const consider = (network: StageNetwork, opt: GainOption, ranked: PairCandidate[], pick: PairCandidate | null) => {
     let net = network;
     const ref = net.reference;
+    // Parts, Rf and the current drawn do not move with the zero pot's wiper: a network whose least score (the
+    // error at the floor) cannot beat the best is dropped before its wiper is solved.
+    if (best && floor * 1.5 ** (partsIn(net) - 2) * prefFactor(net.feedback?.ohms ?? rfPref) * (1 + loadsOf(net, opt) / iq) >= (best as Candidate).score) return;
     if (ref.kind === 'divider' && ref.trim) {
       const solved = solveWiper(net);
       if (!solved) return;
@@ -153,10 +159,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
     const zeroError = t.scale * front.quiescent + t.offset - ideal.pinZero;
     if (!Number.isFinite(scaleError) || !Number.isFinite(zeroError)) return;
     const zeroRel = net.reference.trim ? 0 : Math.abs(zeroError) / outSpan;
-    const parts = fixedParts(net.feedback) + fixedParts(net.leg) + fixedParts(net.plusArm) + fixedParts(net.offsetArm) + fixedParts(ref.top) + fixedParts(ref.bottom);
-    const rf = net.feedback?.ohms ?? rfPref;
-    const loads = (net.feedback ? outMax / (rf + opt.trim / 2 + (net.leg?.ohms ?? 0)) : 0) + dividerCurrent(net.reference);
-    const score = Math.max(Math.abs(scaleError), zeroRel, floor) * 1.5 ** (parts - 2) * prefFactor(rf) * (1 + loads / iq);
+    const score = Math.max(Math.abs(scaleError), zeroRel, floor) * 1.5 ** (partsIn(net) - 2) * prefFactor(net.feedback?.ohms ?? rfPref) * (1 + loadsOf(net, opt) / iq);
     if (best && score >= best.score) return;
     best = { network: net, opt, score, scaleError, zeroError, ranked, pick };
   };

@@ -139,10 +139,10 @@ export interface PairCandidate {
 export interface PairResult {
   /** Ranked best first by score. */
   ranked: PairCandidate[];
-  /** The smallest |error| anywhere, with its arms (the true optimum, whatever the ranking). */
-  best: PairCandidate | null;
-  /** How many (a, b) pairs were evaluated. */
-  evaluated: number;
+  /** The smallest |error| anywhere, with its arms (the true optimum, whatever the ranking); found when first read. */
+  readonly best: PairCandidate | null;
+  /** How many (a, b) pairs were evaluated so far (the scan for `best` included once it has run). */
+  readonly evaluated: number;
 }
 
 /**
@@ -159,60 +159,268 @@ export function score(err: number, parts: number, a: number, pref: number, floor
  */
 export type PairFits = (tA: ArmTable, i: number, tB: ArmTable, j: number) => boolean;
 
-/** Fast search: each first arm with the two arms around its ideal partner (the nearest that `fits`, on a kit). */
+/** 1.5^(parts − 2) for two to four parts: the part-count factor of `score`, exact in binary. */
+const PARTS_FACTOR = [1, 1, 1, 1.5, 2.25];
+/** Relative margin on the stopping bound, far above the rounding of the logarithm (about 1e-16). */
+const BOUND_MARGIN = 1e-12;
+
+/** log10 of every arm of a table (cached per table): the preference factor's bound without a logarithm per arm. */
+const logCache = new WeakMap<ArmTable, Float64Array>();
+function log10Values(t: ArmTable): Float64Array {
+  let hit = logCache.get(t);
+  if (!hit) {
+    hit = new Float64Array(t.size);
+    for (let i = 0; i < t.size; i++) hit[i] = Math.log10(t.value[i]!);
+    logCache.set(t, hit);
+  }
+  return hit;
+}
+
+/**
+ * Index of the first value ≥ x, searched from index `from` outward (galloping, then binary search): the same
+ * answer as `lowerBound`, in O(log d) for an answer d places away.
+ */
+function seek(v: Float64Array, n: number, from: number, x: number): number {
+  let lo: number, hi: number;
+  if (from < 0) return lowerBound(v, x);
+  if (from < n && v[from]! < x) {
+    // Every index up to `lo` − 1 holds less than x; gallop up until one holds at least x (or the end).
+    lo = from + 1; hi = lo;
+    for (let step = 1; hi < n && v[hi]! < x; step *= 2) { lo = hi + 1; hi = lo + step; }
+    if (hi > n) hi = n;
+  } else {
+    // Index `hi` holds at least x (or is the end); gallop down until one holds less.
+    hi = Math.min(from, n); lo = hi - 1;
+    for (let step = 1; lo >= 0 && v[lo]! >= x; step *= 2) { hi = lo; lo = hi - step; }
+    lo = Math.max(lo + 1, 0);
+  }
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (v[mid]! < x) lo = mid + 1; else hi = mid;
+  }
+  return lo;
+}
+
+/** Table indices of the single-part arms, ascending (cached per table). */
+const singlesCache = new WeakMap<ArmTable, Int32Array>();
+function singleIndices(t: ArmTable): Int32Array {
+  let hit = singlesCache.get(t);
+  if (!hit) {
+    const out: number[] = [];
+    for (let i = 0; i < t.size; i++) if (t.kind[i] === ARM_SINGLE) out.push(i);
+    hit = Int32Array.from(out);
+    singlesCache.set(t, hit);
+  }
+  return hit;
+}
+
+/**
+ * Fast search: each first arm with the two arms around its ideal partner.
+ *
+ * The ranked list is the first `keep` candidates by (score, first arm, second arm): exactly what offering
+ * every candidate of the window in ascending order would keep. Since score = max(|e|, floor) · 1.5^(parts−2)
+ * · (1 + 0.5·|log10(a/aPref)|) and the first two factors are at least floor and 1.5^(parts of a − 1), a first
+ * arm whose floor · 1.5^(parts of a − 1) · (1 + 0.5·|log10(a/aPref)|) exceeds the worst score kept cannot
+ * enter, nor can any arm farther from the preferred value on its side. So the first arms are visited outward
+ * from the preferred value, nearest first, and each side stops at that bound: first for two-part first arms,
+ * then (continuing over the single parts only) for single ones. With floor 0 that bound rules nothing out, so
+ * the ranking is done instead in the ascending scan below.
+ *
+ * `best`, the least |error| anywhere in the window (the true optimum, whatever the ranking), needs every first
+ * arm: it is found by a scan of the whole window, the first time it is read (or at once, with floor 0).
+ *
+ * On a kit (`fits`, src/solve/kit.ts), the partners beside the ideal one may take a value the first arm already
+ * uses up: the nearest partner that fits on each side is then taken instead, the best on that side since the
+ * error grows with the distance from the ideal partner; every bound above only grows with it, so the search
+ * stays exact.
+ */
 export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep = 10, fits?: PairFits): PairResult {
-  const ranked: PairCandidate[] = [];
-  let bestErr = Infinity, bestI = -1, bestJ = -1;
   let evaluated = 0;
   const aMin = prob.aMin ?? 0, aMax = prob.aMax ?? Infinity;
-  let worstKept = Infinity;
+  const floor = prob.floor, pref = prob.preferredA;
   const fns = problemFunctions(prob);
+  const rf = prob.ratio;
+  const cA = rf ? rf.cA : 0, cB = rf ? rf.cB : 0, rk = rf ? rf.k : 1, rm = rf ? rf.m : 1;
+  const av = tA.value, ak = tA.kind;
+  const bv = tB.value, bn = tB.size, bk = tB.kind;
+  // The nearest partner at or below / at or above index j that a kit can build with first arm i.
+  const fitBelow = (i: number, j: number): number => { while (j >= 0 && !fits!(tA, i, tB, j)) j--; return j; };
+  const fitAbove = (i: number, j: number): number => { while (j < bn && !fits!(tA, i, tB, j)) j++; return j; };
   // Only the first arms inside the window: the table is sorted, so find its ends by binary search.
-  const iStart = lowerBound(tA.value, aMin);
-  const bv = tB.value, bn = tB.size;
-  let j0 = -1;
-  for (let i = iStart; i < tA.size; i++) {
-    const a = tA.value[i]!;
-    if (a > aMax) break;
-    const rf = prob.ratio;
-    const bi = rf ? (a + rf.cA) / rf.k - rf.cB : fns.idealB(a);
-    if (!(bi > 0) || !Number.isFinite(bi)) continue;
-    // The ideal partner moves with a, so walk from the last position (binary search on the first use):
-    // amortised O(1) per arm when b(a) is monotone, and still exact when it is not.
-    if (j0 < 0) j0 = lowerBound(bv, bi);
-    else {
-      while (j0 < bn && bv[j0]! < bi) j0++;
-      while (j0 > 0 && bv[j0 - 1]! >= bi) j0--;
+  const iStart = lowerBound(av, aMin);
+  const iEnd = Math.max(iStart, upperBound(av, aMax));
+
+  // The kept candidates, best first by (score, i, j), in fixed typed arrays (no allocation per offer).
+  const cap = Number.isFinite(keep) ? Math.max(Math.ceil(keep), 0) : 2 * tA.size;
+  const kI = new Int32Array(cap), kJ = new Int32Array(cap), kP = new Int32Array(cap);
+  const kE = new Float64Array(cap), kS = new Float64Array(cap);
+  let kept = 0;
+  let worstKept = cap > 0 ? Infinity : -Infinity;
+  const offer = (i: number, j: number, e: number, parts: number, sc: number): void => {
+    if (kept >= cap) {
+      const w = cap - 1;
+      if (!(sc < kS[w]! || (sc === kS[w]! && (i < kI[w]! || (i === kI[w]! && j < kJ[w]!))))) return;
+      kept--;
     }
-    // On a kit, the partners next to the ideal one may take a value the first arm already uses up: the
-    // nearest partner that fits on each side is then the best on that side (the error grows with distance).
-    let jLow = j0 - 1, jHigh = j0;
-    if (fits) {
-      while (jLow >= 0 && !fits(tA, i, tB, jLow)) jLow--;
-      while (jHigh < bn && !fits(tA, i, tB, jHigh)) jHigh++;
+    let pos = kept;
+    while (pos > 0 && (kS[pos - 1]! > sc || (kS[pos - 1]! === sc && (kI[pos - 1]! > i || (kI[pos - 1]! === i && kJ[pos - 1]! > j))))) {
+      kI[pos] = kI[pos - 1]!; kJ[pos] = kJ[pos - 1]!; kP[pos] = kP[pos - 1]!; kE[pos] = kE[pos - 1]!; kS[pos] = kS[pos - 1]!;
+      pos--;
     }
+    kI[pos] = i; kJ[pos] = j; kP[pos] = parts; kE[pos] = e; kS[pos] = sc;
+    kept++;
+    worstKept = kept >= cap ? kS[cap - 1]! : Infinity;
+  };
+  /**
+   * Offers first arm i with the two arms around its ideal partner, found from `hint` (the last partner on this
+   * side); returns the partner's index. `aEst` is the preference factor from the cached logarithms, within
+   * about 1e-15 of the exact one: a candidate it rules out with the margin is out; one that may enter gets
+   * the exact factor, the same product in the same order as `score`.
+   */
+  const visit = (i: number, aEst: number, hint: number): number => {
+    const a = av[i]!;
+    const bi = rf ? (a + cA) / rk - cB : fns.idealB(a);
+    if (!(bi > 0) || !Number.isFinite(bi)) return hint;
+    const j0 = seek(bv, bn, hint, bi);
+    let aF = -1;
+    const jLow = fits ? fitBelow(i, j0 - 1) : j0 - 1, jHigh = fits ? fitAbove(i, j0) : j0;
     for (let side = 0; side < 2; side++) {
       const j = side === 0 ? jLow : jHigh;
-      if (j < 0 || j >= tB.size) continue;
+      if (j < 0 || j >= bn) continue;
       evaluated++;
-      const e = rf ? rf.m * ((a + rf.cA) / (bv[j]! + rf.cB) / rf.k - 1) : fns.error(a, bv[j]!);
+      const e = rf ? rm * ((a + cA) / (bv[j]! + cB) / rk - 1) : fns.error(a, bv[j]!);
       if (!Number.isFinite(e)) continue;
-      const ae = Math.abs(e);
-      if (ae < bestErr) { bestErr = ae; bestI = i; bestJ = j; }
-      // Every factor of the score is ≥ 1 beyond max(|e|, floor): skip what cannot enter the list.
-      if (ranked.length >= keep && Math.max(ae, prob.floor) >= worstKept) continue;
-      const parts = partCount(tA, i) + partCount(tB, j);
-      const sc = score(e, parts, a, prob.preferredA, prob.floor);
-      if (ranked.length < keep || sc < worstKept) {
-        insertRanked(ranked, { a: armAt(tA, i), b: armAt(tB, j), error: e, parts, score: sc }, keep);
-        worstKept = ranked.length < keep ? Infinity : ranked[ranked.length - 1]!.score;
+      const parts = (ak[i] === ARM_SINGLE ? 1 : 2) + (bk[j] === ARM_SINGLE ? 1 : 2);
+      const lead = Math.max(Math.abs(e), floor) * PARTS_FACTOR[parts]!;
+      if (lead * aEst > worstKept * (1 + BOUND_MARGIN)) continue;
+      if (aF < 0) aF = 1 + 0.5 * Math.abs(Math.log10(a / pref));
+      offer(i, j, e, parts, lead * aF);
+    }
+    return j0;
+  };
+
+  const logs = log10Values(tA), logPref = Math.log10(pref);
+  // The least error anywhere (null: none; undefined: not yet scanned).
+  let best: PairCandidate | null | undefined;
+  if (keep > 0 && iEnd > iStart && floor > 0) {
+    const singles = singleIndices(tA);
+    // A ratio form with k > 0 and cA, cB ≥ 0 has its ideal partner rising with a. Once that partner lies beyond
+    // the last arm of the table (going up) or below the first (going down), no arm farther out on that side can
+    // do better than the end of the table does for this one: |e| ≥ |m|·|(a + cA)/(b_end + cB)/k − 1|. A lower
+    // bound on the error of every candidate from here outward (0 when none is known), a hair under it for rounding.
+    const monotone = rf !== undefined && rk > 0 && cA >= 0 && cB >= 0 && bn > 0;
+    const bLo = bn > 0 ? bv[0]! + cB : 0, bHi = bn > 0 ? bv[bn - 1]! + cB : 0;
+    const beyond = (a: number, goingUp: boolean): number => {
+      if (!monotone) return 0;
+      const q = (a + cA) / rk;
+      const gap = goingUp ? (q > bHi ? (a + cA) / bHi / rk - 1 : 0) : (q < bLo ? 1 - (a + cA) / bLo / rk : 0);
+      return gap > 0 ? Math.max(0, Math.abs(rm) * (gap - 1e-12) * (1 - 1e-9)) : 0;
+    };
+    // Each side: the next index, whether only single parts are left to visit (then `s` steps through
+    // `singles`), and whether it is done.
+    const iP = Math.min(Math.max(lowerBound(av, pref), iStart), iEnd);
+    let dn = iP - 1, up = iP;
+    let dnSingles = false, upSingles = false;
+    let dnS = -1, upS = -1;
+    // Each side's last partner index, where the next partner search starts.
+    let jUp = -1, jDn = -1;
+    while (dn >= iStart || up < iEnd) {
+      const goUp = up < iEnd && (dn < iStart || av[up]! / pref <= pref / av[dn]!);
+      const i = goUp ? up : dn;
+      const aEst = 1 + 0.5 * Math.abs(logs[i]! - logPref);
+      const limit = worstKept * (1 + BOUND_MARGIN);
+      const lower = Math.max(beyond(av[i]!, goUp), floor);
+      const stop = lower * aEst > limit;
+      const pairsOut = lower * PARTS_FACTOR[3]! * aEst > limit;
+      if (!stop && (!pairsOut || ak[i] === ARM_SINGLE)) {
+        if (goUp) jUp = visit(i, aEst, jUp < 0 ? jDn : jUp); else jDn = visit(i, aEst, jDn < 0 ? jUp : jDn);
+      }
+      // Step outward: over every arm, or over the single parts alone once two-part arms are ruled out.
+      if (goUp) {
+        if (pairsOut && !upSingles) { upSingles = true; upS = lowerBound32(singles, i + 1); } else if (upSingles) upS++;
+        up = stop ? iEnd : upSingles ? (upS < singles.length && singles[upS]! < iEnd ? singles[upS]! : iEnd) : up + 1;
+      } else {
+        if (pairsOut && !dnSingles) { dnSingles = true; dnS = lowerBound32(singles, i) - 1; } else if (dnSingles) dnS--;
+        dn = stop ? iStart - 1 : dnSingles ? (dnS >= 0 && singles[dnS]! >= iStart ? singles[dnS]! : iStart - 1) : dn - 1;
       }
     }
   }
-  const best = bestI >= 0
-    ? { a: armAt(tA, bestI), b: armAt(tB, bestJ), error: fns.error(tA.value[bestI]!, tB.value[bestJ]!), parts: partCount(tA, bestI) + partCount(tB, bestJ), score: NaN }
-    : null;
-  return { ranked, best, evaluated };
+  /**
+   * The least error anywhere in the window: every first arm in ascending order, the first least kept. With
+   * `rank` (a floor of 0, where the score bound rules nothing out and every first arm would be visited anyway)
+   * the same pass also offers each candidate to the ranked list, the logarithm taken only for one that may enter.
+   */
+  function scanBest(rank: boolean): PairCandidate | null {
+    // Locals, not the enclosing function's (captured) variables: the hot loop reads them from registers.
+    const av = tA.value, ak = tA.kind, bv = tB.value, bn = tB.size, bk = tB.kind;
+    const r = prob.ratio, cA = r ? r.cA : 0, cB = r ? r.cB : 0, rk = r ? r.k : 1, rm = r ? r.m : 1;
+    const i0 = iStart, i1 = iEnd, fl = floor, lg = logs, lp = logPref, ap = pref;
+    // The worst score kept (Infinity until the list is full), refreshed after each offer.
+    let wk = worstKept;
+    let bestErr = Infinity, bestI = -1, bestJ = -1;
+    let j0 = -1, count = 0;
+    for (let i = i0; i < i1; i++) {
+      const a = av[i]!;
+      const bi = r ? (a + cA) / rk - cB : fns.idealB(a);
+      if (!(bi > 0) || !Number.isFinite(bi)) continue;
+      // The ideal partner moves with a, so walk from the last position (binary search on the first use):
+      // amortised O(1) per arm when b(a) is monotone, and still exact when it is not.
+      if (j0 < 0) j0 = lowerBound(bv, bi);
+      else {
+        while (j0 < bn && bv[j0]! < bi) j0++;
+        while (j0 > 0 && bv[j0 - 1]! >= bi) j0--;
+      }
+      const jLow = fits ? fitBelow(i, j0 - 1) : j0 - 1, jHigh = fits ? fitAbove(i, j0) : j0;
+      for (let side = 0; side < 2; side++) {
+        const j = side === 0 ? jLow : jHigh;
+        if (j < 0 || j >= bn) continue;
+        count++;
+        const e = r ? rm * ((a + cA) / (bv[j]! + cB) / rk - 1) : fns.error(a, bv[j]!);
+        if (!Number.isFinite(e)) continue;
+        const ae = Math.abs(e);
+        if (ae < bestErr) { bestErr = ae; bestI = i; bestJ = j; }
+        // The score is at least max(|e|, floor) (every other factor is ≥ 1, and rounding is monotone).
+        if (!rank || Math.max(ae, fl) > wk) continue;
+        const parts = (ak[i] === ARM_SINGLE ? 1 : 2) + (bk[j] === ARM_SINGLE ? 1 : 2);
+        const lead = Math.max(ae, fl) * PARTS_FACTOR[parts]!;
+        if (lead * (1 + 0.5 * Math.abs(lg[i]! - lp)) > wk * (1 + BOUND_MARGIN)) continue;
+        offer(i, j, e, parts, lead * (1 + 0.5 * Math.abs(Math.log10(a / ap))));
+        wk = worstKept;
+      }
+    }
+    evaluated += count;
+    return bestI >= 0
+      ? { a: armAt(tA, bestI), b: armAt(tB, bestJ), error: fns.error(av[bestI]!, bv[bestJ]!), parts: partCount(tA, bestI) + partCount(tB, bestJ), score: NaN }
+      : null;
+  }
+  if (keep > 0 && !(floor > 0)) best = scanBest(true);
+  const ranked: PairCandidate[] = [];
+  for (let n = 0; n < kept; n++) ranked.push({ a: armAt(tA, kI[n]!), b: armAt(tB, kJ[n]!), error: kE[n]!, parts: kP[n]!, score: kS[n]! });
+  return {
+    ranked,
+    get best() { if (best === undefined) best = scanBest(false); return best; },
+    get evaluated() { return evaluated; },
+  };
+}
+
+/** Index of the first value > x (binary search). */
+function upperBound(values: Float64Array, x: number): number {
+  let lo = 0, hi = values.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (values[mid]! <= x) lo = mid + 1; else hi = mid;
+  }
+  return lo;
+}
+
+/** Index of the first value ≥ x in an ascending integer array (binary search). */
+function lowerBound32(values: Int32Array, x: number): number {
+  let lo = 0, hi = values.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (values[mid]! < x) lo = mid + 1; else hi = mid;
+  }
+  return lo;
 }
 
 /** Exhaustive search over all pairs: the reference the fast search is tested (and benchmarked) against. */
@@ -233,13 +441,4 @@ export function searchPairsExhaustive(tA: ArmTable, tB: ArmTable, prob: PairProb
     }
   }
   return { bestError: best, evaluated };
-}
-
-function insertRanked(list: PairCandidate[], c: PairCandidate, keep: number): void {
-  // Skip a candidate with the same pair of arms already listed.
-  if (list.some((x) => x.a.ohms === c.a.ohms && x.b.ohms === c.b.ohms)) return;
-  let pos = list.length;
-  while (pos > 0 && list[pos - 1]!.score > c.score) pos--;
-  list.splice(pos, 0, c);
-  if (list.length > keep) list.pop();
 }

@@ -66,6 +66,8 @@ interface Candidate {
   network: StageNetwork;
   ranked: PairCandidate[];
   best: number;
+  /** The pair search the gain pair came from, whose optimum replaces `best` when the candidate is built. */
+  pairs?: PairResult;
   chosen: number;
   score: number;
   scaleError: number;
@@ -190,10 +192,13 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
 
   // Every (gain option, reference network) pair with a lower bound on the score it can reach; visited best
   // bound first, stopping when no remaining pair can beat the best found (branch and bound).
-  interface Job { opt: GainOption; ref: ReferenceNetwork | null; bound: number }
+  // `tight` is a second, sharper lower bound (a pot divider or a wire needs a ground leg: two gain arms at least)
+  // by which a job is passed over without changing the order the others are visited in, so that among equal
+  // scores the same candidate is found first as with `bound` alone.
+  interface Job { opt: GainOption; ref: ReferenceNetwork | null; bound: number; tight: number }
   const jobs: Job[] = [];
   if (top === 'inverting') {
-    for (const opt of options) jobs.push({ opt, ref: null, bound: floor * prefBound(opt.aMin, opt.aMax) });
+    for (const opt of options) { const bound = floor * prefBound(opt.aMin, opt.aMax); jobs.push({ opt, ref: null, bound, tight: bound }); }
   } else {
     const refs: ReferenceNetwork[] = [];
     if (tied) refs.push(tie!);
@@ -227,7 +232,10 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
         const aLo = Math.max(aFromRef(opt, ref), opt.aMin);
         if (aLo > opt.aMax) continue;
         const bound = floor * 1.5 ** (1 + fixedParts(ref.top) + fixedParts(ref.bottom) - 2) * prefBound(aLo, opt.aMax) * (1 + dividerCurrent(ref) / iq);
-        jobs.push({ opt, ref, bound });
+        // Only a fixed divider can be the whole ground leg (one gain arm, and that arm may lie just outside
+        // [aLo, aMax]): every other network's candidates come from the pair search over [aLo, aMax].
+        const tight = ref.kind === 'divider' && !ref.trim ? bound : floor * 1.5 ** (2 + fixedParts(ref.top) + fixedParts(ref.bottom) - 2) * prefBound(aLo, opt.aMax) * (1 + dividerCurrent(ref) / iq);
+        jobs.push({ opt, ref, bound, tight });
       }
     }
   }
@@ -235,11 +243,16 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   const found: { cand: Candidate | null; opt: GainOption | null } = { cand: null, opt: null };
   const consider = (cand: Candidate | null, opt: GainOption, res: PairResult | null, pick: PairCandidate | null) => {
     if (!cand || (found.cand && cand.score >= found.cand.score)) return;
-    found.cand = res && pick ? { ...cand, ranked: res.ranked, best: Math.abs(res.best?.error ?? cand.scaleError), chosen: res.ranked.indexOf(pick) } : cand;
+    // The pair search's optimum (a scan of its whole window) is read once, for the candidate built.
+    found.cand = res && pick ? { ...cand, ranked: res.ranked, pairs: res, chosen: res.ranked.indexOf(pick) } : cand;
     found.opt = opt;
   };
-  for (const { opt, ref, bound } of jobs) {
+  /** Whether a candidate with these fixed gain parts, feedback arm and reference could still beat the best found (its least score). */
+  const mayBeat = (gainParts: number, a: number, ref: ReferenceNetwork) =>
+    !found.cand || floor * 1.5 ** (gainParts + fixedParts(ref.top) + fixedParts(ref.bottom) - 2) * prefFactor(a) * (1 + dividerCurrent(ref) / iq) < found.cand.score;
+  for (const { opt, ref, bound, tight } of jobs) {
     if (found.cand && bound >= found.cand.score) break;
+    if (found.cand && tight >= found.cand.score) continue;
     if (!ref) {
       // Inverting: the + input's reference does not touch the gain: the gain pair first, then the reference for
       // the gain realised, its Thevenin equal to the − input's (Rf ∥ Rin) so that the bias currents cancel.
@@ -260,12 +273,12 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     if (pick) consider(finish(opt, ref, pick, null), opt, res, pick);
     // With a reference no pot can move, the zero rests on the pair too: every ranked pair is scored on the
     // scale and zero it really gives (the top alternative only; a picked alternative is built as asked).
-    if (!ref.trim && target.alternative === 0) for (const p of res.ranked.slice(1)) consider(finish(opt, ref, p, null), opt, res, p);
+    if (!ref.trim && target.alternative === 0) for (const p of res.ranked.slice(1)) if (mayBeat(p.parts, p.a.ohms, ref)) consider(finish(opt, ref, p, null), opt, res, p);
     // A fixed divider's Thevenin may be the whole leg (no Rg): Rf = (G−1)·Rth − Rt/2.
     if (ref.kind === 'divider' && !ref.trim && target.alternative === 0) {
       const aIdeal = (gAim - 1) * ref.thevenin - opt.trim / 2;
       const near = aIdeal >= opt.aMin && aIdeal <= opt.aMax ? nearestArm(table, aIdeal) : null;
-      if (near) consider(finish(opt, ref, null, near), opt, null, null);
+      if (near && mayBeat(fixedParts(near), near.ohms, ref)) consider(finish(opt, ref, null, near), opt, null, null);
     }
   }
 
@@ -293,5 +306,5 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     w('zero-trim-off-centre', 'info', { setting: net.reference.trim.setting });
   }
   const real = realised(net, ideal, front, ol);
-  return { ideal, network: net, parts: partsOf(net, design), alternatives: best.ranked, chosen: Math.max(best.chosen, 0), bestError: best.best, gain: real.gain, noiseGain: networkGain(net, front.sourceResistance).noiseGain, reference: real.reference, scaleError: real.scaleError, zeroError: real.zeroError, warnings };
+  return { ideal, network: net, parts: partsOf(net, design), alternatives: best.ranked, chosen: Math.max(best.chosen, 0), bestError: best.pairs ? Math.abs(best.pairs.best?.error ?? best.scaleError) : best.best, gain: real.gain, noiseGain: networkGain(net, front.sourceResistance).noiseGain, reference: real.reference, scaleError: real.scaleError, zeroError: real.zeroError, warnings };
 }

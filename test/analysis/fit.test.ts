@@ -8,8 +8,8 @@ import type { Reading } from '../../src/model/readings.js';
  * NIST Statistical Reference Datasets, linear least squares, "Norris" (lower difficulty, 36 observations;
  * https://www.itl.nist.gov/div898/strd/lls/data/Norris.shtml). The data and the certified values as shipped
  * in the GNU Scientific Library's fit tests (repository BrianGladman/gsl, fit/test.c: B0, B1, their
- * standard deviations, residual sum of squares 26.6173985294224) and in the GAMS model library's LS01 test
- * model (residual standard deviation 0.884796396144373, residual degrees of freedom 34), which agree.
+ * standard deviations, residual sum of squares 26.6173985294224); the certified residual standard deviation
+ * 0.884796396144373 is √(26.6173985294224 / 34), 34 residual degrees of freedom (NIST's page lists it too).
  */
 const NORRIS_X = [0.2, 337.4, 118.2, 884.6, 10.1, 226.5, 666.3, 996.3, 448.6, 777.0, 558.2, 0.4, 0.6, 775.5, 666.9, 338.0,
   447.5, 11.6, 556.0, 228.1, 995.8, 887.6, 120.2, 0.3, 0.3, 556.8, 339.1, 887.2, 999.0, 779.0, 11.1, 118.3, 229.2, 669.1, 448.9, 0.5];

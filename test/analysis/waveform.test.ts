@@ -77,12 +77,12 @@ describe('waveform in the report', () => {
     expect(w.output[w.output.length - 1]).toBeCloseTo(w.ideal[w.ideal.length - 1]!, 4);
   });
 
-  it('a large step is slew-limited: 10–90 % in 0.8·ΔV/SR (Franco, Design with Operational Amplifiers, slew-rate limiting)', () => {
+  it('a large step is slew-limited: 10–90 % in 0.8·ΔV/SR (Franco, Design with Operational Amplifiers, slew-rate limiting, from memory)', () => {
     const d = singlePole((x) => { x.opamp.slewRate = 1e4; x.analysis = { waveform: { shape: 'step', low: -2, high: 2 } }; });
     const r = analyse(d, { spreadTrials: 0 });
     const w = r.waveform!;
     expect(w.slewLimited).toBe(true);
-    // Slewing ends once the loop's error falls below SR·τ (Franco): here 0.08 V of a 2 V edge, past the 90 % point.
+    // Slewing ends once the loop's error falls below SR·τ (Franco, from memory): here 0.08 V of a 2 V edge, past the 90 % point.
     const dv = w.output[w.output.length - 1]! - w.output[0]!;
     const want = (0.8 * Math.abs(dv)) / 1e4;
     expect(Math.abs(w.riseTime! / want - 1)).toBeLessThan(0.02);

@@ -16,12 +16,32 @@ describe('buildCircuit', () => {
   it('the DC operating point obeys Ohm\'s law in the divider: its current equals the rail current it reports', () => {
     const r = analyse(designFrom('generic-sensor', (x) => { x.target.trim = { gain: false, zero: false }; }), { spreadTrials: 0 });
     const part = r.supply!.parts.find((p) => p.name.startsWith('reference divider'))!;
-    // Divider current ≈ V+ / (Rtop + Rbottom) when the feedback network's share is small.
+    // Hand derivation (nodal analysis, Kirchhoff's current law; e.g. Nilsson & Riedel, Electric Circuits, the node-voltage
+    // method, from memory). In this demo the rail feeds only the reference top arm Rt, which meets the feedback arm Rf and the
+    // bottom arm Rb at the − input (node n); the + input sits at the sensor's quiescent output Vp (no bias current at the
+    // nominal point, so no drop in the source resistance). The op-amp is a gain A = 10^(dB/20) behind its output resistance
+    // Ro into the load RL at node o. KCL:
+    //   node n: (V+ − Vn)/Rt + (Vo − Vn)/Rf = Vn/Rb
+    //   node o: (A·(Vp − Vn) − Vo)/Ro = Vo/RL + (Vo − Vn)/Rf
+    // Two linear equations in Vn, Vo, solved by Cramer's rule; the rail current is then (V+ − Vn)/Rt, by Ohm's law.
+    // (With an ideal op-amp Vn = Vp exactly and the current is (V+ − Vp)/Rt; the finite gain moves it by about 1e-5.)
     const top = r.stage!.parts.filter((p) => p.role === 'reference-top');
     const bot = r.stage!.parts.filter((p) => p.role === 'reference-bottom');
+    const fb = r.stage!.parts.filter((p) => p.role === 'feedback');
     const arm = (ps: typeof top) => (ps.length === 2 && ps[0]!.arrangement === 'parallel' ? (ps[0]!.ohms * ps[1]!.ohms) / (ps[0]!.ohms + ps[1]!.ohms) : ps.reduce((s, p) => s + p.ohms, 0));
-    const i = 9 / (arm(top) + arm(bot));
-    expect(part.current / i).toBeGreaterThan(0.8);
-    expect(part.current / i).toBeLessThan(1.2);
+    const d = r.design;
+    expect(d.supply.referenceRail).toBe('positive');
+    expect(d.sensor.type).toBe('voltage-output');
+    const vRail = d.supply.positive, vp = (d.sensor as { quiescent: number }).quiescent;
+    const rt = arm(top), rb = arm(bot), rf = arm(fb), ro = d.opamp.outputResistance, rl = d.output.load.resistance;
+    const a = 10 ** (d.opamp.openLoopGainDb / 20);
+    // a11·Vn + a12·Vo = b1 ; a21·Vn + a22·Vo = b2
+    const a11 = 1 / rt + 1 / rf + 1 / rb, a12 = -1 / rf, b1 = vRail / rt;
+    const a21 = a / ro - 1 / rf, a22 = 1 / ro + 1 / rl + 1 / rf, b2 = (a * vp) / ro;
+    const vn = (b1 * a22 - a12 * b2) / (a11 * a22 - a12 * a21);
+    const i = (vRail - vn) / rt;
+    expect(Math.abs(part.current / i - 1)).toBeLessThan(1e-9);
+    // The ideal-op-amp figure differs from it only by the finite-gain error (Vo/A over V+ − Vp, about 7e-6 here).
+    expect(Math.abs(part.current / ((vRail - vp) / rt) - 1)).toBeLessThan(1e-4);
   });
 });

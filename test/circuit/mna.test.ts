@@ -15,7 +15,8 @@ function nonInverting(a0: number, rf: number, rg: number, poleHz = 0): Element[]
 const names = ['0', 'src', 'inp', 'inn', 'int', 'out'];
 
 describe('MNA against closed forms', () => {
-  // Black's feedback formula (any control-systems or op-amp text; Texas A&M ECEN 457 notes eq. 1):
+  // Black's feedback formula (Sedra & Smith, Microelectronic Circuits, the feedback chapter; Franco, Design with
+  // Operational Amplifiers and Analog Integrated Circuits, the chapter on negative feedback; both from memory):
   // closed-loop gain A/(1 + A·β) with β = Rg/(Rf + Rg).
   it('non-inverting gain with finite open-loop gain is A/(1+Aβ)', () => {
     const a0 = 1e4, rf = 9000, rg = 1000;
@@ -39,8 +40,9 @@ describe('MNA against closed forms', () => {
     const beta = rin / (rin + rf);
     expect(g / (-(rf / rin) * (a0 * beta) / (1 + a0 * beta))).toBeCloseTo(1, 6);
   });
-  // Single-pole op-amp: closed-loop corner f_p·(1 + A0·β) ≈ GBW / noise gain (ECEN 457 eq. 2; NEETS Module 8:
-  // GBW 1 MHz gives gain 10 out to 100 kHz).
+  // Single-pole op-amp: closed-loop corner f_p·(1 + A0·β) ≈ GBW / noise gain (Sedra & Smith, Microelectronic
+  // Circuits, frequency response of closed-loop amplifiers; Franco, the op-amp's frequency limitations; both from
+  // memory). Derived: GBW 1 MHz / gain 10 = 100 kHz.
   it('closed-loop −3 dB corner of a gain-10 stage on a 1 MHz GBW part is 100 kHz', () => {
     const a0 = 1e5, gbw = 1e6;
     const c = compile(names, nonInverting(a0, 9000, 1000, gbw / a0));
@@ -55,8 +57,10 @@ describe('MNA against closed forms', () => {
     expect(mag(exact) / g0).toBeCloseTo(Math.SQRT1_2, 4);
     expect(exact / 100e3).toBeCloseTo(1, 3);
   });
-  // UC Berkeley EE105 lecture 5: A0 = 1e4 with a pole at 1e3 rad/s has unity gain at 1e7 rad/s (1.59 MHz).
-  it('open-loop single pole crosses unity at A0·ωp (EE105: 1e4 × 1e3 rad/s → 1.59 MHz)', () => {
+  // Single-pole open loop A(s) = A0/(1 + s/ωp) crosses unity at ≈ A0·ωp, the gain-bandwidth product (Sedra & Smith,
+  // Microelectronic Circuits, op-amp frequency response, from memory). Derived: A0 = 1e4 with a pole at 1e3 rad/s has
+  // unity gain at 1e7 rad/s (1.59 MHz).
+  it('open-loop single pole crosses unity at A0·ωp (1e4 × 1e3 rad/s → 1.59 MHz)', () => {
     const el: Element[] = [
       { kind: 'V', name: 'VS', a: 1, b: 0, value: 0, dc0: 0, dc1: 1, ac: 1 },
       { kind: 'E', name: 'EOA', a: 2, b: 0, value: 1e4, cp: 1, cn: 0, pole: 1e3 / (2 * Math.PI) },
@@ -98,7 +102,8 @@ describe('MNA against closed forms', () => {
     expect(solveDc(compile(['0', 'n'], el), [() => 0])).toBeNull();
   });
 
-  // NEETS Module 8 (NAVEDTRA 14180), figs. 3-17 to 3-19: with GBW 1 MHz a gain of 100 holds to 10 kHz.
+  // Closed-loop bandwidth ≈ GBW / noise gain (Sedra & Smith, Microelectronic Circuits, frequency response of
+  // closed-loop amplifiers, from memory). Derived: with GBW 1 MHz a gain of 100 holds to 10 kHz.
   it('a gain-100 stage on a 1 MHz GBW part is −3 dB at 10 kHz', () => {
     const a0 = 1e5, gbw = 1e6;
     const c = compile(names, nonInverting(a0, 99e3, 1e3, gbw / a0));

@@ -35,7 +35,10 @@ describe('gainwright report', () => {
     expect(Math.abs(j.scaleError)).toBeLessThan(0.005);
     for (const k of ['ref', 'role', 'ohms', 'series', 'tolerance', 'arrangement', 'code']) expect(j.parts[0]).toHaveProperty(k);
     for (const k of ['clip', 'headroom', 'bandwidth', 'noise', 'errors', 'supply', 'spread', 'gain', 'noiseGain', 'zero', 'reference', 'warnings']) expect(j).toHaveProperty(k);
-    expect(j.clip.measurandHigh).toBeCloseTo(30, 0);
+    // Output limit 7.5 V (1.5 V below the 9 V rail) at 100 mV/A about 4.5 V: (7.5 − 4.5)/0.1 = 30 A, within a
+    // tolerance ±0.05 A (toBeCloseTo(·, 1)): the solver builds the scale within 0.1 % (0.03 A at 30 A), and the op-amp's
+    // 50 Ω output resistance drops about 2 mV (≈ 40 µA into the feedback arm and load; Ohm's law) at the clip, 0.02 A at 100 mV/A.
+    expect(j.clip.measurandHigh).toBeCloseTo(30, 1);
   });
   it('prints a text report with verdicts, parts, calibration and cautions', async () => {
     const r = await run(['report', join(dir, 'probe.json'), '--no-spread']);
@@ -123,7 +126,8 @@ describe('gainwright fit and trim on the example files (docs/examples, our own i
     const r = await run(['trim', ex('bench-clamp-from-readings.json'), ex('probe-readings.csv'), '--json']);
     expect(r.code).toBe(0);
     const j = JSON.parse(r.out);
-    expect(Object.keys(j)).toEqual(['format', 'version', 'scale', 'zero', 'settings', 'replace', 'expected']);
+    expect(Object.keys(j)).toEqual(['format', 'version', 'scale', 'zero', 'settings', 'replace', 'expected', 'cautions']);
+    expect(j.cautions.join(' ')).toMatch(/measurement-category/);
     expect(j.format).toBe('gainwright-trim');
     expect(j.settings.map((s: any) => s.ref).sort()).toEqual(['RV1', 'RV2']);
     for (const s of j.settings) { expect(s.setting).toBeGreaterThan(0); expect(s.setting).toBeLessThan(1); }
@@ -164,5 +168,22 @@ describe('gainwright trim --at', () => {
     const r = await run(['trim', ex('bench-clamp-from-readings.json'), ex('probe-readings.csv'), '--at=RV1=lots']);
     expect(r.code).toBe(2);
     expect(r.err).toMatch(/--at takes trimmer settings/);
+  });
+});
+
+describe('design text stays inert on the terminal', () => {
+  it('trim with a design whose format holds an escape sequence prints it as a visible \\u escape, never raw', async () => {
+    writeFileSync(join(dir, 'evil.json'), JSON.stringify({ format: 'x\u001b[2J\u009b31m', version: 1 }));
+    const r = await run(['trim', join(dir, 'evil.json'), join(__dirname, '../../docs/examples', 'probe-readings.csv')]);
+    expect(r.code).toBe(2);
+    expect(r.err).not.toMatch(/[\u0000-\u0009\u000b-\u001f\u007f-\u009f]/);
+    expect(r.err).toContain('\\u001b');
+  });
+  it('report --json writes a title with C1 controls and a direction override as \\u escapes that parse back', async () => {
+    const doc = { ...DEMOS.find((d) => d.id === 'generic-sensor')!.document, title: 'clamp\u009b2J\u202eevil' };
+    writeFileSync(join(dir, 'c1.json'), JSON.stringify(doc));
+    const r = await run(['report', join(dir, 'c1.json'), '--json']);
+    expect(r.out).not.toMatch(/[\u0080-\u009f\u202a-\u202e]/);
+    expect(JSON.parse(r.out).title).toBe('clamp\u009b2J\u202eevil');
   });
 });

@@ -77,4 +77,21 @@ export const CROSSCHECK_DESIGNS: Array<[string, Design]> = [
     d.supply = { positive: 15, negative: 0 };
     d.target = { ...d.target, scale: -0.1, zero: 12, range: [0, 10], topology: 'difference', trim: { gain: false, zero: false } };
   })],
+  // --- closed-loop Hall sensor (issue #20): the whole loop is in the stage's netlist ---
+  ...CLOSED_LOOP_DESIGNS(),
 ];
+
+/** Closed-loop Hall sensors of our own invention: the demo on ±5 V, and a 9 V battery clamp with the op-amp driving the winding alone. */
+export function CLOSED_LOOP_DESIGNS(): Array<[string, Design]> {
+  return [
+    ['closed-loop Hall, ±5 V, push-pull driver (demo)', from('closed-loop-clamp')],
+    ['closed-loop Hall, 9 V battery, op-amp driver, reference at mid-rail', from('closed-loop-clamp', (d) => {
+      d.supply = { positive: 9, negative: 0, battery: { fresh: 9.6, endOfLife: 7.2, capacity: 565e-3 * 3600 } };
+      delete d.sensor.reference;
+      d.sensor.compensationTurns = 1500; d.sensor.measurementResistance = 150; d.sensor.wire = { diameter: 0.2e-3, turnLength: 0.036 };
+      d.sensor.driver = { outputStage: 'op-amp', gbw: 3e6, openLoopGainDb: 110, swing: 1, drop: 0, currentLimit: 0.03, quiescentCurrent: 1e-3, outputResistance: 20 };
+      d.sensor.compensation = { inputResistance: 10e3, capacitance: 330e-12, zeroResistance: 2.4e6 };
+      d.target = { ...d.target, scale: 0.1, zero: 4.5, range: [-20, 20] };
+    })],
+  ];
+}

@@ -81,7 +81,7 @@ describe.skipIf(!hasNgspice)('cross-check against ngspice', () => {
     expect(reps.length).toBeGreaterThanOrEqual(18);
     for (const t of ['summing-non-inverting', 'summing-inverting', 'difference']) expect(reps.filter((r) => r.stage?.ideal.topology === t).length, t).toBeGreaterThanOrEqual(2);
     expect(new Set(reps.map((r) => r.stage?.ideal.topology))).toEqual(new Set(TOPOLOGIES));
-    expect(new Set(reps.map((r) => r.design.sensor.type)).size).toBe(4);
+    expect(new Set(reps.map((r) => r.design.sensor.type)).size).toBe(5);
     expect(reps.some((r) => r.design.supply.negative < 0)).toBe(true);
     expect(reps.some((r) => r.design.supply.negative === 0)).toBe(true);
     expect(reps.some((r) => r.stage?.network.reference.trim)).toBe(true);

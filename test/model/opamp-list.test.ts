@@ -15,7 +15,12 @@ describe('validateOpAmpList(doc)', () => {
     const d = structuredClone(DEMOS.find((x) => x.id === 'generic-sensor')!.document) as any;
     d.opamp = minimal;
     const asDesign = validateDesign(d);
-    expect(asDesign.ok && v.ok && v.opamps[0]).toEqual(asDesign.ok && asDesign.design.opamp);
+    expect(asDesign.ok).toBe(true);
+    if (!asDesign.ok || !v.ok) throw new Error('both must validate');
+    expect(v.opamps).toHaveLength(1);
+    // Defaults were filled (more keys than the minimal entry gave), and filled the same way as in a design.
+    expect(Object.keys(v.opamps[0]!).length).toBeGreaterThan(Object.keys(minimal).length);
+    expect(v.opamps[0]).toEqual(asDesign.design.opamp);
   });
   it('names each problem by its path in the list, with the design\'s own messages', () => {
     const v = validateOpAmpList(doc([minimal, { ...minimal, gbw: -1, extra: 1 }]));

@@ -66,7 +66,8 @@ describe('output noise of a non-inverting stage (Motchenbacher & Connelly §3.4 
 describe('output noise of an inverting stage (same §3.4 form: noise gain 1 + Rf/Rin, resistors as Rf ∥ Rin)', () => {
   // Motchenbacher & Connelly §3.4 applied to the inverting stage with its + input grounded:
   // e_no² = (1+Rf/Rin)²·[e_n² + 4kT·(Rf‖Rin) + i_n²·(Rf‖Rin)²]; with Rg → Rin this is the non-inverting
-  // expression at Rs = 0, since both stages have the same noise gain (ECEN 457 eq. 2).
+  // expression at Rs = 0, since both stages have the same noise gain 1 + Rf/Rin
+  // (Franco, Design with Operational Amplifiers, the noise chapter, from memory).
   it('the circuit solver reproduces it for Rin 1 k, Rf 9 k', () => {
     const el: Element[] = [
       { kind: 'V', name: 'VS', a: 1, b: 0, value: 0 },
@@ -96,7 +97,8 @@ describe('1/f noise (density² = white²·(1 + f_c/f); Motchenbacher & Connelly 
     expect(rms).toBeCloseTo(216.9e-9, 10);
   });
   // The op-amp's e_n sits in series with the + input: at 0.1–10 Hz, far below the corner, it reaches the
-  // output times the noise gain (ECEN 457 eq. 1), so its share there is NG·e_n·√(9.9 + f_c·ln 100).
+  // output times the noise gain 1 + Rf/Rg (Franco, Design with Operational Amplifiers, the noise chapter, from
+  // memory), so its share there is NG·e_n·√(9.9 + f_c·ln 100).
   it('the op-amp\'s voltage-noise corner reaches the 0.1–10 Hz figure times the noise gain', () => {
     const r = analyse(designFrom('generic-sensor', (x) => { x.opamp.voltageNoiseCorner = 100; x.opamp.currentNoise = 0; x.sensor.noiseDensity = 0; }), { spreadTrials: 0 });
     const f = logGrid(0.1, 10, 24);

@@ -9,7 +9,8 @@ const design = (patch: (d: any) => void = () => {}): Design => designFrom('gener
 
 describe('closed forms', () => {
   // Non-inverting with the reference at the foot of the ground leg: superposition of G·Vs and −(G−1)·Vref
-  // (ECEN 457 notes: non-inverting gain 1+Rf/Rg, inverting gain −Rf/Rg).
+  // (non-inverting gain 1+Rf/Rg, inverting gain −Rf/Rg: Sedra & Smith, Microelectronic Circuits, the ideal op-amp
+  // chapter; Horowitz & Hill, The Art of Electronics, the op-amp chapter; both from memory).
   it('non-inverting: Vout = G·Vs − (G−1)·Vref', () => {
     expect(nonInvertingOutput(8, 2.5, 2.5)).toBeCloseTo(2.5, 12);
     expect(nonInvertingOutput(8, 2.5 + 0.0125 * 20, 15.5 / 7)).toBeCloseTo(6.5, 12);
@@ -38,7 +39,7 @@ describe('idealStage and chooseTopology', () => {
     // Vp = (zero + G·Vq)/(1+G) with G = 8.
     expect(c.chosen!.reference).toBeCloseTo((4.5 + 8 * 2.5) / 9, 9);
   });
-  // Inverting gain is −Rf/Rin (ECEN 457 notes): with a positive sensor it cannot give a positive scale.
+  // Inverting gain is −Rf/Rin (Sedra & Smith, Microelectronic Circuits, the inverting configuration, from memory): with a positive sensor it cannot give a positive scale.
   it('an inverting stage asked for the sensor\'s own sign is explained by its polarity, not the rails', () => {
     const d = design((x) => { x.target.topology = 'inverting'; x.target.scale = 0.1; });
     const c = chooseTopology(d, sensorFront(d.sensor, d));

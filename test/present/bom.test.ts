@@ -46,7 +46,8 @@ describe('parts list', () => {
     for (const row of table) expect(row.match(/"(?:[^"]|"")*"/g)!.length, row).toBe(8);
     expect(table.join('\n')).not.toMatch(/CAUTION/);
     expect(csv).toContain(`"'=HYPERLINK(""x"")"`);
-    expect(csv).toMatch(/^# CAUTION: Clamp only onto insulated conductors/m);
+    // A voltage-output module: the cautions worded for a sensor the current may pass through.
+    expect(csv).toMatch(/^# CAUTION: A sensor module that the measured current passes through/m);
     expect(csv).toMatch(/measurement-category/);
   });
 });

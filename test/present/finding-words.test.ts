@@ -26,7 +26,7 @@ describe('finding words', () => {
   it('limitWhy gives the swing from its numbers: 0.05 V to 7.5 V', () => {
     expect(limitWhy({ cause: 'opamp-output', low: 0.05, high: 7.5 })).toBe('the op-amp output swings only from 0.05 V to 7.5 V');
     expect(limitWhy({ cause: 'opamp-current', current: 0.02 })).toMatch(/±20 mA/);
-    expect(Object.keys(LIMIT_NAMES).sort()).toEqual(['burden', 'core', 'opamp-current', 'opamp-input', 'opamp-output', 'sensor']);
+    expect(Object.keys(LIMIT_NAMES).sort()).toEqual(['burden', 'core', 'driver', 'opamp-current', 'opamp-input', 'opamp-output', 'sensor']);
   });
   it('stage reasons are worded from their data: a gain of 0.5 cannot be had non-inverting', () => {
     expect(stageReasonWords({ code: 'cannot-attenuate', gain: 0.5 })).toBe('a non-inverting stage cannot attenuate: the target needs a gain of 0.500');

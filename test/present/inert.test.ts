@@ -1,6 +1,7 @@
 /** Text from a design is inert in every output (issue 14): terminal, SPICE comment, CSV cell. */
 import { describe, expect, it } from 'vitest';
-import { csvCell, spiceCommentText, terminalLine } from '../../src/present/inert.js';
+import { csvCell, jsonText, spiceCommentText, terminalLine } from '../../src/present/inert.js';
+import { cautionsFor } from '../../src/present/cautions.js';
 
 describe('terminalLine', () => {
   it('writes ESC, NUL, CR, BEL, C1 controls and bidirectional overrides as visible escapes', () => {
@@ -43,5 +44,24 @@ describe('csvCell', () => {
     expect(csvCell('say "hi"')).toBe('"say ""hi"""');
     expect(csvCell(-0.5)).toBe('"-0.5"');
     expect(csvCell(null)).toBe('""');
+  });
+});
+
+describe('jsonText and the cautions by sensor', () => {
+  it('jsonText writes C1 controls and direction overrides as \\u escapes and parses back to the same string (RFC 8259 §7)', () => {
+    const title = 'a\u009b2J\u202eb\u2028c';
+    const text = jsonText({ title }, 2);
+    expect(text).not.toMatch(/[\u0080-\u009f\u202a-\u202e\u2028]/);
+    expect(text).toContain('\\u009b');
+    expect(JSON.parse(text)).toEqual({ title });
+  });
+  it('cautionsFor words the list for the sensor: a shunt never on mains, a CT never open, a module within its isolation (common practice)', () => {
+    expect(cautionsFor('shunt', []).join(' ')).toMatch(/never on mains/);
+    expect(cautionsFor('current-transformer', ['ct-open-secondary']).join(' ')).toMatch(/secondary open/);
+    expect(cautionsFor('voltage-output', []).join(' ')).toMatch(/isolation voltage/);
+    expect(cautionsFor('hall-gap-core', []).join(' ')).toMatch(/Clamp only onto insulated conductors/);
+    for (const t of ['shunt', 'current-transformer', 'voltage-output', 'hall-gap-core', 'closed-loop-hall'] as const) {
+      expect(cautionsFor(t, []).join(' '), t).toMatch(/measurement-category/);
+    }
   });
 });

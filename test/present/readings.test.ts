@@ -28,7 +28,15 @@ describe('readings in words', () => {
     const c = residualChart(fitReadings(pts), pts, 'A')!;
     expect(c.dots).toBe(true);
     expect(c.series[0]!.points).toHaveLength(5);
-    expect(Math.abs(c.series[0]!.points[1]!.y)).toBeLessThan(5);
+    // Hand derivation, ordinary least squares (any statistics text, e.g. Montgomery & Runger, Applied Statistics and
+    // Probability for Engineers, simple linear regression, from memory): x̄ = 2, ȳ = 25/5 = 5, Sxx = 10,
+    // Sxy = 8 + 1.999 + 0 + 2.002 + 7.996 = 19.997, so slope 1.9997 V/A and intercept 5 − 2·1.9997 = 1.0006 V.
+    // Residuals (reading − line): −0.6, +0.7, −1.0, +2.3, −1.4 mV. In volts they would be 1000 times smaller.
+    const expected = [-0.6, 0.7, -1.0, 2.3, -1.4];
+    c.series[0]!.points.forEach((p, i) => {
+      expect(p.x).toBe(i);
+      expect(p.y).toBeCloseTo(expected[i]!, 6);
+    });
   });
 });
 

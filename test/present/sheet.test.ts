@@ -7,11 +7,20 @@ import { verdictsOf } from '../../src/present/verdicts.js';
 
 describe('build sheet rows', () => {
   it('sheetStatus marks a design with a failing verdict as failed and names the failures', () => {
+    // A design that cannot be built: the sensor gives 12.5 mV/A, the target asks 5 mV/A, a gain of 0.4, and a
+    // non-inverting stage's gain is 1 + Rf/Rg ≥ 1 (Sedra & Smith, Microelectronic Circuits, the op-amp chapter, from memory).
     const bad = analyse(designFrom('generic-sensor', (x) => { x.target.scale = 0.005; x.target.zero = 2.5; x.target.topology = 'non-inverting'; }), { spreadTrials: 0 });
+    expect(bad.design.sensor.type === 'voltage-output' && bad.design.sensor.sensitivity).toBe(0.0125);
+    expect(bad.stage).toBeNull();
     expect(sheetStatus(bad)).toMatchObject({ failed: true });
     expect(sheetStatus(bad).line).toMatch(/^FAILED DESIGN: do not build\. No design/);
+    // The generic demo (a scenario of our own) is buildable: 100 mV/A from 12.5 mV/A is a gain of 8, well within
+    // reach of one stage. It must not be marked failed; its line says it builds (with or without cautions).
     const good = analyse(designFrom('generic-sensor'), { spreadTrials: 0 });
-    expect(sheetStatus(good).failed).toBe(verdictsOf(good).some((v) => v.level === 'fail'));
+    expect(good.stage).not.toBeNull();
+    expect(sheetStatus(good).failed).toBe(false);
+    expect(sheetStatus(good).line).toMatch(/^(Passes every check\.|Builds, with \d+ cautions? below\.)$/);
+    expect(verdictsOf(good).some((v) => v.level === 'fail')).toBe(false);
   });
   it('errorBudgetRows lists every term of the budget, then the totals before and after calibration', () => {
     const r = analyse(designFrom('bench-clamp'), { spreadTrials: 0 });

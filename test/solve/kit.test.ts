@@ -55,11 +55,13 @@ describe('searchPairs on a kit', () => {
       fc.double({ min: 0.05, max: 200, noNaN: true }),
       fc.constantFrom<Arrangement[]>(['single', 'series', 'parallel'], ['single', 'series'], ['single']),
       fc.double({ min: 0, max: 5e3, noNaN: true }),
-      (idx, counts, k, arr, cB) => {
+      // Floor 0 ranks in the ascending scan; a floor above 0 visits first arms outward from the preferred one.
+      fc.constantFrom(0, 1e-3, 0.05),
+      (idx, counts, k, arr, cB, floor) => {
         const kit: KitValue[] = [...idx].sort((a, b) => a - b).map((i, n) => ({ ohms: E12[i]!, count: counts[n]! }));
         const t = kitArmTable(kit, arr);
         const ratio = { cA: 0, cB, k, m: 1 };
-        const fast = searchPairs(t, t, { preferredA: 1e4, floor: 0, ratio }, 5, pairFitsKit);
+        const fast = searchPairs(t, t, { preferredA: 1e4, floor, ratio }, 5, pairFitsKit);
         const want = exhaustive(kit, arr, ratio);
         if (want === Infinity) { expect(fast.best).toBeNull(); return; }
         expect(Math.abs(fast.best!.error)).toBeCloseTo(want, 12);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { armTable, searchPairs, searchPairsExhaustive, type PairProblem } from '../../src/solve/search.js';
+import { armTable, score, searchPairs, searchPairsExhaustive, type ArmTable, type PairProblem } from '../../src/solve/search.js';
 import { isMember } from '../../src/model/eseries.js';
 import { mulberry32 } from '../../src/model/random.js';
 
@@ -72,6 +72,66 @@ describe('the closed-form fast path', () => {
       const a = searchPairs(t, t, general), b = searchPairs(t, t, fast);
       expect(b.best!.error).toBeCloseTo(a.best!.error, 12);
       expect(b.ranked.map((c) => [c.a.ohms, c.b.ohms])).toEqual(a.ranked.map((c) => [c.a.ohms, c.b.ohms]));
+    }
+  });
+});
+
+/**
+ * The ranking written out plainly, as the reference the fast search must equal: every first arm of the window
+ * in ascending order with the two arms around its ideal partner (the unimodal error makes those the best for
+ * that arm), each scored with `score`, stably sorted, the first `keep` kept.
+ */
+function rankedByBruteForce(t: ArmTable, prob: PairProblem, keep: number): Array<[number, number, number, number]> {
+  // The ratio form (a + cA)/(b + cB) = k with signed error m·(ratio/k − 1), written out here.
+  const r = prob.ratio;
+  const idealB = r ? (a: number) => (a + r.cA) / r.k - r.cB : prob.idealB!;
+  const error = r ? (a: number, b: number) => r.m * ((a + r.cA) / (b + r.cB) / r.k - 1) : prob.error!;
+  const all: Array<[number, number, number, number]> = [];
+  for (let i = 0; i < t.size; i++) {
+    const a = t.value[i]!;
+    if (a < (prob.aMin ?? 0) || a > (prob.aMax ?? Infinity)) continue;
+    const bi = idealB(a);
+    if (!(bi > 0) || !Number.isFinite(bi)) continue;
+    const j0 = t.value.findIndex((v) => v >= bi);
+    for (const j of j0 < 0 ? [t.size - 1] : [j0 - 1, j0]) {
+      if (j < 0) continue;
+      const e = error(a, t.value[j]!);
+      if (!Number.isFinite(e)) continue;
+      const parts = (t.kind[i] ? 2 : 1) + (t.kind[j] ? 2 : 1);
+      all.push([a, t.value[j]!, e, score(e, parts, a, prob.preferredA, prob.floor)]);
+    }
+  }
+  return all.sort((x, y) => x[3] - y[3]).slice(0, keep);
+}
+
+describe('the ranked list', () => {
+  it('equals a brute-force ranking of every first arm, over random ratio problems, windows, floors and list lengths', () => {
+    const rand = mulberry32(11);
+    const tables = [armTable('E12', 1e3, 1e6, ['single', 'series', 'parallel']), armTable('E24', 100, 1e5, ['single', 'series']), armTable('E24', 1e3, 1e5, ['single'])];
+    for (let n = 0; n < 120; n++) {
+      const t = tables[n % tables.length]!;
+      // Ratios that the table can and cannot reach (k from 1e-4 to 1e4), offsets like a trimmer's mid value and a
+      // Thevenin, either sign of the error lever, and windows around or beside the preferred value.
+      const k = 10 ** (rand() * 8 - 4);
+      const ratio = { cA: rand() < 0.5 ? 0 : rand() * 5e3, cB: rand() < 0.5 ? 0 : rand() * 2e3, k, m: (rand() < 0.2 ? -1 : 1) * (0.1 + rand()) };
+      const pref = 10 ** (3 + rand() * 3);
+      const aMin = rand() < 0.5 ? undefined : 10 ** (2 + rand() * 3);
+      const aMax = rand() < 0.5 ? undefined : (aMin ?? 1e3) * 10 ** (rand() * 3);
+      const floor = [0, 5e-4, 1e-3, 1e-2][n % 4]!;
+      const keep = [1, 2, 3, 10][(n >> 2) % 4]!;
+      const prob: PairProblem = { preferredA: pref, floor, aMin, aMax, ratio };
+      const got = searchPairs(t, t, prob, keep).ranked.map((c) => [c.a.ohms, c.b.ohms, c.error, c.score]);
+      expect(got, JSON.stringify(prob)).toEqual(rankedByBruteForce(t, prob, keep));
+    }
+  });
+  it('equals the brute-force ranking for a problem given as functions (no ratio form)', () => {
+    const t = armTable('E24', 1e3, 1e5, ['single', 'series', 'parallel']);
+    const rand = mulberry32(12);
+    for (let n = 0; n < 20; n++) {
+      const k = 10 ** (rand() * 2 - 1);
+      const prob: PairProblem = { idealB: (a) => Math.sqrt(a * 1e4) / k, error: (a, b) => Math.sqrt(a * 1e4) / b / k - 1, preferredA: 2e4, floor: 1e-3 };
+      const got = searchPairs(t, t, prob, 5).ranked.map((c) => [c.a.ohms, c.b.ohms, c.error, c.score]);
+      expect(got).toEqual(rankedByBruteForce(t, prob, 5));
     }
   });
 });
