@@ -33,6 +33,7 @@ import { positionNetlist, tradeSweep, type TradeResult } from '../src/index.js';
 import { ComparisonController } from './comparison-controller.js';
 import './gw-opamp-compare.js';
 import './gw-supply-options.js';
+import './gw-kit-editor.js';
 
 /** The unit engine (mathjs units) loads after the first render so that it does not delay it. */
 let unitsLoading: Promise<unknown> | null = null;
@@ -564,6 +565,7 @@ export class GwApp extends LitElement {
           <gw-editor .design=${this._design} .messages=${this._messages} .notes=${this._notes}
             @gw-field-input=${this._onFieldInput} @gw-set=${this._onSet}
             @gw-sensor-type=${this._onSensorType} @gw-opamp-archetype=${this._onArchetype}></gw-editor>
+          <div class="panel" id="kit"><h2>Resistor kit</h2><gw-kit-editor .kit=${this._design.target.kit ?? null} @gw-set=${this._onSet}></gw-kit-editor></div>
         </section>
         <section class="area-results" aria-label="Results">
           <div class="panel" id="compare-opamps"><gw-opamp-compare .rows=${this._compare.rows} .own=${this._compare.own} .message=${this._compare.message}

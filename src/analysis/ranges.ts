@@ -19,7 +19,8 @@ import type { Design, RangeSwitchWiring, Topology } from '../model/design.js';
 import type { Arm, Part, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
 import type { SensorFront } from '../physics/sensors.js';
 import { idealStage, loadFactor, noiseGain, referenceLeverage } from '../physics/topology.js';
-import { armAt, armTable, lowerBound, type ArmTable } from '../solve/search.js';
+import { armAt, lowerBound, type ArmTable } from '../solve/search.js';
+import { targetArmTable } from '../solve/kit.js';
 import { WIPER_MAX, WIPER_MIN, fixedDivider, railTie, referenceSpan, resetWiper, trimmedDivider } from '../solve/reference.js';
 import { SETTABILITY, feedbackSensitivity, gainTrimHalfSpan, standardTrimmer } from '../solve/trimmers.js';
 import { networkTransfer, openLoopOf } from '../solve/transfer.js';
@@ -253,8 +254,8 @@ export function rangeSwitch(design: Design, first: Report, analyse: Analyse, opt
   const top = s1?.ideal.topology ?? null;
   if (!s1 || !top || !RANGE_TOPOLOGIES.includes(top) || !s1.network.feedback) return { ok: false, code: 'range-stage', topology: top, buffer: !!s1 && !s1.network.feedback };
   const front = first.front;
-  const { series, resistanceMin, resistanceMax, arrangements } = design.target;
-  const table = armTable(series, resistanceMin, resistanceMax, arrangements);
+  // The further ranges' parts come from the same place as the first range's: the kit, or the series.
+  const table = targetArmTable(design.target);
   const count = 1 + (design.target.ranges?.length ?? 0);
   const designs = Array.from({ length: count }, (_, i) => designForRange(design, i, top));
   const net1 = s1.network;

@@ -5,6 +5,7 @@
 import type { Design, MeasurandWaveform } from '../model/design.js';
 import { sensorFrontAtRail, type SensorFront } from '../physics/sensors.js';
 import { chooseTopology, type TopologyChoiceResult } from '../physics/topology.js';
+import { kitFindings } from './kit.js';
 import { solveStage, type SolvedStage } from '../solve/stage.js';
 import { commonModeGain, openLoopOf } from '../solve/transfer.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
@@ -107,7 +108,8 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
     return empty;
   }
   const stage = opts.stage ?? solveStage(design, front, choice.chosen);
-  warnings.push(...stage.warnings);
+  // A resistor kit: a value used beyond the kit's count, or how close the kit gets and the value to buy.
+  warnings.push(...stage.warnings, ...kitFindings(design, front, choice.chosen, stage));
   if (stage.warnings.some((w) => w.level === 'fail') || !Number.isFinite(stage.gain)) {
     absent.all = 'the resistor solver found no realisation';
     return { ...empty, stage };

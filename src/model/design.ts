@@ -7,6 +7,7 @@ import { check, quoteText, type Problem, type Spec } from './validate.js';
 import type { SeriesName } from './eseries.js';
 import { MAX_READINGS, type Reading } from './readings.js';
 import { REGULATOR_DROPOUT } from './constants.js';
+import { kitValues } from './kit.js';
 
 export const DESIGN_FORMAT = 'gainwright-design';
 export const DESIGN_VERSION = 1;
@@ -312,6 +313,8 @@ export interface Target {
   bandwidth: number;
   /** Which of the solver's ranked gain-network alternatives to build (0 = the top-ranked one). */
   alternative: number;
+  /** The resistors at hand (src/model/kit.ts): the solver picks from these instead of the whole series (null: the whole series). */
+  kit?: ResistorKit | null;
   // --- issue 19: a range switch.
   /**
    * The switch's further positions: 1 to 3 ranges `{ scale, range }` after the first, which is this target's
@@ -326,6 +329,21 @@ export interface Target {
    */
   rangeSwitch?: RangeSwitchChoice;
   // --- end issue 19
+}
+
+/**
+ * A resistor kit: every value of a series between two limits (optionally so many of each), plus further
+ * values, each with an optional count; without a series, the listed values are the whole kit. A count left
+ * out means as many as needed.
+ */
+export interface ResistorKit {
+  series?: SeriesName;
+  /** Limits of the series part, Ω. */
+  min: number;
+  max: number;
+  /** How many of each series value (absent: as many as needed). */
+  count?: number;
+  parts: Array<{ ohms: number; count?: number }>;
 }
 
 /** Issue 19: one further position of a range switch. */
@@ -632,6 +650,19 @@ const SCHEMA: Spec = {
         },
         bandwidth: opt(num('hertz', 'nonneg', { max: 1e10, minAbs: 1e-3 }), 0),
         alternative: opt(num('(index)', 'nonneg', { max: 50, whole: true }), 0),
+        kit: {
+          t: 'obj', nullable: true, def: null,
+          fields: {
+            series: { t: 'str', oneOf: ['E3', 'E6', 'E12', 'E24', 'E48', 'E96', 'E192'], optional: true },
+            min: opt(num('ohms', 'positive', { min: 0.1, max: 1e10 }), 10),
+            max: opt(num('ohms', 'positive', { min: 0.1, max: 1e10 }), 1e6),
+            count: num('(count)', 'positive', { max: 1e6, whole: true, optional: true }),
+            parts: {
+              t: 'list', def: [], maxItems: 500,
+              item: { t: 'obj', fields: { ohms: num('ohms', 'positive', { min: 0.01, max: 1e10 }), count: num('(count)', 'positive', { max: 1e6, whole: true, optional: true }) } },
+            },
+          },
+        },
         // --- issue 19: a range switch's further positions and its wiring.
         ranges: {
           t: 'list', optional: true, maxItems: 3,
@@ -828,6 +859,13 @@ function crossCheck(d: Design, problems: Problem[]): void {
   }
   if (s.readings?.use && s.type !== 'voltage-output' && s.type !== 'hall-gap-core') {
     p('sensor.readings.use', 'can only be true for a voltage-output or hall-gap-core sensor: a current transformer or shunt is set by its parts');
+  }
+  const kit = d.target.kit;
+  if (kit) {
+    if (kit.series && kit.min >= kit.max) p('target.kit.min', 'must be below target.kit.max', ['target.kit.max']);
+    else if (!kitValues(kit, d.target.resistanceMin, d.target.resistanceMax).length) {
+      p('target.kit', 'holds no value between target.resistanceMin and target.resistanceMax: add values to the kit or widen the window', ['target.resistanceMin', 'target.resistanceMax']);
+    }
   }
   if ((s.type === 'hall-gap-core' || s.type === 'closed-loop-hall') && s.core.gap >= s.core.pathLength) p('sensor.core.gap', 'must be shorter than sensor.core.pathLength', ['sensor.core.pathLength']);
   // --- closed-loop Hall sensor (issue #20) ---

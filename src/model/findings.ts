@@ -89,6 +89,11 @@ export interface FindingData {
   'zero-by-wire': { offsetAtOutput: number };
   'zero-trim-short': { cause: 'on-rail'; rail: number; summed: boolean } | { cause: 'near-rail'; coverage: number };
   'zero-trim-off-centre': { setting: number };
+  // A resistor kit (src/analysis/kit.ts): a value used more often than held; the kit short of the target,
+  // how close it came (scale error, null when nothing was built; the error the solver accepts, null when
+  // the stage failed for another reason) and the one value to buy.
+  'kit-quantity': { ohms: number; used: number; held: number };
+  'kit-short': { error: number | null; accept: number | null; buy: { ohms: number; series: string; error: number | null; meets: boolean; uses: number } | null };
   // The report (src/analysis/report.ts).
   'gain-not-computable': Record<string, never>;
   'no-topology': { considered: { topology: string; reasons: StageReason[] }[] };

@@ -184,6 +184,18 @@ export const FINDING_WORDS: Words = {
         : 'No standard gain trimmer fits this feedback network, so the span is set by the parts alone: calibrate the scale at the instrument.'
       : `The gain trimmer covers ±${pct(d.halfSpan, 2)}, less than ${d.coverage} × the ±${pct(d.stack, 2)} worst-case stack.${d.nearUnityLeverage !== null ? ` Near unity gain the span trim has little leverage ((G−1)/G = ${d.nearUnityLeverage.toFixed(2)}): pick a sensor setup with less spread, or more gain and a smaller sensitivity (fewer turns, a longer gap).` : ''}`,
   },
+  'kit-quantity': { title: 'Kit runs short of a value', say: (d) => `The parts list takes ${d.used} × ${formatEng(d.ohms, 'Ω')}, and the kit holds ${d.held}: buy ${d.used - d.held} more, or raise the kit's count if you have them.` },
+  'kit-short': {
+    title: 'The kit cannot meet the target',
+    say: (d) => {
+      const off = (e: number | null) => (e === null ? 'no network' : `${(Math.abs(e) * 100).toFixed(3)} % off`);
+      const close = d.error === null ? 'No network can be built from the kit' : `From the kit the nearest network is ${off(d.error)} the wanted scale`;
+      const buy = !d.buy ? 'No single value of the next series helps: widen the resistance window, allow two-part arms, or fit a span trimmer.'
+        : d.buy.meets ? `Buy ${d.buy.uses > 1 ? `${d.buy.uses} × ` : ''}${formatEng(d.buy.ohms, 'Ω')} (${d.buy.series}): with it the kit meets the target (${off(d.buy.error)}).`
+        : `No single value of ${d.buy.series} meets it; the one that helps most is ${formatEng(d.buy.ohms, 'Ω')}, which brings it to ${off(d.buy.error)}.`;
+      return `${close}${d.accept === null ? '' : `, more than the ${(d.accept * 100).toFixed(2)} % the solver accepts`}. ${buy}`;
+    },
+  },
   'zero-by-wire': { title: 'Leg tied to ground', say: (d) => `The reference is ground itself, so the leg is tied to it with no divider and no zero trimmer: what remains is the op-amp's offset, about ±${(d.offsetAtOutput * 1e3).toPrecision(2)} mV at the output; null it at the instrument.` },
   'zero-trim-short': {
     title: 'Zero trimmer cannot cover the spread',

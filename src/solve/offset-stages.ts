@@ -18,7 +18,8 @@ import { finding, type Finding, type FindingData } from '../model/findings.js';
 import type { Arm, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
 import type { SensorFront } from '../physics/sensors.js';
 import { loopFactor, peakRange, type IdealStage } from '../physics/topology.js';
-import { armTable, searchPairs, type ArmTable, type PairCandidate, type PairResult } from './search.js';
+import { targetArmTable, pairFitsKit, seriesLabel } from './kit.js';
+import { searchPairs, type ArmTable, type PairCandidate, type PairResult } from './search.js';
 import { dividerAt, fixedDivider, nearestArm, noReference, railTie, referenceSpan, trimmedDivider, WIPER_MAX, WIPER_MIN } from './reference.js';
 import { COVERAGE, SETTABILITY, gainTrimHalfSpan, scaleStack, zeroStack } from './trimmers.js';
 import { ACCEPT_OF_TOLERANCE, FLOOR_OF_TOLERANCE, MAX_OVERSIZE, gainOptions, partsOf, preferredFeedback, type GainOption, type SolvedStage } from './common.js';
@@ -50,9 +51,9 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
     const network: StageNetwork = { topology: top, feedback: null, gainTrim: null, leg: null, reference: noReference(design) };
     return { ideal, network, parts: [], alternatives: [], chosen: 0, bestError: NaN, gain: NaN, noiseGain: NaN, reference: NaN, scaleError: NaN, zeroError: NaN, warnings };
   };
-  const table = armTable(target.series, target.resistanceMin, target.resistanceMax, target.arrangements);
-  if (table.size === 0) return fail('gain-unrealisable', { series: target.series, windowLow: target.resistanceMin, windowHigh: target.resistanceMax, gain: null, with: 'window' });
-  const singles = target.arrangements.includes('single') ? armTable(target.series, target.resistanceMin, target.resistanceMax, ['single']) : table;
+  const table = targetArmTable(target);
+  if (table.size === 0) return fail('gain-unrealisable', { series: seriesLabel(target), windowLow: target.resistanceMin, windowHigh: target.resistanceMax, gain: null, with: 'window' });
+  const singles = target.arrangements.includes('single') ? targetArmTable(target, ['single']) : table;
   const ol = openLoopOf(design);
   const a0 = ol.a0;
   const tol = target.tolerance;
@@ -124,7 +125,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
   // Fixed dividers beside a wire give the summing stages a free reference voltage, so both ratios can land.
   if (!target.trim.zero || !refs.length) dividers(false);
   if (!refs.length) {
-    return fail('reference-unrealisable', { series: target.series, windowLow: target.resistanceMin, windowHigh: target.resistanceMax, reference: ideal.reference });
+    return fail('reference-unrealisable', { series: seriesLabel(target), windowLow: target.resistanceMin, windowHigh: target.resistanceMax, reference: ideal.reference });
   }
 
   /** dVout/dVr at a reference voltage vr for the ideal stage that uses it. */
@@ -196,7 +197,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
     ? { ohms: opt.trim, setting: 0.5, need: sStack, halfSpan: gainTrimHalfSpan(opt.trim, feedback.ohms, ideal.feedbackSensitivity), step: (opt.trim / (feedback.ohms + opt.trim / 2)) * ideal.feedbackSensitivity * SETTABILITY }
     : null);
   const search = (tA: ArmTable, ratio: { cA: number; cB: number; k: number; m: number }, pref: number, aMin: number, aMax: number, keep: number): PairResult =>
-    searchPairs(tA, table, { preferredA: pref, floor, aMin, aMax, ratio }, keep);
+    searchPairs(tA, table, { preferredA: pref, floor, aMin, aMax, ratio }, keep, pairFitsKit);
   // The feedback pair depends on the reference only through its voltage: searched once per voltage and trimmer.
   const feedbackCache = new Map<string, PairResult>();
   const feedbackSearch = (key: string, opt: GainOption, ratio: { cA: number; cB: number; k: number; m: number }): PairResult => {
@@ -294,13 +295,13 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
 
   const found = best as Candidate | null;
   if (!found) {
-    return fail('gain-unrealisable', { series: target.series, windowLow: target.resistanceMin, windowHigh: target.resistanceMax, gain: ideal.gain, with: 'offset' });
+    return fail('gain-unrealisable', { series: seriesLabel(target), windowLow: target.resistanceMin, windowHigh: target.resistanceMax, gain: ideal.gain, with: 'offset' });
   }
   if (Math.abs(found.scaleError) > accept) {
-    return fail('scale-off-target', { series: target.series, error: found.scaleError, accept, tolerance: tol });
+    return fail('scale-off-target', { series: seriesLabel(target), error: found.scaleError, accept, tolerance: tol });
   }
   if (!found.network.reference.trim && Math.abs(found.zeroError) > accept * outSpan) {
-    return fail('zero-off-target', { series: target.series, error: found.zeroError, span: outSpan, zeroTrim: target.trim.zero, networks: true });
+    return fail('zero-off-target', { series: seriesLabel(target), error: found.zeroError, span: outSpan, zeroTrim: target.trim.zero, networks: true });
   }
   const net = found.network;
   if (net.gainTrim && !found.opt.covers) {

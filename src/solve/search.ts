@@ -7,9 +7,9 @@
 import { valuesInRange, type SeriesName } from '../model/eseries.js';
 import type { Arrangement } from '../model/design.js';
 
-const ARM_SINGLE = 0;
-const ARM_SERIES = 1;
-const ARM_PARALLEL = 2;
+export const ARM_SINGLE = 0;
+export const ARM_SERIES = 1;
+export const ARM_PARALLEL = 2;
 
 export interface ArmTable {
   /** Arm resistance, ascending. */
@@ -153,6 +153,12 @@ export function score(err: number, parts: number, a: number, pref: number, floor
   return Math.max(Math.abs(err), floor) * 1.5 ** (parts - 2) * (1 + 0.5 * Math.abs(Math.log10(a / pref)));
 }
 
+/**
+ * Whether arm i of one table and arm j of another can be built together (a kit holds each value a limited
+ * number of times; src/solve/kit.ts). Absent: any two arms can.
+ */
+export type PairFits = (tA: ArmTable, i: number, tB: ArmTable, j: number) => boolean;
+
 /** 1.5^(parts − 2) for two to four parts: the part-count factor of `score`, exact in binary. */
 const PARTS_FACTOR = [1, 1, 1, 1.5, 2.25];
 /** First arms visited outward before the rest may be left to the ascending scan. */
@@ -226,8 +232,13 @@ function singleIndices(t: ArmTable): Int32Array {
  *
  * `best`, the least |error| anywhere in the window (the true optimum, whatever the ranking), needs every first
  * arm: it is found by a scan of the whole window, the first time it is read (or at once, with floor 0).
+ *
+ * On a kit (`fits`, src/solve/kit.ts), the partners beside the ideal one may take a value the first arm already
+ * uses up: the nearest partner that fits on each side is then taken instead, the best on that side since the
+ * error grows with the distance from the ideal partner; every bound above only grows with it, so the search
+ * stays exact.
  */
-export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep = 10): PairResult {
+export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep = 10, fits?: PairFits): PairResult {
   let evaluated = 0;
   const aMin = prob.aMin ?? 0, aMax = prob.aMax ?? Infinity;
   const floor = prob.floor, pref = prob.preferredA;
@@ -236,6 +247,9 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
   const cA = rf ? rf.cA : 0, cB = rf ? rf.cB : 0, rk = rf ? rf.k : 1, rm = rf ? rf.m : 1;
   const av = tA.value, ak = tA.kind;
   const bv = tB.value, bn = tB.size, bk = tB.kind;
+  // The nearest partner at or below / at or above index j that a kit can build with first arm i.
+  const fitBelow = (i: number, j: number): number => { while (j >= 0 && !fits!(tA, i, tB, j)) j--; return j; };
+  const fitAbove = (i: number, j: number): number => { while (j < bn && !fits!(tA, i, tB, j)) j++; return j; };
   // Only the first arms inside the window: the table is sorted, so find its ends by binary search.
   const iStart = lowerBound(av, aMin);
   const iEnd = Math.max(iStart, upperBound(av, aMax));
@@ -274,7 +288,9 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
     const j0 = seek(bv, bn, hint, bi);
     let aF = -1;
     const pairA = ak[i] !== ARM_SINGLE;
-    for (let j = j0 - 1; j <= j0; j++) {
+    const jLow = fits ? fitBelow(i, j0 - 1) : j0 - 1, jHigh = fits ? fitAbove(i, j0) : j0;
+    for (let side = 0; side < 2; side++) {
+      const j = side === 0 ? jLow : jHigh;
       if (j < 0 || j >= bn) continue;
       if (pairSingleDone && pairA && bk[j] === ARM_SINGLE) continue;
       evaluated++;
@@ -322,7 +338,8 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
      * left: four parts, so their bound takes 1.5². Not done (false) when the runs hold more than `most` arms.
      */
     const offerPairSingles = (vLo: number, vHi: number, most: number): boolean => {
-      if (!monotone || singlesB.length === 0 || singles.length === tA.size) return false;
+      // On a kit the partners beside the ideal one may not fit: this shortcut takes them as they are, so it is not used.
+      if (fits || !monotone || singlesB.length === 0 || singles.length === tA.size) return false;
       const biOf = (a: number) => (a + cA) / rk - cB;
       const bFirst = biOf(av[iStart]!), bLast = biOf(av[iEnd - 1]!);
       let p0 = 0, p1 = singlesB.length;
@@ -431,7 +448,9 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
         while (j0 < bn && bv[j0]! < bi) j0++;
         while (j0 > 0 && bv[j0 - 1]! >= bi) j0--;
       }
-      for (let j = j0 - 1; j <= j0; j++) {
+      const jLow = fits ? fitBelow(i, j0 - 1) : j0 - 1, jHigh = fits ? fitAbove(i, j0) : j0;
+      for (let side = 0; side < 2; side++) {
+        const j = side === 0 ? jLow : jHigh;
         if (j < 0 || j >= bn) continue;
         count++;
         const e = r ? rm * ((a + cA) / (bv[j]! + cB) / rk - 1) : fns.error(a, bv[j]!);

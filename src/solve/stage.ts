@@ -24,7 +24,8 @@ import { finding, type Finding, type FindingData } from '../model/findings.js';
 import type { Arm, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
 import type { SensorFront } from '../physics/sensors.js';
 import { aimedGain, loopFactor, noiseGain, peakRange, referenceFor, referenceLeverage, type IdealStage } from '../physics/topology.js';
-import { armTable, searchPairs, type PairCandidate, type PairResult } from './search.js';
+import { targetArmTable, pairFitsKit, seriesLabel } from './kit.js';
+import { searchPairs, type PairCandidate, type PairResult } from './search.js';
 import { fixedDivider, nearestArm, noReference, railTie, referenceSpan, resetWiper, trimmedDivider } from './reference.js';
 import { COVERAGE, SETTABILITY, feedbackSensitivity, gainTrimHalfSpan, scaleStack, zeroStack } from './trimmers.js';
 import {
@@ -90,9 +91,9 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
 
   if (ideal.topology !== 'non-inverting' && ideal.topology !== 'inverting') return solveOffsetStage(design, front, ideal);
 
-  const table = armTable(target.series, target.resistanceMin, target.resistanceMax, target.arrangements);
+  const table = targetArmTable(target);
   // Single parts beside a zero pot are usually enough (its wiper absorbs their rounding): offered as well.
-  const singles = target.arrangements.includes('single') ? armTable(target.series, target.resistanceMin, target.resistanceMax, ['single']) : table;
+  const singles = target.arrangements.includes('single') ? targetArmTable(target, ['single']) : table;
   const ol = openLoopOf(design);
   const a0 = ol.a0;
   const top = ideal.topology;
@@ -105,7 +106,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   if (!Number.isFinite(gAim) || gAim <= 0) {
     return fail('gain-beyond-loop', { gain: ideal.gain, openLoopGainDb: design.opamp.openLoopGainDb });
   }
-  if (table.size === 0) return fail('gain-unrealisable', { series: target.series, windowLow: target.resistanceMin, windowHigh: target.resistanceMax, gain: null, with: 'window' });
+  if (table.size === 0) return fail('gain-unrealisable', { series: seriesLabel(target), windowLow: target.resistanceMin, windowHigh: target.resistanceMax, gain: null, with: 'window' });
 
   const tol = target.tolerance;
   const floor = tol * FLOOR_OF_TOLERANCE;
@@ -139,7 +140,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     // (Vq − Vref)·(G−1)·ε, ranked against the output span beside the scale's (G−1)/G·ε.
     const zeroLever = fixedRef && !fixedRef.trim && fixedRef.kind !== 'none' ? (Math.abs(front.quiescent - fixedRef.voltage) * (gAim - 1)) / outSpan : 0;
     const ratio = top === 'non-inverting' ? { cA: half, cB: rth, k: gAim - 1, m: (gAim - 1) / gAim + zeroLever } : { cA: half, cB: rs, k: gAim, m: 1 };
-    return searchPairs(table, table, { preferredA: rfPref, floor, aMin: Math.max(opt.aMin, aFrom), aMax: opt.aMax, ratio }, keep);
+    return searchPairs(table, table, { preferredA: rfPref, floor, aMin: Math.max(opt.aMin, aFrom), aMax: opt.aMax, ratio }, keep, pairFitsKit);
   };
   /**
    * The least Rf a non-inverting leg with this reference allows: the leg holds the Thevenin at least, and
@@ -283,13 +284,13 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
 
   const best = found.cand, bestOpt = found.opt;
   if (!best || !bestOpt) {
-    return fail('gain-unrealisable', { series: target.series, windowLow: target.resistanceMin, windowHigh: target.resistanceMax, gain: ideal.gain, with: 'reference' });
+    return fail('gain-unrealisable', { series: seriesLabel(target), windowLow: target.resistanceMin, windowHigh: target.resistanceMax, gain: ideal.gain, with: 'reference' });
   }
   if (Math.abs(best.scaleError) > accept) {
-    return fail('scale-off-target', { series: target.series, error: best.scaleError, accept, tolerance: tol });
+    return fail('scale-off-target', { series: seriesLabel(target), error: best.scaleError, accept, tolerance: tol });
   }
   if (!best.network.reference.trim && Math.abs(best.zeroError) > accept * outSpan) {
-    return fail('zero-off-target', { series: target.series, error: best.zeroError, span: outSpan, zeroTrim: target.trim.zero, networks: false });
+    return fail('zero-off-target', { series: seriesLabel(target), error: best.zeroError, span: outSpan, zeroTrim: target.trim.zero, networks: false });
   }
   const net = best.network;
   if (target.trim.gain && !net.gainTrim) {

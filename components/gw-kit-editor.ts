@@ -1,0 +1,90 @@
+import { LitElement, html, css, nothing } from 'lit';
+import { customElement, property, query, state } from 'lit/decorators.js';
+import { KIT_SHAPES, formatEng, kitListText, parseKitList, parseQuantity, type ResistorKit } from '../src/index.js';
+import { base } from './styles.js';
+import type { SetDetail } from './gw-editor.js';
+
+/**
+ * The resistors at hand (`target.kit`): a common kit shape (a series between two limits), how many of each,
+ * and further values pasted as a list (`10k x2, 4k7, 470R`). The element reads what was typed and sends the
+ * whole kit up; the owner of the design checks and applies it.
+ * @fires gw-set - `{ path: 'target.kit', value }` with the new kit, or null to design from the whole series again.
+ */
+@customElement('gw-kit-editor')
+export class GwKitEditor extends LitElement {
+  static override styles = [base, css`
+    label { display: block; margin: 0.3rem 0; font-size: 0.9rem; }
+    textarea { width: 100%; min-height: 3.5rem; font: inherit; box-sizing: border-box; }
+    select, input[type=number] { margin-left: 0.3rem; }
+    .problems { color: var(--gw-fail); font-size: 0.85rem; margin: 0.2rem 0; }
+    .hint { color: var(--gw-muted); font-size: 0.82rem; }
+  `];
+
+  @query('textarea') private _list!: HTMLTextAreaElement;
+
+  /** Pieces of the pasted list that could not be read. */
+  @state() private _problems: string[] = [];
+  /** "Only the values listed" chosen while the list is still empty: the series stays until a list is applied. */
+  @state() private _listOnly = false;
+
+  /** The design's kit (null: the solver uses the whole series). */
+  @property({ attribute: false }) kit: ResistorKit | null = null;
+
+  private _send(value: ResistorKit | null): void {
+    this.dispatchEvent(new CustomEvent<SetDetail>('gw-set', { detail: { path: 'target.kit', value }, bubbles: true, composed: true }));
+  }
+
+  private _toggle(e: Event): void {
+    this._problems = [];
+    this._listOnly = false;
+    this._send((e.target as HTMLInputElement).checked ? { ...KIT_SHAPES[0]!.kit, parts: [] } : null);
+  }
+
+  private _shape(e: Event): void {
+    const id = (e.target as HTMLSelectElement).value;
+    const shape = KIT_SHAPES.find((k) => k.id === id);
+    const kit = this.kit!;
+    this._listOnly = id === 'list';
+    if (id === 'list') { if (kit.parts.length) this._send({ min: kit.min, max: kit.max, parts: kit.parts }); }
+    else if (shape) this._send({ ...shape.kit, ...(kit.count ? { count: kit.count } : {}), parts: kit.parts });
+  }
+
+  private _count(e: Event): void {
+    const text = (e.target as HTMLInputElement).value.trim();
+    const n = Number(text);
+    // Empty: as many as needed. A count that is not a whole number from 1 goes up as typed and is refused there.
+    const { count: _old, ...rest } = this.kit!;
+    this._send(text === '' ? rest : { ...rest, count: n });
+  }
+
+  private _applyList(): void {
+    const read = parseKitList(this._list.value, (piece) => parseQuantity(piece, 'ohm'));
+    this._problems = read.problems;
+    const kit = this.kit!;
+    this._send(this._listOnly ? { min: kit.min, max: kit.max, parts: read.parts } : { ...kit, parts: read.parts });
+  }
+
+  override render() {
+    const kit = this.kit;
+    const shape = this._listOnly ? 'list' : kit?.series ? KIT_SHAPES.find((k) => k.kit.series === kit.series && k.kit.min === kit.min && k.kit.max === kit.max)?.id ?? 'custom' : 'list';
+    return html`
+      <label><input type="checkbox" .checked=${!!kit} @change=${this._toggle} /> Design from the resistors I have</label>
+      ${!kit ? html`<p class="hint">Off: the solver picks from the whole series in the resistance window.</p>` : html`
+        <label>Kit <select aria-label="Kit shape" @change=${this._shape}>
+          ${KIT_SHAPES.map((k) => html`<option value=${k.id} ?selected=${shape === k.id}>${k.label}</option>`)}
+          ${shape === 'custom' ? html`<option value="custom" selected>${kit.series}, ${formatEng(kit.min, 'Ω')} to ${formatEng(kit.max, 'Ω')}</option>` : nothing}
+          <option value="list" ?selected=${shape === 'list'}>Only the values listed below</option>
+        </select></label>
+        ${kit.series ? html`<label>How many of each ${kit.series} value
+          <input type="number" min="1" step="1" placeholder="plenty" aria-label="How many of each series value" .value=${kit.count ? String(kit.count) : ''} @change=${this._count} /></label>` : nothing}
+        <label>Further values (or the whole kit), with counts: <span class="hint">10k x2, 4k7, 470R</span>
+          <textarea aria-label="Listed values" .value=${kitListText(kit.parts, (x) => formatEng(x, 'Ω', 4))}></textarea></label>
+        <button @click=${this._applyList}>Use these values</button>
+        ${this._problems.length ? html`<p class="problems" role="alert">Left out: ${this._problems.join('; ')}.</p>` : nothing}`}
+    `;
+  }
+}
+
+declare global {
+  interface HTMLElementTagNameMap { 'gw-kit-editor': GwKitEditor; }
+}
