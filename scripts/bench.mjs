@@ -233,7 +233,7 @@ console.log('\n3. The app');
         if (i === 0) {
           for (let k = 0; k < 10; k++) {
             const f = page.locator('input[data-path="sensor.hallSensitivity"]');
-            await f.fill(`${25 + k} mV/mT`);
+            await f.fill(`${26 + k} mV/mT`); // each a change from the demo's 25 mV/mT, so each is an edit
             await f.press('Enter');
             await page.waitForFunction((n) => performance.getEntriesByName('gw-edit').length > n, k);
           }
