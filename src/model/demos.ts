@@ -14,31 +14,34 @@ export interface Demo {
   document: Record<string, unknown>;
 }
 
+/** The bench clamp's document: a demo of its own and the base of the two-range clamp. */
+const BENCH_CLAMP: Record<string, unknown> = {
+  format: 'gainwright-design', version: 1,
+  title: 'Bench clamp, 100 mV/A, 9 V battery (demo)',
+  notes: 'Demo scenario of our own invention: a linear Hall sensor glued into a 1.5 mm gap cut in a ferrite ring, one pass of the wire, read on a scope. The sensor and the offset reference run from a 5 V regulator so that the zero holds as the battery sags.',
+  sensor: {
+    type: 'hall-gap-core', measurand: 'A', hallSensitivity: 25, quiescent: 2.5, linearField: 0.08,
+    outputMin: 0.2, outputMax: 4.8, ratiometricSupply: 5, sourceResistance: 50, noiseDensity: 400e-9,
+    bandwidth: 100e3, sensitivityTolerance: 0.03, quiescentTolerance: 0.02, supplyCurrent: 6e-3,
+    turns: 1, core: { pathLength: 0.06, permeability: 2000, gap: 1.5e-3, saturation: 0.35, fringing: 1 },
+  },
+  supply: {
+    positive: 9, negative: 0, regulated: { voltage: 5, tolerance: 0.02, quiescentCurrent: 5e-6 },
+    sensorRail: 'regulated', referenceRail: 'regulated',
+    battery: { fresh: 9.6, endOfLife: 6.0, capacity: 565e-3 * 3600 },
+  },
+  opamp: { ...bipolar },
+  target: { scale: 0.1, zero: 4.5, range: [-20, 20], topology: 'auto', series: 'E96', tolerance: 0.01, arrangements: ['single', 'series', 'parallel'], resistanceMin: 1e3, resistanceMax: 1e6, bandwidth: 20e3 },
+  output: { filter: { resistance: 100, capacitance: 0 }, load: { resistance: 1e6, capacitance: 15e-12 } },
+  // Calibrated with a 4½-digit bench meter: about 0.1 % of the reading plus 1 mV (common practice).
+  calibration: { meterRelative: 0.001, meterDigits: 0.001 },
+};
+
 export const DEMOS: readonly Demo[] = [
   {
     id: 'bench-clamp',
     label: 'DC/AC bench clamp for a scope on a 9 V battery',
-    document: {
-      format: 'gainwright-design', version: 1,
-      title: 'Bench clamp, 100 mV/A, 9 V battery (demo)',
-      notes: 'Demo scenario of our own invention: a linear Hall sensor glued into a 1.5 mm gap cut in a ferrite ring, one pass of the wire, read on a scope. The sensor and the offset reference run from a 5 V regulator so that the zero holds as the battery sags.',
-      sensor: {
-        type: 'hall-gap-core', measurand: 'A', hallSensitivity: 25, quiescent: 2.5, linearField: 0.08,
-        outputMin: 0.2, outputMax: 4.8, ratiometricSupply: 5, sourceResistance: 50, noiseDensity: 400e-9,
-        bandwidth: 100e3, sensitivityTolerance: 0.03, quiescentTolerance: 0.02, supplyCurrent: 6e-3,
-        turns: 1, core: { pathLength: 0.06, permeability: 2000, gap: 1.5e-3, saturation: 0.35, fringing: 1 },
-      },
-      supply: {
-        positive: 9, negative: 0, regulated: { voltage: 5, tolerance: 0.02, quiescentCurrent: 5e-6 },
-        sensorRail: 'regulated', referenceRail: 'regulated',
-        battery: { fresh: 9.6, endOfLife: 6.0, capacity: 565e-3 * 3600 },
-      },
-      opamp: { ...bipolar },
-      target: { scale: 0.1, zero: 4.5, range: [-20, 20], topology: 'auto', series: 'E96', tolerance: 0.01, arrangements: ['single', 'series', 'parallel'], resistanceMin: 1e3, resistanceMax: 1e6, bandwidth: 20e3 },
-      output: { filter: { resistance: 100, capacitance: 0 }, load: { resistance: 1e6, capacitance: 15e-12 } },
-      // Calibrated with a 4½-digit bench meter: about 0.1 % of the reading plus 1 mV (common practice).
-      calibration: { meterRelative: 0.001, meterDigits: 0.001 },
-    },
+    document: BENCH_CLAMP,
   },
   {
     id: 'appliance-ct',
@@ -106,22 +109,9 @@ export const DEMOS: readonly Demo[] = [
       format: 'gainwright-design', version: 1,
       title: 'Two-range bench clamp, 100 mV/A and 40 mV/A (demo)',
       notes: 'Demo scenario of our own invention (issue 19): the bench clamp with a range switch, 100 mV/A to ±20 A and 40 mV/A to ±50 A on one stage, the zero at 4.5 V on both. The switch picks the feedback arm and the reference together, so the zero holds when the range changes.',
-      sensor: {
-        type: 'hall-gap-core', measurand: 'A', hallSensitivity: 25, quiescent: 2.5, linearField: 0.08,
-        outputMin: 0.2, outputMax: 4.8, ratiometricSupply: 5, sourceResistance: 50, noiseDensity: 400e-9,
-        bandwidth: 100e3, sensitivityTolerance: 0.03, quiescentTolerance: 0.02, supplyCurrent: 6e-3,
-        turns: 1, core: { pathLength: 0.06, permeability: 2000, gap: 1.5e-3, saturation: 0.35, fringing: 1 },
-      },
-      supply: {
-        positive: 9, negative: 0, regulated: { voltage: 5, tolerance: 0.02, quiescentCurrent: 5e-6 },
-        sensorRail: 'regulated', referenceRail: 'regulated',
-        battery: { fresh: 9.6, endOfLife: 6.0, capacity: 565e-3 * 3600 },
-      },
-      opamp: { ...bipolar },
-      target: { scale: 0.1, zero: 4.5, range: [-20, 20], topology: 'auto', series: 'E96', tolerance: 0.01, arrangements: ['single', 'series', 'parallel'], resistanceMin: 1e3, resistanceMax: 1e6, bandwidth: 20e3, ranges: [{ scale: 0.04, range: [-50, 50] }] },
-      output: { filter: { resistance: 100, capacitance: 0 }, load: { resistance: 1e6, capacitance: 15e-12 } },
-      // Calibrated with a 4½-digit bench meter: about 0.1 % of the reading plus 1 mV (common practice).
-      calibration: { meterRelative: 0.001, meterDigits: 0.001 },
+      // Everything else is the bench clamp's own.
+      ...Object.fromEntries(Object.entries(BENCH_CLAMP).filter(([k]) => !['format', 'version', 'title', 'notes', 'target'].includes(k))),
+      target: { ...(BENCH_CLAMP.target as Record<string, unknown>), ranges: [{ scale: 0.04, range: [-50, 50] }] },
     },
   },
 ];

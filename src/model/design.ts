@@ -441,6 +441,17 @@ const readingsList: Spec = { t: 'list', item: readingSpec, def: [], maxItems: MA
  */
 export const UNIT_SYMBOL = /^[A-Za-zµμΩ°%][A-Za-z0-9µμΩ°%²³/^·-]*$/;
 
+/** A ferrite core with a gap: the same fields for the open-loop Hall clamp and the closed-loop sensor. */
+const gappedCoreFields: Record<string, Spec> = {
+  pathLength: num('metres', 'positive', { min: 1e-4, max: 100 }),
+  permeability: num('(relative permeability)', 'positive', { min: 1, max: 1e7 }),
+  gap: num('metres', 'positive', { min: 1e-6, max: 1 }),
+  saturation: num('teslas', 'positive', { min: 1e-3, max: 100 }),
+  fringing: opt(num('(factor)', 'positive', { min: 0.1, max: 10 }), 1),
+  width: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }),
+  depth: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }),
+};
+
 const sensorCommon: Record<string, Spec> = {
   measurand: { t: 'str', def: 'A', maxLength: 16, pattern: UNIT_SYMBOL, patternHint: 'must be a unit symbol such as A, mT, V or kPa (letters, digits, µ, Ω, °, %, / and ^ only)' },
   sourceResistance: opt(num('ohms', 'nonneg', { max: 1e9, minAbs: 1e-6 }), 0),
@@ -478,18 +489,7 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     supplyMin: { t: 'num', what: 'volts', check: 'positive', min: 0.1, max: 1000, optional: true },
     supplyMax: { t: 'num', what: 'volts', check: 'positive', min: 0.1, max: 1000, optional: true },
     turns: num('turns', 'positive', { min: 1, max: 1e6, whole: true }),
-    core: {
-      t: 'obj',
-      fields: {
-        pathLength: num('metres', 'positive', { min: 1e-4, max: 100 }),
-        permeability: num('(relative permeability)', 'positive', { min: 1, max: 1e7 }),
-        gap: num('metres', 'positive', { min: 1e-6, max: 1 }),
-        saturation: num('teslas', 'positive', { min: 1e-3, max: 100 }),
-        fringing: opt(num('(factor)', 'positive', { min: 0.1, max: 10 }), 1),
-        width: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }),
-        depth: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }),
-      },
-    },
+    core: { t: 'obj', fields: { ...gappedCoreFields } },
   },
   'current-transformer': {
     ...sensorCommon,
@@ -514,13 +514,7 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
     core: {
       t: 'obj',
       fields: {
-        pathLength: num('metres', 'positive', { min: 1e-4, max: 100 }),
-        permeability: num('(relative permeability)', 'positive', { min: 1, max: 1e7 }),
-        gap: num('metres', 'positive', { min: 1e-6, max: 1 }),
-        saturation: num('teslas', 'positive', { min: 1e-3, max: 100 }),
-        fringing: opt(num('(factor)', 'positive', { min: 0.1, max: 10 }), 1),
-        width: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }),
-        depth: num('metres', 'positive', { min: 1e-5, max: 10, optional: true }),
+        ...gappedCoreFields,
         area: num('square metres', 'positive', { min: 1e-9, max: 10 }),
       },
     },
