@@ -1,7 +1,7 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, property, query } from 'lit/decorators.js';
 import { SOURCE_WORDS, formatEng, hoursText, misfitWords, rangeText, type ComparisonRow, type OpAmpSpec } from '../src/index.js';
-import { base } from './styles.js';
+import { base, choiceTable } from './styles.js';
 import type { ComparisonPanel, OwnOpAmpsAction } from './comparison-controller.js';
 
 /** `gw-panel-toggle`: the person opened or closed a comparison panel. */
@@ -22,21 +22,11 @@ const f = (x: number | null, unit: string) => (x === null ? '—' : formatEng(x,
  */
 @customElement('gw-opamp-compare')
 export class GwOpAmpCompare extends LitElement {
-  static override styles = [base, css`
-    details > summary { cursor: pointer; font-weight: 600; }
-    .scroll { overflow-x: auto; }
-    table { font-size: 0.85rem; margin-top: 0.5rem; }
-    td.num, th.num { text-align: right; white-space: nowrap; }
+  static override styles = [base, choiceTable, css`
     tbody th { min-width: 10rem; }
     td.num small { white-space: nowrap; }
     td.fits { min-width: 8rem; }
     td button { margin-left: 0.3rem; padding: 0.1rem 0.5rem; }
-    tr.current { background: #eef3fa; }
-    .tag { font-weight: 700; font-size: 0.75rem; text-transform: uppercase; border-radius: 3px; padding: 0.05rem 0.3rem; color: #fff; }
-    .pass .tag { background: var(--gw-pass); }
-    .caution .tag { background: var(--gw-caution); }
-    .fail .tag { background: var(--gw-fail); }
-    .no { color: var(--gw-fail); }
     .source { color: var(--gw-muted); font-size: 0.8rem; }
     .own { display: flex; flex-wrap: wrap; gap: 0.4rem; align-items: center; margin-top: 0.6rem; }
     .own ul { list-style: none; padding: 0; margin: 0.3rem 0 0; width: 100%; }

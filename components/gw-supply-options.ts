@@ -1,7 +1,7 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import { SUPPLY_WORDS, formatEng, hoursText, misfitWords, railsText, rangeText, type Supply, type SupplyOption } from '../src/index.js';
-import { base } from './styles.js';
+import { base, choiceTable } from './styles.js';
 
 /** `gw-adopt-supply`: make this the design's supply (and the zero it was designed for). */
 export interface AdoptSupplyDetail { supply: Supply; zero: number }
@@ -17,17 +17,7 @@ const VERDICT = { pass: 'Pass', caution: 'Caution', fail: 'Fail' } as const;
  */
 @customElement('gw-supply-options')
 export class GwSupplyOptions extends LitElement {
-  static override styles = [base, css`
-    details > summary { cursor: pointer; font-weight: 600; }
-    .scroll { overflow-x: auto; }
-    table { font-size: 0.85rem; margin-top: 0.5rem; }
-    td.num, th.num { text-align: right; white-space: nowrap; }
-    tr.current { background: #eef3fa; }
-    .tag { font-weight: 700; font-size: 0.75rem; text-transform: uppercase; border-radius: 3px; padding: 0.05rem 0.3rem; color: #fff; }
-    .pass .tag { background: var(--gw-pass); }
-    .caution .tag { background: var(--gw-caution); }
-    .fail .tag { background: var(--gw-fail); }
-    .no { color: var(--gw-fail); }
+  static override styles = [base, choiceTable, css`
   `];
 
   /** Choices from the core (`supplyOptions`); null while being worked out; empty without a battery. */

@@ -32,3 +32,17 @@ export const base = css`
   button:hover { background: var(--gw-panel); }
   .num { font-variant-numeric: tabular-nums; }
 `;
+
+/** The look both side-by-side panels share (op-amps, supplies): a folding panel, a table of rows, a verdict tag per row. */
+export const choiceTable = css`
+  details > summary { cursor: pointer; font-weight: 600; }
+  .scroll { overflow-x: auto; }
+  table { font-size: 0.85rem; margin-top: 0.5rem; }
+  td.num, th.num { text-align: right; white-space: nowrap; }
+  tr.current { background: #eef3fa; }
+  .tag { font-weight: 700; font-size: 0.75rem; text-transform: uppercase; border-radius: 3px; padding: 0.05rem 0.3rem; color: #fff; }
+  .pass .tag { background: var(--gw-pass); }
+  .caution .tag { background: var(--gw-caution); }
+  .fail .tag { background: var(--gw-fail); }
+  .no { color: var(--gw-fail); }
+`;
