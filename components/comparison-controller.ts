@@ -1,8 +1,10 @@
 import type { ReactiveController, ReactiveControllerHost } from 'lit';
 import {
-  MAX_OPAMP_LIST_BYTES, MAX_OPAMPS, OPAMP_LIST_KEY, comparisonRows, parseOpAmpListText, problemWords, serialiseOpAmpList, supplyChoices,
+  MAX_OPAMP_LIST_BYTES, MAX_OPAMPS, OPAMP_LIST_KEY, problemWords,
   type ComparisonRow, type Design, type OpAmpSpec, type Problem, type Report, type SupplyOption,
 } from '../src/index.js';
+// Issue 23: the comparisons, supply choices and the op-amp list file load on demand.
+import { onDemandCore, type OnDemandCore } from './on-demand.js';
 
 /** What the controller reads from its host, which stays the one owner of the design. */
 export interface ComparisonHost extends ReactiveControllerHost {
@@ -45,6 +47,30 @@ export class ComparisonController implements ReactiveController {
   private ownVersion = 0;
   private rowsOwnVersion = -1;
   private timer = 0;
+  // --- issue 23: the on-demand core, and the stored list read once it is there.
+  private core: OnDemandCore | null = null;
+  private stored: string | null = null;
+
+  /** The on-demand core; the first time, the op-amps kept in the browser are read with it. */
+  private async ready(): Promise<OnDemandCore> {
+    const core = await onDemandCore();
+    if (!this.core) {
+      this.core = core;
+      if (this.stored) {
+        const v = core.parseOpAmpListText(this.stored);
+        if (v.ok) { this.own = v.opamps; this.ownVersion++; }
+        else this.message = { text: 'The op-amps kept in this browser could not be read, so the list starts empty.', bad: true };
+        this.stored = null;
+      }
+    }
+    return core;
+  }
+
+  private loadFault(e: unknown): void {
+    this.message = { text: `The comparisons could not be loaded (${String(e instanceof Error ? e.message : e).slice(0, 120)}). Reload the page to try again.`, bad: true };
+    this.host.requestUpdate();
+  }
+  // --- end issue 23
 
   constructor(host: ComparisonHost) {
     this.host = host;
@@ -52,13 +78,8 @@ export class ComparisonController implements ReactiveController {
   }
 
   hostConnected(): void {
-    let stored: string | null = null;
-    try { stored = localStorage.getItem(OPAMP_LIST_KEY); } catch { /* storage off: the list starts empty */ }
-    if (stored) {
-      const v = parseOpAmpListText(stored);
-      if (v.ok) this.own = v.opamps;
-      else this.message = { text: 'The op-amps kept in this browser could not be read, so the list starts empty.', bad: true };
-    }
+    // Read now, parsed when a panel first needs it (issue 23).
+    try { this.stored = localStorage.getItem(OPAMP_LIST_KEY); } catch { /* storage off: the list starts empty */ }
   }
 
   hostDisconnected(): void {
@@ -69,7 +90,7 @@ export class ComparisonController implements ReactiveController {
   hostUpdated(): void {
     if (this.stale('opamps') || this.stale('supplies')) {
       clearTimeout(this.timer);
-      this.timer = window.setTimeout(() => this.compute(), 0);
+      this.timer = window.setTimeout(() => { this.ready().then(() => this.compute(), (e: unknown) => this.loadFault(e)); }, 0);
     }
   }
 
@@ -80,6 +101,10 @@ export class ComparisonController implements ReactiveController {
   }
 
   edit(a: OwnOpAmpsAction): void {
+    this.ready().then(() => this.editNow(a), (e: unknown) => this.loadFault(e));
+  }
+
+  private editNow(a: OwnOpAmpsAction): void {
     switch (a.action) {
       case 'keep': {
         if (this.own.length >= MAX_OPAMPS) { this.message = { text: `Your list holds at most ${MAX_OPAMPS} op-amps: remove one first.`, bad: true }; break; }
@@ -106,6 +131,7 @@ export class ComparisonController implements ReactiveController {
   private compute(): void {
     const design = this.host.currentDesign;
     const report = this.host.currentReport ?? undefined;
+    const { comparisonRows, supplyChoices } = this.core!;
     if (this.stale('opamps')) {
       this.rows = comparisonRows(design, this.own, report);
       this.computed.opamps = design;
@@ -122,7 +148,7 @@ export class ComparisonController implements ReactiveController {
     this.own = list;
     this.ownVersion++;
     try {
-      localStorage.setItem(OPAMP_LIST_KEY, serialiseOpAmpList(list));
+      localStorage.setItem(OPAMP_LIST_KEY, this.core!.serialiseOpAmpList(list));
     } catch {
       this.message = { text: 'This browser is not keeping your op-amps (its storage is full or turned off): save them to a file.', bad: true };
     }
@@ -133,7 +159,7 @@ export class ComparisonController implements ReactiveController {
     if (file.size > MAX_OPAMP_LIST_BYTES) {
       this.message = { text: `${name} is larger than ${MAX_OPAMP_LIST_BYTES / 1000} kB; an op-amp list is a few kB. Your list stays as it was.`, bad: true };
     } else {
-      const v = parseOpAmpListText(await file.text());
+      const v = this.core!.parseOpAmpListText(await file.text());
       if (!v.ok) this.message = { text: `${name} is not an op-amp list, so your list stays as it was: ${v.problems.slice(0, 4).map(listProblemWords).join('; ')}`, bad: true };
       else {
         const added = v.opamps.slice(0, Math.max(MAX_OPAMPS - this.own.length, 0));
@@ -146,7 +172,7 @@ export class ComparisonController implements ReactiveController {
   }
 
   private download(): void {
-    const url = URL.createObjectURL(new Blob([serialiseOpAmpList(this.own)], { type: 'application/json' }));
+    const url = URL.createObjectURL(new Blob([this.core!.serialiseOpAmpList(this.own)], { type: 'application/json' }));
     const a = document.createElement('a');
     a.href = url;
     a.download = 'my-opamps.json';

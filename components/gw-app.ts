@@ -1,14 +1,13 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, state, query } from 'lit/decorators.js';
 import { validateDesign, parseDesignText, MAX_DESIGN_BYTES, tooLargeMessage, type Design, type Problem } from '../src/index.js';
-import { analyse, reportWords, SAFETY_CAUTIONS, type Report, type ReportWords } from '../src/index.js';
+import { analyse, completeReport, reportWords, SAFETY_CAUTIONS, type Report, type ReportWords } from '../src/index.js';
 import { DEMOS, demoDesign } from '../src/index.js';
 import { FIELDS, GROUP_DEFAULTS, groupDefault, groupOff, readField, setPath } from '../src/index.js';
-import { spiceNetlist } from '../src/index.js';
 import { archetype } from '../src/index.js';
 import { allCharts, waveformChart, type ChartData } from '../src/index.js';
 import { schematic, type Schematic } from '../src/index.js';
-import { bomCsv, bomRows, type BomRow } from '../src/index.js';
+import { bomRows, type BomRow } from '../src/index.js';
 import { closedLoopTradeRows, keyFigures, waveformFigures, waveformLine, type FigureRow } from '../src/index.js';
 import { decodeDesignBytes, designFromFragment, fileName, problemWords, serialiseDesign, shareFragment } from '../src/index.js';
 import { sensorTemplate } from '../src/index.js';
@@ -22,18 +21,13 @@ import './gw-chart.js';
 import './gw-schematic.js';
 import './gw-parts.js';
 import './gw-figures.js';
-import './gw-bench.js';
-import './gw-trace.js';
 import './gw-toolbar.js';
-import './gw-build-sheet.js';
-import './gw-trade.js'; // issue 19
-import './gw-ranges.js'; // issue 19
-import { positionNetlist, tradeSweep, type TradeResult } from '../src/index.js'; // issue 19
+import { tradeSweep, type TradeResult } from '../src/index.js'; // issue 19
 // Op-amps side by side and supply choices (issue 18).
 import { ComparisonController } from './comparison-controller.js';
-import './gw-opamp-compare.js';
-import './gw-supply-options.js';
-import './gw-kit-editor.js';
+// Issue 23: the panels around the verdict (comparisons, supplies, kit, range switch, trade, bench readings,
+// printed sheet) and the exporters load on demand, each its own chunk.
+import { PANELS_AFTER_FIRST_RENDER, loadPanel, onDemandCore } from './on-demand.js';
 
 /** The unit engine (mathjs units) loads after the first render so that it does not delay it. */
 let unitsLoading: Promise<unknown> | null = null;
@@ -56,16 +50,55 @@ interface Derived {
   waveRows: FigureRow[];
   /** A closed-loop Hall sensor's turns trade (issue #20; empty for another sensor). */
   trade: FigureRow[];
+  /**
+   * Issue 23: the Monte Carlo spread and the starting waveform are still being worked out; meanwhile the spread
+   * plot and the scope view of the design before are shown, marked busy.
+   */
+  pending: boolean;
 }
 
-/** Everything shown that is derived from the design (throws only on a fault of ours). */
-function derive(design: Design, trials: number): Derived {
+/**
+ * The first step (issue 23): everything the verdict, the findings and the plots need, from the report without
+ * the spread and the default waveform (throws only on a fault of ours). The spread plot and the scope view of
+ * `before` are kept until the second step replaces them, so their elements are not rebuilt on every edit.
+ */
+function deriveQuick(design: Design, before: Derived | null): Derived {
   performance.mark('gw-analyse-start');
-  const report = analyse(design, { spreadTrials: trials, defaultWaveform: true });
-  const derived = { report, words: reportWords(report), charts: allCharts(report), drawing: schematic(report), rows: bomRows(report), figures: keyFigures(report), wave: waveformChart(report), waveRows: waveformFigures(report), trade: closedLoopTradeRows(report) };
+  const report = analyse(design, { spreadTrials: 0 });
+  const charts = allCharts(report);
+  const spreadBefore = before?.charts.find((c) => c.id === 'spread');
+  if (spreadBefore && design.analysis.spreadTrials > 0) charts.push(spreadBefore);
+  const own = !!report.waveform;
+  const derived: Derived = {
+    report, words: reportWords(report), charts, drawing: schematic(report), rows: bomRows(report), figures: keyFigures(report),
+    wave: own ? waveformChart(report) : before?.wave ?? null, waveRows: own ? waveformFigures(report) : before?.waveRows ?? [],
+    trade: closedLoopTradeRows(report), pending: true,
+  };
   performance.mark('gw-analyse-end');
   performance.measure('gw-analyse', 'gw-analyse-start', 'gw-analyse-end');
   return derived;
+}
+
+/** The second step (issue 23): the report completed with the spread and the starting waveform, and what shows them. */
+function deriveFull(design: Design, quick: Derived): Derived {
+  performance.mark('gw-complete-start');
+  const report = completeReport(design, quick.report);
+  const derived: Derived = { ...quick, report, charts: allCharts(report), figures: keyFigures(report), wave: waveformChart(report), waveRows: waveformFigures(report), pending: false };
+  performance.mark('gw-complete-end');
+  performance.measure('gw-complete', 'gw-complete-start', 'gw-complete-end');
+  return derived;
+}
+
+/**
+ * Runs `job` once the frame in progress has painted (a frame, then a task); a hidden page paints no frames, so
+ * a timer runs it in any case. Returns a function that cancels it.
+ */
+function afterPaint(job: () => void): () => void {
+  let done = false;
+  const go = () => { if (!done) { done = true; job(); } };
+  const frame = requestAnimationFrame(() => setTimeout(go, 0));
+  const timer = setTimeout(go, 250);
+  return () => { done = true; cancelAnimationFrame(frame); clearTimeout(timer); };
 }
 
 /**
@@ -149,8 +182,9 @@ export class GwApp extends LitElement {
   private _tradeTimer = 0;
 
   /** A range switch position's own netlist, downloaded (issue 19). */
-  private _onRangeSpice = (e: HTMLElementEventMap['gw-range-spice']): void => {
+  private _onRangeSpice = async (e: HTMLElementEventMap['gw-range-spice']): Promise<void> => {
     const r = this._derived?.report;
+    const { positionNetlist } = await onDemandCore();
     const net = r ? positionNetlist(r, e.detail.position) : null;
     if (net) this._download(net, fileName(this._design, 'cir').replace(/\.cir$/, `-range-${e.detail.position}.cir`), 'text/plain');
     else this._notice = { text: `No SPICE netlist for range ${e.detail.position}: that position has no working stage.`, bad: true };
@@ -162,7 +196,10 @@ export class GwApp extends LitElement {
   private readonly _compare = new ComparisonController(this);
   /** Edits run one after another, in the order they were made, even while the unit engine is loading. */
   private _queue: Promise<void> = Promise.resolve();
-  private _spreadTimer = 0;
+  /** Issue 23: cancels the second step (spread and starting waveform) waiting for the paint of the first. */
+  private _cancelComplete: (() => void) | null = null;
+  /** Issue 23: the last completed derivation, which the printed sheet shows (it is not on screen). */
+  @state() private _complete: Derived | null = null;
 
   /** The design in force (read by the persistence controller). */
   get currentDesign(): Design { return this._design; }
@@ -173,18 +210,52 @@ export class GwApp extends LitElement {
     super.connectedCallback();
     this._restore();
     window.addEventListener('hashchange', this._onHash);
+    window.addEventListener('beforeprint', this._onBeforePrint);
     this.updateComplete.then(() => {
       performance.mark('gw-first-render');
-      void loadUnits();
+      // Once the verdict has painted: the unit engine and the panels every page shows (issue 23).
+      afterPaint(() => {
+        void loadUnits();
+        for (const tag of PANELS_AFTER_FIRST_RENDER) loadPanel(tag).catch((e: unknown) => this._loadFault(e));
+      });
     });
   }
 
   override disconnectedCallback(): void {
     window.removeEventListener('hashchange', this._onHash);
-    clearTimeout(this._spreadTimer);
+    window.removeEventListener('beforeprint', this._onBeforePrint);
+    this._cancelComplete?.();
     clearTimeout(this._tradeTimer);
     super.disconnectedCallback();
   }
+
+  // --- issue 23: loading on demand, and the report's second step
+  /** The range switch's panel loads when a design has one. */
+  protected override willUpdate(): void {
+    if (this._derived?.report.ranges?.ok) loadPanel('gw-ranges').catch((e: unknown) => this._loadFault(e));
+  }
+
+  /** A part of the app that could not be fetched (the server gone): said, and the design stays as it is. */
+  private _loadFault(e: unknown): void {
+    const why = String(e instanceof Error ? e.message : e).replace(/\s+/g, ' ').slice(0, 160);
+    this._notice = { text: `A part of Gainwright could not be loaded (${why}); the design in force is kept. Reload the page to try again.`, bad: true };
+  }
+
+  /** The second step for the design in force, at once (before printing: the sheet must be complete). */
+  private _completeNow(): void {
+    const d = this._derived;
+    if (!d?.pending) return;
+    this._cancelComplete?.();
+    this._cancelComplete = null;
+    try {
+      const full = deriveFull(this._design, d);
+      this._derived = full;
+      this._complete = full;
+    } catch (e) { this._fault(e); }
+  }
+
+  private _onBeforePrint = (): void => this._completeNow();
+  // --- end issue 23
 
   private _clearFragment(): void {
     if (location.hash.startsWith('#d=')) history.replaceState(null, '', location.pathname + location.search);
@@ -206,7 +277,7 @@ export class GwApp extends LitElement {
     this._clearFragment();
     if (fromLink?.ok) {
       if (saved.kind === 'ok') this._persist.remember(saved.design, 'replaced by a shared link');
-      if (this._setDesign(fromLink.design, 0)) {
+      if (this._setDesign(fromLink.design)) {
         this._unsaved = true;
         this._persist.save(this._design, true);
         if (saved.kind === 'ok') this._undo = { design: saved.design, title: saved.design.title };
@@ -215,12 +286,12 @@ export class GwApp extends LitElement {
       }
     }
     if (saved.kind === 'ok') {
-      if (this._setDesign(saved.design, 0)) this._unsaved = saved.unsaved;
+      if (this._setDesign(saved.design)) this._unsaved = saved.unsaved;
       else {
         this._persist.keepDamaged(JSON.stringify(saved.design, null, 2), 'the saved design could not be analysed');
-        this._setDesign(demoDesign(), 0);
+        this._setDesign(demoDesign());
       }
-    } else this._setDesign(demoDesign(), 0);
+    } else this._setDesign(demoDesign());
     if (fromLink && !fromLink.ok) this._notice = { text: `The link does not carry a usable design: ${this._problemList(fromLink.problems)}`, bad: true };
   }
 
@@ -228,20 +299,23 @@ export class GwApp extends LitElement {
    * Makes `design` the one in force, if it can be analysed: the last line of defence. A fault of ours while
    * analysing keeps the design in force as it was and says so, instead of leaving an empty page.
    */
-  private _setDesign(design: Design, trials = design.analysis.spreadTrials): boolean {
+  private _setDesign(design: Design): boolean {
     let derived: Derived;
     try {
-      derived = derive(design, trials);
+      derived = deriveQuick(design, this._derived);
     } catch (e) {
       this._fault(e);
       return false;
     }
     this._design = design;
     this._derived = derived;
-    clearTimeout(this._spreadTimer);
-    // The Monte Carlo spread a moment later, so that the verdict of the first render does not wait for it.
-    // The design's own trial count (analysis.spreadTrials).
-    if (trials === 0) this._spreadTimer = window.setTimeout(() => { try { this._derived = derive(this._design, this._design.analysis.spreadTrials); } catch (e) { this._fault(e); } }, 50);
+    // Issue 23: the Monte Carlo spread and the starting waveform once the verdict has painted (the design's own
+    // trial count, analysis.spreadTrials); a newer design cancels the older one's.
+    this._cancelComplete?.();
+    this._cancelComplete = afterPaint(() => {
+      this._cancelComplete = null;
+      if (this._derived === derived) this._completeNow();
+    });
     this._scheduleTrade();
     return true;
   }
@@ -258,6 +332,7 @@ export class GwApp extends LitElement {
 
   private _onTradeToggle(e: Event): void {
     this._tradeOpen = (e.target as HTMLDetailsElement).open;
+    if (this._tradeOpen) loadPanel('gw-trade').catch((err: unknown) => this._loadFault(err)); // issue 23
     this._scheduleTrade();
   }
 
@@ -299,7 +374,7 @@ export class GwApp extends LitElement {
   private _replace(design: Design, why: string, done: string): void {
     const old = this._design;
     this._confirm = null;
-    if (!this._setDesign(design, 0)) return;
+    if (!this._setDesign(design)) return;
     this._persist.remember(old, why);
     this._messages = {};
     this._shareUrl = '';
@@ -504,16 +579,33 @@ export class GwApp extends LitElement {
       case 'open': this._file.click(); break;
       case 'save': this._save(); break;
       case 'share': this._share(); break;
-      case 'parts-csv': if (r) this._download(bomCsv(r), fileName(this._design, 'csv'), 'text/csv'); break;
-      case 'spice': {
-        const net = r ? spiceNetlist(r) : null;
-        if (net) this._download(net, fileName(this._design, 'cir'), 'text/plain');
-        else this._notice = { text: 'No SPICE netlist: the design has no working stage to simulate.', bad: true };
+      case 'parts-csv': {
+        // Issue 23: the CSV writer loads on demand.
+        const design = this._design;
+        if (r) onDemandCore().then(({ bomCsv }) => this._download(bomCsv(r), fileName(design, 'csv'), 'text/csv'), (err: unknown) => this._loadFault(err));
         break;
       }
-      case 'print': window.print(); break;
+      case 'spice': {
+        // Issue 23: the netlist writer loads on demand.
+        const design = this._design;
+        onDemandCore().then(({ spiceNetlist }) => {
+          const net = r ? spiceNetlist(r) : null;
+          if (net) this._download(net, fileName(design, 'cir'), 'text/plain');
+          else this._notice = { text: 'No SPICE netlist: the design has no working stage to simulate.', bad: true };
+        }, (err: unknown) => this._loadFault(err));
+        break;
+      }
+      case 'print': void this._print(); break;
     }
   };
+
+  /** Issue 23: the printed sheet loads on demand and shows the completed report. */
+  private async _print(): Promise<void> {
+    try { await loadPanel('gw-build-sheet'); } catch (e) { this._loadFault(e); return; }
+    this._completeNow();
+    await this.updateComplete;
+    window.print();
+  }
 
   /** Dismissing a notice puts focus on the verdict, not on the page body. */
   private _dismiss(): void {
@@ -537,6 +629,19 @@ export class GwApp extends LitElement {
 
   private _cautions(): string[] {
     return this._derived?.words.cautions ?? [...SAFETY_CAUTIONS];
+  }
+
+  /**
+   * The printed sheet (issue 23): it shows the last completed derivation, so that an edit does not wait for a
+   * view nobody sees on screen; printing completes the design in force first.
+   */
+  private _sheet() {
+    const c = this._complete;
+    const r = c?.report;
+    return html`<gw-build-sheet class="sheet" aria-hidden="true" .report=${r ?? null} .drawing=${c?.drawing ?? null} .rows=${c?.rows ?? []} .figures=${c?.figures ?? []} .words=${c?.words ?? null}>
+        ${r ? html`<section><h2>What the scope shows</h2><div class="scope-print"><gw-trace .data=${c?.wave ?? null}></gw-trace><small>${waveformLine(r)}</small></div></section>
+        <section><h2>Readings of the built probe</h2><gw-bench mode="sheet" .report=${r}></gw-bench></section>` : nothing}
+      </gw-build-sheet>`;
   }
 
   override render() {
@@ -575,7 +680,7 @@ export class GwApp extends LitElement {
           <div class="panel" id="compare-supplies"><gw-supply-options .options=${this._compare.supplies} .measurand=${this._design.sensor.measurand} ?open=${this._compare.open.supplies}
             @gw-panel-toggle=${(e: HTMLElementEventMap['gw-panel-toggle']) => this._compare.setOpen(e.detail.panel, e.detail.open)} @gw-adopt-supply=${this._onAdoptSupply}></gw-supply-options></div>
           <div class="panel"><h2>Schematic</h2><gw-schematic .drawing=${d?.drawing ?? null}></gw-schematic></div>
-          <div class="panel scroll" id="scope"><h2>What the scope shows</h2><div class="scope">
+          <div class="panel scroll" id="scope" aria-busy=${d?.pending ? 'true' : 'false'}><h2>What the scope shows</h2><div class="scope">
             ${d?.wave ? html`<gw-chart data-chart="waveform" .data=${d.wave}></gw-chart>` : nothing}
             <gw-figures caption="Waveform figures" .rows=${d?.waveRows ?? []}></gw-figures></div></div>
           <div class="panel"><h2>Plots</h2><div class="charts">${(d?.charts ?? []).map((c) => html`<gw-chart data-chart=${c.id} .data=${c}></gw-chart>`)}</div></div>
@@ -591,10 +696,7 @@ export class GwApp extends LitElement {
           <div class="panel" id="sensor-readings"><h2>Sensor from bench readings</h2><gw-bench mode="sensor" .report=${r ?? null} @gw-set=${this._onSet}></gw-bench></div>
         </section>
       </main>
-      <gw-build-sheet class="sheet" aria-hidden="true" .report=${r ?? null} .drawing=${d?.drawing ?? null} .rows=${d?.rows ?? []} .figures=${d?.figures ?? []} .words=${d?.words ?? null}>
-        ${r ? html`<section><h2>What the scope shows</h2><div class="scope-print"><gw-trace .data=${d?.wave ?? null}></gw-trace><small>${waveformLine(r)}</small></div></section>
-        <section><h2>Readings of the built probe</h2><gw-bench mode="sheet" .report=${r}></gw-bench></section>` : nothing}
-      </gw-build-sheet>
+      ${this._sheet()}
     `;
   }
 }

@@ -1,7 +1,7 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, property, query } from 'lit/decorators.js';
 import type { ChartData } from '../src/index.js';
-import { chartText } from '../src/index.js';
+import { chartText, sameChart } from '../src/index.js';
 import { base } from './styles.js';
 import { ChartController, type PickedPoint } from './chart-controller.js';
 
@@ -25,8 +25,8 @@ export class GwChart extends LitElement {
 
   @query('canvas') canvas!: HTMLCanvasElement | null;
 
-  /** What to plot. */
-  @property({ attribute: false }) data: ChartData | null = null;
+  /** What to plot. Data equal to what is drawn (a report recomputed without a change to this plot) draw nothing (issue 23). */
+  @property({ attribute: false, hasChanged: (now: ChartData | null, before: ChartData | null) => !sameChart(now, before) }) data: ChartData | null = null;
 
   private readonly _chart = new ChartController(this);
 

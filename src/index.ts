@@ -5,6 +5,7 @@
 export { validateDesign, parseDesignText, serialiseDesign, formatProblems, migrate, DESIGN_FORMAT, DESIGN_VERSION, MAX_DESIGN_BYTES, tooLargeMessage } from './model/design.js';
 export type { Design, SensorSpec, SensorType, Supply, OpAmpSpec, Target, Output, Environment, AnalysisOptions, MeasurandWaveform, Topology, TopologyChoice, Arrangement, Problem } from './model/design.js';
 export { analyse } from './analysis/report.js';
+export { completeReport } from './analysis/complete.js'; // issue 23: the report in two steps, for the app
 export type { Report, AnalyseOptions } from './analysis/report.js';
 export { reportJson } from './present/json.js';
 export { verdictsOf } from './present/verdicts.js';
@@ -19,7 +20,7 @@ export { textReport } from './present/text-report.js';
 export { spiceNetlist } from './present/spice.js';
 export { bomRows, bomCsv, powerRating } from './present/bom.js';
 export { calibrationSteps } from './present/calibration.js';
-export { allCharts, chartText, waveformChart, traceDrawing } from './present/charts.js';
+export { allCharts, chartText, waveformChart, traceDrawing, sameChart } from './present/charts.js';
 export { sheetStatus, errorBudgetRows, trimmerStarts } from './present/sheet.js';
 export { schematic, drawingBounds } from './present/schematic.js';
 export { keyFigures, waveformFigures, waveformLine } from './present/figures.js';

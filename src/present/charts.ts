@@ -214,3 +214,25 @@ export function chartText(c: ChartData): ChartText {
     rows,
   };
 }
+
+// --- issue 23: a chart whose data did not change is not drawn again.
+/**
+ * Whether two charts draw the same picture: same id, titles, axes, flags and series, and every point equal
+ * (`Object.is`, so NaN equals NaN and a changed sign of zero counts as a change). Null equals only null.
+ * Example: `sameChart(allCharts(r)[0], allCharts(r)[0])` is true for the same report `r`.
+ */
+export function sameChart(a: ChartData | null | undefined, b: ChartData | null | undefined): boolean {
+  if (a === b) return true;
+  if (!a || !b || a.series.length !== b.series.length) return false;
+  // Everything but the points, compared as text so that a field added to ChartData is compared too.
+  if (chartShape(a) !== chartShape(b)) return false;
+  for (let i = 0; i < a.series.length; i++) {
+    const s = a.series[i]!.points, t = b.series[i]!.points;
+    for (let k = 0; k < s.length; k++) if (!Object.is(s[k]!.x, t[k]!.x) || !Object.is(s[k]!.y, t[k]!.y)) return false;
+  }
+  return true;
+}
+
+/** A chart's fields and series with each series' points replaced by their count. */
+const chartShape = (c: ChartData): string => JSON.stringify({ ...c, series: c.series.map((s) => ({ ...s, points: s.points.length })) });
+// --- end issue 23

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { allCharts, noiseChart, transferChart } from '../../src/present/charts.js';
+import { allCharts, noiseChart, sameChart, transferChart } from '../../src/present/charts.js';
 import { analyse } from '../../src/analysis/report.js';
 import { designFrom } from '../helpers.js';
 
@@ -27,5 +27,36 @@ describe('chart data', () => {
     const n = noiseChart(r)!;
     const total = n.series[0]!.points;
     for (const s of n.series.slice(1)) s.points.forEach((p, i) => expect(p.y).toBeLessThanOrEqual(total[i]!.y * (1 + 1e-9)));
+  });
+});
+
+// Issue 23: the chart element draws again only when this says the picture changed.
+describe('sameChart', () => {
+  const d = designFrom('generic-sensor');
+  const a = allCharts(analyse(d, { spreadTrials: 0 }));
+  const b = allCharts(analyse(d, { spreadTrials: 0 }));
+  it('sameChart(x, y) is true for the charts of two reports of the same design (new objects, same picture)', () => {
+    expect(a.length).toBeGreaterThan(2);
+    a.forEach((c, i) => { expect(b[i]).not.toBe(c); expect(sameChart(c, b[i])).toBe(true); });
+  });
+  it('sameChart is false when one point moves, a title or an axis changes, a series is added, or one side is null', () => {
+    const t = a[0]!;
+    const moved = structuredClone(t); moved.series[0]!.points[3]!.y += 1e-12;
+    expect(sameChart(t, moved)).toBe(false);
+    expect(sameChart(t, { ...t, title: `${t.title} ` })).toBe(false);
+    expect(sameChart(t, { ...t, x: { ...t.x, log: !t.x.log } })).toBe(false);
+    expect(sameChart(t, { ...t, series: [...t.series, t.series[0]!] })).toBe(false);
+    expect(sameChart(t, { ...t, pickable: true })).toBe(false);
+    expect(sameChart(t, null)).toBe(false);
+    expect(sameChart(null, null)).toBe(true);
+  });
+  it('sameChart treats NaN as equal to NaN and −0 as a change from 0 (Object.is)', () => {
+    const one = { ...a[0]!, series: [{ label: 's', role: 'main' as const, points: [{ x: 0, y: NaN }] }] };
+    expect(sameChart(one, structuredClone(one))).toBe(true);
+    expect(sameChart(one, { ...one, series: [{ ...one.series[0]!, points: [{ x: -0, y: NaN }] }] })).toBe(false);
+  });
+  it('the charts of a design with another sensitivity differ (the transfer plot moves)', () => {
+    const other = allCharts(analyse(designFrom('generic-sensor', (x) => { x.sensor.sensitivity *= 1.1; }), { spreadTrials: 0 }));
+    expect(sameChart(a.find((c) => c.id === 'transfer'), other.find((c) => c.id === 'transfer'))).toBe(false);
   });
 });
