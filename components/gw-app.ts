@@ -184,7 +184,8 @@ export class GwApp extends LitElement {
   /** A range switch position's own netlist, downloaded (issue 19). */
   private _onRangeSpice = async (e: HTMLElementEventMap['gw-range-spice']): Promise<void> => {
     const r = this._derived?.report;
-    const { positionNetlist } = await onDemandCore();
+    let positionNetlist: Awaited<ReturnType<typeof onDemandCore>>['positionNetlist'];
+    try { ({ positionNetlist } = await onDemandCore()); } catch (err) { this._loadFault(err); return; }
     const net = r ? positionNetlist(r, e.detail.position) : null;
     if (net) this._download(net, fileName(this._design, 'cir').replace(/\.cir$/, `-range-${e.detail.position}.cir`), 'text/plain');
     else this._notice = { text: `No SPICE netlist for range ${e.detail.position}: that position has no working stage.`, bad: true };

@@ -10,6 +10,7 @@ import { analyse } from '../../src/analysis/report.js';
 import { completeReport } from '../../src/analysis/complete.js';
 import { DEMOS, demoDesign } from '../../src/model/demos.js';
 import type { Design } from '../../src/model/design.js';
+import { reportWords } from '../../src/present/report-words.js';
 import { designFrom } from '../helpers.js';
 
 const TRIALS = 300;
@@ -68,5 +69,15 @@ describe('completeReport(design, analyse(design, { spreadTrials: 0 }), n) equals
     const before = structuredClone({ spread: quick.spread, waveform: quick.waveform, absent: quick.absent });
     completeReport(d, quick, TRIALS);
     expect({ spread: quick.spread, waveform: quick.waveform, absent: quick.absent }).toEqual(before);
+  });
+
+  // The app shows the verdict, findings, calibration and cautions from the first step and keeps them through the
+  // second: they must not depend on the two figures the second step adds.
+  it.each(DEMOS.map((d) => d.id))('the words of demo %s (verdicts, findings, calibration, cautions) are the same before and after the second step', (id) => {
+    const d = demoDesign(id);
+    const quick = analyse(d, { spreadTrials: 0 });
+    const words = reportWords(quick);
+    expect(words.verdicts.length).toBeGreaterThan(0);
+    expect(reportWords(completeReport(d, quick, TRIALS))).toEqual(words);
   });
 });

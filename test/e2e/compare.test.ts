@@ -27,6 +27,8 @@ async function openApp(h: Harness, opts: Parameters<typeof watchedPage>[1] = {})
   const w = await watchedPage(h, opts);
   await w.page.goto(h.url);
   await w.page.locator('gw-verdicts li').first().waitFor();
+  // The two panels load after the first render (issue 23): wait until they are defined.
+  await w.page.evaluate(() => Promise.all(['gw-opamp-compare', 'gw-supply-options'].map((t) => customElements.whenDefined(t))));
   return w;
 }
 
