@@ -58,6 +58,9 @@ export function chartConfig(d: ChartData): ChartConfiguration {
   } as ChartConfiguration;
 }
 
+/** Everything of a chart's data that its Chart.js options are built from (chartConfig): titles, axes, kind (issue 23). */
+const optionsKey = (d: ChartData): string => JSON.stringify([d.title, d.x, d.y, d.y2, d.bars, d.dots, d.markers, d.pickable]);
+
 /** A point of the data picked by a click: its series and index, and its values. */
 export interface PickedPoint { series: string; index: number; x: number; y: number }
 
@@ -68,6 +71,8 @@ export class ChartController implements ReactiveController {
     host.addController(this);
   }
   private pending = false;
+  /** What the options of the chart drawn were built from (issue 23). */
+  private drawnKey = '';
   hostUpdated(): void {
     // The first drawing waits for the next frame and for Chart.js, so the verdict paints before the charts are
     // built; later updates redraw at once.
@@ -106,9 +111,12 @@ export class ChartController implements ReactiveController {
       if (data.id === 'transfer' && !performance.getEntriesByName('gw-first-plot').length) performance.mark('gw-first-plot');
     } else {
       this.chart.data = cfg.data;
-      this.chart.options = cfg.options ?? {};
+      // Issue 23: new options make Chart.js resolve every scale and plugin again; they change only with the
+      // titles, axes and kind of plot, so the points alone are replaced when those stay.
+      if (optionsKey(data) !== this.drawnKey) this.chart.options = cfg.options ?? {};
       this.chart.update('none');
     }
+    this.drawnKey = optionsKey(data);
   }
   /** Where a point is drawn on the canvas, in CSS pixels from its top left (null before the first drawing). */
   pixelOf(series: number, index: number): { x: number; y: number } | null {

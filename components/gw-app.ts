@@ -58,16 +58,19 @@ interface Derived {
 }
 
 /**
- * The first step (issue 23): everything the verdict, the findings and the plots need, from the report without
- * the spread and the default waveform (throws only on a fault of ours). The spread plot and the scope view of
- * `before` are kept until the second step replaces them, so their elements are not rebuilt on every edit.
+ * The first step (issue 23): everything the verdict, the findings and the transfer plot need, from the report
+ * without the spread and the default waveform (throws only on a fault of ours). The other plots and the scope
+ * view of `before` are kept until the second step replaces them, so their elements are not rebuilt, and not
+ * redrawn before the verdict paints, on every edit.
  */
 function deriveQuick(design: Design, before: Derived | null): Derived {
   performance.mark('gw-analyse-start');
   const report = analyse(design, { spreadTrials: 0 });
-  const charts = allCharts(report);
-  const spreadBefore = before?.charts.find((c) => c.id === 'spread');
-  if (spreadBefore && design.analysis.spreadTrials > 0) charts.push(spreadBefore);
+  // The transfer plot follows the edit at once; the other plots of the design before stay for the moment until
+  // the second step redraws them, so that an edit draws one plot before the verdict paints, not five.
+  const fresh = allCharts(report);
+  const transfer = fresh.filter((c) => c.id === 'transfer');
+  const charts = before ? [...transfer, ...before.charts.filter((c) => c.id !== 'transfer')] : fresh;
   const own = !!report.waveform;
   const derived: Derived = {
     report, words: reportWords(report), charts, drawing: schematic(report), rows: bomRows(report), figures: keyFigures(report),
@@ -201,6 +204,8 @@ export class GwApp extends LitElement {
   private _cancelComplete: (() => void) | null = null;
   /** Issue 23: the last completed derivation, which the printed sheet shows (it is not on screen). */
   @state() private _complete: Derived | null = null;
+  /** Issue 23: the results (schematic, plots, parts, findings…) join the page once the verdict has painted. */
+  @state() private _resultsShown = false;
 
   /** The design in force (read by the persistence controller). */
   get currentDesign(): Design { return this._design; }
@@ -216,6 +221,7 @@ export class GwApp extends LitElement {
       performance.mark('gw-first-render');
       // Once the verdict has painted: the unit engine and the panels every page shows (issue 23).
       afterPaint(() => {
+        this._resultsShown = true;
         void loadUnits();
         for (const tag of PANELS_AFTER_FIRST_RENDER) loadPanel(tag).catch((e: unknown) => this._loadFault(e));
       });
@@ -253,7 +259,14 @@ export class GwApp extends LitElement {
       this._derived = full;
       this._complete = full;
     } catch (e) { this._fault(e); }
+    // An edit's whole cost, every plot redrawn included (read by `npm run bench` beside `gw-edit`).
+    const start = this._editStart;
+    this._editStart = null;
+    if (start !== null) void this.updateComplete.then(() => performance.measure('gw-edit-all', { start, end: performance.now() }));
   }
+
+  /** When the edit whose second step is awaited began (performance.now()). */
+  private _editStart: number | null = null;
 
   private _onBeforePrint = (): void => this._completeNow();
   // --- end issue 23
@@ -399,7 +412,9 @@ export class GwApp extends LitElement {
       return;
     }
     performance.mark('gw-edit-start');
+    const start = performance.now();
     if (!this._setDesign(v.design)) return;
+    this._editStart = start;
     const messages = { ...this._messages };
     if (fieldPath) delete messages[fieldPath];
     for (const k of Object.keys(messages)) if (!k.startsWith('(')) delete messages[k];
@@ -673,7 +688,17 @@ export class GwApp extends LitElement {
             @gw-sensor-type=${this._onSensorType} @gw-opamp-archetype=${this._onArchetype}></gw-editor>
           <div class="panel" id="kit"><h2>Resistor kit</h2><gw-kit-editor .kit=${this._design.target.kit ?? null} @gw-set=${this._onSet}></gw-kit-editor></div>
         </section>
-        <section class="area-results" aria-label="Results">
+        <section class="area-results" aria-label="Results" aria-busy=${this._resultsShown ? 'false' : 'true'}>${this._resultsShown ? this._results() : nothing}</section>
+      </main>
+      ${this._sheet()}
+    `;
+  }
+
+  /** The results beside the verdict: comparisons, schematic, scope, plots, range switch, trade, parts, figures, findings, calibration, bench readings. */
+  private _results() {
+    const d = this._derived;
+    const r = d?.report;
+    return html`
           <div class="panel" id="compare-opamps"><gw-opamp-compare .rows=${this._compare.rows} .own=${this._compare.own} .message=${this._compare.message}
             .measurand=${this._design.sensor.measurand} ?battery=${!!this._design.supply.battery} ?open=${this._compare.open.opamps}
             @gw-panel-toggle=${(e: HTMLElementEventMap['gw-panel-toggle']) => this._compare.setOpen(e.detail.panel, e.detail.open)}
@@ -684,7 +709,7 @@ export class GwApp extends LitElement {
           <div class="panel scroll" id="scope" aria-busy=${d?.pending ? 'true' : 'false'}><h2>What the scope shows</h2><div class="scope">
             ${d?.wave ? html`<gw-chart data-chart="waveform" .data=${d.wave}></gw-chart>` : nothing}
             <gw-figures caption="Waveform figures" .rows=${d?.waveRows ?? []}></gw-figures></div></div>
-          <div class="panel"><h2>Plots</h2><div class="charts">${(d?.charts ?? []).map((c) => html`<gw-chart data-chart=${c.id} .data=${c}></gw-chart>`)}</div></div>
+          <div class="panel" id="plots" aria-busy=${d?.pending ? 'true' : 'false'}><h2>Plots</h2><div class="charts">${(d?.charts ?? []).map((c) => html`<gw-chart data-chart=${c.id} .data=${c}></gw-chart>`)}</div></div>
           ${r?.ranges?.ok ? html`<div class="panel scroll" id="ranges"><h2>Range switch</h2><gw-ranges .report=${r} @gw-range-spice=${this._onRangeSpice}></gw-ranges></div>` : nothing}
           <details class="panel" id="trade" @toggle=${this._onTradeToggle}><summary><h2 class="inline">Turns and gap: what each one buys</h2></summary>
             <gw-trade .trade=${this._trade} .measurand=${this._design.sensor.measurand} ?pending=${this._tradeFor !== this._design} @gw-trade-adopt=${this._onTradeAdopt}></gw-trade></details>
@@ -694,11 +719,7 @@ export class GwApp extends LitElement {
           <div class="panel"><h2>Findings</h2><ul>${(d?.words.findings ?? []).map((w) => html`<li data-code=${w.code}><strong>${w.level}</strong>: ${w.message}</li>`)}</ul></div>
           <div class="panel"><h2>Calibration</h2><ol class="cal">${(d?.words.calibration ?? []).map((c) => html`<li>${c.text}</li>`)}</ol></div>
           <div class="panel" id="probe-readings"><h2>Measured on the built probe</h2><gw-bench mode="probe" .report=${r ?? null} @gw-set=${this._onSet}></gw-bench></div>
-          <div class="panel" id="sensor-readings"><h2>Sensor from bench readings</h2><gw-bench mode="sensor" .report=${r ?? null} @gw-set=${this._onSet}></gw-bench></div>
-        </section>
-      </main>
-      ${this._sheet()}
-    `;
+          <div class="panel" id="sensor-readings"><h2>Sensor from bench readings</h2><gw-bench mode="sensor" .report=${r ?? null} @gw-set=${this._onSet}></gw-bench></div>`;
   }
 }
 
