@@ -28,6 +28,7 @@ import { ComparisonController } from './comparison-controller.js';
 // Issue 23: the panels around the verdict (comparisons, supplies, kit, range switch, trade, bench readings,
 // printed sheet) and the exporters load on demand, each its own chunk.
 import { PANELS_AFTER_FIRST_RENDER, loadPanel, onDemandCore } from './on-demand.js';
+import { loadChartJs } from './chart-controller.js';
 
 /** The unit engine (mathjs units) loads after the first render so that it does not delay it. */
 let unitsLoading: Promise<unknown> | null = null;
@@ -102,6 +103,14 @@ function afterPaint(job: () => void): () => void {
   const frame = requestAnimationFrame(() => setTimeout(go, 0));
   const timer = setTimeout(go, 250);
   return () => { done = true; cancelAnimationFrame(frame); clearTimeout(timer); };
+}
+
+/** Runs `job` once Chart.js is loaded (or could not be) and the frame after has painted; returns a canceller. */
+function afterChartJs(job: () => void): () => void {
+  let cancel: (() => void) | null = null;
+  let off = false;
+  loadChartJs().catch(() => undefined).then(() => { if (!off) cancel = afterPaint(job); });
+  return () => { off = true; cancel?.(); };
 }
 
 /**
@@ -219,11 +228,14 @@ export class GwApp extends LitElement {
     window.addEventListener('beforeprint', this._onBeforePrint);
     this.updateComplete.then(() => {
       performance.mark('gw-first-render');
-      // Once the verdict has painted: the unit engine and the panels every page shows (issue 23).
+      // Once the verdict has painted: the results; once Chart.js is there too (the plots draw first), the unit
+      // engine and the panels every page shows (issue 23).
       afterPaint(() => {
         this._resultsShown = true;
-        void loadUnits();
-        for (const tag of PANELS_AFTER_FIRST_RENDER) loadPanel(tag).catch((e: unknown) => this._loadFault(e));
+        afterChartJs(() => {
+          void loadUnits();
+          for (const tag of PANELS_AFTER_FIRST_RENDER) loadPanel(tag).catch((e: unknown) => this._loadFault(e));
+        });
       });
     });
   }
@@ -326,10 +338,12 @@ export class GwApp extends LitElement {
     // Issue 23: the Monte Carlo spread and the starting waveform once the verdict has painted (the design's own
     // trial count, analysis.spreadTrials); a newer design cancels the older one's.
     this._cancelComplete?.();
-    this._cancelComplete = afterPaint(() => {
+    const run = () => {
       this._cancelComplete = null;
       if (this._derived === derived) this._completeNow();
-    });
+    };
+    // At start-up, after the first plots too: they draw from the first step's data, and the second step adds to them.
+    this._cancelComplete = this._resultsShown ? afterPaint(run) : afterChartJs(run);
     this._scheduleTrade();
     return true;
   }
