@@ -14,7 +14,6 @@
  */
 import { closeSync, constants, fstatSync, openSync, readSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
-import '../model/units-mathjs.js';
 import { decodeDesignBytes, formatProblems, MAX_DESIGN_BYTES, parseDesignText, tooLargeMessage } from '../model/design.js';
 import { quoteText } from '../model/validate.js';
 import { analyse } from '../analysis/report.js';
