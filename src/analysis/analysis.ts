@@ -540,8 +540,32 @@ export function supply(design: Design, front: SensorFront, sc: StageCircuit, dc:
   if (design.supply.regulated?.quiescentCurrent) parts.push({ name: 'regulator quiescent', current: design.supply.regulated.quiescentCurrent });
   if (design.supply.battery?.rails === 'split') parts.push({ name: 'rail splitter', current: design.supply.battery.splitterCurrent ?? SPLITTER_CURRENT });
   const current = parts.reduce((s, p) => s + p.current, 0);
+  return { current, parts, batteryLife: batteryLifeAt(design, current) };
+}
+
+/** Running time on the battery at a current, hours: capacity ÷ current (null without a battery or a current). */
+function batteryLifeAt(design: Design, current: number): number | null {
   const bat = design.supply.battery;
-  return { current, parts, batteryLife: bat && current > 0 ? bat.capacity / current / HOUR : null };
+  return bat && current > 0 ? bat.capacity / current / HOUR : null;
+}
+
+/**
+ * The supply with a further steady draw beside the stage's own (a range switch's dividers not in use, which
+ * stay across their rail), and the battery clip's hours for it: the clip voltage is the stage's, the time to
+ * reach it is the charge over the larger current.
+ */
+export function withExtraDraw(design: Design, sup: SupplyResult, clip: BatteryClip | null, part: string, amps: number): { supply: SupplyResult; batteryClip: BatteryClip | null } {
+  if (!(amps > 0)) return { supply: sup, batteryClip: clip };
+  const current = sup.current + amps;
+  const supply: SupplyResult = { current, parts: [...sup.parts, { name: part, current: amps }], batteryLife: batteryLifeAt(design, current) };
+  const bat = design.supply.battery;
+  const batteryClip = clip && bat ? { voltage: clip.voltage, hoursToEnd: supply.batteryLife, hoursToClip: clip.voltage === null ? null : hoursToVoltage(bat, supply.batteryLife, clip.voltage) } : clip;
+  return { supply, batteryClip };
+}
+
+/** Hours from a fresh battery to voltage v, the voltage taken as falling linearly with the charge drawn. */
+function hoursToVoltage(bat: NonNullable<Design['supply']['battery']>, hoursToEnd: number | null, v: number): number | null {
+  return hoursToEnd === null ? null : (hoursToEnd * (bat.fresh - v)) / (bat.fresh - bat.endOfLife);
 }
 
 export interface BatteryStep {
@@ -626,7 +650,7 @@ export function batteryClip(design: Design, stage: SolvedStage, front: SensorFro
   const hoursToEnd = sup.batteryLife;
   if (!bat) return { voltage: null, hoursToClip: null, hoursToEnd: null };
   const margin = (s: BatteryStep | null) => (s ? Math.min(s.headroomLow, s.headroomHigh) : -Infinity);
-  const hours = (v: number) => (hoursToEnd === null ? null : (hoursToEnd * (bat.fresh - v)) / (bat.fresh - bat.endOfLife));
+  const hours = (v: number) => hoursToVoltage(bat, hoursToEnd, v);
   const k = sweep.findIndex((s) => margin(s) < 0);
   if (k < 0) return { voltage: null, hoursToClip: null, hoursToEnd };
   if (k === 0) return { voltage: sweep[0]!.voltage, hoursToClip: 0, hoursToEnd };
