@@ -6,7 +6,7 @@
 import type { Design } from '../model/design.js';
 import type { LimitData } from '../model/findings.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
-import { adjointAt, signalTransfer, solveDc, stampReal, luFactorReal, luSolveReal, rhs, workspace, type Element } from '../circuit/mna.js';
+import { adjointAt, signalTransfer, solveDc, stampReal, luFactorReal, luSolveReal, rhs, workspace, type Element, type ElementRole } from '../circuit/mna.js';
 import { integratePower, logGrid, peakToPeak } from '../physics/noise.js';
 import { noiseSpectrum, type NoiseSpectrum } from '../circuit/noise.js';
 import { atSensorSupply, sensorFront, type SensorFront, type SensorLimitKind } from '../physics/sensors.js';
@@ -303,7 +303,8 @@ export interface NoiseResult {
   referredRms: number;
   referredDensityAt1kHz: number;
   /** Each source's share of the integrated noise power. */
-  shares: Array<{ name: string; rms: number; fraction: number }>;
+  /** Each source's share of the noise power, largest first (`role` and `part` say what it is; src/present words it). */
+  shares: Array<{ name: string; role?: ElementRole; part?: string; rms: number; fraction: number }>;
   /** Whether the band is the default one (`defaultBand`) rather than the design's own. */
   bandIsDefault: boolean;
   /** The 0.1–10 Hz figure that decides how far a DC reading wanders: rms and peak-to-peak at the output, V, and referred. */
@@ -339,7 +340,7 @@ export function noise(design: Design, sc: StageCircuit, sp: Speed, points = 201)
   const rms = Math.sqrt(power);
   const shares = spectrum.sources.map((s) => {
     const p = integratePower(freqs, s.density);
-    return { name: s.name, rms: Math.sqrt(p), fraction: power > 0 ? p / power : 0 };
+    return { name: s.name, ...(s.role ? { role: s.role } : {}), ...(s.part ? { part: s.part } : {}), rms: Math.sqrt(p), fraction: power > 0 ? p / power : 0 };
   }).sort((a, b) => b.fraction - a.fraction);
   const g = Math.abs(sp.passband) || NaN;
   const lf = LOW_FREQUENCY_BAND;
