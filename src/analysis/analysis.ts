@@ -6,7 +6,7 @@
 import type { Design } from '../model/design.js';
 import type { LimitData } from '../model/findings.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
-import { adjointAt, signalTransfer, solveDc, stampReal, luFactorReal, luSolveReal, rhs, workspace, type Element } from '../circuit/mna.js';
+import { adjointAt, signalTransfer, solveDc, stampReal, luFactorReal, luSolveReal, rhs, workspace, type Element, type ElementRole } from '../circuit/mna.js';
 import { integratePower, logGrid, peakToPeak } from '../physics/noise.js';
 import { noiseSpectrum, type NoiseSpectrum } from '../circuit/noise.js';
 import { atSensorSupply, sensorFront, type SensorFront, type SensorLimitKind } from '../physics/sensors.js';
@@ -217,7 +217,7 @@ export function responseFromSpectrum(s: NoiseSpectrum): FrequencyResponse {
 /** Gain (magnitude, V per measurand unit) and phase (degrees, unwrapped) at the output over f1…f2 Hz on a log grid of `points`. */
 export function frequencyResponse(sc: StageCircuit, f1: number, f2: number, points = 200): FrequencyResponse {
   const freqs = new Float64Array(points), re = new Float64Array(points), im = new Float64Array(points);
-  const ws = workspace(sc.circuit);
+  const ws = workspace(sc.circuit, true);
   for (let i = 0; i < points; i++) {
     freqs[i] = f1 * (f2 / f1) ** (i / (points - 1));
     [re[i], im[i]] = transferAt(sc, freqs[i]!, ws);
@@ -257,7 +257,7 @@ function crossing(sc: StageCircuit, level: number, f1: number, f2: number, ws: R
  * bandwidth, e.g. Sedra & Smith, Microelectronic Circuits, on slew rate; from memory).
  */
 export function speed(design: Design, sc: StageCircuit, front: SensorFront, dc: DcPoint): Speed {
-  const ws = workspace(sc.circuit);
+  const ws = workspace(sc.circuit, true);
   const gbw = design.opamp.gbw;
   const fHi = Math.max(gbw, front.bandwidth < 1e8 ? front.bandwidth : 0) * 100;
   let passband: number;
@@ -303,7 +303,8 @@ export interface NoiseResult {
   referredRms: number;
   referredDensityAt1kHz: number;
   /** Each source's share of the integrated noise power. */
-  shares: Array<{ name: string; rms: number; fraction: number }>;
+  /** Each source's share of the noise power, largest first (`role` and `part` say what it is; src/present words it). */
+  shares: Array<{ name: string; role?: ElementRole; part?: string; rms: number; fraction: number }>;
   /** Whether the band is the default one (`defaultBand`) rather than the design's own. */
   bandIsDefault: boolean;
   /** The 0.1–10 Hz figure that decides how far a DC reading wanders: rms and peak-to-peak at the output, V, and referred. */
@@ -339,7 +340,7 @@ export function noise(design: Design, sc: StageCircuit, sp: Speed, points = 201)
   const rms = Math.sqrt(power);
   const shares = spectrum.sources.map((s) => {
     const p = integratePower(freqs, s.density);
-    return { name: s.name, rms: Math.sqrt(p), fraction: power > 0 ? p / power : 0 };
+    return { name: s.name, ...(s.role ? { role: s.role } : {}), ...(s.part ? { part: s.part } : {}), rms: Math.sqrt(p), fraction: power > 0 ? p / power : 0 };
   }).sort((a, b) => b.fraction - a.fraction);
   const g = Math.abs(sp.passband) || NaN;
   const lf = LOW_FREQUENCY_BAND;
@@ -383,6 +384,13 @@ export interface ErrorBudget {
  * range end; common practice: large enough to read well, small enough for a bench supply).
  */
 const SPAN_CALIBRATION_FRACTION = 0.5;
+
+/** The stage circuit with every resistor of one part multiplied by `factor` (a copy; the circuit is untouched). */
+function withPartScaled(sc: StageCircuit, part: string, factor: number): StageCircuit {
+  const c = sc.circuit;
+  const elements = c.elements.map((e) => (e.kind === 'R' && e.part === part ? { ...e, value: e.value * factor } : e));
+  return { ...sc, circuit: { ...c, elements } };
+}
 
 /**
  * DC error budget at both range ends, in measurand units. Each resistor and trimmer is moved by its
@@ -456,10 +464,11 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
   const drift = { resistor: { low: 0, high: 0 }, trimmer: { low: 0, high: 0 } };
   for (const p of stage.parts) {
     if (p.kind === 'capacitor') continue;
-    const names = sc.circuit.elements.filter((e) => e.kind === 'R' && e.part === p.ref).map((e) => e.name);
-    if (!names.length) continue;
+    if (!sc.circuit.elements.some((e) => e.kind === 'R' && e.part === p.ref)) continue;
+    // The same circuit with this part's resistors scaled (what buildCircuit's `scale` option builds, without
+    // building the rest again: only element values change, not the nodes or the branches).
     const shift = (rel: number) => {
-      const sc2 = buildCircuit(design, stage, front, { scale: Object.fromEntries(names.map((n) => [n, 1 + rel])) });
+      const sc2 = withPartScaled(sc, p.ref, 1 + rel);
       const d2 = dcLinear(sc2, passband);
       if (!d2) return { dz: 0, ds: 0 };
       return { dz: d2.out[0] - base0, ds: d2.out[1] - base1 };
@@ -532,8 +541,32 @@ export function supply(design: Design, front: SensorFront, sc: StageCircuit, dc:
   if (design.supply.regulated?.quiescentCurrent) parts.push({ name: 'regulator quiescent', current: design.supply.regulated.quiescentCurrent });
   if (design.supply.battery?.rails === 'split') parts.push({ name: 'rail splitter', current: design.supply.battery.splitterCurrent ?? SPLITTER_CURRENT });
   const current = parts.reduce((s, p) => s + p.current, 0);
+  return { current, parts, batteryLife: batteryLifeAt(design, current) };
+}
+
+/** Running time on the battery at a current, hours: capacity ÷ current (null without a battery or a current). */
+function batteryLifeAt(design: Design, current: number): number | null {
   const bat = design.supply.battery;
-  return { current, parts, batteryLife: bat && current > 0 ? bat.capacity / current / HOUR : null };
+  return bat && current > 0 ? bat.capacity / current / HOUR : null;
+}
+
+/**
+ * The supply with a further steady draw beside the stage's own (a range switch's dividers not in use, which
+ * stay across their rail), and the battery clip's hours for it: the clip voltage is the stage's, the time to
+ * reach it is the charge over the larger current.
+ */
+export function withExtraDraw(design: Design, sup: SupplyResult, clip: BatteryClip | null, part: string, amps: number): { supply: SupplyResult; batteryClip: BatteryClip | null } {
+  if (!(amps > 0)) return { supply: sup, batteryClip: clip };
+  const current = sup.current + amps;
+  const supply: SupplyResult = { current, parts: [...sup.parts, { name: part, current: amps }], batteryLife: batteryLifeAt(design, current) };
+  const bat = design.supply.battery;
+  const batteryClip = clip && bat ? { voltage: clip.voltage, hoursToEnd: supply.batteryLife, hoursToClip: clip.voltage === null ? null : hoursToVoltage(bat, supply.batteryLife, clip.voltage) } : clip;
+  return { supply, batteryClip };
+}
+
+/** Hours from a fresh battery to voltage v, the voltage taken as falling linearly with the charge drawn. */
+function hoursToVoltage(bat: NonNullable<Design['supply']['battery']>, hoursToEnd: number | null, v: number): number | null {
+  return hoursToEnd === null ? null : (hoursToEnd * (bat.fresh - v)) / (bat.fresh - bat.endOfLife);
 }
 
 export interface BatteryStep {
@@ -608,7 +641,8 @@ export interface BatteryClip {
 /**
  * Where the output first clips inside the range as the battery sags, solved exactly: the smaller headroom is
  * continuous in the rail voltage (piecewise linear), so its sign change between two sweep points is
- * bisected to 1 µV. Times assume the battery voltage falls linearly with the charge drawn at a constant
+ * bracketed to 1 µV by false position (`crossingBracket`: one or two solves on a straight piece, bisection
+ * where it bends). Times assume the battery voltage falls linearly with the charge drawn at a constant
  * current (t = Q/I, Q the capacity; the straight line from fresh to end of life is our approximation, a
  * real cell's curve is flatter in the middle).
  */
@@ -617,17 +651,45 @@ export function batteryClip(design: Design, stage: SolvedStage, front: SensorFro
   const hoursToEnd = sup.batteryLife;
   if (!bat) return { voltage: null, hoursToClip: null, hoursToEnd: null };
   const margin = (s: BatteryStep | null) => (s ? Math.min(s.headroomLow, s.headroomHigh) : -Infinity);
-  const hours = (v: number) => (hoursToEnd === null ? null : (hoursToEnd * (bat.fresh - v)) / (bat.fresh - bat.endOfLife));
+  const hours = (v: number) => hoursToVoltage(bat, hoursToEnd, v);
   const k = sweep.findIndex((s) => margin(s) < 0);
   if (k < 0) return { voltage: null, hoursToClip: null, hoursToEnd };
   if (k === 0) return { voltage: sweep[0]!.voltage, hoursToClip: 0, hoursToEnd };
-  let hi = sweep[k - 1]!.voltage, lo = sweep[k]!.voltage;
-  for (let i = 0; i < 60 && hi - lo > 1e-6; i++) {
-    const m = (hi + lo) / 2;
-    if (margin(batteryStep(design, stage, front, zero, m)) < 0) lo = m; else hi = m;
-  }
-  const v = (hi + lo) / 2;
+  const v = crossingBracket(sweep[k]!.voltage, margin(sweep[k]!), sweep[k - 1]!.voltage, margin(sweep[k - 1]!), 1e-6,
+    (x) => margin(batteryStep(design, stage, front, zero, x)));
   return { voltage: v, hoursToClip: hours(v), hoursToEnd };
+}
+
+/**
+ * The point where a continuous function g crosses from negative (at `lo`) to non-negative (at `hi`), to within
+ * `tol`: the middle of a bracket [lo, hi] no wider than `tol` with g(lo) < 0 ≤ g(hi). Each round places a
+ * false-position estimate (exact on a straight piece) and probes 0.45·`tol` either side of it, which closes the
+ * bracket at once when g is straight there; a round that does not halve the bracket is followed by a
+ * bisection, so it never takes more rounds than bisection's doubled (Press et al., Numerical Recipes, §9.2–9.3,
+ * false position and bisection; from memory).
+ */
+export function crossingBracket(lo: number, gLo: number, hi: number, gHi: number, tol: number, g: (x: number) => number): number {
+  let bisectNext = false;
+  for (let i = 0; i < 120 && hi - lo > tol; i++) {
+    const width = hi - lo;
+    const straight = Number.isFinite(gLo) && Number.isFinite(gHi) && gHi > gLo;
+    if (bisectNext || !straight) {
+      const m = (hi + lo) / 2;
+      const gm = g(m);
+      if (gm < 0) { lo = m; gLo = gm; } else { hi = m; gHi = gm; }
+      bisectNext = false;
+      continue;
+    }
+    const x = Math.min(Math.max(lo + (width * -gLo) / (gHi - gLo), lo + tol / 2), hi - tol / 2);
+    for (const p of [x + 0.45 * tol, x - 0.45 * tol]) {
+      if (!(p > lo && p < hi)) continue;
+      const gp = g(p);
+      if (gp < 0) { lo = p; gLo = gp; } else { hi = p; gHi = gp; }
+      if (hi - lo <= tol) break;
+    }
+    bisectNext = hi - lo > width / 2;
+  }
+  return (hi + lo) / 2;
 }
 
 export interface SpreadResult {

@@ -81,7 +81,7 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
     el({ kind: 'I', name: 'ISIG', role: 'signal', na: 'sq', nb: 'sm', value: 0, dc0: 0, dc1: ratio, ac: ratio });
     el({ kind: 'L', name: 'LM', na: 'sm', nb: 'sq', value: spec.inductanceFactor * spec.secondaryTurns ** 2 });
     R('RW', 'sm', 'sens', spec.windingResistance);
-    R('RB', 'sens', 'sq', spec.burden);
+    R('RB', 'sens', 'sq', spec.burden, true, { role: 'burden' });
   } else if (spec.type === 'closed-loop-hall') {
     // The whole loop (core, Hall sensor, compensation, driver, winding, R_M) is part of the stage's circuit.
     // On a battery sweep the rails move, and with them a mid-rail reference (a rail splitter follows the battery).
@@ -93,10 +93,10 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
       // High side: the supply end at the common-mode voltage is the + terminal; the load end, I·R below it, the −.
       el({ kind: 'V', name: 'VCM', na: 'sens', nb: '0', value: 0, dc0: f.commonMode, dc1: 0, ac: 0 });
       el({ kind: 'I', name: 'ISIG', role: 'signal', na: 'sensn', nb: '0', value: 0, dc0: 0, dc1: 1, ac: 1 });
-      R('RSH', 'sens', 'sensn', spec.resistance);
+      R('RSH', 'sens', 'sensn', spec.resistance, true, { role: 'shunt' });
     } else {
       el({ kind: 'I', name: 'ISIG', role: 'signal', na: '0', nb: 'sens', value: 0, dc0: 0, dc1: 1, ac: 1 });
-      R('RSH', 'sens', '0', spec.resistance);
+      R('RSH', 'sens', '0', spec.resistance, true, { role: 'shunt' });
     }
   } else {
     // A differential output: its − terminal at the common-mode voltage, the signal on top of it.
@@ -123,8 +123,8 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
   const oa = design.opamp;
   const a0 = 10 ** (oa.openLoopGainDb / 20);
   el({ kind: 'V', name: 'VOS', role: 'opamp-offset', na: 'inp', nb: 'inpi', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { vos: oa.offsetVoltage }, noise: oa.voltageNoise, noiseCorner: oa.voltageNoiseCorner });
-  el({ kind: 'I', name: 'IBP', na: 'inpi', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibp: oa.biasCurrent }, noise: oa.currentNoise, noiseCorner: oa.currentNoiseCorner });
-  el({ kind: 'I', name: 'IBN', na: 'inn', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibn: oa.biasCurrent }, noise: oa.currentNoise, noiseCorner: oa.currentNoiseCorner });
+  el({ kind: 'I', name: 'IBP', role: 'opamp-bias-positive', na: 'inpi', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibp: oa.biasCurrent }, noise: oa.currentNoise, noiseCorner: oa.currentNoiseCorner });
+  el({ kind: 'I', name: 'IBN', role: 'opamp-bias-negative', na: 'inn', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibn: oa.biasCurrent }, noise: oa.currentNoise, noiseCorner: oa.currentNoiseCorner });
   el({ kind: 'E', name: 'EOA', role: 'opamp-gain', na: 'int', nb: '0', value: a0, pole: oa.gbw / a0, cpn: 'inpi', cnn: 'inn' });
   R('ROUT', 'int', 'pin', Math.max(oa.outputResistance, 1e-3), false);
 
@@ -219,7 +219,7 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
   } else {
     nm.wire('pin', 'out');
   }
-  R('RLOAD', 'out', '0', design.output.load.resistance);
+  R('RLOAD', 'out', '0', design.output.load.resistance, true, { role: 'load' });
   if (design.output.load.capacitance > 0) el({ kind: 'C', name: 'CLOAD', na: 'out', nb: '0', value: design.output.load.capacitance });
 
   // Resolve node names to indices.
@@ -231,18 +231,24 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
     if (i === undefined) { i = names.length; names.push(r); index.set(r, i); }
     return i;
   };
-  const elements: Element[] = pending.map((p) => {
-    const { na, nb, cpn, cnn, ctrlName, ...rest } = p;
-    const e: Element & { ctrlName?: string } = { ...rest, a: idx(na), b: idx(nb) };
-    if (cpn !== undefined) e.cp = idx(cpn);
-    if (cnn !== undefined) e.cn = idx(cnn);
-    if (ctrlName !== undefined) e.ctrlName = ctrlName;
-    return e;
-  }).filter((e) => !(e.kind === 'R' && e.a === e.b));
-  // A current-controlled source names its controlling element; its index is known only now.
-  for (const e of elements as Array<Element & { ctrlName?: string }>) {
-    if (e.ctrlName !== undefined) { e.ctrl = elements.findIndex((x) => x.name === e.ctrlName); delete e.ctrlName; }
+  // Each pending element becomes an element with node indices, written out field by field (an object rest
+  // here was a tenth of a report's time: the circuit is rebuilt for every battery voltage); wires that join a
+  // resistor's two ends drop it. Nodes are numbered in the order they are met, as before.
+  const elements: Element[] = [];
+  const ctrlNames: Array<[Element, string]> = [];
+  for (const p of pending) {
+    const a = idx(p.na), b = idx(p.nb);
+    const e: Element = {
+      kind: p.kind, name: p.name, role: p.role, part: p.part, tolerance: p.tolerance, a, b, value: p.value,
+      dc0: p.dc0, dc1: p.dc1, ac: p.ac, extra: p.extra, noisy: p.noisy, noise: p.noise, noiseCorner: p.noiseCorner,
+      cp: p.cpn !== undefined ? idx(p.cpn) : p.cp, cn: p.cnn !== undefined ? idx(p.cnn) : p.cn, pole: p.pole, ctrl: p.ctrl,
+    };
+    if (p.kind === 'R' && a === b) continue;
+    elements.push(e);
+    if (p.ctrlName !== undefined) ctrlNames.push([e, p.ctrlName]);
   }
+  // A current-controlled source names its controlling element; its index is known only now.
+  for (const [e, name] of ctrlNames) e.ctrl = elements.findIndex((x) => x.name === name);
   const circuit = compile(names, elements);
   const find = (role: Element['role']) => elements.findIndex((e) => e.role === role);
   return {
