@@ -33,6 +33,7 @@ import { positionNetlist, tradeSweep, type TradeResult } from '../src/index.js';
 import { ComparisonController } from './comparison-controller.js';
 import './gw-opamp-compare.js';
 import './gw-supply-options.js';
+import { SUPPLY_WORDS, optionDesign } from '../src/index.js'; // issue 18, part 3
 import './gw-kit-editor.js';
 
 /** The unit engine (mathjs units) loads after the first render so that it does not delay it. */
@@ -40,8 +41,8 @@ let unitsLoading: Promise<unknown> | null = null;
 const loadUnits = () => (unitsLoading ??= import('../src/model/units-mathjs.js'));
 
 
-/** A line above the work area; `undo` offers to undo the replacement it reports. */
-interface Notice { text: string; bad: boolean; undo?: boolean }
+/** A line above the work area; `undo` offers to undo the replacement it reports, `undoChoice` the supply row adopted. */
+interface Notice { text: string; bad: boolean; undo?: boolean; undoChoice?: boolean }
 
 interface Derived {
   report: Report;
@@ -139,6 +140,8 @@ export class GwApp extends LitElement {
   @state() private _unsaved = false;
   /** The design the last replacement put aside: Undo brings it back. */
   @state() private _undo: { design: Design; title: string } | null = null;
+  /** Issue 18: the design before a supply row was adopted, offered back while the design is still the one it made. */
+  @state() private _choiceUndo: { before: Design; after: Design } | null = null;
   /** A replacement waiting for the person's yes, because the design in force has unsaved edits. */
   @state() private _confirm: { design: Design; what: string; done: string } | null = null;
 
@@ -410,10 +413,28 @@ export class GwApp extends LitElement {
     this._enqueue(() => this._apply({ ...this._design, opamp: { ...opamp } }, null));
   };
 
+  // --- issue 18, part 3: a supply row (its supply, zero and op-amp) is one edit, and Undo takes it back.
   private _onAdoptSupply = (e: HTMLElementEventMap['gw-adopt-supply']): void => {
-    const { supply, zero } = e.detail;
-    this._enqueue(() => this._apply({ ...this._design, supply, target: { ...this._design.target, zero } }, null));
+    const { kind } = e.detail;
+    this._enqueue(() => {
+      const before = this._design;
+      this._apply(optionDesign(before, e.detail), null);
+      if (this._design === before) return;
+      this._choiceUndo = { before, after: this._design };
+      this._notice = { text: `Now: ${SUPPLY_WORDS[kind].toLowerCase()}${kind === 'zero' ? ` (${formatEng(this._design.target.zero, 'V', 3)})` : ''}.`, bad: false, undoChoice: true };
+    });
   };
+
+  private _undoChoice(): void {
+    const u = this._choiceUndo;
+    if (!u || this._design !== u.after) return;
+    this._enqueue(() => {
+      this._apply(u.before, null);
+      this._choiceUndo = null;
+      this._notice = { text: 'Back to the design before that choice.', bad: false };
+    });
+  }
+  // --- end issue 18, part 3
 
   private _download(text: string, name: string, type: string): void {
     const url = URL.createObjectURL(new Blob([text], { type }));
@@ -494,6 +515,7 @@ export class GwApp extends LitElement {
         <button @click=${() => { this._confirm = null; }}>Keep mine</button></div>` : nothing}
       ${this._notice ? html`<div class="notice ${this._notice.bad ? 'bad' : ''}" role="status" data-notice="message">${this._notice.text}
         ${this._undo && this._notice.undo ? html` <button @click=${this._undoReplace}>Undo</button>` : nothing}
+        ${this._notice.undoChoice && this._choiceUndo?.after === this._design ? html` <button @click=${this._undoChoice}>Undo</button>` : nothing}
         ${dismiss(() => this._dismiss())}</div>` : nothing}
     `;
   }

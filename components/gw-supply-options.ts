@@ -1,23 +1,30 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import { SUPPLY_WORDS, formatEng, hoursText, misfitWords, railsText, rangeText, type Supply, type SupplyOption } from '../src/index.js';
+import { SUPPLY_WORDS, formatEng, hoursText, misfitWords, railsText, rangeText, sayFinding, type OpAmpSpec, type Supply, type SupplyKind, type SupplyOption } from '../src/index.js';
 import { base, choiceTable } from './styles.js';
 
-/** `gw-adopt-supply`: make this the design's supply (and the zero it was designed for). */
-export interface AdoptSupplyDetail { supply: Supply; zero: number }
+/**
+ * `gw-adopt-supply`: make this the design's supply and the zero it was designed for, and with `opamp` (the
+ * rail-to-rail row) that op-amp, as one edit; `kind` says which row.
+ */
+export interface AdoptSupplyDetail { supply: Supply; zero: number; opamp: OpAmpSpec | null; kind: SupplyKind }
 
 const VERDICT = { pass: 'Pass', caution: 'Caution', fail: 'Fail' } as const;
 
 /**
  * The supply choices for a design on a battery, one row each: the rails, the zero, whether the stage fits
  * fresh and at end of life, the linear range at end of life, the battery life and the hours to the first
- * clip, and the verdict. The rows come from the core; the element only shows them.
+ * clip, and the verdict; the rows that buy back range lost at end of life (a zero for it, a rail-to-rail
+ * output op-amp) are marked, and each row's notes say what it changes. The rows come from the core; the
+ * element only shows them.
  * @fires gw-panel-toggle - `{ panel: 'supplies', open }` when the person opens or closes the panel.
- * @fires gw-adopt-supply - `{ supply, zero }` when the person picks a row to use.
+ * @fires gw-adopt-supply - `{ supply, zero, opamp, kind }` when the person picks a row to use.
  */
 @customElement('gw-supply-options')
 export class GwSupplyOptions extends LitElement {
   static override styles = [base, choiceTable, css`
+    tr.gains th::after { content: ' ▲'; color: var(--gw-pass, #1a7f37); }
+    .note { display: block; max-width: 36em; font-weight: normal; }
   `];
 
   /** Choices from the core (`supplyOptions`); null while being worked out; empty without a battery. */
@@ -33,13 +40,13 @@ export class GwSupplyOptions extends LitElement {
   }
 
   private _adopt(o: SupplyOption): void {
-    this.dispatchEvent(new CustomEvent('gw-adopt-supply', { detail: { supply: o.supply, zero: o.zero }, bubbles: true, composed: true }));
+    this.dispatchEvent(new CustomEvent('gw-adopt-supply', { detail: { supply: o.supply, zero: o.zero, opamp: o.opamp, kind: o.kind }, bubbles: true, composed: true }));
   }
 
   private _row(o: SupplyOption) {
     const m = this.measurand;
-    return html`<tr class=${o.current ? 'current' : ''} data-kind=${o.kind} data-fits=${o.fits ? 'yes' : 'no'} data-verdict=${o.verdict}>
-      <th scope="row">${SUPPLY_WORDS[o.kind]}${o.current ? html`<br /><small>used now</small>` : nothing}${o.regulatorDropped ? html`<br /><small>no regulator: it does not fit under the positive rail</small>` : nothing}</th>
+    return html`<tr class=${o.current ? 'current' : o.gainsAtEndOfLife ? 'gains' : ''} data-kind=${o.kind} data-fits=${o.fits ? 'yes' : 'no'} data-verdict=${o.verdict}>
+      <th scope="row">${SUPPLY_WORDS[o.kind]}${o.current ? html`<br /><small>used now</small>` : nothing}${o.regulatorDropped ? html`<br /><small>no regulator: it does not fit under the positive rail</small>` : nothing}${o.notes.map((n) => html`<small class="note" data-note=${n.code}>${sayFinding(n)}</small>`)}</th>
       <td class="num">${railsText(o.supply)}</td><td class="num">${formatEng(o.zero, 'V', 3)}</td>
       <td>${o.fits ? 'Yes' : html`<span class="no">No</span><br /><small>${o.misfits.map(misfitWords).join('; ')}</small>`}</td>
       <td class="num">${rangeText(o.endOfLifeLow, o.endOfLifeHigh, m)}</td>

@@ -37,6 +37,8 @@ export interface SupplyOption extends RowFigures {
   current: boolean;
   /** What the row changes and why, as findings (worded in src/present/finding-words.ts). */
   notes: Finding[];
+  /** More of the range is linear at end of battery life than with the design as it is (`endCoverage`). */
+  gainsAtEndOfLife: boolean;
 }
 
 /** The design a row makes when adopted: its supply and zero, and its op-amp if it names one. */
@@ -224,7 +226,7 @@ export function supplyOptions(design: Design, judge: Judge, report?: Report, row
   if (!bat) return [];
   const m = design.sensor.measurand;
   const option = (kind: SupplyKind, d: Design, r: Report, notes: Finding[], regulatorDropped = false): SupplyOption => ({
-    kind, supply: d.supply, zero: d.target.zero, opamp: d.opamp === design.opamp ? null : d.opamp, regulatorDropped, current: kind === 'as-is', notes, ...figuresOf(r, judge),
+    kind, supply: d.supply, zero: d.target.zero, opamp: d.opamp === design.opamp ? null : d.opamp, regulatorDropped, current: kind === 'as-is', notes, gainsAtEndOfLife: false, ...figuresOf(r, judge),
   });
   const own = report ?? analyse(design, COMPARE_OPTIONS);
   const asIs = option('as-is', design, own, []);
@@ -232,7 +234,7 @@ export function supplyOptions(design: Design, judge: Judge, report?: Report, row
   // The zero row is offered when it buys back range: more of the range linear at end of life.
   const centred = withCentredZero(own);
   const row = centred && option('zero', centred.design, centred.report, []);
-  if (row && endCoverage(row, design) > endCoverage(asIs, design) + 1e-9 * (Math.abs(peakRange(design)[1] - peakRange(design)[0]))) {
+  if (row && endCoverage(row, design) > endCoverage(asIs, design) + 1e-4 * Math.abs(peakRange(design)[1] - peakRange(design)[0])) {
     const eol = endOfLifeVoltage(design);
     if (asIs.endOfLifeLow !== null && asIs.endOfLifeHigh !== null && row.endOfLifeLow !== null && row.endOfLifeHigh !== null) {
       row.notes.push(finding('supply-zero-centred', 'info', { from: design.target.zero, to: row.zero, endOfLife: eol, low: asIs.endOfLifeLow, high: asIs.endOfLifeHigh, newLow: row.endOfLifeLow, newHigh: row.endOfLifeHigh, measurand: m }));
@@ -241,8 +243,10 @@ export function supplyOptions(design: Design, judge: Judge, report?: Report, row
   }
   const r2r = bestRailToRail(design, judge, rows);
   if (r2r) {
+    // The comparison row's figures, without its own naming fields.
+    const { source: _source, id: _id, name: _name, opamp: _opamp, current: _current, ...figures } = r2r;
     out.push({
-      ...r2r, kind: 'rail-to-rail', supply: design.supply, zero: design.target.zero, opamp: r2r.opamp, regulatorDropped: false, current: false,
+      ...figures, kind: 'rail-to-rail', supply: design.supply, zero: design.target.zero, opamp: r2r.opamp, regulatorDropped: false, current: false, gainsAtEndOfLife: false,
       notes: [finding('supply-rail-to-rail', 'info', { name: r2r.name, outputLow: r2r.opamp.outputLow, outputHigh: r2r.opamp.outputHigh, low: r2r.endOfLifeLow, high: r2r.endOfLifeHigh, measurand: m })],
     });
   }
@@ -263,5 +267,8 @@ export function supplyOptions(design: Design, judge: Judge, report?: Report, row
     }
     out.push(option(kind, d, r, [], v.regulatorDropped));
   }
+  // A tenth of a per mille of the range is no gain (rounding of the stage's parts).
+  const tiny = 1e-4 * Math.abs(peakRange(design)[1] - peakRange(design)[0]);
+  for (const o of out) o.gainsAtEndOfLife = !o.current && endCoverage(o, design) > endCoverage(asIs, design) + tiny;
   return out;
 }
