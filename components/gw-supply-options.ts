@@ -23,8 +23,13 @@ const VERDICT = { pass: 'Pass', caution: 'Caution', fail: 'Fail' } as const;
 @customElement('gw-supply-options')
 export class GwSupplyOptions extends LitElement {
   static override styles = [base, choiceTable, css`
-    tr.gains th::after { content: ' ▲'; color: var(--gw-pass, #1a7f37); }
-    .note { display: block; max-width: 36em; font-weight: normal; }
+    tr.gains th::after, .legend::before { content: '▲ '; color: var(--gw-pass, #1a7f37); }
+    tr.gains th::after { content: ' ▲'; }
+    .notes { margin: 0.5em 0 0; padding-left: 1.2em; max-width: 60em; }
+    .notes li { margin: 0.25em 0; }
+    .legend { margin: 0.5em 0 0; }
+    th[scope='row'] { min-width: 11em; }
+    td.fits { min-width: 13em; }
   `];
 
   /** Choices from the core (`supplyOptions`); null while being worked out; empty without a battery. */
@@ -46,14 +51,20 @@ export class GwSupplyOptions extends LitElement {
   private _row(o: SupplyOption) {
     const m = this.measurand;
     return html`<tr class=${o.current ? 'current' : o.gainsAtEndOfLife ? 'gains' : ''} data-kind=${o.kind} data-fits=${o.fits ? 'yes' : 'no'} data-verdict=${o.verdict}>
-      <th scope="row">${SUPPLY_WORDS[o.kind]}${o.current ? html`<br /><small>used now</small>` : nothing}${o.regulatorDropped ? html`<br /><small>no regulator: it does not fit under the positive rail</small>` : nothing}${o.notes.map((n) => html`<small class="note" data-note=${n.code}>${sayFinding(n)}</small>`)}</th>
+      <th scope="row">${SUPPLY_WORDS[o.kind]}${o.current ? html`<br /><small>used now</small>` : nothing}${o.regulatorDropped ? html`<br /><small>no regulator: it does not fit under the positive rail</small>` : nothing}${o.opamp ? html`<br /><small>${o.opamp.name}</small>` : nothing}</th>
       <td class="num">${railsText(o.supply)}</td><td class="num">${formatEng(o.zero, 'V', 3)}</td>
-      <td>${o.fits ? 'Yes' : html`<span class="no">No</span><br /><small>${o.misfits.map(misfitWords).join('; ')}</small>`}</td>
+      <td class="fits">${o.fits ? 'Yes' : html`<span class="no">No</span><br /><small>${o.misfits.map(misfitWords).join('; ')}</small>`}</td>
       <td class="num">${rangeText(o.endOfLifeLow, o.endOfLifeHigh, m)}</td>
       <td class="num">${hoursText(o.batteryLife)}</td><td class="num">${o.hoursToClip === null ? 'never' : hoursText(o.hoursToClip)}</td>
       <td class=${o.verdict}><span class="tag">${VERDICT[o.verdict]}</span></td>
       <td>${o.current ? nothing : html`<button @click=${() => this._adopt(o)} aria-label=${`Use: ${SUPPLY_WORDS[o.kind]}`}>Use</button>`}</td>
     </tr>`;
+  }
+
+  /** What the rows that change more than the supply do, one sentence each from the core's notes. */
+  private _notes(options: SupplyOption[]) {
+    const notes = options.flatMap((o) => o.notes.map((n) => ({ o, n })));
+    return notes.length ? html`<ul class="notes" aria-label="About these choices">${notes.map(({ o, n }) => html`<li data-note=${n.code} data-kind=${o.kind}><strong>${SUPPLY_WORDS[o.kind]}:</strong> ${sayFinding(n)}</li>`)}</ul>` : nothing;
   }
 
   override render() {
@@ -64,7 +75,9 @@ export class GwSupplyOptions extends LitElement {
         : html`<div class="scroll"><table aria-label="Supply choices">
           <thead><tr><th>Supply</th><th class="num">Rails</th><th class="num">Zero</th><th>Fits</th><th class="num">Linear at end of life</th><th class="num">Battery life</th><th class="num">Clips after</th><th>Verdict</th><th></th></tr></thead>
           <tbody>${this.options.map((o) => this._row(o))}</tbody>
-        </table></div>`}
+        </table></div>
+        ${this.options.some((o) => o.gainsAtEndOfLife) ? html`<p class="legend"><small>More of the range stays linear at end of battery life than with the design as it is.</small></p>` : nothing}
+        ${this._notes(this.options)}`}
     </details>`;
   }
 }

@@ -37,7 +37,7 @@ export interface SupplyOption extends RowFigures {
   current: boolean;
   /** What the row changes and why, as findings (worded in src/present/finding-words.ts). */
   notes: Finding[];
-  /** More of the range is linear at end of battery life than with the design as it is (`endCoverage`). */
+  /** More of the range (by at least 1 % of it) is linear at end of battery life than with the design as it is (`endCoverage`). */
   gainsAtEndOfLife: boolean;
 }
 
@@ -117,6 +117,8 @@ export function withSupply(design: Design, kind: SupplyKind): { design: Design; 
 
 /** Smallest change of zero worth offering, V, and the step a suggested zero is rounded to (10 mV). */
 const ZERO_STEP = 0.01;
+/** Share of the range a row must add to what is linear at end of battery life to count as buying it back (1 %). */
+const GAIN_SHARE = 0.01;
 /** How far the zero is moved to measure how each headroom follows it, V. */
 const ZERO_PROBE = 0.25;
 
@@ -230,11 +232,14 @@ export function supplyOptions(design: Design, judge: Judge, report?: Report, row
   });
   const own = report ?? analyse(design, COMPARE_OPTIONS);
   const asIs = option('as-is', design, own, []);
+  // A gain of less than GAIN_SHARE of the range is no gain worth a row or a mark.
+  const [a, b] = peakRange(design);
+  const gains = (o: SupplyOption) => endCoverage(o, design) > endCoverage(asIs, design) + GAIN_SHARE * (b - a);
   const out: SupplyOption[] = [asIs];
   // The zero row is offered when it buys back range: more of the range linear at end of life.
   const centred = withCentredZero(own);
   const row = centred && option('zero', centred.design, centred.report, []);
-  if (row && endCoverage(row, design) > endCoverage(asIs, design) + 1e-4 * Math.abs(peakRange(design)[1] - peakRange(design)[0])) {
+  if (row && gains(row)) {
     const eol = endOfLifeVoltage(design);
     if (asIs.endOfLifeLow !== null && asIs.endOfLifeHigh !== null && row.endOfLifeLow !== null && row.endOfLifeHigh !== null) {
       row.notes.push(finding('supply-zero-centred', 'info', { from: design.target.zero, to: row.zero, endOfLife: eol, low: asIs.endOfLifeLow, high: asIs.endOfLifeHigh, newLow: row.endOfLifeLow, newHigh: row.endOfLifeHigh, measurand: m }));
@@ -267,8 +272,6 @@ export function supplyOptions(design: Design, judge: Judge, report?: Report, row
     }
     out.push(option(kind, d, r, [], v.regulatorDropped));
   }
-  // A tenth of a per mille of the range is no gain (rounding of the stage's parts).
-  const tiny = 1e-4 * Math.abs(peakRange(design)[1] - peakRange(design)[0]);
-  for (const o of out) o.gainsAtEndOfLife = !o.current && endCoverage(o, design) > endCoverage(asIs, design) + tiny;
+  for (const o of out) o.gainsAtEndOfLife = !o.current && gains(o);
   return out;
 }

@@ -33,7 +33,8 @@ describe('the supply choices that buy back range', () => {
       expect(await page.locator(`gw-supply-options tr[data-kind="${kind}"]`).getAttribute('class')).toBe(expected.find((o) => o.kind === kind)!.gainsAtEndOfLife ? 'gains' : '');
     }
     expect(await page.locator('gw-supply-options tr[data-kind="zero"]').getAttribute('class')).toBe('gains');
-    expect(await page.locator('gw-supply-options tr[data-kind="zero"] [data-note="supply-zero-centred"]').innerText()).toMatch(/instead of 4\.50 V/);
+    expect(await page.locator('gw-supply-options li[data-note="supply-zero-centred"]').innerText()).toMatch(/instead of 4\.50 V/);
+    expect(await page.locator('gw-supply-options li[data-note="supply-front-end-regulated"]').innerText()).toMatch(/The battery is spent at 6\.00 V/);
     expect(await page.locator('gw-supply-options tr[data-kind="front-end-regulated"]').innerText()).toMatch(/all from the regulator/);
 
     const zero = expected.find((o) => o.kind === 'zero')!.zero;
