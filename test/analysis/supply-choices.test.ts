@@ -229,3 +229,30 @@ describe('every new row is the full report of the design it makes', () => {
     }
   });
 });
+
+describe('bad input never shows NaN or Infinity', () => {
+  it('every row of every demo on a 9 V battery (and on a 3 V one, too low for any regulator) has finite figures or none', async () => {
+    const { DEMOS } = await import('../../src/model/demos.js');
+    const { supplyJson } = await import('../../src/present/comparison.js');
+    const { nonFinitePaths } = await import('../helpers.js');
+    const checked: string[] = [];
+    for (const demo of DEMOS) {
+      for (const bat of [battery, { fresh: 3.2, endOfLife: 2.0, capacity: 1000 }]) {
+        const doc = structuredClone(demo.document) as any;
+        const positive = bat.fresh > 9 ? 9 : 3;
+        doc.supply = { ...doc.supply, positive, negative: 0, battery: bat, regulated: null, sensorRail: 'positive', referenceRail: 'positive' };
+        const v = validateDesign(doc);
+        if (!v.ok) continue; // a demo whose op-amp or sensor cannot sit on these rails at all is refused by the file
+        const options = supplyChoices(v.design);
+        checked.push(`${demo.id}@${positive}`);
+        expect(options[0]!.kind).toBe('as-is');
+        for (const o of options) expect(nonFinitePaths(supplyJson(o)), `${demo.id} ${o.kind}`).toEqual([]);
+        // No regulator fits under a 3 V battery: no regulated rows there (5 V or 3.3 V plus 0.3 V dropout > 3 V).
+        if (positive === 3) expect(options.map((o) => o.kind)).not.toContain('front-end-regulated');
+      }
+    }
+    // The open-loop demos are checked on 9 V (the closed-loop one keeps its own rails' rules); on 3 V those whose op-amp fits there.
+    expect(checked.filter((c) => c.endsWith('@9'))).toEqual(expect.arrayContaining(['bench-clamp@9', 'appliance-ct@9', 'generic-sensor@9', 'two-range-clamp@9']));
+    expect(checked.some((c) => c.endsWith('@3'))).toBe(true);
+  });
+});
