@@ -18,7 +18,7 @@ import { finding, type Finding, type FindingData } from '../model/findings.js';
 import type { Arm, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
 import type { SensorFront } from '../physics/sensors.js';
 import { loopFactor, peakRange, type IdealStage } from '../physics/topology.js';
-import { targetArmTable, pairFitsKit, seriesLabel } from './kit.js';
+import { targetArmTable, kitFits, seriesLabel } from './kit.js';
 import { searchPairs, type ArmTable, type PairCandidate, type PairResult } from './search.js';
 import { dividerAt, fixedDivider, nearestArm, noReference, railTie, referenceSpan, trimmedDivider, WIPER_MAX, WIPER_MIN } from './reference.js';
 import { COVERAGE, SETTABILITY, gainTrimHalfSpan, scaleStack, zeroStack } from './trimmers.js';
@@ -49,7 +49,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
   const fail = <K extends keyof FindingData>(code: K, data: FindingData[K]): SolvedStage => {
     w(code, 'fail', data);
     const network: StageNetwork = { topology: top, feedback: null, gainTrim: null, leg: null, reference: noReference(design) };
-    return { ideal, network, parts: [], alternatives: [], chosen: 0, bestError: NaN, gain: NaN, noiseGain: NaN, reference: NaN, scaleError: NaN, zeroError: NaN, warnings };
+    return { ideal, network, parts: [], alternatives: [], chosen: 0, gain: NaN, noiseGain: NaN, reference: NaN, scaleError: NaN, zeroError: NaN, warnings };
   };
   const table = targetArmTable(target);
   if (table.size === 0) return fail('gain-unrealisable', { series: seriesLabel(target), windowLow: target.resistanceMin, windowHigh: target.resistanceMax, gain: null, with: 'window' });
@@ -197,7 +197,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
     ? { ohms: opt.trim, setting: 0.5, need: sStack, halfSpan: gainTrimHalfSpan(opt.trim, feedback.ohms, ideal.feedbackSensitivity), step: (opt.trim / (feedback.ohms + opt.trim / 2)) * ideal.feedbackSensitivity * SETTABILITY }
     : null);
   const search = (tA: ArmTable, ratio: { cA: number; cB: number; k: number; m: number }, pref: number, aMin: number, aMax: number, keep: number): PairResult =>
-    searchPairs(tA, table, { preferredA: pref, floor, aMin, aMax, ratio }, keep, pairFitsKit);
+    searchPairs(tA, table, { preferredA: pref, floor, aMin, aMax, ratio }, keep, kitFits(tA, table));
   // The feedback pair depends on the reference only through its voltage: searched once per voltage and trimmer.
   const feedbackCache = new Map<string, PairResult>();
   const feedbackSearch = (key: string, opt: GainOption, ratio: { cA: number; cB: number; k: number; m: number }): PairResult => {
@@ -320,7 +320,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
   const t = networkTransfer(net, front, ol);
   const chosen = found.pick ? Math.max(found.ranked.findIndex((c) => c.a.ohms === found.pick!.a.ohms && c.b.ohms === found.pick!.b.ohms), 0) : 0;
   return {
-    ideal, network: net, parts: partsOf(net, design), alternatives: found.ranked, chosen, bestError: Math.abs(found.scaleError),
+    ideal, network: net, parts: partsOf(net, design), alternatives: found.ranked, chosen,
     gain: t.gain, noiseGain: t.noiseGain, reference: net.reference.kind === 'none' ? NaN : net.reference.voltage,
     scaleError: found.scaleError, zeroError: found.zeroError, warnings,
   };
