@@ -71,7 +71,7 @@ export function regulatorVoltage(design: Design, positive: number): number | nul
 /**
  * The design with a choice of supply applied, or null when the choice cannot be built on this battery (the
  * `zero` and `rail-to-rail` rows are not supplies: see `supplyOptions`). `front-end-regulated` keeps the
- * zero; `supplyOptions` moves it when it does not fit (`regulatedZero`).
+ * zero; `supplyOptions` moves it when it does not fit (`centredZero`).
  */
 export function withSupply(design: Design, kind: SupplyKind): { design: Design; regulatorDropped: boolean } | null {
   const sup = design.supply;
@@ -103,7 +103,7 @@ export function withSupply(design: Design, kind: SupplyKind): { design: Design; 
     return { design: { ...design, supply: { ...sup, regulated, sensorRail: 'regulated', referenceRail: 'regulated' } }, regulatorDropped: false };
   }
   if (rails === kind) return null;
-  // From a front end on the regulator, the battery itself makes the rails again.
+  // Split rails or a pair (from a front end on a regulator too: the battery itself makes the rails again).
   const [positive, negative] = kind === 'split' ? [nominal / 2, -nominal / 2] : [nominal, -nominal];
   // A regulator is fed from the positive rail and regulates against ground: it must fit under the new rail.
   const keep = !sup.regulated || sup.regulated.voltage + sup.regulated.dropout <= positive;
@@ -228,7 +228,7 @@ export function supplyOptions(design: Design, judge: Judge, report?: Report, row
   if (!bat) return [];
   const m = design.sensor.measurand;
   const option = (kind: SupplyKind, d: Design, r: Report, notes: Finding[], regulatorDropped = false): SupplyOption => ({
-    kind, supply: d.supply, zero: d.target.zero, opamp: d.opamp === design.opamp ? null : d.opamp, regulatorDropped, current: kind === 'as-is', notes, gainsAtEndOfLife: false, ...figuresOf(r, judge),
+    kind, supply: d.supply, zero: d.target.zero, opamp: JSON.stringify(d.opamp) === JSON.stringify(design.opamp) ? null : d.opamp, regulatorDropped, current: kind === 'as-is', notes, gainsAtEndOfLife: false, ...figuresOf(r, judge),
   });
   const own = report ?? analyse(design, COMPARE_OPTIONS);
   const asIs = option('as-is', design, own, []);
