@@ -8,7 +8,7 @@
  * comparison reads its rows (`figuresOf`): the linear range fresh and at end of life, the battery life, the
  * verdict. Units: V, A, hours, measurand units.
  */
-import type { Design, OpAmpSpec, Supply } from '../model/design.js';
+import { validateDesign, type Design, type OpAmpSpec, type Supply } from '../model/design.js';
 import { RAIL_TO_RAIL_OUTPUT, REGULATOR_DROPOUT, REGULATOR_QUIESCENT } from '../model/constants.js';
 import { finding, type Finding } from '../model/findings.js';
 import { OPAMP_ARCHETYPES } from '../model/opamps.js';
@@ -217,7 +217,7 @@ const SUPPLY_KINDS: readonly SupplyKind[] = ['regulator', 'front-end-regulated',
  * Every supply choice that can be built for the design's battery, each a full analysis, in a fixed order:
  * as it is; the zero centred for end of life (when that gains headroom); the best rail-to-rail output
  * op-amp (when the design's is not); sensor and reference on a regulator; the whole front end on it; split
- * rails; a second battery. Empty without a battery. `report` may pass the design's own report and `rows` the
+ * rails; a second battery; each only when the design it makes is a valid file. Empty without a battery. `report` may pass the design's own report and `rows` the
  * op-amp comparison of the same design (the app has them), so neither is computed again.
  *
  * The whole front end on a regulator keeps the zero when the stage fits with it on the regulated rail, else
@@ -257,7 +257,9 @@ export function supplyOptions(design: Design, judge: Judge, report?: Report, row
   }
   for (const kind of SUPPLY_KINDS) {
     const v = withSupply(design, kind);
-    if (!v) continue;
+    // A choice the file would refuse (an op-amp with no input range on the new rails, a sensor's reference
+    // outside them) is not offered: adopting it could only be refused.
+    if (!v || !validateDesign(structuredClone(v.design)).ok) continue;
     let d = v.design;
     let r = analyse(d, COMPARE_OPTIONS);
     if (kind === 'front-end-regulated') {

@@ -256,3 +256,22 @@ describe('bad input never shows NaN or Infinity', () => {
     expect(checked.some((c) => c.endsWith('@3'))).toBe(true);
   });
 });
+
+describe('a choice the file would refuse is not offered', () => {
+  // Our own 3.3 V sensor (specified for 3.0 … 3.6 V) with the low-noise bipolar archetype, whose inputs stop
+  // 2 V from each rail (typical, from memory): on a 3.3 V regulated rail 2 + 2 > 3.3 V leaves it no input
+  // range, so the whole front end cannot sit on the regulator; sensor and reference alone can.
+  it('leaves out the whole front end on a 3.3 V regulator for an op-amp that needs 4 V of headroom', () => {
+    const d = designFrom('generic-sensor', (x) => {
+      x.sensor = { ...x.sensor, supplyMin: 3.0, supplyMax: 3.6 };
+      x.supply = { positive: 9, negative: 0, battery };
+      x.opamp = { ...spec('low-noise-bipolar') };
+    });
+    const v = withSupply(d, 'front-end-regulated')!;
+    expect(v.design.supply.positive).toBe(3.3);
+    expect(validateDesign(structuredClone(v.design)).ok).toBe(false);
+    const kinds = supplyChoices(d).map((o) => o.kind);
+    expect(kinds).not.toContain('front-end-regulated');
+    expect(kinds).toContain('regulator');
+  });
+});
