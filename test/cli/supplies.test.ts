@@ -6,17 +6,11 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { main } from '../../src/cli/cli.js';
+import { run } from './run.js';
 import { DEMOS } from '../../src/model/demos.js';
 import { archetype } from '../../src/model/opamps.js';
 import { supplyChoices } from '../../src/present/comparison.js';
 import { designFrom } from '../helpers.js';
-
-const run = async (args: string[]) => {
-  let out = '', err = '';
-  const code = await main(args, { out: (s) => { out += s; }, err: (s) => { err += s; } });
-  return { code, out, err };
-};
 
 let dir: string;
 // Our own 9 V scenario: the generic 12.5 mV/A sensor to 0.1 V/A about 4.5 V over ±20 A, sensor and reference
