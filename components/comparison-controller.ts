@@ -138,7 +138,8 @@ export class ComparisonController implements ReactiveController {
       this.rowsOwnVersion = this.ownVersion;
     }
     if (this.stale('supplies')) {
-      this.supplies = supplyChoices(design, report);
+      // The op-amp comparison of this same design, when at hand, gives the rail-to-rail row (issue 18).
+      this.supplies = supplyChoices(design, report, this.computed.opamps === design && this.rows ? this.rows : undefined);
       this.computed.supplies = design;
     }
     this.host.requestUpdate();

@@ -35,8 +35,8 @@ let unitsLoading: Promise<unknown> | null = null;
 const loadUnits = () => (unitsLoading ??= import('../src/model/units-mathjs.js'));
 
 
-/** A line above the work area; `undo` offers to undo the replacement it reports. */
-interface Notice { text: string; bad: boolean; undo?: boolean }
+/** A line above the work area; `undo` offers to undo the replacement it reports, `undoChoice` the supply row adopted. */
+interface Notice { text: string; bad: boolean; undo?: boolean; undoChoice?: boolean }
 
 interface Derived {
   report: Report;
@@ -184,6 +184,8 @@ export class GwApp extends LitElement {
   @state() private _unsaved = false;
   /** The design the last replacement put aside: Undo brings it back. */
   @state() private _undo: { design: Design; title: string } | null = null;
+  /** Issue 18: the design before a supply row was adopted, offered back while the design is still the one it made. */
+  @state() private _choiceUndo: { before: Design; after: Design } | null = null;
   /** A replacement waiting for the person's yes, because the design in force has unsaved edits. */
   @state() private _confirm: { design: Design; what: string; done: string } | null = null;
 
@@ -515,10 +517,30 @@ export class GwApp extends LitElement {
     this._enqueue(() => this._apply({ ...this._design, opamp: { ...opamp } }, null));
   };
 
+  // --- issue 18, part 3: a supply row (its supply, zero and op-amp) is one edit, and Undo takes it back.
   private _onAdoptSupply = (e: HTMLElementEventMap['gw-adopt-supply']): void => {
-    const { supply, zero } = e.detail;
-    this._enqueue(() => this._apply({ ...this._design, supply, target: { ...this._design.target, zero } }, null));
+    const { kind } = e.detail;
+    this._enqueue(async () => {
+      // Issue 23: the supply choices' core loads on demand (it is loaded already when a row can be picked).
+      const { SUPPLY_WORDS, optionDesign } = await onDemandCore();
+      const before = this._design;
+      this._apply(optionDesign(before, e.detail), null);
+      if (this._design === before) return;
+      this._choiceUndo = { before, after: this._design };
+      this._notice = { text: `Now: ${SUPPLY_WORDS[kind].toLowerCase()}${kind === 'zero' ? ` (${formatEng(this._design.target.zero, 'V', 3)})` : ''}.`, bad: false, undoChoice: true };
+    });
   };
+
+  private _undoChoice(): void {
+    const u = this._choiceUndo;
+    if (!u || this._design !== u.after) return;
+    this._enqueue(() => {
+      this._apply(u.before, null);
+      this._choiceUndo = null;
+      this._notice = { text: 'Back to the design before that choice.', bad: false };
+    });
+  }
+  // --- end issue 18, part 3
 
   private _download(text: string, name: string, type: string): void {
     const url = URL.createObjectURL(new Blob([text], { type }));
@@ -599,6 +621,7 @@ export class GwApp extends LitElement {
         <button @click=${() => { this._confirm = null; }}>Keep mine</button></div>` : nothing}
       ${this._notice ? html`<div class="notice ${this._notice.bad ? 'bad' : ''}" role="status" data-notice="message">${this._notice.text}
         ${this._undo && this._notice.undo ? html` <button @click=${this._undoReplace}>Undo</button>` : nothing}
+        ${this._notice.undoChoice && this._choiceUndo?.after === this._design ? html` <button @click=${this._undoChoice}>Undo</button>` : nothing}
         ${dismiss(() => this._dismiss())}</div>` : nothing}
     `;
   }

@@ -72,7 +72,7 @@ export type { RangeSwitch, RangePosition } from './analysis/ranges.js';
 // Op-amps side by side and supply choices (issue 18).
 export { candidates, withOpAmp } from './analysis/compare.js';
 export type { ComparisonRow, Misfit, OpAmpCandidate, RowFigures } from './analysis/compare.js';
-export { withSupply } from './analysis/supply-options.js';
+export { optionDesign, withSupply } from './analysis/supply-options.js';
 export type { SupplyKind, SupplyOption } from './analysis/supply-options.js';
 export { OPAMP_LIST_KEY, MAX_OPAMPS, MAX_OPAMP_LIST_BYTES, parseOpAmpListText, serialiseOpAmpList } from './model/opamp-list.js';
 export { LIMIT_WORDS, SOURCE_WORDS, SUPPLY_WORDS, comparisonRows, hoursText, misfitWords, railsText, rangeText, supplyChoices, worstVerdict } from './present/comparison.js';

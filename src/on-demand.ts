@@ -7,7 +7,8 @@
  * that no static import from the app's entry leads here. The CLI and the tests use src/index.ts, which exports
  * all of this as well.
  */
-export { comparisonRows, supplyChoices } from './present/comparison.js';
+export { comparisonRows, supplyChoices, SUPPLY_WORDS } from './present/comparison.js';
+export { optionDesign } from './analysis/supply-options.js';
 export { parseOpAmpListText, serialiseOpAmpList } from './model/opamp-list.js';
 export { spiceNetlist } from './present/spice.js';
 export { positionNetlist } from './present/ranges.js';

@@ -446,7 +446,7 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
     if (sup.battery) {
       // A battery sags after calibration: its sweep shows the rail's own effect; the offset's share remains.
       const span = (v: number) => { const [p, n] = batteryRails(design, v); return p - n; };
-      add(lin(`op-amp supply rejection over the battery's sag (${oa.psrrDb} dB)`, vosPerVolt * (span(sup.battery.fresh) - span(sup.battery.endOfLife)) * psrr, 0, 'none'));
+      add(lin(`op-amp supply rejection over the battery's sag (${oa.psrrDb} dB)`, vosPerVolt * (span(sup.battery.fresh) - span(endOfLifeVoltage(design))) * psrr, 0, 'none'));
     } else if (sup.tolerance) {
       const [dzP, dsP] = railShift('positive', cPos, sup.positive, sup.tolerance);
       const dzN = cNeg * sup.negative * sup.tolerance;
@@ -547,7 +547,8 @@ export function supply(design: Design, front: SensorFront, sc: StageCircuit, dc:
 /** Running time on the battery at a current, hours: capacity ÷ current (null without a battery or a current). */
 function batteryLifeAt(design: Design, current: number): number | null {
   const bat = design.supply.battery;
-  return bat && current > 0 ? bat.capacity / current / HOUR : null;
+  // Capacity is stated to the battery's own end point; a regulator that drops out first ends the life sooner.
+  return bat && current > 0 ? (bat.capacity * chargeDrawnTo(bat, endOfLifeVoltage(design))) / current / HOUR : null;
 }
 
 /**
@@ -560,13 +561,17 @@ export function withExtraDraw(design: Design, sup: SupplyResult, clip: BatteryCl
   const current = sup.current + amps;
   const supply: SupplyResult = { current, parts: [...sup.parts, { name: part, current: amps }], batteryLife: batteryLifeAt(design, current) };
   const bat = design.supply.battery;
-  const batteryClip = clip && bat ? { voltage: clip.voltage, hoursToEnd: supply.batteryLife, hoursToClip: clip.voltage === null ? null : hoursToVoltage(bat, supply.batteryLife, clip.voltage) } : clip;
+  const batteryClip = clip && bat ? { voltage: clip.voltage, hoursToEnd: supply.batteryLife, hoursToClip: clip.voltage === null ? null : hoursToVoltage(design, supply.batteryLife, clip.voltage) } : clip;
   return { supply, batteryClip };
 }
 
-/** Hours from a fresh battery to voltage v, the voltage taken as falling linearly with the charge drawn. */
-function hoursToVoltage(bat: NonNullable<Design['supply']['battery']>, hoursToEnd: number | null, v: number): number | null {
-  return hoursToEnd === null ? null : (hoursToEnd * (bat.fresh - v)) / (bat.fresh - bat.endOfLife);
+/**
+ * Hours from a fresh battery to voltage v, the voltage taken as falling linearly with the charge drawn: the
+ * life's share of the charge drawn to v out of the charge drawn to end of life (`endOfLifeVoltage`).
+ */
+function hoursToVoltage(design: Design, hoursToEnd: number | null, v: number): number | null {
+  const bat = design.supply.battery;
+  return hoursToEnd === null || !bat ? null : (hoursToEnd * chargeDrawnTo(bat, v)) / chargeDrawnTo(bat, endOfLifeVoltage(design));
 }
 
 export interface BatteryStep {
@@ -593,8 +598,10 @@ function batteryStep(design: Design, stage: SolvedStage, front: SensorFront, zer
   const reg = design.supply.regulated;
   const dropout = reg?.dropout ?? 0;
   const [pos, neg] = batteryRails(design, v);
-  const regulated = !reg || pos - neg >= reg.voltage + dropout;
-  const regOut = reg ? (regulated ? reg.voltage : Math.max(pos - dropout - neg, 0.01)) : 0;
+  // The regulator is fed by the battery: by the positive rail, or (the whole front end on it) by the battery itself.
+  const feed = design.supply.battery?.rails === 'regulated' ? v : pos;
+  const regulated = !reg || feed - neg >= reg.voltage + dropout;
+  const regOut = reg ? (regulated ? reg.voltage : Math.max(feed - dropout - neg, 0.01)) : 0;
   const sensorSupply = design.supply.sensorRail === 'regulated' && reg ? regOut : pos;
   // A closed-loop Hall sensor's held range and mid-rail reference follow the rails (issue #20).
   const f2 = design.sensor.type === 'closed-loop-hall' ? sensorFront(design.sensor, { ...design, supply: { ...design.supply, positive: pos, negative: neg } }) : atSensorSupply(front, sensorSupply);
@@ -615,7 +622,34 @@ function batteryStep(design: Design, stage: SolvedStage, front: SensorFront, zer
  */
 export function batteryRails(design: Design, v: number): [number, number] {
   const rails = design.supply.battery?.rails ?? 'positive';
-  return rails === 'split' ? [v / 2, -v / 2] : rails === 'pair' ? [v, -v] : [v, design.supply.negative];
+  const neg = design.supply.negative;
+  // A regulator's output follows its input, dropout below it, once the battery can no longer hold it (issue 18).
+  const reg = design.supply.regulated;
+  if (rails === 'regulated' && reg) return [Math.min(reg.voltage, Math.max(v - reg.dropout, 0.01)), neg];
+  return rails === 'split' ? [v / 2, -v / 2] : rails === 'pair' ? [v, -v] : [v, neg];
+}
+
+/**
+ * The battery voltage at which the front end's battery life ends, V: the battery's own end point; with the
+ * whole front end on a regulator (`rails: 'regulated'`), the higher of that and the voltage where the
+ * regulator stops holding its output, its output plus its dropout (common practice:
+ * a regulated circuit is spent when its regulator drops out). 9 V battery ending at 5.4 V, 5 V regulator with
+ * 0.3 V dropout → 5.4 V; with a 3.0 V dropout → 8.0 V.
+ */
+export function endOfLifeVoltage(design: Design): number {
+  const bat = design.supply.battery;
+  if (!bat) return NaN;
+  const reg = design.supply.regulated;
+  return bat.rails === 'regulated' && reg ? Math.max(bat.endOfLife, reg.voltage + reg.dropout) : bat.endOfLife;
+}
+
+/**
+ * The share of the battery's charge drawn by the time it has fallen from fresh to `v`, parts of one, with the
+ * voltage taken as falling linearly with the charge drawn from fresh to the battery's own end point (our
+ * approximation: a real cell's curve is flatter in the middle). Fresh 9.6 V, end 6.0 V: at 7.8 V → 0.5.
+ */
+export function chargeDrawnTo(bat: NonNullable<Design['supply']['battery']>, v: number): number {
+  return (bat.fresh - v) / (bat.fresh - bat.endOfLife);
 }
 
 /** Sweep of the positive rail from a fresh battery to its end of life: clip points, headroom, zero and scale. */
@@ -624,7 +658,7 @@ export function batterySweep(design: Design, stage: SolvedStage, front: SensorFr
   if (!bat) return [];
   const out: BatteryStep[] = [];
   for (let i = 0; i < steps; i++) {
-    const s = batteryStep(design, stage, front, zero, bat.fresh + ((bat.endOfLife - bat.fresh) * i) / (steps - 1));
+    const s = batteryStep(design, stage, front, zero, bat.fresh + ((endOfLifeVoltage(design) - bat.fresh) * i) / (steps - 1));
     if (s) out.push(s);
   }
   return out;
@@ -651,7 +685,7 @@ export function batteryClip(design: Design, stage: SolvedStage, front: SensorFro
   const hoursToEnd = sup.batteryLife;
   if (!bat) return { voltage: null, hoursToClip: null, hoursToEnd: null };
   const margin = (s: BatteryStep | null) => (s ? Math.min(s.headroomLow, s.headroomHigh) : -Infinity);
-  const hours = (v: number) => hoursToVoltage(bat, hoursToEnd, v);
+  const hours = (v: number) => hoursToVoltage(design, hoursToEnd, v);
   const k = sweep.findIndex((s) => margin(s) < 0);
   if (k < 0) return { voltage: null, hoursToClip: null, hoursToEnd };
   if (k === 0) return { voltage: sweep[0]!.voltage, hoursToClip: 0, hoursToEnd };

@@ -7,7 +7,7 @@ import type { Design, OpAmpSpec } from '../model/design.js';
 import { OPAMP_ARCHETYPES } from '../model/opamps.js';
 import { analyse, type Report } from './report.js';
 import { peakRange } from '../physics/topology.js';
-import type { ClipCause } from './analysis.js';
+import { endOfLifeVoltage, type ClipCause } from './analysis.js';
 
 /** One op-amp to try: where it comes from, and its figures. */
 export interface OpAmpCandidate {
@@ -108,7 +108,7 @@ export function figuresOf(r: Report, judge: Judge): RowFigures {
   // The battery sweep runs from fresh to end of life: its last step is the end-of-life voltage (to rounding).
   const bat = d.supply.battery;
   const last = r.battery[r.battery.length - 1];
-  const end = bat && c && last && Math.abs(last.voltage - bat.endOfLife) <= 1e-9 * bat.endOfLife ? last : null;
+  const end = bat && c && last && Math.abs(last.voltage - endOfLifeVoltage(d)) <= 1e-9 * endOfLifeVoltage(d) ? last : null;
   if (bat && c) {
     if (!end) misfits.push({ at: 'end-of-life', side: 'low', cause: null }, { at: 'end-of-life', side: 'high', cause: null });
     else {

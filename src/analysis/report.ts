@@ -314,7 +314,8 @@ function findings(r: Report): Finding[] {
 /** Lowest and highest voltage the sensor is fed with (from 0 V): the regulated rail within its tolerance, or the positive rail over the battery's life. */
 function sensorSupplyRange(d: Design): [number, number] {
   const reg = d.supply.regulated;
-  if (d.supply.sensorRail === 'regulated' && reg) return [reg.voltage * (1 - reg.tolerance), reg.voltage * (1 + reg.tolerance)];
+  // Issue 18: with the whole front end on the regulator, the positive rail is the regulator's output too.
+  if ((d.supply.sensorRail === 'regulated' || d.supply.battery?.rails === 'regulated') && reg) return [reg.voltage * (1 - reg.tolerance), reg.voltage * (1 + reg.tolerance)];
   const bat = d.supply.battery;
   return [Math.min(d.supply.positive, bat?.endOfLife ?? Infinity), Math.max(d.supply.positive, bat?.fresh ?? -Infinity)];
 }

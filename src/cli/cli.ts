@@ -8,6 +8,7 @@
  *   gainwright fit READINGS.csv [--json]         fit a sensor from bench readings
  *   gainwright trim DESIGN READINGS.csv [--json] trim a built probe from its readings
  *   gainwright compare DESIGN [--opamps FILE] [--json]  the design across op-amps, one row each
+ *   gainwright compare DESIGN --supplies [--json]       the design across supply choices, one row each
  *
  * Exit codes: 0 done, 1 the design was solved but fails a check (with --strict), 2 bad input, 3 a fault of
  * Gainwright's own (one line, never a stack trace). Every message is one line.
@@ -29,12 +30,12 @@ import { MAX_READINGS_TEXT, parseReadings, unitFactor, type ParsedReadings } fro
 import { fitJson, fitReadings } from '../analysis/fit.js';
 import { trimFromReadings, trimJson } from '../analysis/trim.js';
 import { fitLines, trimLines } from '../present/readings.js';
-import { comparisonJson, comparisonLines, comparisonRows } from '../present/comparison.js';
+import { comparisonJson, comparisonLines, comparisonRows, supplyChoices, supplyJson, supplyLines } from '../present/comparison.js';
 import { MAX_OPAMP_LIST_BYTES, parseOpAmpListText } from '../model/opamp-list.js';
 import { jsonText, terminalLine } from '../present/inert.js';
 import { sensorFrontAtRail } from '../physics/sensors.js';
 import { cautionsFor } from '../present/cautions.js';
-import type { OpAmpSpec } from '../model/design.js';
+import type { Design, OpAmpSpec } from '../model/design.js';
 
 export interface Io {
   out: (s: string) => void;
@@ -71,6 +72,9 @@ const USAGE = `usage:
                                          (--at: where the trimmers sat while reading, if turned)
   gainwright compare DESIGN.json [--opamps FILE.json] [--json]
                                          the design with each op-amp (built-in and your own), passing first
+  gainwright compare DESIGN.json --supplies [--json]
+                                         the design on each way its battery can feed it, with a zero for
+                                         the end of battery life and a rail-to-rail output op-amp beside them
 `;
 
 
@@ -107,7 +111,7 @@ function run(argv: string[], io: Io): number | Promise<number> {
   if (opampsFile !== null && cmd !== 'compare') { io.err(`gainwright: --opamps goes with compare\n${USAGE}`); return 2; }
   const flags = new Set(rest.filter((a) => a.startsWith('--')));
   const args = rest.filter((a) => !a.startsWith('--'));
-  const known = new Set(['--json', '--spice', '--spice-sensor', '--no-spread', '--help']);
+  const known = new Set(['--json', '--spice', '--spice-sensor', '--no-spread', '--help', '--supplies']);
   // `--at=RV1=0.47,RV2=0.55`: where the trimmers sat while the probe readings were taken (gainwright trim).
   const atFlag = [...flags].find((fl) => fl.startsWith('--at='));
   if (atFlag) flags.delete(atFlag);
@@ -126,7 +130,8 @@ function run(argv: string[], io: Io): number | Promise<number> {
   }
   if (cmd === 'fit') return fitCommand(args, flags.has('--json'), io);
   if (cmd === 'trim') return trimCommand(args, flags.has('--json'), io, atFlag?.slice('--at='.length) ?? null);
-  if (cmd === 'compare') return compareCommand(args, flags.has('--json'), io, opampsFile);
+  if (flags.has('--supplies') && (cmd !== 'compare' || opampsFile !== null)) { io.err(`gainwright: --supplies goes with compare, without --opamps\n${USAGE}`); return 2; }
+  if (cmd === 'compare') return compareCommand(args, flags.has('--json'), io, opampsFile, flags.has('--supplies'));
   if (cmd !== 'report') { io.err(`gainwright: unknown command ${quoteText(cmd)}\n${USAGE}`); return 2; }
   if (args.length !== 1) { io.err(`gainwright: report takes one design file or folder\n${USAGE}`); return 2; }
   const path = args[0]!;
@@ -242,7 +247,7 @@ function trimCommand(args: string[], json: boolean, io: Io, atText: string | nul
   return 0;
 }
 
-function compareCommand(args: string[], json: boolean, io: Io, opampsFile: string | null): number {
+function compareCommand(args: string[], json: boolean, io: Io, opampsFile: string | null, supplies = false): number {
   if (args.length !== 1) { io.err(`gainwright: compare takes one design file\n${USAGE}`); return 2; }
   const read = readDesign(args[0]!);
   if (!read.ok) { io.err(`gainwright: ${shown(args[0]!)}: ${read.message}\n`); return 2; }
@@ -256,6 +261,7 @@ function compareCommand(args: string[], json: boolean, io: Io, opampsFile: strin
     if (!parsed.ok) { io.err(`gainwright: ${shown(opampsFile)} is not a valid op-amp list:\n${problemLines(parsed.problems).map((l) => `  ${l}`).join('\n')}\n`); return 2; }
     own = parsed.opamps;
   }
+  if (supplies) return suppliesOutput(v.design, json, io);
   const rows = comparisonRows(v.design, own);
   if (json) {
     for (const r of rows) io.out(jsonText(comparisonJson(r)) + '\n');
@@ -270,3 +276,21 @@ function compareCommand(args: string[], json: boolean, io: Io, opampsFile: strin
   io.out([`${title}: op-amps compared`, '='.repeat(Math.min(title.length + 19, 80)), ...comparisonLines(rows, d.sensor.measurand, !!d.supply.battery), '', 'Safety', '------', ...cautions.map((c) => `  ${c}`)].join('\n') + '\n');
   return 0;
 }
+
+// --- issue 18, part 3: `gainwright compare DESIGN --supplies [--json]`.
+/** The supply choices: one block each (or one JSON object per line), then the cautions (on stderr with --json). */
+function suppliesOutput(d: Design, json: boolean, io: Io): number {
+  const options = supplyChoices(d);
+  const cautions = cautionsFor(d.sensor.type, sensorFrontAtRail(d.sensor, d).cautions);
+  if (json) {
+    for (const o of options) io.out(jsonText(supplyJson(o)) + '\n');
+    if (!options.length) io.err('gainwright: the design runs from a bench supply (no supply.battery): there are no battery choices to compare\n');
+    for (const c of cautions) io.err(`gainwright: caution: ${c}\n`);
+    return 0;
+  }
+  const title = terminalLine(d.title);
+  const body = options.length ? supplyLines(options, d.sensor.measurand) : ['The design runs from a bench supply (no supply.battery): there are no battery choices to compare.'];
+  io.out([`${title}: supplies compared`, '='.repeat(Math.min(title.length + 19, 80)), ...body, '', 'Safety', '------', ...cautions.map((c) => `  ${c}`)].join('\n') + '\n');
+  return 0;
+}
+// --- end issue 18, part 3

@@ -14,6 +14,16 @@ export const HOUR = 3600;
  */
 export const REGULATOR_DROPOUT = 0.3;
 /**
+ * Current a small low-dropout regulator draws for itself, A, when the design does not state it: tens to a
+ * few hundred microamperes (common practice, from memory); used by the supply choices (issue 18).
+ */
+export const REGULATOR_QUIESCENT = 100e-6;
+/**
+ * Largest distance from a rail at which an op-amp's output counts as rail-to-rail, V: such outputs swing to
+ * within tens of millivolts of each rail at light load (common practice).
+ */
+export const RAIL_TO_RAIL_OUTPUT = 0.1;
+/**
  * Current a rail splitter draws from the battery, A: a buffer op-amp's quiescent current and the divider it
  * follows (a few hundred microamperes each; common practice, from memory).
  */

@@ -250,9 +250,11 @@ export interface Supply {
     /**
      * What the battery makes of the rails: `positive` (it is the positive rail, over `negative`), `split` (one
      * battery split about the amplifier's ground by a rail splitter: ±half its voltage), `pair` (a second,
-     * equal battery makes the negative rail: ±its voltage). Default `positive`.
+     * equal battery makes the negative rail: ±its voltage), `regulated` (the battery feeds `regulated`, whose
+     * output is the positive rail: the whole front end, op-amp too, runs from the regulator; `positive` equals
+     * the regulator's voltage; issue 18). Default `positive`.
      */
-    rails?: 'positive' | 'split' | 'pair';
+    rails?: 'positive' | 'split' | 'pair' | 'regulated';
     /** Current the rail splitter itself draws, A (used with `split`; absent: SPLITTER_CURRENT, 1 mA). */
     splitterCurrent?: number;
   } | null;
@@ -616,7 +618,7 @@ const SCHEMA: Spec = {
             fresh: num('volts', 'positive', { min: 0.1, max: 1000 }),
             endOfLife: num('volts', 'positive', { min: 0.1, max: 1000 }),
             capacity: num('coulombs', 'positive', { min: 0.36, max: 1e9 }),
-            rails: { t: 'str', oneOf: ['positive', 'split', 'pair'], def: 'positive' },
+            rails: { t: 'str', oneOf: ['positive', 'split', 'pair', 'regulated'], def: 'positive' },
             splitterCurrent: num('amperes', 'nonneg', { max: 1, minAbs: 1e-9, optional: true }),
           },
         },
@@ -823,12 +825,23 @@ function crossCheck(d: Design, problems: Problem[]): void {
   if (e.temperature > e.temperatureMax) p('environment.temperatureMax', 'must not be below environment.temperature: raise environment.temperatureMax or lower environment.temperature', ['environment.temperature']);
   if (d.supply.battery && d.supply.battery.fresh <= d.supply.battery.endOfLife) p('supply.battery.endOfLife', 'must be below supply.battery.fresh', ['supply.battery.fresh']);
   // A split battery or a pair of batteries makes symmetric rails about the amplifier's ground.
-  if (d.supply.battery && d.supply.battery.rails !== 'positive' && Math.abs(d.supply.negative + d.supply.positive) > 1e-9 * d.supply.positive) {
+  if (d.supply.battery && (d.supply.battery.rails === 'split' || d.supply.battery.rails === 'pair') && Math.abs(d.supply.negative + d.supply.positive) > 1e-9 * d.supply.positive) {
     p('supply.negative', `must be −supply.positive with ${d.supply.battery.rails === 'split' ? 'a split battery' : 'a second battery'} (the rails are symmetric about ground): set supply.negative to ${-d.supply.positive} V`, ['supply.positive', 'supply.battery.rails']);
   }
   if (d.supply.sensorRail === 'regulated' && !d.supply.regulated) p('supply.sensorRail', 'is the regulated rail, but supply.regulated is off: feed the sensor from the positive rail or keep supply.regulated', ['supply.regulated']);
   if (d.supply.referenceRail === 'regulated' && !d.supply.regulated) p('supply.referenceRail', 'is the regulated rail, but supply.regulated is off: take the reference from the positive rail or keep supply.regulated', ['supply.regulated']);
-  if (d.supply.regulated && d.supply.regulated.voltage + d.supply.regulated.dropout > span) {
+  // --- issue 18: a front end wholly on a regulator fed by the battery.
+  const wholeOnRegulator = d.supply.battery?.rails === 'regulated';
+  if (wholeOnRegulator && d.supply.negative !== 0) p('supply.negative', 'must be 0 V when the battery feeds a regulator for the whole front end (the regulator makes one rail over ground)', ['supply.battery.rails']);
+  else if (wholeOnRegulator && !d.supply.regulated) p('supply.battery.rails', 'is the regulator\'s output, but supply.regulated is off: switch supply.regulated on or let the battery make the positive rail', ['supply.regulated']);
+  else if (wholeOnRegulator && Math.abs(d.supply.positive - d.supply.regulated!.voltage) > 1e-9 * d.supply.positive) {
+    p('supply.positive', `is the regulator's output with the battery feeding the regulator: set supply.positive to ${+d.supply.regulated!.voltage.toPrecision(6)} V (supply.regulated.voltage)`, ['supply.regulated.voltage', 'supply.battery.rails']);
+  } else if (wholeOnRegulator && d.supply.regulated!.voltage + d.supply.regulated!.dropout > d.supply.battery!.fresh) {
+    const need = +(d.supply.regulated!.voltage + d.supply.regulated!.dropout).toPrecision(4);
+    p('supply.regulated.voltage', `needs a fresh battery of at least ${need} V (its ${+d.supply.regulated!.voltage.toPrecision(4)} V plus ${+d.supply.regulated!.dropout.toPrecision(3)} V dropout): lower supply.regulated.voltage or use a battery of more volts`, ['supply.battery.fresh', 'supply.regulated.dropout']);
+  }
+  // --- end issue 18
+  if (!wholeOnRegulator && d.supply.regulated && d.supply.regulated.voltage + d.supply.regulated.dropout > span) {
     const need = +(d.supply.regulated.voltage + d.supply.regulated.dropout + d.supply.negative).toPrecision(4);
     p('supply.regulated.voltage', `needs supply.positive of at least ${need} V (its ${+d.supply.regulated.voltage.toPrecision(4)} V plus ${+d.supply.regulated.dropout.toPrecision(3)} V dropout): raise supply.positive, lower supply.regulated.voltage or switch supply.regulated off`, ['supply.positive', 'supply.regulated', 'supply.regulated.dropout']);
   }

@@ -126,6 +126,14 @@ export interface FindingData {
   'range-unbuilt': { position: number; scale: number; cause: 'zero-unreachable' | 'gain-unreachable'; measurand: string };
   'range-zero-shift': { position: number; scale: number; shift: number; zero: number; residual: number; measurand: string };
   // --- end issue 19
+  // --- issue 18: notes on the supply choices (src/analysis/supply-options.ts). Volts, hours, measurand units.
+  /** A zero that centres the range in what the output reaches at end of battery life; the linear range there before and after. */
+  'supply-zero-centred': { from: number; to: number; endOfLife: number; low: number; high: number; newLow: number; newHigh: number; measurand: string };
+  /** The whole front end on a regulator: where the battery's life ends, what the regulator draws, where the zero went (null: kept). */
+  'supply-front-end-regulated': { voltage: number; dropout: number; quiescent: number; endOfLife: number; batteryEnd: number; zeroFrom: number; zeroTo: number | null };
+  /** The best rail-to-rail output op-amp of the comparison on the battery as it is (`name` is a person's text when not built in). */
+  'supply-rail-to-rail': { name: string; outputLow: number; outputHigh: number; low: number | null; high: number | null; measurand: string };
+  // --- end issue 18
 }
 
 export type FindingCode = keyof FindingData;

@@ -10,6 +10,7 @@ import type { Design, OpAmpSpec, Supply } from '../model/design.js';
 import { verdictsOf } from './verdicts.js';
 import { formatEng } from '../model/units.js';
 import { terminalLine } from './inert.js';
+import { sayFinding } from './finding-words.js';
 
 /** A report's worst verdict level: the first of its verdict lines (worst first), `fail` when there are none. */
 export function worstVerdict(r: Report): VerdictLevel {
@@ -21,9 +22,12 @@ export function comparisonRows(design: Design, own: readonly OpAmpSpec[] = [], r
   return compareOpAmps(design, worstVerdict, own, report);
 }
 
-/** The supply choices judged by the verdict lines (`supplyOptions` with `worstVerdict`). */
-export function supplyChoices(design: Design, report?: Report): SupplyOption[] {
-  return supplyOptions(design, worstVerdict, report);
+/**
+ * The supply choices judged by the verdict lines (`supplyOptions` with `worstVerdict`); `rows` the op-amp
+ * comparison of the same design when it is at hand (its best rail-to-rail row is taken, not recomputed).
+ */
+export function supplyChoices(design: Design, report?: Report, rows?: readonly ComparisonRow[]): SupplyOption[] {
+  return supplyOptions(design, worstVerdict, report, rows);
 }
 
 const f = (x: number | null, unit = '', d = 3) => (x === null ? '—' : formatEng(x, unit, d));
@@ -88,7 +92,10 @@ export function comparisonLines(rows: readonly ComparisonRow[], measurand: strin
 /** Each supply choice as a person names it. */
 export const SUPPLY_WORDS: Record<SupplyKind, string> = {
   'as-is': 'The battery as it is',
+  zero: 'The battery as it is, zero for the end of its life',
+  'rail-to-rail': 'The battery as it is, a rail-to-rail output op-amp',
   regulator: 'Sensor and reference on a regulator',
+  'front-end-regulated': 'The whole front end on a regulator',
   split: 'Split rails from a rail splitter',
   pair: 'A second battery for the negative rail',
 };
@@ -96,5 +103,41 @@ export const SUPPLY_WORDS: Record<SupplyKind, string> = {
 /** The rails of a supply as "0 … 9 V" or "±4.5 V", with a regulator's output after it. */
 export function railsText(s: Supply): string {
   const rails = s.negative === -s.positive ? `±${formatEng(s.positive, 'V')}` : `${formatEng(s.negative, 'V')} … ${formatEng(s.positive, 'V')}`;
+  if (s.battery?.rails === 'regulated') return `${rails}, all from the regulator`;
   return s.regulated ? `${rails}, regulator ${formatEng(s.regulated.voltage, 'V')}` : rails;
 }
+
+// --- issue 18: the supply choices for the terminal and as JSON lines (`gainwright compare --supplies`).
+
+/**
+ * One JSON object per supply choice (`gainwright compare --supplies --json`): kind, name, current, the rails
+ * (positive, negative, regulated: the regulator's output or null, batteryRails), zero, opamp (the op-amp's
+ * name when the row changes it, else null), fits, misfits, measurandLow/High, endOfLifeLow/High,
+ * supplyCurrent, batteryLife, hoursToClip, verdict, findings, and notes (each `{ code, data, text }`).
+ */
+export function supplyJson(o: SupplyOption): Record<string, unknown> {
+  return {
+    kind: o.kind, name: SUPPLY_WORDS[o.kind], current: o.current,
+    positive: o.supply.positive, negative: o.supply.negative, regulated: o.supply.regulated?.voltage ?? null, batteryRails: o.supply.battery?.rails ?? 'positive',
+    zero: o.zero, opamp: o.opamp?.name ?? null, regulatorDropped: o.regulatorDropped,
+    fits: o.fits, misfits: o.misfits,
+    measurandLow: o.measurandLow, measurandHigh: o.measurandHigh, endOfLifeLow: o.endOfLifeLow, endOfLifeHigh: o.endOfLifeHigh,
+    supplyCurrent: o.supplyCurrent, batteryLife: o.batteryLife, hoursToClip: o.hoursToClip, verdict: o.verdict, findings: o.findings,
+    notes: o.notes.map((n) => ({ code: n.code, data: n.data, text: sayFinding(n) })),
+  };
+}
+
+/** The supply choices as terminal lines, one block each in the panel's order; text from the design made inert. */
+export function supplyLines(options: readonly SupplyOption[], measurand: string): string[] {
+  const out: string[] = [];
+  options.forEach((o, i) => {
+    out.push(`${i + 1}. [${MARK[o.verdict]}] ${SUPPLY_WORDS[o.kind]}${o.current ? ' (the design now)' : ''}`);
+    out.push(`   rails ${railsText(o.supply)}; zero ${formatEng(o.zero, 'V', 3)}${o.opamp ? `; op-amp ${terminalLine(o.opamp.name)}` : ''}`);
+    out.push(`   fits: ${o.fits ? 'yes' : `no (${o.misfits.map(misfitWords).join('; ')})`}`);
+    out.push(`   linear ${rangeText(o.measurandLow, o.measurandHigh, measurand)}; at end of battery life ${rangeText(o.endOfLifeLow, o.endOfLifeHigh, measurand)}`);
+    out.push(`   supply ${f(o.supplyCurrent, 'A')}, battery life ${hoursText(o.batteryLife)}, clips after ${o.hoursToClip === null ? 'never' : hoursText(o.hoursToClip)}`);
+    for (const n of o.notes) out.push(`   ${terminalLine(sayFinding(n))}`);
+  });
+  return out;
+}
+// --- end issue 18

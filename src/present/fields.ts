@@ -213,7 +213,7 @@ export const FIELDS: readonly FieldDef[] = [
   N('supply', 'supply.battery.fresh', 'Fresh voltage', 'V', 'V', undefined, 'supply.battery'),
   N('supply', 'supply.battery.endOfLife', 'End-of-life voltage', 'V', 'V', undefined, 'supply.battery'),
   N('supply', 'supply.battery.capacity', 'Capacity', 'C', 'mAh', undefined, 'supply.battery'),
-  { path: 'supply.battery.rails', label: 'Battery makes', section: 'supply', kind: 'select', group: 'supply.battery', options: [['positive', 'The positive rail'], ['split', 'Split rails (rail splitter)'], ['pair', 'Split rails (a second battery)']] },
+  { path: 'supply.battery.rails', label: 'Battery makes', section: 'supply', kind: 'select', group: 'supply.battery', options: [['positive', 'The positive rail'], ['split', 'Split rails (rail splitter)'], ['pair', 'Split rails (a second battery)'], ['regulated', 'The regulator\'s rail (whole front end)']] },
   { ...N('supply', 'supply.battery.splitterCurrent', 'Rail splitter current', 'A', 'mA', 'with split rails: what the splitter itself draws (1 mA when empty)', 'supply.battery'), clearable: true },
 
   N('environment', 'environment.temperature', 'Design temperature', 'K', '°C'),

@@ -270,6 +270,20 @@ export const FINDING_WORDS: Words = {
   'range-unbuilt': { title: 'A range cannot be built', say: (d) => `Range ${d.position} (${f3(d.scale, `V/${d.measurand}`)}) cannot be built on this stage: ${d.cause === 'zero-unreachable' ? 'the reference that would hold the zero lies beyond the rails; wire the switch with one pole (the zero then moves) or move the zero' : 'its gain is beyond what the stage can give with its shared parts (a non-inverting stage cannot attenuate); change the scale or the stage'}.` },
   'range-zero-shift': { title: 'Zero moves with the range', say: (d) => `On range ${d.position} (${f3(d.scale, `V/${d.measurand}`)}) the zero sits at ${f3(d.zero, 'V')}, ${f3(d.shift, 'V')} from the first range's: null it on the instrument (its offset) or read from it. The zero trimmer is set on the first range; it leaves up to ±${f3(d.residual, 'V')} of zero error here.` },
   // --- end issue 19
+  // --- issue 18: notes on the supply choices.
+  'supply-zero-centred': {
+    title: 'A zero for the end of battery life',
+    say: (d) => `A zero of ${f3(d.to, 'V')} instead of ${f3(d.from, 'V')} leaves equal headroom at both ends of the range once the battery is down to ${f3(d.endOfLife, 'V')}: linear there from ${f3(d.newLow, d.measurand)} to ${f3(d.newHigh, d.measurand)}, instead of ${f3(d.low, d.measurand)} to ${f3(d.high, d.measurand)}. Only the zero changes; the instrument then reads the new zero as nothing measured.`,
+  },
+  'supply-front-end-regulated': {
+    title: 'The whole front end on a regulator',
+    say: (d) => `The op-amp, the sensor and the reference all run from a ${f3(d.voltage, 'V')} regulator fed by the battery, so the rails hold while it sags. The battery is spent at ${f3(d.endOfLife, 'V')}: ${d.endOfLife > d.batteryEnd ? `the regulator's output plus its ${f3(d.dropout, 'V')} dropout, above the battery's own ${f3(d.batteryEnd, 'V')} end point` : `its own end point (the regulator holds down to ${f3(d.voltage + d.dropout, 'V')}, its output plus its dropout)`}. The battery life counts the regulator's own ${f3(d.quiescent, 'A')}.${d.zeroTo === null ? '' : ` The zero moves from ${f3(d.zeroFrom, 'V')} to ${f3(d.zeroTo, 'V')} to fit the regulated rail.`}`,
+  },
+  'supply-rail-to-rail': {
+    title: 'A rail-to-rail output op-amp',
+    say: (d) => `The best rail-to-rail output op-amp of the comparison, ${d.name}, swings to within ${f3(d.outputHigh, 'V')} of the positive rail and ${f3(d.outputLow, 'V')} of the negative one (an op-amp that is not rail-to-rail stops a volt or two short), on the battery as it is: ${d.low === null || d.high === null ? 'no linear range at end of battery life' : `linear from ${f3(d.low, d.measurand)} to ${f3(d.high, d.measurand)} at end of battery life`}.`,
+  },
+  // --- end issue 18
   'sensor-under-voltage': { title: 'Sensor fed below its rated supply', say: (d) => `The sensor is fed down to ${f3(d.low, 'V')} from ${SOURCE_FROM[d.from]}, below the ${f3(d.rated, 'V')} it is specified for: its output is not specified there.` },
 };
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { analyse } from '../../src/analysis/report.js';
 import { batteryRails } from '../../src/analysis/analysis.js';
-import { regulatorVoltage, withSupply } from '../../src/analysis/supply-options.js';
+import { optionDesign, regulatorVoltage, withSupply } from '../../src/analysis/supply-options.js';
 import { supplyChoices } from '../../src/present/comparison.js';
 import { verdictsOf } from '../../src/present/verdicts.js';
 import { validateDesign } from '../../src/model/design.js';
@@ -66,7 +66,9 @@ describe('supplyChoices(design)', () => {
       const options = supplyChoices(design);
       expect(options.length).toBeGreaterThanOrEqual(3);
       for (const o of options) {
-        const d = o.kind === 'as-is' ? design : withSupply(design, o.kind)!.design;
+        // The design adopting the row makes (its supply, zero and, for the rail-to-rail row, op-amp).
+        const d = o.kind === 'as-is' ? design : optionDesign(design, o);
+        if (o.kind === 'regulator' || o.kind === 'split' || o.kind === 'pair') expect(d).toEqual(withSupply(design, o.kind)!.design);
         expect(validateDesign(structuredClone(d)).ok).toBe(true);
         expect(d.supply).toEqual(o.supply);
         const r = analyse(d, { spreadTrials: 0 });
@@ -98,11 +100,13 @@ describe('supplyChoices(design)', () => {
     expect([pair.supply.positive, pair.supply.negative, pair.zero, pair.regulatorDropped]).toEqual([9, -9, 0, false]);
   });
   it('the choice already in the design is not offered twice; no battery, no options', () => {
-    expect(supplyChoices(designFrom('bench-clamp')).map((o) => o.kind)).toEqual(['as-is', 'split', 'pair']);
+    // The bench clamp's sensor and reference already sit on its regulator; the zero and rail-to-rail rows and the
+    // whole front end on the regulator are offered beside the supplies (issue 18, part 3).
+    expect(supplyChoices(designFrom('bench-clamp')).map((o) => o.kind)).toEqual(['as-is', 'zero', 'rail-to-rail', 'front-end-regulated', 'split', 'pair']);
     expect(supplyChoices(designFrom('generic-sensor'))).toEqual([]);
     // A split battery of 9 V: a 5 V regulator needs 5.3 V under a 4.5 V rail, so the 3.3 V one is offered.
     const onSplit = supplyChoices(shuntOnSplitBattery('cmos-rail-to-rail'));
-    expect(onSplit.map((o) => o.kind)).toEqual(['as-is', 'regulator', 'pair']);
+    expect(onSplit.map((o) => o.kind)).toEqual(['as-is', 'regulator', 'front-end-regulated', 'pair']);
     expect(onSplit[1]!.supply.regulated!.voltage).toBe(3.3);
   });
   it('regulatorVoltage picks the sensor\'s ratiometric supply, else 5 V or 3.3 V as the rail allows, else none', () => {
