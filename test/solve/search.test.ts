@@ -15,6 +15,22 @@ describe('armTable', () => {
       if (t.kind[i]) expect(isMember(t.p2[i]!, 'E12')).toBe(true);
     }
   });
+  it('equals a table built by brute force: every arm of E24 parts in 100 Ω–1 MΩ, sorted by value with a single part first among equal values, duplicates within 1e-12 dropped', () => {
+    const t = armTable('E24', 100, 1e6, ['single', 'series', 'parallel']);
+    const base = [...armTable('E24', 100, 1e6, ['single']).value];
+    // Every arm, built the plain way: (value, parts, first part, second part, kind), sorted by value then parts.
+    const all: Array<[number, number, number, number, number]> = base.map((x) => [x, 1, x, 0, 0]);
+    for (let i = 0; i < base.length; i++) for (let j = i; j < base.length; j++) {
+      const x = base[i]!, y = base[j]!;
+      all.push([x + y, 2, x, y, 1], [(x * y) / (x + y), 2, x, y, 2]);
+    }
+    all.sort((p, q) => p[0] - q[0] || p[1] - q[1]);
+    // Dropping compares with the last kept value, as the table does.
+    const want: typeof all = [];
+    for (const r of all) if (!want.length || Math.abs(r[0] - want[want.length - 1]![0]) > want[want.length - 1]![0] * 1e-12) want.push(r);
+    expect(t.size).toBe(want.length);
+    want.forEach((r, k) => { expect(t.value[k]).toBe(r[0]); expect(t.kind[k] === 0 ? 1 : 2).toBe(r[1]); });
+  });
   it('with only single parts it is the series itself', () => {
     expect([...armTable('E6', 1e3, 1e4, ['single']).value]).toEqual([1000, 1500, 2200, 3300, 4700, 6800, 10000]);
   });
