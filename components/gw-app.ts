@@ -691,7 +691,7 @@ export class GwApp extends LitElement {
   private _sheet() {
     const c = this._complete;
     const r = c?.report;
-    return html`<gw-build-sheet class="sheet" aria-hidden="true" .report=${r ?? null} .drawing=${c?.drawing ?? null} .rows=${c?.rows ?? []} .figures=${c?.figures ?? []} .words=${c?.words ?? null}>
+    return html`<gw-build-sheet class="sheet" aria-hidden="true" .report=${r ?? null} .drawing=${c?.drawing ?? null} .rows=${c?.rows ?? []} .figures=${c?.figures ?? []} .words=${c?.words ?? null} .trade=${this._tradeFor === this._design ? this._trade : null}>
         ${r ? html`<section><h2>What the scope shows</h2><div class="scope-print"><gw-trace .data=${c?.wave ?? null}></gw-trace><small>${waveformLine(r)}</small></div></section>
         <section><h2>Readings of the built probe</h2><gw-bench mode="sheet" .report=${r}></gw-bench></section>` : nothing}
       </gw-build-sheet>`;

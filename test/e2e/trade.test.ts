@@ -19,6 +19,9 @@ describe('the turns trade in Chromium (issue 19)', () => {
     expect(await panel(page).locator('gw-chart[data-chart="trade-turns"]').count()).toBe(1);
     expect(await panel(page).locator('gw-chart[data-chart="trade-gap"]').count()).toBe(1);
     expect(await ownTurns(page)).toBe('1');
+    // The printed sheet carries the trade once it is worked out: a table per sweep, the design's rows marked.
+    await expect.poll(() => page.locator('gw-build-sheet section.trade table').count()).toBe(2);
+    expect(await page.locator('gw-build-sheet section.trade tbody tr').count()).toBe(15);
     await panel(page).locator('gw-trade tr[data-sweep="turns"][data-turns="3"] button').click();
     await expect.poll(() => ownTurns(page)).toBe('3');
     await expect.poll(() => page.locator('[data-notice="message"]').innerText()).toMatch(/Now built with 3 turns and a 1\.50 mm gap/);
