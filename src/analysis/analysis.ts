@@ -217,7 +217,7 @@ export function responseFromSpectrum(s: NoiseSpectrum): FrequencyResponse {
 /** Gain (magnitude, V per measurand unit) and phase (degrees, unwrapped) at the output over f1…f2 Hz on a log grid of `points`. */
 export function frequencyResponse(sc: StageCircuit, f1: number, f2: number, points = 200): FrequencyResponse {
   const freqs = new Float64Array(points), re = new Float64Array(points), im = new Float64Array(points);
-  const ws = workspace(sc.circuit);
+  const ws = workspace(sc.circuit, true);
   for (let i = 0; i < points; i++) {
     freqs[i] = f1 * (f2 / f1) ** (i / (points - 1));
     [re[i], im[i]] = transferAt(sc, freqs[i]!, ws);
@@ -257,7 +257,7 @@ function crossing(sc: StageCircuit, level: number, f1: number, f2: number, ws: R
  * bandwidth, e.g. Sedra & Smith, Microelectronic Circuits, on slew rate; from memory).
  */
 export function speed(design: Design, sc: StageCircuit, front: SensorFront, dc: DcPoint): Speed {
-  const ws = workspace(sc.circuit);
+  const ws = workspace(sc.circuit, true);
   const gbw = design.opamp.gbw;
   const fHi = Math.max(gbw, front.bandwidth < 1e8 ? front.bandwidth : 0) * 100;
   let passband: number;
@@ -384,6 +384,13 @@ export interface ErrorBudget {
  */
 const SPAN_CALIBRATION_FRACTION = 0.5;
 
+/** The stage circuit with every resistor of one part multiplied by `factor` (a copy; the circuit is untouched). */
+function withPartScaled(sc: StageCircuit, part: string, factor: number): StageCircuit {
+  const c = sc.circuit;
+  const elements = c.elements.map((e) => (e.kind === 'R' && e.part === part ? { ...e, value: e.value * factor } : e));
+  return { ...sc, circuit: { ...c, elements } };
+}
+
 /**
  * DC error budget at both range ends, in measurand units. Each resistor and trimmer is moved by its
  * tolerance alone and the scale and zero recomputed from the circuit; offsets, bias currents and rails come
@@ -456,10 +463,11 @@ export function errorBudget(design: Design, stage: SolvedStage, front: SensorFro
   const drift = { resistor: { low: 0, high: 0 }, trimmer: { low: 0, high: 0 } };
   for (const p of stage.parts) {
     if (p.kind === 'capacitor') continue;
-    const names = sc.circuit.elements.filter((e) => e.kind === 'R' && e.part === p.ref).map((e) => e.name);
-    if (!names.length) continue;
+    if (!sc.circuit.elements.some((e) => e.kind === 'R' && e.part === p.ref)) continue;
+    // The same circuit with this part's resistors scaled (what buildCircuit's `scale` option builds, without
+    // building the rest again: only element values change, not the nodes or the branches).
     const shift = (rel: number) => {
-      const sc2 = buildCircuit(design, stage, front, { scale: Object.fromEntries(names.map((n) => [n, 1 + rel])) });
+      const sc2 = withPartScaled(sc, p.ref, 1 + rel);
       const d2 = dcLinear(sc2, passband);
       if (!d2) return { dz: 0, ds: 0 };
       return { dz: d2.out[0] - base0, ds: d2.out[1] - base1 };
@@ -608,7 +616,8 @@ export interface BatteryClip {
 /**
  * Where the output first clips inside the range as the battery sags, solved exactly: the smaller headroom is
  * continuous in the rail voltage (piecewise linear), so its sign change between two sweep points is
- * bisected to 1 µV. Times assume the battery voltage falls linearly with the charge drawn at a constant
+ * bracketed to 1 µV by false position (`crossingBracket`: one or two solves on a straight piece, bisection
+ * where it bends). Times assume the battery voltage falls linearly with the charge drawn at a constant
  * current (t = Q/I, Q the capacity; the straight line from fresh to end of life is our approximation, a
  * real cell's curve is flatter in the middle).
  */
@@ -621,13 +630,41 @@ export function batteryClip(design: Design, stage: SolvedStage, front: SensorFro
   const k = sweep.findIndex((s) => margin(s) < 0);
   if (k < 0) return { voltage: null, hoursToClip: null, hoursToEnd };
   if (k === 0) return { voltage: sweep[0]!.voltage, hoursToClip: 0, hoursToEnd };
-  let hi = sweep[k - 1]!.voltage, lo = sweep[k]!.voltage;
-  for (let i = 0; i < 60 && hi - lo > 1e-6; i++) {
-    const m = (hi + lo) / 2;
-    if (margin(batteryStep(design, stage, front, zero, m)) < 0) lo = m; else hi = m;
-  }
-  const v = (hi + lo) / 2;
+  const v = crossingBracket(sweep[k]!.voltage, margin(sweep[k]!), sweep[k - 1]!.voltage, margin(sweep[k - 1]!), 1e-6,
+    (x) => margin(batteryStep(design, stage, front, zero, x)));
   return { voltage: v, hoursToClip: hours(v), hoursToEnd };
+}
+
+/**
+ * The point where a continuous function g crosses from negative (at `lo`) to non-negative (at `hi`), to within
+ * `tol`: the middle of a bracket [lo, hi] no wider than `tol` with g(lo) < 0 ≤ g(hi). Each round places a
+ * false-position estimate (exact on a straight piece) and probes 0.45·`tol` either side of it, which closes the
+ * bracket at once when g is straight there; a round that does not halve the bracket is followed by a
+ * bisection, so it never takes more rounds than bisection's doubled (Press et al., Numerical Recipes, §9.2–9.3,
+ * false position and bisection; from memory).
+ */
+export function crossingBracket(lo: number, gLo: number, hi: number, gHi: number, tol: number, g: (x: number) => number): number {
+  let bisectNext = false;
+  for (let i = 0; i < 120 && hi - lo > tol; i++) {
+    const width = hi - lo;
+    const straight = Number.isFinite(gLo) && Number.isFinite(gHi) && gHi > gLo;
+    if (bisectNext || !straight) {
+      const m = (hi + lo) / 2;
+      const gm = g(m);
+      if (gm < 0) { lo = m; gLo = gm; } else { hi = m; gHi = gm; }
+      bisectNext = false;
+      continue;
+    }
+    const x = Math.min(Math.max(lo + (width * -gLo) / (gHi - gLo), lo + tol / 2), hi - tol / 2);
+    for (const p of [x + 0.45 * tol, x - 0.45 * tol]) {
+      if (!(p > lo && p < hi)) continue;
+      const gp = g(p);
+      if (gp < 0) { lo = p; gLo = gp; } else { hi = p; gHi = gp; }
+      if (hi - lo <= tol) break;
+    }
+    bisectNext = hi - lo > width / 2;
+  }
+  return (hi + lo) / 2;
 }
 
 export interface SpreadResult {

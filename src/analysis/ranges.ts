@@ -317,7 +317,7 @@ export function rangeSwitch(design: Design, first: Report, analyse: Analyse, opt
     // The position's stage as the solver would state it: its ideal, the realised gain and errors at the pin.
     const ideal = idealStage(top, d, front);
     const stage: SolvedStage | null = net && tr ? {
-      ...s1, ideal, network: net, parts: per[i]!, alternatives: [], chosen: 0, bestError: NaN, gain: gi, noiseGain: tr.noiseGain, reference: net.reference.voltage,
+      ...s1, ideal, network: net, parts: per[i]!, alternatives: [], chosen: 0, gain: gi, noiseGain: tr.noiseGain, reference: net.reference.voltage,
       scaleError: (tr.scale * front.sensitivity) / ideal.pinScale - 1, zeroError: tr.scale * front.quiescent + tr.offset - ideal.pinZero, warnings: [],
     } : null;
     const report = i === 0 ? first : stage ? analyse(d, { ...opts, stage, trade: false }) : null;

@@ -193,10 +193,14 @@ export function luFactor(A: Cx): Int32Array | null {
   return piv;
 }
 
+/** Scratch for luSolve's permuted vector (grown when a larger system comes; nothing is kept between calls). */
+let solveScratch = new Float64Array(64);
+
 /** Solves LU·x = P·b in place in (br, bi). */
 export function luSolve(A: Cx, piv: Int32Array, br: Float64Array, bi: Float64Array): void {
   const n = A.n, re = A.re, im = A.im;
-  const xr = new Float64Array(n), xi = new Float64Array(n);
+  if (solveScratch.length < 2 * n) solveScratch = new Float64Array(2 * n);
+  const xr = solveScratch.subarray(0, n), xi = solveScratch.subarray(n, 2 * n);
   for (let i = 0; i < n; i++) { xr[i] = br[piv[i]!]!; xi[i] = bi[piv[i]!]!; }
   for (let i = 0; i < n; i++) {
     let sr = xr[i]!, si = xi[i]!;
@@ -301,11 +305,19 @@ export interface Workspace {
   A: Cx;
   yr: Float64Array;
   yi: Float64Array;
+  /** Sweeps: solve through the frequency-independent part eliminated once (`adjointReduction`). */
+  reduce?: boolean;
+  /** The reduction built for `reducedFor` (undefined: not built yet; null: this circuit cannot be reduced). */
+  reduction?: AdjointReduction | null;
+  reducedFor?: number;
 }
 
-/** Preallocated matrices and vectors for repeated solves of one circuit (no allocation per frequency). */
-export function workspace(c: Circuit): Workspace {
-  return { A: cx(c.size, c.size * c.size), yr: new Float64Array(c.size), yi: new Float64Array(c.size) };
+/**
+ * Preallocated matrices and vectors for repeated solves of one circuit (no allocation per frequency). With
+ * `reduce` (a sweep over many frequencies) the solves go through `adjointReduction`.
+ */
+export function workspace(c: Circuit, reduce = false): Workspace {
+  return { A: cx(c.size, c.size * c.size), yr: new Float64Array(c.size), yi: new Float64Array(c.size), reduce };
 }
 
 /**
@@ -314,12 +326,130 @@ export function workspace(c: Circuit): Workspace {
  * Returns false when the matrix is singular.
  */
 export function adjointAt(c: Circuit, omega: number, outNode: number, ws: Workspace): boolean {
+  if (ws.reduce) {
+    if (ws.reduction === undefined || ws.reducedFor !== outNode) { ws.reduction = adjointReduction(c, outNode); ws.reducedFor = outNode; }
+    if (ws.reduction) return reducedAdjointAt(ws.reduction, omega, ws);
+  }
   stamp(c, omega, ws.A, true);
   const piv = luFactor(ws.A);
   if (!piv) return false;
   ws.yr.fill(0); ws.yi.fill(0);
   ws.yr[outNode - 1] = 1;
   luSolve(ws.A, piv, ws.yr, ws.yi);
+  return true;
+}
+
+/**
+ * The adjoint system with its frequency-independent part eliminated once. Only capacitors, inductors and
+ * gain blocks with a pole put entries into the matrix that change with frequency; the unknowns those entries
+ * touch (set D) are few. Ordering the others (set S) first, Aᵀ = [A11 A12; A21 A22(ω)] with A11, A12, A21
+ * real and fixed, so A11 is factored once and each frequency solves only the Schur complement
+ * (A22(ω) − A21·A11⁻¹·A12)·y2 = b2 − A21·A11⁻¹·b1, then y1 = A11⁻¹·b1 − A11⁻¹·A12·y2 (block Gaussian
+ * elimination; Golub & Van Loan, Matrix Computations, §3.2 on block LU; from memory). The answer is the full
+ * solve's to rounding; a circuit where A11 is singular, or where the split saves nothing, is not reduced.
+ */
+export interface AdjointReduction {
+  n: number;
+  /** Unknowns of the fixed part (S) and of the frequency-dependent part (D). */
+  s: Int32Array;
+  d: Int32Array;
+  /** The frequency-dependent elements alone (others replaced by an inert source), stamped per frequency. */
+  dynamic: Circuit;
+  /** A22's fixed entries minus A21·A11⁻¹·A12 (n2×n2), A11⁻¹·A12 (n1×n2), A11⁻¹·b1 and b2 − A21·A11⁻¹·b1. */
+  base: Float64Array;
+  x: Float64Array;
+  z: Float64Array;
+  c: Float64Array;
+  /** Scratch: the dynamic stamp (n×n) and the Schur complement (n2×n2). */
+  t: Cx;
+  schur: Cx;
+  br: Float64Array;
+  bi: Float64Array;
+}
+
+const INERT: Element = { kind: 'I', name: '', a: 0, b: 0, value: 0 };
+const isDynamic = (e: Element) => e.kind === 'C' || e.kind === 'L' || (e.kind === 'E' && !!e.pole && e.pole > 0);
+
+/** Builds the reduction of a circuit's adjoint system for output node `outNode` (null: solve it whole). */
+export function adjointReduction(c: Circuit, outNode: number): AdjointReduction | null {
+  const n = c.size;
+  const only = (keep: (e: Element) => boolean): Circuit => ({ ...c, elements: c.elements.map((e) => (keep(e) ? e : INERT)) });
+  const fixed = cx(n, n * n), t1 = cx(n, n * n), t2 = cx(n, n * n);
+  stamp(only((e) => !isDynamic(e)), 0, fixed, true);
+  const dynamic = only(isDynamic);
+  // Entries that differ between two frequencies are the frequency-dependent ones; the rest of the dynamic
+  // elements' entries (their incidence ±1) are fixed.
+  stamp(dynamic, 1, t1, true);
+  stamp(dynamic, 2, t2, true);
+  const inD = new Uint8Array(n);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      const k = i * n + j;
+      if (t1.re[k] !== t2.re[k] || t1.im[k] !== t2.im[k]) { inD[i] = 1; inD[j] = 1; }
+    }
+  }
+  const d = Int32Array.from({ length: n }, (_, i) => i).filter((i) => inD[i] === 1);
+  const s = Int32Array.from({ length: n }, (_, i) => i).filter((i) => inD[i] === 0);
+  const n1 = s.length, n2 = d.length;
+  // Nothing to gain when nothing changes with frequency, or when almost everything does.
+  if (n2 === 0 || n1 < 2) return null;
+  // Outside D×D every entry must be real and fixed.
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) if ((!inD[i] || !inD[j]) && (t1.im[i * n + j] !== 0 || fixed.im[i * n + j] !== 0)) return null;
+  }
+  const entry = (i: number, j: number) => fixed.re[i * n + j]! + t1.re[i * n + j]!;
+  const a11 = new Float64Array(n1 * n1);
+  for (let i = 0; i < n1; i++) for (let j = 0; j < n1; j++) a11[i * n1 + j] = entry(s[i]!, s[j]!);
+  const piv = new Int32Array(n1);
+  if (!luFactorReal(a11, n1, piv)) return null;
+  const scratch = new Float64Array(n1), col = new Float64Array(n1);
+  const x = new Float64Array(n1 * n2);
+  for (let j = 0; j < n2; j++) {
+    for (let i = 0; i < n1; i++) col[i] = entry(s[i]!, d[j]!);
+    luSolveReal(a11, n1, piv, col, scratch);
+    for (let i = 0; i < n1; i++) x[i * n2 + j] = col[i]!;
+  }
+  const out = outNode - 1;
+  const z = new Float64Array(n1);
+  for (let i = 0; i < n1; i++) z[i] = s[i] === out ? 1 : 0;
+  luSolveReal(a11, n1, piv, z, scratch);
+  const base = new Float64Array(n2 * n2), cvec = new Float64Array(n2);
+  for (let i = 0; i < n2; i++) {
+    let ci = d[i] === out ? 1 : 0;
+    for (let k = 0; k < n1; k++) ci -= entry(d[i]!, s[k]!) * z[k]!;
+    cvec[i] = ci;
+    for (let j = 0; j < n2; j++) {
+      let v = fixed.re[d[i]! * n + d[j]!]!;
+      for (let k = 0; k < n1; k++) v -= entry(d[i]!, s[k]!) * x[k * n2 + j]!;
+      base[i * n2 + j] = v;
+    }
+  }
+  for (const a of [x, z, cvec, base]) for (let i = 0; i < a.length; i++) if (!Number.isFinite(a[i]!)) return null;
+  return { n, s, d, dynamic, base, x, z, c: cvec, t: cx(n, n * n), schur: cx(n2, n2 * n2), br: new Float64Array(n2), bi: new Float64Array(n2) };
+}
+
+/** One frequency through a reduction: the same y as the whole adjoint solve (to rounding), in ws.yr, ws.yi. */
+function reducedAdjointAt(r: AdjointReduction, omega: number, ws: Workspace): boolean {
+  const { n, s, d, t, schur } = r;
+  const n1 = s.length, n2 = d.length;
+  stamp(r.dynamic, omega, t, true);
+  for (let i = 0; i < n2; i++) {
+    for (let j = 0; j < n2; j++) {
+      const k = d[i]! * n + d[j]!;
+      schur.re[i * n2 + j] = r.base[i * n2 + j]! + t.re[k]!;
+      schur.im[i * n2 + j] = t.im[k]!;
+    }
+  }
+  const piv = luFactor(schur);
+  if (!piv) return false;
+  r.br.set(r.c); r.bi.fill(0);
+  luSolve(schur, piv, r.br, r.bi);
+  for (let j = 0; j < n2; j++) { ws.yr[d[j]!] = r.br[j]!; ws.yi[d[j]!] = r.bi[j]!; }
+  for (let i = 0; i < n1; i++) {
+    let yr = r.z[i]!, yi = 0;
+    for (let j = 0; j < n2; j++) { const xv = r.x[i * n2 + j]!; yr -= xv * r.br[j]!; yi -= xv * r.bi[j]!; }
+    ws.yr[s[i]!] = yr; ws.yi[s[i]!] = yi;
+  }
   return true;
 }
 
@@ -344,7 +474,7 @@ export function transferFrom(c: Circuit, i: number, ws: Workspace): [number, num
     return [ws.yr[k]!, ws.yi[k]!];
   }
   // Current from a into b: +1 into b, −1 out of a.
-  const yb = e.b > 0 ? [ws.yr[e.b - 1]!, ws.yi[e.b - 1]!] : [0, 0];
-  const ya = e.a > 0 ? [ws.yr[e.a - 1]!, ws.yi[e.a - 1]!] : [0, 0];
-  return [yb[0]! - ya[0]!, yb[1]! - ya[1]!];
+  const br = e.b > 0 ? ws.yr[e.b - 1]! : 0, bi = e.b > 0 ? ws.yi[e.b - 1]! : 0;
+  const ar = e.a > 0 ? ws.yr[e.a - 1]! : 0, ai = e.a > 0 ? ws.yi[e.a - 1]! : 0;
+  return [br - ar, bi - ai];
 }

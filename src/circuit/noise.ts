@@ -30,7 +30,7 @@ export interface NoiseSpectrum {
  * add in power.
  */
 export function noiseSpectrum(c: Circuit, out: number, freqs: Float64Array, kelvin: number): NoiseSpectrum {
-  const ws = workspace(c);
+  const ws = workspace(c, true);
   const noisy: Array<{ i: number; name: string; psd: number; corner: number }> = [];
   c.elements.forEach((e, i) => {
     if (e.kind === 'R' && e.value > 0 && e.noisy !== false) noisy.push({ i, name: e.name, psd: (4 * BOLTZMANN * kelvin) / e.value, corner: 0 });

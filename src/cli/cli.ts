@@ -15,7 +15,6 @@
  */
 import { closeSync, constants, fstatSync, openSync, readSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
-import '../model/units-mathjs.js';
 import { decodeDesignBytes, formatProblems, MAX_DESIGN_BYTES, parseDesignText, tooLargeMessage } from '../model/design.js';
 import { quoteText } from '../model/validate.js';
 import { analyse } from '../analysis/report.js';
@@ -23,7 +22,7 @@ import { reportJson } from '../present/json.js';
 import { sayFinding } from '../present/finding-words.js';
 import { textReport } from '../present/text-report.js';
 import { spiceNetlist } from '../present/spice.js';
-import { positionNetlist } from '../present/ranges.js';
+import { positionLine, positionNetlist, positionReport } from '../present/ranges.js';
 import { closedLoopSpiceNetlist } from '../present/spice-closed-loop.js';
 import { DEMOS } from '../model/demos.js';
 import { MAX_READINGS_TEXT, parseReadings, unitFactor, type ParsedReadings } from '../model/readings.js';
@@ -64,7 +63,7 @@ const shown = (path: string) => (/^[\w./\\:~+-]+$/.test(path) ? path : quoteText
 
 const USAGE = `usage:
   gainwright report FILE [--json] [--spice] [--no-spread] [--range=N]
-                                         (--range=N with --spice: the range switch's position N)
+                                         (--range=N: the range switch's position N alone, report or netlist)
   gainwright report FILE --spice-sensor  a closed-loop Hall sensor alone as a SPICE netlist
   gainwright report DIR --json           one JSON line per *.json design in DIR
   gainwright new [${DEMOS.map((d) => d.id).join('|')}]
@@ -163,7 +162,7 @@ function run(argv: string[], io: Io): number {
   // `--at=RV1=0.47,RV2=0.55`: where the trimmers sat while the probe readings were taken (gainwright trim).
   const atFlag = [...flags].find((fl) => fl.startsWith('--at='));
   if (atFlag) flags.delete(atFlag);
-  // `--range=2`: with --spice, the netlist of the range switch's position 2 (issue 19).
+  // `--range=2`: the range switch's position 2 alone: its report, or with --spice its netlist (issue 19).
   const rangeFlag = [...flags].find((fl) => fl.startsWith('--range='));
   if (rangeFlag) flags.delete(rangeFlag);
   const rangeAt = rangeFlag ? Number(rangeFlag.slice('--range='.length)) : null;
@@ -232,6 +231,14 @@ function run(argv: string[], io: Io): number {
     const net = spiceNetlist(r);
     if (!net) { io.err(`gainwright: no circuit to export: ${oneLine(r.warnings.filter((w) => w.level === 'fail').map(sayFinding).join(' '))}\n`); return 1; }
     io.out(net);
+    return 0;
+  }
+  if (rangeAt !== null) {
+    // `--range=N` alone: that position's own report (its parts, its range), headed by which position it is.
+    const pos = positionReport(r, rangeAt);
+    if (!pos) { io.err(`gainwright: no range switch position ${rangeAt} in this design\n`); return 1; }
+    const line = positionLine(r, rangeAt)!;
+    io.out(flags.has('--json') ? jsonText({ rangePosition: rangeAt, rangePositionText: line, ...reportJson(pos) }, 2) + '\n' : `${terminalLine(line)}\n\n${textReport(pos)}`);
     return 0;
   }
   io.out(flags.has('--json') ? jsonText(reportJson(r), 2) + '\n' : textReport(r));

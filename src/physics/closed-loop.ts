@@ -144,6 +144,29 @@ export function loopGainAt(p: ClosedLoopParts, f: number): Complex {
   return div(mul(mul(compensatorAt(p, f), hall), [p.hallPerAmp, 0]), [p.loopResistance, w * p.inductance]);
 }
 
+/**
+ * |T(jω)|, the same arithmetic as `loopGainAt` written out in real numbers (no pair allocated per step): the
+ * crossover search and the compensation's bisection evaluate it tens of thousands of times per report.
+ */
+export function loopGainMagnitudeAt(p: ClosedLoopParts, f: number): number {
+  const w = 2 * Math.PI * f;
+  // A(jω) = A0/(1 + jf/fp).
+  const x = f / p.driverPole, d0 = 1 + x * x;
+  const ar = p.driverGain / d0, ai = (-p.driverGain * x) / d0;
+  let cr: number, ci: number;
+  if (w === 0) { cr = ar; ci = ai; } else {
+    // ratio = Z_f/Z_i; compensator = ratio / (1 + (1 + ratio)/A).
+    const rr = p.zeroResistance / p.inputResistance, ri = -1 / (w * p.capacitance) / p.inputResistance;
+    const da = ar * ar + ai * ai;
+    const qr = ((1 + rr) * ar + ri * ai) / da, qi = (ri * ar - (1 + rr) * ai) / da;
+    const er = 1 + qr, ei = qi, de = er * er + ei * ei;
+    cr = (rr * er + ri * ei) / de; ci = (ri * er - rr * ei) / de;
+  }
+  let m = Math.hypot(cr, ci) * p.hallPerAmp / Math.hypot(p.loopResistance, w * p.inductance);
+  if (Number.isFinite(p.hallBandwidth)) m /= Math.hypot(1, f / p.hallBandwidth);
+  return m;
+}
+
 /** Phase of T(jω) in degrees, unwrapped as the sum of its factors' phases (0 … −360 for this loop). */
 export function loopPhaseAt(p: ClosedLoopParts, f: number): number {
   const w = 2 * Math.PI * f;
@@ -338,13 +361,16 @@ export function suggestCompensation(p: ClosedLoopParts, marginDeg = 60, series: 
   return { proportionalGain: tpReal, dip: 1 / (1 + tpReal), inputResistance: ri, zeroResistance: rz, capacitance: ci };
 }
 
+/** The log grid the crossover is looked for on: 1 mHz to 10 GHz, 40 points a decade (computed once). */
+const CROSSOVER_GRID = Float64Array.from({ length: 521 }, (_, i) => 1e-3 * (1e10 / 1e-3) ** (i / 520));
+
 /** The crossover (|T| = 1, the first fall through 1 between 1 mHz and 10 GHz) and the phase margin there. */
 export function phaseMarginOf(p: ClosedLoopParts): { crossover: number | null; phaseMargin: number | null } {
-  const mag = (f: number) => abs(loopGainAt(p, f));
-  const lo = 1e-3, hi = 1e10;
-  let prev = lo, mPrev = mag(lo);
-  for (let i = 1; i <= 520; i++) {
-    const f = lo * (hi / lo) ** (i / 520);
+  const mag = (f: number) => loopGainMagnitudeAt(p, f);
+  const grid = CROSSOVER_GRID;
+  let prev = grid[0]!, mPrev = mag(prev);
+  for (let i = 1; i < grid.length; i++) {
+    const f = grid[i]!;
     const m = mag(f);
     if (mPrev >= 1 && m < 1) {
       const fc = bisectLog(mag, 1, prev, f);

@@ -75,6 +75,21 @@ export function rangeLines(r: Report): string[] {
   return ['', t.caption, '-'.repeat(t.caption.length), line(t.head), ...rows.map(line)];
 }
 
+/** The report of one range switch position (1-based: 1 is the design's own range), or null when there is none. */
+export function positionReport(r: Report, position: number): Report | null {
+  const rs = r.ranges?.ok ? r.ranges.value : null;
+  return rs?.positions[position - 1]?.report ?? null;
+}
+
+/** The words that say which position a printed report or netlist is of: "Range switch SW1 (two poles) at position 2 of 3: …". */
+export function positionLine(r: Report, position: number): string | null {
+  const rs = r.ranges?.ok ? r.ranges.value : null;
+  const p = rs?.positions[position - 1];
+  if (!rs || !p) return null;
+  const m = spiceCommentText(r.design.sensor.measurand, 16);
+  return `Range switch ${rs.switchRef} (${rs.poles === 1 ? 'one pole' : 'two poles'}) at position ${position} of ${rs.throws}: ${formatEng(p.scale, `V/${m}`, 4)} over ${formatEng(p.range[0], m, 4)} to ${formatEng(p.range[1], m, 4)}; only this position's parts (the other throws are open).`;
+}
+
 /**
  * One switch position as its own SPICE netlist: the position's circuit (the parts the switch puts in; the
  * other throws are open and left out), with a header line that says which position it is. Null when the
@@ -87,7 +102,6 @@ export function positionNetlist(r: Report, position: number, opts: SpiceOptions 
   const net = spiceNetlist(p.report, opts);
   if (!net) return null;
   const lines = net.split('\n');
-  const m = spiceCommentText(r.design.sensor.measurand, 16);
-  lines.splice(1, 0, `* Range switch ${rs.switchRef} (${rs.poles === 1 ? 'one pole' : 'two poles'}) at position ${position} of ${rs.throws}: ${formatEng(p.scale, `V/${m}`, 4)} over ${formatEng(p.range[0], m, 4)} to ${formatEng(p.range[1], m, 4)}; only this position's parts (the other throws are open).`);
+  lines.splice(1, 0, `* ${positionLine(r, position)!}`);
   return lines.join('\n');
 }

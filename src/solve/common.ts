@@ -17,8 +17,6 @@ export interface SolvedStage {
   /** Gain alternatives for the reference network built, ranked; `chosen` is the index built. */
   alternatives: PairCandidate[];
   chosen: number;
-  /** The smallest gain error the search found for the network built (the optimum). */
-  bestError: number;
   /** Ideal-op-amp signal gain (magnitude, pin volts per sensor volt) from the real parts, trimmers at their settings. */
   gain: number;
   /** Ideal-op-amp noise gain of the parts built: 1 + Rf/(what the − input sees to fixed voltages). */

@@ -14,7 +14,7 @@
  */
 import type { Arrangement, Design, Target } from '../model/design.js';
 import { kitValues, type KitValue } from '../model/kit.js';
-import { ARM_PARALLEL, ARM_SERIES, ARM_SINGLE, armTable, type ArmTable } from './search.js';
+import { ARM_PARALLEL, ARM_SERIES, ARM_SINGLE, armTable, type ArmTable, type PairFits } from './search.js';
 
 /** An arm table from a kit: each arm's parts as indices into the kit's values, and how many of each it holds. */
 export interface KitArmTable extends ArmTable {
@@ -142,6 +142,14 @@ export function seriesLabel(target: Target): string {
 }
 
 const isKit = (t: ArmTable): t is KitArmTable => 'held' in t;
+
+/**
+ * The kit check for a pair search over these tables (`pairFitsKit`), or none when neither comes from a kit:
+ * a series holds every value without limit, and the search keeps its shortcuts that a kit rules out.
+ */
+export function kitFits(a: ArmTable, b: ArmTable = a): PairFits | undefined {
+  return isKit(a) || isKit(b) ? pairFitsKit : undefined;
+}
 
 /**
  * Whether arm i of table a and arm j of table b can both be built from the kit: no value taken more often

@@ -22,7 +22,7 @@ import { finding, type Finding, type FindingData } from '../model/findings.js';
 import type { Arm, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
 import type { SensorFront } from '../physics/sensors.js';
 import { loopFactor, peakRange, type IdealStage } from '../physics/topology.js';
-import { kitWithout, partsOfArms, statedResistors, targetArmTable, pairFitsKit, seriesLabel } from './kit.js';
+import { kitFits, kitWithout, partsOfArms, statedResistors, targetArmTable, seriesLabel } from './kit.js';
 import { searchPairs, type ArmTable, type PairCandidate, type PairResult } from './search.js';
 import { dividerAt, fixedDivider, nearestArm, noReference, railTie, referenceSpan, trimmedDivider, WIPER_MAX, WIPER_MIN } from './reference.js';
 import { COVERAGE, SETTABILITY, gainTrimHalfSpan, scaleStack, zeroStack } from './trimmers.js';
@@ -53,7 +53,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
   const fail = <K extends keyof FindingData>(code: K, data: FindingData[K]): SolvedStage => {
     w(code, 'fail', data);
     const network: StageNetwork = { topology: top, feedback: null, gainTrim: null, leg: null, reference: noReference(design) };
-    return { ideal, network, parts: [], alternatives: [], chosen: 0, bestError: NaN, gain: NaN, noiseGain: NaN, reference: NaN, scaleError: NaN, zeroError: NaN, warnings };
+    return { ideal, network, parts: [], alternatives: [], chosen: 0, gain: NaN, noiseGain: NaN, reference: NaN, scaleError: NaN, zeroError: NaN, warnings };
   };
   const table = targetArmTable(target, target.arrangements, statedResistors(design));
   if (table.size === 0) return fail('gain-unrealisable', { series: seriesLabel(target), windowLow: target.resistanceMin, windowHigh: target.resistanceMax, gain: null, with: 'window' });
@@ -202,7 +202,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
     : null);
   /** A pair search with both arms from `t` (the kit's rest at this step, or the whole series). */
   const search = (t: ArmTable, ratio: { cA: number; cB: number; k: number; m: number }, pref: number, aMin: number, aMax: number, keep: number): PairResult =>
-    searchPairs(t, t, { preferredA: pref, floor, aMin, aMax, ratio }, keep, pairFitsKit);
+    searchPairs(t, t, { preferredA: pref, floor, aMin, aMax, ratio }, keep, kitFits(t));
   // The feedback pair depends on the reference only through its voltage (and, on a kit, the parts it leaves):
   // searched once per voltage, trimmer and table.
   const feedbackCache = new Map<ArmTable, Map<string, PairResult>>();
@@ -332,7 +332,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
   const t = networkTransfer(net, front, ol);
   const chosen = found.pick ? Math.max(found.ranked.findIndex((c) => c.a.ohms === found.pick!.a.ohms && c.b.ohms === found.pick!.b.ohms), 0) : 0;
   return {
-    ideal, network: net, parts: partsOf(net, design), alternatives: found.ranked, chosen, bestError: Math.abs(found.scaleError),
+    ideal, network: net, parts: partsOf(net, design), alternatives: found.ranked, chosen,
     gain: t.gain, noiseGain: t.noiseGain, reference: net.reference.kind === 'none' ? NaN : net.reference.voltage,
     scaleError: found.scaleError, zeroError: found.zeroError, warnings,
   };

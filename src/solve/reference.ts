@@ -13,7 +13,7 @@ import type { Arm, ReferenceNetwork, Trimmer } from '../circuit/network.js';
 import { armAt, lowerBound, searchPairs, type ArmTable } from './search.js';
 import { COVERAGE, SETTABILITY, standardTrimmer } from './trimmers.js';
 import { TRIMMER_VALUES } from '../model/eseries.js';
-import { kitWithout, pairFitsKit, partsOfArms } from './kit.js';
+import { kitFits, kitWithout, partsOfArms } from './kit.js';
 import { referenceRails } from '../physics/topology.js';
 
 /** Wiper settings a person can rely on reaching (the ends of a cermet track are not linear; common practice). */
@@ -124,7 +124,7 @@ export function fixedDivider(design: Design, table: ArmTable, r: number, rth: nu
     aMin: prefTop / 2,
     aMax: prefTop * 2,
     ratio: { cA: 0, cB: 0, k: (1 - r) / r, m: -vspan * leverage * r * (1 - r) },
-  }, 1, pairFitsKit);
+  }, 1, kitFits(table));
   const pick = res.ranked[0];
   if (!pick) return null;
   const t = pick.a.ohms, b = pick.b.ohms;

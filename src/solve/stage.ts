@@ -29,7 +29,7 @@ import { finding, type Finding, type FindingData } from '../model/findings.js';
 import type { Arm, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
 import type { SensorFront } from '../physics/sensors.js';
 import { aimedGain, loopFactor, noiseGain, peakRange, referenceFor, referenceLeverage, type IdealStage } from '../physics/topology.js';
-import { kitWithout, partsOfArms, statedResistors, targetArmTable, pairFitsKit, seriesLabel } from './kit.js';
+import { kitFits, kitWithout, partsOfArms, statedResistors, targetArmTable, seriesLabel } from './kit.js';
 import { searchPairs, type PairCandidate, type PairResult } from './search.js';
 import { fixedDivider, nearestArm, noReference, railTie, referenceSpan, resetWiper, trimmedDivider } from './reference.js';
 import { COVERAGE, SETTABILITY, feedbackSensitivity, gainTrimHalfSpan, scaleStack, zeroStack } from './trimmers.js';
@@ -71,8 +71,6 @@ interface Candidate {
   network: StageNetwork;
   ranked: PairCandidate[];
   best: number;
-  /** The pair search the gain pair came from, whose optimum replaces `best` when the candidate is built. */
-  pairs?: PairResult;
   chosen: number;
   score: number;
   scaleError: number;
@@ -91,7 +89,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   if (ideal.topology === 'non-inverting' && !ideal.needsReference) {
     const network: StageNetwork = { topology: 'non-inverting', feedback: null, gainTrim: null, leg: null, reference: noReference(design) };
     if (target.trim.gain || target.trim.zero) w('buffer-no-trim', 'info', { stage: 'unity' });
-    return { ideal, network, parts: partsOf(network, design), alternatives: [], chosen: 0, bestError: 0, gain: 1, noiseGain: 1, reference: NaN, scaleError: 0, zeroError: 0, warnings };
+    return { ideal, network, parts: partsOf(network, design), alternatives: [], chosen: 0, gain: 1, noiseGain: 1, reference: NaN, scaleError: 0, zeroError: 0, warnings };
   }
 
   if (ideal.topology !== 'non-inverting' && ideal.topology !== 'inverting') return solveOffsetStage(design, front, ideal);
@@ -108,7 +106,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   const fail = <K extends keyof FindingData>(code: K, data: FindingData[K]): SolvedStage => {
     w(code, 'fail', data);
     const network: StageNetwork = { topology: top, feedback: null, gainTrim: null, leg: null, reference: noReference(design) };
-    return { ideal, network, parts: [], alternatives: [], chosen: 0, bestError: NaN, gain: NaN, noiseGain: NaN, reference: NaN, scaleError: NaN, zeroError: NaN, warnings };
+    return { ideal, network, parts: [], alternatives: [], chosen: 0, gain: NaN, noiseGain: NaN, reference: NaN, scaleError: NaN, zeroError: NaN, warnings };
   };
   if (!Number.isFinite(gAim) || gAim <= 0) {
     return fail('gain-beyond-loop', { gain: ideal.gain, openLoopGainDb: design.opamp.openLoopGainDb });
@@ -148,7 +146,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     const zeroLever = fixedRef && !fixedRef.trim && fixedRef.kind !== 'none' ? (Math.abs(front.quiescent - fixedRef.voltage) * (gAim - 1)) / outSpan : 0;
     const ratio = top === 'non-inverting' ? { cA: half, cB: rth, k: gAim - 1, m: (gAim - 1) / gAim + zeroLever } : { cA: half, cB: rs, k: gAim, m: 1 };
     const left = leftBy(table, fixedRef);
-    return searchPairs(left, left, { preferredA: rfPref, floor, aMin: Math.max(opt.aMin, aFrom), aMax: opt.aMax, ratio }, keep, pairFitsKit);
+    return searchPairs(left, left, { preferredA: rfPref, floor, aMin: Math.max(opt.aMin, aFrom), aMax: opt.aMax, ratio }, keep, kitFits(left));
   };
   /**
    * The least Rf a non-inverting leg with this reference allows: the leg holds the Thevenin at least, and
@@ -251,8 +249,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
   const found: { cand: Candidate | null; opt: GainOption | null } = { cand: null, opt: null };
   const consider = (cand: Candidate | null, opt: GainOption, res: PairResult | null, pick: PairCandidate | null) => {
     if (!cand || (found.cand && cand.score >= found.cand.score)) return;
-    // The pair search's optimum (a scan of its whole window) is read once, for the candidate built.
-    found.cand = res && pick ? { ...cand, ranked: res.ranked, pairs: res, chosen: res.ranked.indexOf(pick) } : cand;
+    found.cand = res && pick ? { ...cand, ranked: res.ranked, chosen: res.ranked.indexOf(pick) } : cand;
     found.opt = opt;
   };
   /** Whether a candidate with these fixed gain parts, feedback arm and reference could still beat the best found (its least score). */
@@ -317,5 +314,5 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     w('zero-trim-off-centre', 'info', { setting: net.reference.trim.setting });
   }
   const real = realised(net, ideal, front, ol);
-  return { ideal, network: net, parts: partsOf(net, design), alternatives: best.ranked, chosen: Math.max(best.chosen, 0), bestError: best.pairs ? Math.abs(best.pairs.best?.error ?? best.scaleError) : best.best, gain: real.gain, noiseGain: networkGain(net, front.sourceResistance).noiseGain, reference: real.reference, scaleError: real.scaleError, zeroError: real.zeroError, warnings };
+  return { ideal, network: net, parts: partsOf(net, design), alternatives: best.ranked, chosen: Math.max(best.chosen, 0), gain: real.gain, noiseGain: networkGain(net, front.sourceResistance).noiseGain, reference: real.reference, scaleError: real.scaleError, zeroError: real.zeroError, warnings };
 }

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { analyse } from '../../src/analysis/report.js';
+import { crossingBracket } from '../../src/analysis/analysis.js';
 import { reportJson } from '../../src/present/json.js';
 import { DEMOS } from '../../src/model/demos.js';
 import { designFrom, nonFinitePaths, shuntOnSplitSupply } from '../helpers.js';
@@ -420,5 +421,26 @@ describe('current transformer at mains frequency', () => {
     const shown = Number(/reading is ([\d.]+) %/.exec(sayFinding(w))![1]) / 100;
     expect(shown).toBeCloseTo(expected, 3);
     expect(w.level).toBe(expected > 0.01 ? 'caution' : 'info');
+  });
+});
+
+describe('crossingBracket: where a headroom crosses zero (false position and bisection; Press et al., Numerical Recipes, §9.2–9.3, from memory)', () => {
+  const counted = (g: (x: number) => number) => { const f = (x: number) => { f.calls++; return g(x); }; f.calls = 0; return f; };
+  it('a straight headroom v − 8.0 crosses at 8.0 V: found within the tolerance in two solves', () => {
+    const g = counted((v) => v - 8);
+    const x = crossingBracket(6, g(6), 9.6, g(9.6), 1e-6, g);
+    expect(Math.abs(x - 8)).toBeLessThanOrEqual(0.5e-6);
+    expect(g.calls).toBeLessThanOrEqual(4); // two for the ends given, two probes
+  });
+  it('a bent headroom (cubic about 7.3) and one with a kink (two straight pieces) still land within the tolerance', () => {
+    const cubic = (v: number) => (v - 7.3) ** 3;
+    expect(Math.abs(crossingBracket(6, cubic(6), 9.6, cubic(9.6), 1e-6, cubic) - 7.3)).toBeLessThanOrEqual(1e-6);
+    // Two straight pieces meeting at 8.5 V: 0.01·(v − 7.9) above it, 2·(v − 8.497) below it (continuous at 8.5).
+    const kink = (v: number) => (v >= 8.5 ? 0.01 * (v - 7.9) : 2 * (v - 8.497));
+    expect(Math.abs(crossingBracket(6, kink(6), 9.6, kink(9.6), 1e-6, kink) - 8.497)).toBeLessThanOrEqual(1e-6);
+  });
+  it('no figure at one end (a step that could not be solved reads −Infinity): it bisects instead', () => {
+    const g = (v: number) => (v < 7 ? -Infinity : v - 7.25);
+    expect(Math.abs(crossingBracket(6, -Infinity, 9.6, g(9.6), 1e-6, g) - 7.25)).toBeLessThanOrEqual(1e-6);
   });
 });

@@ -3,15 +3,10 @@ import { execFileSync, spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync, mkdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { main } from '../../src/cli/cli.js';
+import { run } from './run.js';
 import { DEMOS } from '../../src/model/demos.js';
 import { isMember } from '../../src/model/eseries.js';
 
-const run = async (args: string[]) => {
-  let out = '', err = '';
-  const code = await main(args, { out: (s) => { out += s; }, err: (s) => { err += s; } });
-  return { code, out, err };
-};
 
 let dir: string;
 beforeAll(() => {

@@ -7,14 +7,9 @@ import { execFileSync, spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync, mkdirSync, symlinkSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { main } from '../../src/cli/cli.js';
+import { run } from './run.js';
 import { DEMOS } from '../../src/model/demos.js';
 
-const run = async (args: string[]) => {
-  let out = '', err = '';
-  const code = await main(args, { out: (s) => { out += s; }, err: (s) => { err += s; } });
-  return { code, out, err };
-};
 const demo = (id = 'generic-sensor') => structuredClone(DEMOS.find((d) => d.id === id)!.document) as Record<string, any>;
 
 let dir: string;

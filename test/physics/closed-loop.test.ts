@@ -11,7 +11,7 @@ import { demoDesign } from '../../src/model/demos.js';
 import { validateDesign, type ClosedLoopHallSensor, type Design } from '../../src/model/design.js';
 import { MU0 } from '../../src/model/constants.js';
 import {
-  closedLoopFigures, closedLoopParts, closedLoopTransferAt, heldRange, loopFigures, loopGainAt, proposeTurns,
+  closedLoopFigures, closedLoopParts, closedLoopTransferAt, heldRange, loopFigures, loopGainAt, loopGainMagnitudeAt, proposeTurns,
   suggestCompensation, supplyCurrentAt, turnsTrade, windingResistanceOf, COPPER_RESISTIVITY, awgDiameter,
 } from '../../src/physics/closed-loop.js';
 import { sensorFront } from '../../src/physics/sensors.js';
@@ -130,6 +130,17 @@ describe('closed-loop Hall sensor: the loop', () => {
       expect(rel(Math.hypot(re, im), m), `|T| at ${f} Hz`).toBeLessThan(1e-6);
       // The driver's 200 dB is not infinite: at 1 Hz it leaves 7e-6 rad of the integrator's leak.
       expect(Math.abs(Math.atan2(im, re) - ph), `arg T at ${f} Hz`).toBeLessThan(1e-4);
+    }
+  });
+
+  it('|T| written out in real numbers (for the crossover search) equals |loopGainAt| at every frequency, for the integrator and the demo', () => {
+    for (const d of [integrator(), demoDesign('closed-loop-clamp')]) {
+      const p = closedLoopParts(specOf(d), d.supply);
+      for (let k = 0; k <= 130; k++) {
+        const f = 1e-3 * 10 ** (k / 10);
+        const [re, im] = loopGainAt(p, f);
+        expect(rel(loopGainMagnitudeAt(p, f), Math.hypot(re, im)), `|T| at ${f} Hz`).toBeLessThan(1e-12);
+      }
     }
   });
 
