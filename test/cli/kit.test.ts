@@ -6,16 +6,10 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { main } from '../../src/cli/cli.js';
+import { run } from './run.js';
 import { DEMOS } from '../../src/model/demos.js';
 import { isMember } from '../../src/model/eseries.js';
 import { serialiseKitFile } from '../../src/model/kit-file.js';
-
-const run = async (args: string[]) => {
-  let out = '', err = '';
-  const code = await main(args, { out: (s) => { out += s; }, err: (s) => { err += s; } });
-  return { code, out, err };
-};
 
 let dir: string;
 beforeAll(() => {
