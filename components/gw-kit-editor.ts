@@ -97,7 +97,7 @@ export class GwKitEditor extends LitElement {
         <button @click=${() => shelf.download(this._name, kit)}>Save as a file</button></div>` : nothing}
       ${shelf.kits.length ? html`<div class="row"><label>Kept in this browser <select aria-label="Kept kits">
           ${shelf.kits.map((k, i) => html`<option value=${i}>${k.name}</option>`)}</select></label>
-        <button @click=${() => shelf.load(this._keptIndex())}>Use</button>
+        <button @click=${() => { this._name = shelf.load(this._keptIndex()) ?? this._name; }}>Use</button>
         <button @click=${() => shelf.remove(this._keptIndex())}>Remove</button></div>` : nothing}
       <div class="row"><label>Open a kit file <input type="file" accept=".json,application/json" aria-label="Open a kit file" @change=${this._openFile} /></label></div>
       ${said ? html`<p class="said ${said.bad ? 'bad' : ''}" role=${said.bad ? 'alert' : 'status'}>${said.text}</p>` : nothing}

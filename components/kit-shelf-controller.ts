@@ -52,12 +52,13 @@ export class KitShelfController implements ReactiveController {
     this.say(`Kept "${clean}" in this browser.`, false);
   }
 
-  /** Sends the shelf's kit at `index` up to the design. */
-  load(index: number): void {
+  /** Sends the shelf's kit at `index` up to the design; its name, or null when there is none. */
+  load(index: number): string | null {
     const k = this.kits[index];
-    if (!k) return;
+    if (!k) return null;
     this.use(k.kit);
     this.say(`Took "${k.name}" from this browser.`, false);
+    return k.name;
   }
 
   remove(index: number): void {

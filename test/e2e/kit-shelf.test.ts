@@ -52,6 +52,8 @@ describe('the person\'s kits in the app', () => {
     await expect.poll(() => page.locator('gw-kit-editor select[aria-label="Kept kits"] option').allInnerTexts()).toEqual(['bench drawer']);
     await page.locator('gw-kit-editor button', { hasText: /^Use$/ }).click();
     await expect.poll(() => kitOf(page)).toEqual(E6_KIT);
+    // The name it was kept by is the name it is saved by.
+    expect(await page.locator('gw-kit-editor input[aria-label="Kit name"]').inputValue()).toBe('bench drawer');
     await expect.poll(() => allIn(page, 'E6')).toBe(true);
 
     // Save as a file; switch to another shape; open the file: the kit saved comes back.
@@ -59,7 +61,7 @@ describe('the person\'s kits in the app', () => {
     await page.locator('gw-kit-editor button', { hasText: 'Save as a file' }).click();
     const saved = await (await download).path();
     const doc = JSON.parse(readFileSync(saved!, 'utf8'));
-    expect(doc).toMatchObject({ format: 'gainwright-kit', version: 1, kit: E6_KIT });
+    expect(doc).toEqual({ format: 'gainwright-kit', version: 1, name: 'bench drawer', kit: E6_KIT });
     await page.locator('gw-kit-editor select[aria-label="Kit shape"]').selectOption('e24-1-1m');
     await expect.poll(() => kitOf(page)).toMatchObject({ series: 'E24' });
     await page.locator('gw-kit-editor input[type=file]').setInputFiles(saved!);
