@@ -11,6 +11,7 @@ import { chooseTopology } from '../../src/physics/topology.js';
 import { solveStage } from '../../src/solve/stage.js';
 import { sayFinding } from '../../src/present/finding-words.js';
 import { designFrom } from '../helpers.js';
+import { switchKitFindings } from '../../src/analysis/kit.js';
 
 const fixed = (r: ReturnType<typeof analyse>) => r.stage!.parts.filter((p) => p.kind === 'resistor' && p.role !== 'output-series');
 /** An E6 kit of single parts with no span trimmer: 8× from E6 values alone is 3 % off (scenario of our own). */
@@ -65,6 +66,17 @@ describe('a design on a resistor kit', () => {
       expect(new Set(all).size).toBe(all.length);
       for (const ohms of all) expect(isMember(ohms, 'E6')).toBe(true);
     }
+  });
+
+  // The check on a range switch's whole parts list (scenario of our own: one 10 kΩ held, the second position's
+  // own feedback arm a second 10 kΩ); a value the stage's own parts already overuse is said once, by the stage.
+  it('switchKitFindings flags a value the whole switch takes more often than held, once', () => {
+    const design = designFrom('generic-sensor', (x) => { x.target.kit = { parts: [{ ohms: 1e4, count: 1 }, { ohms: 1e5 }] }; });
+    const r = (role: string) => ({ kind: 'resistor', ohms: 1e4, role });
+    expect(switchKitFindings(design, [r('feedback'), r('feedback'), r('ground-leg')], [r('ground-leg')]))
+      .toEqual([{ code: 'kit-quantity', level: 'fail', data: { ohms: 1e4, used: 3, held: 1 } }]);
+    expect(switchKitFindings(design, [r('feedback'), r('feedback'), r('ground-leg')], [r('feedback'), r('ground-leg')])).toEqual([]);
+    expect(switchKitFindings(designFrom('generic-sensor'), [r('feedback'), r('feedback')], [])).toEqual([]);
   });
 
   it('the file refuses a kit with no value in the resistance window, and a series kit with its limits reversed', () => {
