@@ -53,6 +53,11 @@ describe('gainwright report DESIGN --kit KIT', () => {
     expect(other.err).toMatch(/--kit goes with report or compare/);
     const dangling = await run(['report', join(dir, 'probe.json'), '--kit']);
     expect(dangling.code).toBe(2);
+    // A folder, or a device named like a kit, is refused before anything is read from it.
+    const folder = await run(['report', join(dir, 'probe.json'), '--kit', dir]);
+    expect([folder.code, folder.err]).toEqual([2, `gainwright: ${dir}: is a folder\n`]);
+    const device = await run(['report', join(dir, 'probe.json'), '--kit', '/dev/zero']);
+    expect([device.code, device.err]).toEqual([2, 'gainwright: /dev/zero: is not a regular file\n']);
   });
 
   it('compare takes the kit too: every row solved from it', async () => {
