@@ -6,7 +6,7 @@
 import type { Design } from '../model/design.js';
 import type { LimitData } from '../model/findings.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
-import { adjointAt, signalTransfer, solveDc, stampReal, luFactorReal, luSolveReal, rhs, workspace, type Element } from '../circuit/mna.js';
+import { adjointAt, signalTransfer, solveDc, stampReal, luFactorReal, luSolveReal, rhs, workspace, type Element, type ElementRole } from '../circuit/mna.js';
 import { integratePower, logGrid, peakToPeak } from '../physics/noise.js';
 import { noiseSpectrum, type NoiseSpectrum } from '../circuit/noise.js';
 import { atSensorSupply, sensorFront, type SensorFront, type SensorLimitKind } from '../physics/sensors.js';
@@ -303,7 +303,8 @@ export interface NoiseResult {
   referredRms: number;
   referredDensityAt1kHz: number;
   /** Each source's share of the integrated noise power. */
-  shares: Array<{ name: string; rms: number; fraction: number }>;
+  /** Each source's share of the noise power, largest first (`role` and `part` say what it is; src/present words it). */
+  shares: Array<{ name: string; role?: ElementRole; part?: string; rms: number; fraction: number }>;
   /** Whether the band is the default one (`defaultBand`) rather than the design's own. */
   bandIsDefault: boolean;
   /** The 0.1–10 Hz figure that decides how far a DC reading wanders: rms and peak-to-peak at the output, V, and referred. */
@@ -339,7 +340,7 @@ export function noise(design: Design, sc: StageCircuit, sp: Speed, points = 201)
   const rms = Math.sqrt(power);
   const shares = spectrum.sources.map((s) => {
     const p = integratePower(freqs, s.density);
-    return { name: s.name, rms: Math.sqrt(p), fraction: power > 0 ? p / power : 0 };
+    return { name: s.name, ...(s.role ? { role: s.role } : {}), ...(s.part ? { part: s.part } : {}), rms: Math.sqrt(p), fraction: power > 0 ? p / power : 0 };
   }).sort((a, b) => b.fraction - a.fraction);
   const g = Math.abs(sp.passband) || NaN;
   const lf = LOW_FREQUENCY_BAND;
@@ -540,8 +541,32 @@ export function supply(design: Design, front: SensorFront, sc: StageCircuit, dc:
   if (design.supply.regulated?.quiescentCurrent) parts.push({ name: 'regulator quiescent', current: design.supply.regulated.quiescentCurrent });
   if (design.supply.battery?.rails === 'split') parts.push({ name: 'rail splitter', current: design.supply.battery.splitterCurrent ?? SPLITTER_CURRENT });
   const current = parts.reduce((s, p) => s + p.current, 0);
+  return { current, parts, batteryLife: batteryLifeAt(design, current) };
+}
+
+/** Running time on the battery at a current, hours: capacity ÷ current (null without a battery or a current). */
+function batteryLifeAt(design: Design, current: number): number | null {
   const bat = design.supply.battery;
-  return { current, parts, batteryLife: bat && current > 0 ? bat.capacity / current / HOUR : null };
+  return bat && current > 0 ? bat.capacity / current / HOUR : null;
+}
+
+/**
+ * The supply with a further steady draw beside the stage's own (a range switch's dividers not in use, which
+ * stay across their rail), and the battery clip's hours for it: the clip voltage is the stage's, the time to
+ * reach it is the charge over the larger current.
+ */
+export function withExtraDraw(design: Design, sup: SupplyResult, clip: BatteryClip | null, part: string, amps: number): { supply: SupplyResult; batteryClip: BatteryClip | null } {
+  if (!(amps > 0)) return { supply: sup, batteryClip: clip };
+  const current = sup.current + amps;
+  const supply: SupplyResult = { current, parts: [...sup.parts, { name: part, current: amps }], batteryLife: batteryLifeAt(design, current) };
+  const bat = design.supply.battery;
+  const batteryClip = clip && bat ? { voltage: clip.voltage, hoursToEnd: supply.batteryLife, hoursToClip: clip.voltage === null ? null : hoursToVoltage(bat, supply.batteryLife, clip.voltage) } : clip;
+  return { supply, batteryClip };
+}
+
+/** Hours from a fresh battery to voltage v, the voltage taken as falling linearly with the charge drawn. */
+function hoursToVoltage(bat: NonNullable<Design['supply']['battery']>, hoursToEnd: number | null, v: number): number | null {
+  return hoursToEnd === null ? null : (hoursToEnd * (bat.fresh - v)) / (bat.fresh - bat.endOfLife);
 }
 
 export interface BatteryStep {
@@ -626,7 +651,7 @@ export function batteryClip(design: Design, stage: SolvedStage, front: SensorFro
   const hoursToEnd = sup.batteryLife;
   if (!bat) return { voltage: null, hoursToClip: null, hoursToEnd: null };
   const margin = (s: BatteryStep | null) => (s ? Math.min(s.headroomLow, s.headroomHigh) : -Infinity);
-  const hours = (v: number) => (hoursToEnd === null ? null : (hoursToEnd * (bat.fresh - v)) / (bat.fresh - bat.endOfLife));
+  const hours = (v: number) => hoursToVoltage(bat, hoursToEnd, v);
   const k = sweep.findIndex((s) => margin(s) < 0);
   if (k < 0) return { voltage: null, hoursToClip: null, hoursToEnd };
   if (k === 0) return { voltage: sweep[0]!.voltage, hoursToClip: 0, hoursToEnd };

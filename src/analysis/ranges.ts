@@ -79,9 +79,14 @@ export interface RangeSwitch {
   parts: Part[];
   /** The switch's reference in the parts list. */
   switchRef: string;
-  /** Current the reference networks not in use still draw (two poles: each divider stays on its rail), A. */
+  /** Current the reference networks not in use still draw (two poles: each divider stays on its rail), A: the most over the positions. */
   idleCurrent: number;
+  /** The same with position 1 in (the design's own range), which the top-level battery life counts, A. */
+  idleAtFirst: number;
 }
+
+/** The supply part a range switch's idle dividers are listed as. */
+export const IDLE_DIVIDERS = 'reference dividers of the ranges not in use';
 
 export type RangeSwitchResult = { ok: true; value: RangeSwitch } | { ok: false; code: 'range-stage'; topology: Topology | null; buffer: boolean };
 
@@ -296,6 +301,12 @@ export function rangeSwitch(design: Design, first: Report, analyse: Analyse, opt
   if (!asked && wiring === 'two-pole' && nets.some((n) => !n) && single.every((n) => n)) { wiring = 'single-pole'; decidedBy = 'zero-unreachable'; nets = single; }
   const built = nets.map((n) => n ?? net1);
   const { all, per } = numberParts(built, design, wiring);
+  // Two poles: every divider stays on its rail whichever position is in; the ones not in use still draw, and
+  // each position's battery life counts them (`idleAt`).
+  const { lo, hi } = referenceSpan(design);
+  const dividerCurrent = (n: StageNetwork) => (n.reference.kind === 'divider' ? (hi - lo) / ((n.reference.top?.ohms ?? 0) + (n.reference.trim?.ohms ?? 0) + (n.reference.bottom?.ohms ?? 0)) : 0);
+  const allDividers = built.reduce((a, n) => a + dividerCurrent(n), 0);
+  const idleAt = (i: number) => (wiring === 'two-pole' ? allDividers - dividerCurrent(built[i]!) : 0);
   const first1 = zeroTerms(net1, front, designs[0]!);
   const [vq, vref1] = [front.quiescent, net1.reference.voltage];
   const g1 = networkTransfer(net1, front, openLoopOf(design)).gain;
@@ -320,22 +331,20 @@ export function rangeSwitch(design: Design, first: Report, analyse: Analyse, opt
       ...s1, ideal, network: net, parts: per[i]!, alternatives: [], chosen: 0, gain: gi, noiseGain: tr.noiseGain, reference: net.reference.voltage,
       scaleError: (tr.scale * front.sensitivity) / ideal.pinScale - 1, zeroError: tr.scale * front.quiescent + tr.offset - ideal.pinZero, warnings: [],
     } : null;
-    const report = i === 0 ? first : stage ? analyse(d, { ...opts, stage, trade: false }) : null;
+    const report = i === 0 ? first : stage ? analyse(d, { ...opts, stage, trade: false, extraDraw: { part: IDLE_DIVIDERS, amps: idleAt(i) } }) : null;
     const unbuilt = net ? null : wiring === 'two-pole' ? 'range-zero-unreachable' : 'range-gain-unreachable';
     // The shift as the circuit solver gives it (a CT's DC path runs through its winding, which the closed
     // transfer folds into the burden): what the report states at each position.
     const solved = report?.dc && first.dc ? report.dc.out[0] - first.dc.out[0] : zeroShift;
     return { index: i, scale: d.target.scale, range: d.target.range, network: net ?? net1, parts: per[i]!, report, zeroShift: solved, zeroShiftClosedForm: closed, sharedTrimResidual: residual, unbuilt };
   });
-  // Two poles: every divider stays on its rail whichever position is in; the ones not in use still draw.
-  const { lo, hi } = referenceSpan(design);
-  const dividerCurrent = (n: StageNetwork) => (n.reference.kind === 'divider' ? (hi - lo) / ((n.reference.top?.ohms ?? 0) + (n.reference.trim?.ohms ?? 0) + (n.reference.bottom?.ohms ?? 0)) : 0);
-  const idle = wiring === 'two-pole' ? built.reduce((a, n) => a + dividerCurrent(n), 0) - Math.min(...built.map(dividerCurrent)) : 0;
+  // The most the dividers not in use draw, over the positions (the finding's figure).
+  const idle = Math.max(...built.map((_, i) => idleAt(i)));
   return {
     ok: true,
     value: {
       wiring, decidedBy, singlePoleShift: singleShift, shiftLimit: limit,
-      poles: wiring === 'single-pole' ? 1 : 2, throws: count, positions, parts: all, switchRef: 'SW1', idleCurrent: idle,
+      poles: wiring === 'single-pole' ? 1 : 2, throws: count, positions, parts: all, switchRef: 'SW1', idleCurrent: idle, idleAtFirst: idleAt(0),
     },
   };
 }

@@ -10,7 +10,7 @@ import { solveStage, type SolvedStage } from '../solve/stage.js';
 import { commonModeGain, openLoopOf } from '../solve/transfer.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
 import {
-  batteryClip, batterySweep, clipping, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, nodeLinear, noise, speed, spread, supply, transferAt, transferCurve, wrapDegrees,
+  batteryClip, batterySweep, clipping, withExtraDraw, dcLinear, defaultBand, errorBudget, frequencyResponse, responseFromSpectrum, instrumentDrive, nodeLinear, noise, speed, spread, supply, transferAt, transferCurve, wrapDegrees,
   type BatteryClip, type BatteryStep, type ClipCause, type ClipResult, type DcPoint, type ErrorBudget, type FrequencyResponse, type InstrumentDrive, type NoiseResult,
   type Speed, type SpreadResult, type SupplyResult,
 } from './analysis.js';
@@ -20,7 +20,7 @@ import { closedLoopSummary, type ClosedLoopSummary } from './closed-loop.js';
 import { frontWithReadings, sensorFromReadings, type SensorFromReadings } from './sensor-readings.js';
 import { trimFromReadings, type TrimResult } from './trim.js';
 import { tradeSweep, type TradeResult } from './trade.js'; // issue 19
-import { rangeFindings, rangeSwitch, type RangeSwitchResult } from './ranges.js'; // issue 19
+import { IDLE_DIVIDERS, rangeFindings, rangeSwitch, type RangeSwitchResult } from './ranges.js'; // issue 19
 
 export interface Report {
   design: Design;
@@ -72,6 +72,11 @@ export interface AnalyseOptions {
   waveformSamples?: number;
   /** Issue 19: run the trade sweep (a stage solve per point, so only where it is shown). */
   trade?: boolean;
+  /**
+   * A steady draw beside the stage's own, counted in the supply current and battery life (a range switch's
+   * dividers not in use, for one position's report).
+   */
+  extraDraw?: { part: string; amps: number };
   /**
    * Issue 19: analyse these parts instead of solving the stage (a range switch's position, built with the
    * parts the switch puts in). The design's chosen stage must be the one they were built for.
@@ -134,9 +139,10 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
     ? (nz ? finiteOr(responseFromSpectrum(nz.spectrum), 'response', 'the frequency response', absent) : null)
     : finiteOr(frequencyResponse(circuit, defaultBand(sp)[0], defaultBand(sp)[1], opts.acPoints ?? 200), 'response', 'the frequency response', absent);
   const errors = finiteOr(errorBudget(design, stage, front, circuit, dc), 'errors', 'the error budget', absent);
-  const sup = finiteOr(supply(design, front, circuit, dc), 'supply', 'the supply current', absent);
+  const sup0 = finiteOr(supply(design, front, circuit, dc), 'supply', 'the supply current', absent);
   const battery = finiteOr(batterySweep(design, stage, front, dc.out[0]), 'battery', 'the battery sweep', absent) ?? [];
-  const bClip = design.supply.battery && sup ? finiteOr(batteryClip(design, stage, front, dc.out[0], battery, sup), 'batteryClip', 'the battery life to the first clip', absent) : null;
+  const bClip0 = design.supply.battery && sup0 ? finiteOr(batteryClip(design, stage, front, dc.out[0], battery, sup0), 'batteryClip', 'the battery life to the first clip', absent) : null;
+  const { supply: sup, batteryClip: bClip } = sup0 && opts.extraDraw ? withExtraDraw(design, sup0, bClip0, opts.extraDraw.part, opts.extraDraw.amps) : { supply: sup0, batteryClip: bClip0 };
   const trials = opts.spreadTrials ?? design.analysis.spreadTrials;
   const spr = trials > 0 ? finiteOr(spread(design, front, circuit, dc, trials), 'spread', 'the tolerance spread', absent) : null;
   if (!spr && !absent.spread) absent.spread = 'the tolerance spread was not run';
@@ -152,6 +158,8 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
   if (design.target.ranges?.length && !opts.stage) {
     report.ranges = rangeSwitch(design, report, analyse, { spreadTrials: 0, acPoints: opts.acPoints });
     warnings.push(...rangeFindings(report.ranges, design.sensor.measurand));
+    // Two poles: the other positions' dividers stay on their rail and draw from the battery too.
+    if (report.ranges.ok && report.supply) Object.assign(report, withExtraDraw(design, report.supply, report.batteryClip, IDLE_DIVIDERS, report.ranges.value.idleAtFirst));
     // Issue 18: the whole switch from one resistor kit.
     if (report.ranges.ok) warnings.push(...switchKitFindings(design, report.ranges.value.parts, stage.parts));
   }

@@ -81,7 +81,7 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
     el({ kind: 'I', name: 'ISIG', role: 'signal', na: 'sq', nb: 'sm', value: 0, dc0: 0, dc1: ratio, ac: ratio });
     el({ kind: 'L', name: 'LM', na: 'sm', nb: 'sq', value: spec.inductanceFactor * spec.secondaryTurns ** 2 });
     R('RW', 'sm', 'sens', spec.windingResistance);
-    R('RB', 'sens', 'sq', spec.burden);
+    R('RB', 'sens', 'sq', spec.burden, true, { role: 'burden' });
   } else if (spec.type === 'closed-loop-hall') {
     // The whole loop (core, Hall sensor, compensation, driver, winding, R_M) is part of the stage's circuit.
     // On a battery sweep the rails move, and with them a mid-rail reference (a rail splitter follows the battery).
@@ -93,10 +93,10 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
       // High side: the supply end at the common-mode voltage is the + terminal; the load end, I·R below it, the −.
       el({ kind: 'V', name: 'VCM', na: 'sens', nb: '0', value: 0, dc0: f.commonMode, dc1: 0, ac: 0 });
       el({ kind: 'I', name: 'ISIG', role: 'signal', na: 'sensn', nb: '0', value: 0, dc0: 0, dc1: 1, ac: 1 });
-      R('RSH', 'sens', 'sensn', spec.resistance);
+      R('RSH', 'sens', 'sensn', spec.resistance, true, { role: 'shunt' });
     } else {
       el({ kind: 'I', name: 'ISIG', role: 'signal', na: '0', nb: 'sens', value: 0, dc0: 0, dc1: 1, ac: 1 });
-      R('RSH', 'sens', '0', spec.resistance);
+      R('RSH', 'sens', '0', spec.resistance, true, { role: 'shunt' });
     }
   } else {
     // A differential output: its − terminal at the common-mode voltage, the signal on top of it.
@@ -123,8 +123,8 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
   const oa = design.opamp;
   const a0 = 10 ** (oa.openLoopGainDb / 20);
   el({ kind: 'V', name: 'VOS', role: 'opamp-offset', na: 'inp', nb: 'inpi', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { vos: oa.offsetVoltage }, noise: oa.voltageNoise, noiseCorner: oa.voltageNoiseCorner });
-  el({ kind: 'I', name: 'IBP', na: 'inpi', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibp: oa.biasCurrent }, noise: oa.currentNoise, noiseCorner: oa.currentNoiseCorner });
-  el({ kind: 'I', name: 'IBN', na: 'inn', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibn: oa.biasCurrent }, noise: oa.currentNoise, noiseCorner: oa.currentNoiseCorner });
+  el({ kind: 'I', name: 'IBP', role: 'opamp-bias-positive', na: 'inpi', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibp: oa.biasCurrent }, noise: oa.currentNoise, noiseCorner: oa.currentNoiseCorner });
+  el({ kind: 'I', name: 'IBN', role: 'opamp-bias-negative', na: 'inn', nb: '0', value: 0, dc0: 0, dc1: 0, ac: 0, extra: { ibn: oa.biasCurrent }, noise: oa.currentNoise, noiseCorner: oa.currentNoiseCorner });
   el({ kind: 'E', name: 'EOA', role: 'opamp-gain', na: 'int', nb: '0', value: a0, pole: oa.gbw / a0, cpn: 'inpi', cnn: 'inn' });
   R('ROUT', 'int', 'pin', Math.max(oa.outputResistance, 1e-3), false);
 
@@ -219,7 +219,7 @@ export function buildCircuit(design: Design, stage: StageParts, front: SensorFro
   } else {
     nm.wire('pin', 'out');
   }
-  R('RLOAD', 'out', '0', design.output.load.resistance);
+  R('RLOAD', 'out', '0', design.output.load.resistance, true, { role: 'load' });
   if (design.output.load.capacitance > 0) el({ kind: 'C', name: 'CLOAD', na: 'out', nb: '0', value: design.output.load.capacitance });
 
   // Resolve node names to indices.

@@ -240,8 +240,10 @@ export function transient(c: Circuit, plan: TransientPlan): TransientTrace | nul
     if (hitsBp) {
       nextBp++; lastBp = t; firstOrder = true; h = plan.hMin; atSize = 0; hPrev = 0;
     } else if (modeCode() !== before) {
-      // A block entered or left a limit inside the step: shorten the step to place the corner well.
-      h = Math.max(h / 4, plan.hMin); atSize = 0;
+      // A block entered or left a limit inside the step: its output has a corner there, as the input has at a
+      // breakpoint, so the next step restarts as one: shorter, and first order (BDF2's history would carry the
+      // slope from before the corner across it, and on a long step overshoot into a cycle of slewing up and down).
+      h = Math.max(h / 4, plan.hMin); atSize = 0; firstOrder = true; hPrev = 0;
     } else if (++atSize >= 2) {
       h = Math.min(h * 2, Math.max(plan.hMax, plan.hMaxWarm)); atSize = 0;
     }

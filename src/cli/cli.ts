@@ -13,9 +13,10 @@
  * Exit codes: 0 done, 1 the design was solved but fails a check (with --strict), 2 bad input, 3 a fault of
  * Gainwright's own (one line, never a stack trace). Every message is one line.
  */
-import { closeSync, constants, fstatSync, openSync, readSync, readdirSync, statSync } from 'node:fs';
-import { join } from 'node:path';
-import { decodeDesignBytes, formatProblems, MAX_DESIGN_BYTES, parseDesignText, tooLargeMessage } from '../model/design.js';
+import { readdirSync, statSync } from 'node:fs';
+import { formatProblems, parseDesignText } from '../model/design.js';
+import { readDesign } from './files.js';
+import { reportFolder } from './batch.js';
 import { quoteText } from '../model/validate.js';
 import { analyse } from '../analysis/report.js';
 import { reportJson } from '../present/json.js';
@@ -31,8 +32,8 @@ import { trimFromReadings, trimJson } from '../analysis/trim.js';
 import { fitLines, trimLines } from '../present/readings.js';
 import { comparisonJson, comparisonLines, comparisonRows } from '../present/comparison.js';
 import { MAX_OPAMP_LIST_BYTES, parseOpAmpListText } from '../model/opamp-list.js';
-import { MAX_KIT_FILE_BYTES, parseKitFileText } from '../model/kit-file.js';
-import { validateDesign, type Design, type ResistorKit } from '../model/design.js';
+import { MAX_KIT_FILE_BYTES, designWithKit, parseKitFileText } from '../model/kit-file.js';
+import type { Design, ResistorKit } from '../model/design.js';
 import { jsonText, terminalLine } from '../present/inert.js';
 import { sensorFrontAtRail } from '../physics/sensors.js';
 import { cautionsFor } from '../present/cautions.js';
@@ -78,35 +79,6 @@ const USAGE = `usage:
 `;
 
 
-/**
- * Reads a design (or readings) file: only a regular file, and at most the limit plus one byte whatever its stated size
- * (a device or a FIFO states 0). Opened without blocking, so that a FIFO named like a design cannot hang
- * the run; decoded as UTF-8 or UTF-16 the way the app decodes a file.
- */
-function readDesign(path: string, limit = MAX_DESIGN_BYTES, what = 'a design file is a few kB'): { ok: true; text: string } | { ok: false; message: string } {
-  let fd = -1;
-  try {
-    const first = statSync(path);
-    if (!first.isFile()) return { ok: false, message: first.isDirectory() ? 'is a folder' : 'is not a regular file' };
-    fd = openSync(path, constants.O_RDONLY | (constants.O_NONBLOCK ?? 0));
-    const st = fstatSync(fd);
-    if (!st.isFile()) return { ok: false, message: 'is not a regular file' };
-    if (st.size > limit) return { ok: false, message: tooLargeMessage(limit, what) };
-    const buf = Buffer.alloc(limit + 1);
-    let n = 0;
-    for (let got = 1; got > 0 && n < buf.length; n += got) got = readSync(fd, buf, n, buf.length - n, null);
-    if (n > limit) return { ok: false, message: tooLargeMessage(limit, what) };
-    const text = decodeDesignBytes(buf.subarray(0, n));
-    if (!text.ok) return { ok: false, message: text.problems[0]!.message };
-    return { ok: true, text: text.text };
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    return { ok: false, message: code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder' : `cannot be read (${code ?? 'error'})` };
-  } finally {
-    if (fd >= 0) closeSync(fd);
-  }
-}
-
 /** A problem list as lines, each one line whatever the text in it. */
 const problemLines = (problems: Array<{ path: string; message: string }>) => formatProblems(problems).split('\n').map(terminalLine);
 
@@ -114,7 +86,7 @@ const problemLines = (problems: Array<{ path: string; message: string }>) => for
 export async function main(argv: string[], io: Io = nodeIo): Promise<number> {
   if (io === nodeIo) quietOnClosedPipe();
   try {
-    return run(argv, io);
+    return await run(argv, io);
   } catch (e) {
     // A bug must still not print a stack trace at a user.
     io.err(`gainwright: internal error: ${oneLine(e)}\n`);
@@ -124,7 +96,7 @@ export async function main(argv: string[], io: Io = nodeIo): Promise<number> {
 
 const oneLine = (e: unknown) => String(e instanceof Error ? e.message : e).replace(/\s+/g, ' ').slice(0, 300);
 
-function run(argv: string[], io: Io): number {
+function run(argv: string[], io: Io): number | Promise<number> {
   const [cmd, ...given] = argv;
   // `--opamps FILE` (or `--opamps=FILE`): the person's own op-amps for `compare`.
   let opampsFile: string | null = null;
@@ -152,8 +124,7 @@ function run(argv: string[], io: Io): number {
   }
   const kitName = kitFile;
   /** The design with the kit file's kit in place (checked again as a whole: the kit must hold a value in its window). */
-  const withKit = (d: Design): { ok: true; design: Design } | { ok: false; problems: Array<{ path: string; message: string }> } =>
-    kit ? validateDesign({ ...d, target: { ...d.target, kit } }) : { ok: true, design: d };
+  const withKit = (d: Design) => designWithKit(d, kit);
   const kitRefused = (file: string, problems: Array<{ path: string; message: string }>) =>
     `gainwright: ${shown(file)} cannot take the kit of ${shown(kitName ?? '')}:\n${problemLines(problems).map((l) => `  ${l}`).join('\n')}\n`;
   const flags = new Set(rest.filter((a) => a.startsWith('--')));
@@ -188,24 +159,7 @@ function run(argv: string[], io: Io): number {
     if (!flags.has('--json')) { io.err('gainwright: a folder is reported with --json (one line per design)\n'); return 2; }
     let files: string[];
     try { files = readdirSync(path).filter((f) => f.endsWith('.json')).sort(); } catch { io.err(`gainwright: ${shown(path)}: cannot be listed\n`); return 2; }
-    let bad = 0, broken = 0;
-    for (const f of files) {
-      const p = join(path, f);
-      const read = readDesign(p);
-      if (!read.ok) { io.out(jsonText({ file: f, ok: false, problems: [read.message] }) + '\n'); bad++; continue; }
-      const v0 = parseDesignText(read.text);
-      const v = v0.ok ? withKit(v0.design) : v0;
-      if (!v.ok) { io.out(jsonText({ file: f, ok: false, problems: v.problems.map((q) => `${q.path}: ${q.message}`) }) + '\n'); bad++; continue; }
-      // One design that trips a fault of ours must not cost the report of the files after it.
-      try {
-        const r = analyse(v.design, { spreadTrials: spreadTrials ?? 0, acPoints: 50 });
-        io.out(jsonText({ file: f, ok: true, ...reportJson(r) }) + '\n');
-      } catch (e) {
-        io.out(jsonText({ file: f, ok: false, problems: [`internal error: ${oneLine(e)}`] }) + '\n');
-        broken++;
-      }
-    }
-    return broken ? 3 : bad ? 2 : 0;
+    return reportFolder(path, files, spreadTrials ?? 0, io, kit);
   }
   const read = readDesign(path);
   if (!read.ok) { io.err(`gainwright: ${shown(path)}: ${read.message}\n`); return 2; }
@@ -313,7 +267,7 @@ function trimCommand(args: string[], json: boolean, io: Io, atText: string | nul
 }
 
 function compareCommand(args: string[], json: boolean, io: Io, opampsFile: string | null,
-  withKit: (d: Design) => { ok: true; design: Design } | { ok: false; problems: Array<{ path: string; message: string }> },
+  withKit: (d: Design) => ReturnType<typeof designWithKit>,
   kitRefused: (file: string, problems: Array<{ path: string; message: string }>) => string): number {
   if (args.length !== 1) { io.err(`gainwright: compare takes one design file\n${USAGE}`); return 2; }
   const read = readDesign(args[0]!);

@@ -4,7 +4,7 @@
  * exactly the shape of a design's `target.kit` and is checked by the same schema and rule (KIT_SCHEMA,
  * kitLimitProblem in ./design.ts). See docs/design-format.md.
  */
-import { firstDuplicateKey, KIT_SCHEMA, kitLimitProblem, type ResistorKit } from './design.js';
+import { firstDuplicateKey, KIT_SCHEMA, kitLimitProblem, validateDesign, type Design, type ResistorKit, type ValidationResult } from './design.js';
 import { check, type Problem } from './validate.js';
 
 export const KIT_FILE_FORMAT = 'gainwright-kit';
@@ -90,4 +90,12 @@ export function shelveKit(kits: readonly NamedKit[], named: NamedKit): NamedKit[
   const at = kits.findIndex((k) => k.name === named.name);
   if (at >= 0) return kits.map((k, i) => (i === at ? named : k));
   return kits.length >= MAX_SHELF_KITS ? null : [...kits, named];
+}
+
+/**
+ * A design with a kit file's kit in place of its own `target.kit`, checked again as a whole (the kit must
+ * hold a value inside the design's resistance window); null leaves the design as it is.
+ */
+export function designWithKit(design: Design, kit: ResistorKit | null): ValidationResult {
+  return kit ? validateDesign({ ...design, target: { ...design.target, kit } }) : { ok: true, design };
 }

@@ -3,6 +3,7 @@
  * DOM. The app's chart element hands them to Chart.js as they are.
  */
 import type { Report } from '../analysis/report.js';
+import type { ElementRole } from '../circuit/mna.js';
 
 export interface Series {
   label: string;
@@ -81,22 +82,31 @@ export function noiseChart(r: Report, sources = 5): ChartData | null {
     x: { label: 'Frequency (Hz)', log: true }, y: { label: 'Noise density (nV/√Hz)', log: true },
     series: [
       { label: 'Total', role: 'main', points: pts(s.freqs, Array.from(s.total, (v) => v * scale)).filter((p) => p.y > 0) },
-      ...s.sources.filter((x) => top.includes(x.name)).map((x) => ({ label: noiseLabel(x.name), role: 'source' as const, points: pts(s.freqs, Array.from(x.density, (v) => v * scale)).filter((p) => p.y > 0) })),
+      ...s.sources.filter((x) => top.includes(x.name)).map((x) => ({ label: noiseLabel(x), role: 'source' as const, points: pts(s.freqs, Array.from(x.density, (v) => v * scale)).filter((p) => p.y > 0) })),
     ],
   };
 }
 
-/** Plain names for the circuit's noise sources. */
-export function noiseLabel(name: string): string {
-  if (name === 'VOS') return 'op-amp voltage noise';
-  if (name === 'IBP') return 'op-amp current noise (+)';
-  if (name === 'IBN') return 'op-amp current noise (−)';
-  if (name === 'VSIG') return 'sensor';
-  if (name === 'RS') return 'sensor output resistance';
-  if (name === 'RB') return 'burden';
-  if (name === 'RSH') return 'shunt';
-  if (name === 'RLOAD') return 'instrument input';
-  return `${name} thermal`;
+/** What a noise source stands for, in words, by its role in the circuit (the op-amp's sources, the sensor's). */
+const NOISE_ROLE_WORDS: Partial<Record<ElementRole, string>> = {
+  'opamp-offset': 'op-amp voltage noise',
+  'opamp-bias-positive': 'op-amp current noise (+ input)',
+  'opamp-bias-negative': 'op-amp current noise (− input)',
+  signal: 'sensor',
+  'sensor-source': 'sensor output resistance',
+  burden: 'burden',
+  shunt: 'shunt',
+  load: 'instrument input',
+};
+
+/**
+ * Plain words for a noise source, from what it stands for: its role, else the part it belongs to (a resistor
+ * or trimmer of the parts list: "R3 thermal"), else the element of the sensor's own model it is.
+ */
+export function noiseLabel(source: { name: string; role?: ElementRole; part?: string } | undefined): string {
+  if (!source) return '—';
+  const byRole = source.role ? NOISE_ROLE_WORDS[source.role] : undefined;
+  return byRole ?? `${source.part ?? source.name} thermal`;
 }
 
 function batteryChart(r: Report): ChartData | null {

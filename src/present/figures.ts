@@ -36,7 +36,7 @@ export function keyFigures(r: Report): FigureRow[] {
   if (r.noise) {
     rows.push({ label: 'Noise at 1 kHz', value: f(r.noise.densityAt1kHz, 'V/√Hz'), note: `${f(r.noise.referredDensityAt1kHz, `${m}/√Hz`)} referred` });
     rows.push({ label: 'Noise rms', value: f(r.noise.rms, 'V'), note: `${f(r.noise.referredRms, m)} rms over ${f(r.noise.band[0], 'Hz')}…${f(r.noise.band[1], 'Hz')}; ${f(r.noise.peakToPeak, 'V')} p-p` });
-    rows.push({ label: 'Largest noise source', value: noiseLabel(r.noise.shares[0]?.name ?? ''), note: `${((r.noise.shares[0]?.fraction ?? 0) * 100).toFixed(0)} % of the power` });
+    rows.push({ label: 'Largest noise source', value: noiseLabel(r.noise.shares[0]), note: `${((r.noise.shares[0]?.fraction ?? 0) * 100).toFixed(0)} % of the power` });
   }
   if (r.errors) {
     rows.push({ label: 'DC error, worst case', value: `±${f(r.errors.worstCase, m)}`, note: `RSS ±${f(r.errors.rss, m)} at ${f(r.errors.at, m)}` });

@@ -19,6 +19,9 @@ import { opampSwing } from '../analysis/analysis.js';
 import { waveformPlan } from '../analysis/waveform.js';
 import { cautionsFor } from './cautions.js';
 
+/** SPICE's largest transient step is the report's sample spacing divided by this (see the `tran` line). */
+export const TRAN_STEP_DIVISOR = 10;
+
 const fmt = (x: number) => (Number.isFinite(x) ? Number(x.toPrecision(9)).toString() : '0');
 const node = (names: string[], i: number) => (i === 0 ? '0' : names[i]!.replace(/[^A-Za-z0-9_]/g, '_'));
 
@@ -174,7 +177,11 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
     // The waveform: the signal source carries it; SPICE time 0 is the report's t0 (the solve's start).
     const w = wave.spec;
     lines.push(`* waveform: ${w.shape} from ${fmt(w.low)} to ${fmt(w.high)} ${d.sensor.measurand}${w.shape === 'step' ? '' : ` at ${fmt(w.frequency)} Hz, duty ${fmt(w.duty)}`}; report time t = SPICE time + ${fmt(wave.t0)} s`);
-    lines.push(`tran ${fmt((wave.t1 - wave.recordFrom) / (wave.samples - 1))} ${fmt(wave.t1 - wave.t0)} ${fmt(wave.recordFrom - wave.t0)} ${fmt(wave.hMax)}`);
+    // SPICE's largest step a tenth of the report's (TMAX): its points are then close enough that reading them
+    // between points does not cut the corner where a slewing output levels off (with TMAX equal to the sample
+    // spacing that alone reads up to about 2 % of the span off at a corner).
+    lines.push(`* SPICE's largest time step is a tenth of the sample spacing, so that slew corners are resolved.`);
+    lines.push(`tran ${fmt((wave.t1 - wave.recordFrom) / (wave.samples - 1))} ${fmt(wave.t1 - wave.t0)} ${fmt(wave.recordFrom - wave.t0)} ${fmt(wave.hMax / TRAN_STEP_DIVISOR)}`);
     lines.push(`wrdata gainwright-tran.txt v(${out})`);
   }
   if (sig) {

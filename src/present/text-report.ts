@@ -9,6 +9,7 @@ import { formatEng } from '../model/units.js';
 import { terminalLine } from './inert.js';
 import { waveformFigures } from './figures.js';
 import { closedLoopLines } from './closed-loop.js';
+import { noiseLabel } from './charts.js';
 import { tradeLines } from './trade.js';
 import { rangeLines } from './ranges.js';
 
@@ -62,7 +63,7 @@ export function textReport(r: Report): string {
     out.push(`  ${f(r.noise.densityAt1kHz, 'V/√Hz')} at 1 kHz (${f(r.noise.referredDensityAt1kHz, `${m}/√Hz`)}); ${f(r.noise.rms, 'V')} rms over ${f(r.noise.band[0], 'Hz')}…${f(r.noise.band[1], 'Hz')} = ${f(r.noise.referredRms, m)} rms, about ${f(r.noise.peakToPeak, 'V')} p-p`);
     const lf = r.noise.lowFrequency;
     out.push(`  ${f(lf.band[0], 'Hz')}…${f(lf.band[1], 'Hz')} (how far a slow reading wanders): ${f(lf.rms, 'V')} rms, about ${f(lf.peakToPeak, 'V')} p-p = ${f(lf.referredPeakToPeak, m)} p-p`);
-    out.push(`  Largest contributors: ${r.noise.shares.slice(0, 4).map((x) => `${x.name} ${(x.fraction * 100).toFixed(1)} %`).join(', ')}`);
+    out.push(`  Largest contributors: ${r.noise.shares.slice(0, 4).map((x) => `${noiseLabel(x)} ${(x.fraction * 100).toFixed(1)} %`).join(', ')}`);
   }
   if (r.errors) {
     const [lo, hi] = r.clip?.rangePeak ?? r.design.target.range;

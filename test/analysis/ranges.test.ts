@@ -80,6 +80,21 @@ describe('the two-range bench clamp demo (a scenario of our own)', () => {
       expect(j.ranges[i].errors.afterTrim / single.errors.afterTrim).toBeCloseTo(1, 9);
     });
   });
+  it('two poles leave the other position\'s divider across its rail: each position\'s supply counts it, by Ohm\'s law, and its battery life is capacity ÷ current', () => {
+    // The divider's rail span over its whole chain (top + trimmer + bottom) is the current it draws (Ohm's law).
+    const rail = d.supply.referenceRail === 'regulated' && d.supply.regulated ? d.supply.regulated.voltage : d.supply.positive - d.supply.negative;
+    const draw = (i: number) => { const ref = sw.positions[i]!.network.reference; return rail / ((ref.top?.ohms ?? 0) + (ref.trim?.ohms ?? 0) + (ref.bottom?.ohms ?? 0)); };
+    sw.positions.forEach((p, i) => {
+      const single = analyse(designForRange(d, i, p.report!.stage!.ideal.topology), { spreadTrials: 0, stage: p.report!.stage! });
+      const other = draw(1 - i);
+      expect(p.report!.supply!.current - single.supply!.current).toBeCloseTo(other, 12);
+      // Battery life: capacity (A·s) ÷ current, in hours (definition of capacity; 3600 s an hour).
+      expect(p.report!.supply!.batteryLife! / (d.supply.battery!.capacity / p.report!.supply!.current / 3600)).toBeCloseTo(1, 12);
+      expect(p.report!.batteryClip!.hoursToEnd).toBe(p.report!.supply!.batteryLife);
+    });
+    expect(r.supply!.current).toBe(sw.positions[0]!.report!.supply!.current);
+    expect(sw.idleCurrent).toBeCloseTo(Math.max(draw(0), draw(1)), 12);
+  });
   it('every verdict line of a range names it', () => {
     const titles = verdictsOf(r).map((x) => x.title);
     expect(titles.filter((t) => t.startsWith('Range 1 (100 mV/A): ')).length).toBeGreaterThanOrEqual(5);

@@ -1,6 +1,6 @@
 import { describe, expect, it, beforeAll } from 'vitest';
 import { execFileSync, spawnSync } from 'node:child_process';
-import { mkdtempSync, writeFileSync, mkdirSync } from 'node:fs';
+import { existsSync, mkdtempSync, writeFileSync, mkdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { run } from './run.js';
@@ -97,6 +97,24 @@ describe('gainwright report', () => {
     expect(bad.status).toBe(2);
     expect(bad.stderr).not.toMatch(/node:internal|\n\s+at /);
     // Compiling the CLI is slow on a loaded machine: the limit only guards against a hang, it measures nothing.
+  }, 600_000);
+  it('a folder of 40 files through the installed bin (shared among worker threads) gives the same lines, in order, as one thread', async () => {
+    if (!existsSync('build/cli/batch-worker.js')) execFileSync('npx', ['tsc', '-p', 'tsconfig.cli.json'], { stdio: 'ignore' });
+    const many = join(dir, 'many');
+    mkdirSync(many, { recursive: true });
+    // Every demo, each with its scale moved a little (our own scenarios), and one file that is not a design.
+    for (let i = 0; i < 39; i++) {
+      const doc = structuredClone(DEMOS[i % DEMOS.length]!.document) as any;
+      doc.target.scale *= 1 + i / 100;
+      writeFileSync(join(many, `d${String(i).padStart(2, '0')}.json`), JSON.stringify(doc));
+    }
+    writeFileSync(join(many, 'd39.json'), '{ "format": ');
+    const bin = spawnSync('node', ['bin/gainwright.mjs', 'report', many, '--json'], { encoding: 'utf8', maxBuffer: 1 << 28 });
+    const here = await run(['report', many, '--json']);
+    expect(here.code).toBe(2);
+    expect(bin.status).toBe(here.code);
+    expect(bin.stdout.split('\n').length).toBe(41);
+    expect(bin.stdout).toBe(here.out);
   }, 600_000);
 });
 

@@ -3,7 +3,7 @@
  * and kits are scenarios of our own; E12 and E6 values from IEC 60063 (published).
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { run } from './run.js';
@@ -58,6 +58,20 @@ describe('gainwright report DESIGN --kit KIT', () => {
     expect([folder.code, folder.err]).toEqual([2, `gainwright: ${dir}: is a folder\n`]);
     const device = await run(['report', join(dir, 'probe.json'), '--kit', '/dev/zero']);
     expect([device.code, device.err]).toEqual([2, 'gainwright: /dev/zero: is not a regular file\n']);
+  });
+
+  it('a folder\'s report takes the kit for every design in it', async () => {
+    const folder = join(dir, 'designs');
+    mkdirSync(folder);
+    writeFileSync(join(folder, 'a.json'), JSON.stringify(DEMOS.find((d) => d.id === 'generic-sensor')!.document));
+    const r = await run(['report', folder, '--json', '--kit', join(dir, 'e12.json')]);
+    expect(r.code).toBe(0);
+    const line = JSON.parse(r.out.trim());
+    expect(line.ok).toBe(true);
+    for (const p of fixed(line)) expect(isMember(p.ohms, 'E12')).toBe(true);
+    const refused = await run(['report', folder, '--json', '--kit', join(dir, 'tiny.json')]);
+    expect(refused.code).toBe(2);
+    expect(JSON.parse(refused.out.trim()).problems[0]).toMatch(/^target\.kit: /);
   });
 
   it('compare takes the kit too: every row solved from it', async () => {

@@ -34,6 +34,9 @@ const CASES: Array<[string, Design]> = [
   ['Hall clamp, RC output filter, 5 kHz triangle', withWave('bench-clamp', { shape: 'triangle', low: -10, high: 15, frequency: 5000, duty: 0.8 }, (d) => { d.sensor.turns = 3; d.target.zero = 2.5; d.target.range = [-10, 10]; d.output.filter = { resistance: 1000, capacitance: 10e-9 }; })],
   // A closed-loop Hall sensor in front of the stage (issue #20): the loop's elements in the time-domain solve.
   ['closed-loop Hall clamp, step over the range', withWave('closed-loop-clamp', { shape: 'step', low: -20, high: 20 })],
+  // A square wave through it, slow enough that the warm-up takes long steps between its edges.
+  ['closed-loop Hall clamp, 500 Hz square', withWave('closed-loop-clamp', { shape: 'square', frequency: 500, duty: 0.5 })],
+  ['closed-loop Hall clamp, 2 kHz square', withWave('closed-loop-clamp', { shape: 'square', frequency: 2000, duty: 0.5 })],
   // The stages added later, untouched by the time-domain code: a step over each one's range.
   ...[/^summing non/, /^summing inv/, /^difference/].flatMap((re) => CROSSCHECK_DESIGNS.filter(([n]) => re.test(n)).slice(0, re.source.includes('difference') ? 2 : 1)).map(([n, d]): [string, Design] => [`${n}, step over the range`, { ...d, analysis: { ...d.analysis, waveform: stepOverRange(d) } }]),
 ];

@@ -3,7 +3,7 @@ import { analyse } from '../../src/analysis/report.js';
 import { timeUnit, traceDrawing, waveformChart } from '../../src/present/charts.js';
 import { waveformFigures, waveformLine } from '../../src/present/figures.js';
 import { textReport } from '../../src/present/text-report.js';
-import { spiceNetlist } from '../../src/present/spice.js';
+import { spiceNetlist, TRAN_STEP_DIVISOR } from '../../src/present/spice.js';
 import { groupDefault } from '../../src/present/fields.js';
 import { designFrom } from '../helpers.js';
 
@@ -67,6 +67,9 @@ describe('waveform presentation', () => {
     const net = spiceNetlist(sq, { date: '2026-12-01' })!;
     expect(net).toMatch(/^VSIG .* PULSE\(2\.375 2\.625 0 \S+ \S+ \S+ 0\.001\)$/m);
     expect(net).toMatch(/^tran \S+ \S+ \S+ \S+$/m);
+    // tran TSTEP TSTOP TSTART TMAX (the ngspice manual's .tran line): TMAX a tenth of the sample spacing TSTEP.
+    const [tstep, , , tmax] = /^tran (\S+) (\S+) (\S+) (\S+)$/m.exec(net)!.slice(1).map(Number);
+    expect(tmax! / tstep!).toBeCloseTo(1 / TRAN_STEP_DIVISOR, 3);
     expect(spiceNetlist(withWaveStep(), { date: '2026-12-01' })!).toMatch(/^VSIG .* PWL\(0 2\.25 /m);
     const plain = spiceNetlist(analyse(designFrom('generic-sensor'), { spreadTrials: 0 }), { date: '2026-12-01' })!;
     expect(plain).not.toMatch(/^tran /m);
