@@ -74,6 +74,21 @@ describe('gainwright report DESIGN --kit KIT', () => {
     expect(JSON.parse(refused.out.trim()).problems[0]).toMatch(/^target\.kit: /);
   });
 
+  it('the example kit file (docs/examples/drawer-kit.json, our own) builds the example design within its counts', async () => {
+    const ex = (f: string) => join(__dirname, '../../docs/examples', f);
+    const r = await run(['report', ex('bench-clamp-from-readings.json'), '--json', '--no-spread', '--kit', ex('drawer-kit.json')]);
+    expect(r.code).toBe(0);
+    const parts = fixed(JSON.parse(r.out)).map((p: any) => p.ohms as number);
+    expect(parts.length).toBeGreaterThan(1);
+    // E12 (IEC 60063) or one of the listed odd values, and never more of one than the kit holds.
+    const listed: Record<number, number> = { 4990: 2, 75000: 1, 200000: Infinity };
+    for (const ohms of parts) {
+      expect(isMember(ohms, 'E12') || ohms in listed).toBe(true);
+      const held = (isMember(ohms, 'E12') ? 3 : 0) + (listed[ohms] ?? 0);
+      expect(parts.filter((x: number) => x === ohms).length).toBeLessThanOrEqual(held);
+    }
+  });
+
   it('compare takes the kit too: every row solved from it', async () => {
     const r = await run(['compare', join(dir, 'probe.json'), '--json', '--kit', join(dir, 'tiny.json')]);
     expect(r.code).toBe(2);
