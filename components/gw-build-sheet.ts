@@ -1,7 +1,7 @@
 import { LitElement, html, css, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import type { BomRow, FigureRow, Report, ReportWords, Schematic } from '../src/index.js';
-import { errorBudgetRows, pageText, sheetStatus, trimmerStarts } from '../src/index.js';
+import type { BomRow, FigureRow, Report, ReportWords, Schematic, TradeResult } from '../src/index.js';
+import { errorBudgetRows, pageText, sheetStatus, trimmerStarts, tradeNotes, tradeSweeps, tradeTable } from '../src/index.js';
 import { base } from './styles.js';
 import './gw-schematic.js';
 import './gw-parts.js';
@@ -37,6 +37,8 @@ export class GwBuildSheet extends LitElement {
     ol { padding-left: 1.2rem; }
     .safety { border: 1px solid #000; padding: 0.1rem 0.3rem 0.1rem 1.2rem; }
     table.budget td:nth-child(2) { white-space: nowrap; font-variant-numeric: tabular-nums; }
+    h3 { font-size: 9pt; margin: 0.3rem 0 0.1rem; }
+    section.trade td, section.trade th { font-variant-numeric: tabular-nums; white-space: nowrap; }
   `];
 
   /** The report to print. */
@@ -47,6 +49,8 @@ export class GwBuildSheet extends LitElement {
   @property({ attribute: false }) figures: FigureRow[] = [];
   /** The report's words (verdicts, findings, calibration steps, cautions), as the app already derived them. */
   @property({ attribute: false }) words: ReportWords | null = null;
+  /** The turns trade, when the app has worked it out (its panel was opened): printed after the figures. */
+  @property({ attribute: false }) trade: TradeResult | null = null;
 
   override render() {
     const r = this.report;
@@ -80,9 +84,23 @@ export class GwBuildSheet extends LitElement {
           <section><h2>Key figures</h2><gw-figures caption="Key figures" .rows=${this.figures.slice(0, half)}></gw-figures></section>
           <section><h2>&nbsp;</h2><gw-figures caption="Key figures, continued" .rows=${this.figures.slice(half)}></gw-figures></section>
         </div>
+        ${this.renderTrade(r)}
         <p><small>Made with Gainwright from the design's own figures; check them against your parts before building.</small></p>
       </td></tr></tbody>
     </table>`;
+  }
+
+  /** The trade as a table per sweep (the design's own rows marked), with what the table leaves out. */
+  private renderTrade(r: Report) {
+    const t = this.trade;
+    const table = tradeTable(t, r.design.sensor.measurand);
+    if (!t || !table) return nothing;
+    return html`<section class="trade"><h2>What the winding buys</h2>
+      ${tradeSweeps(t).map((s) => html`<h3>${s.title}</h3>
+        <table aria-label=${s.title}><thead><tr><th></th>${table.head.map((h) => html`<th>${h}</th>`)}<th></th></tr></thead>
+        <tbody>${table.rows.filter((row) => row.sweep === s.sweep).map((row) => html`<tr><td>${row.current ? '*' : ''}</td>${row.cells.map((c) => html`<td>${c}</td>`)}<td>${row.why ?? ''}</td></tr>`)}</tbody></table>`)}
+      <p><small>* the design as it is. ${tradeNotes(t).join(' ')}</small></p>
+    </section>`;
   }
 }
 

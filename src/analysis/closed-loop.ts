@@ -7,7 +7,7 @@
  */
 import type { ClosedLoopHallSensor, Design, Supply } from '../model/design.js';
 import { HOUR } from '../model/constants.js';
-import { closedLoopParts, loopFigures, proposeTurns, turnsTrade, type TurnsOption } from '../physics/closed-loop.js';
+import { closedLoopParts, driverRoom, loopFigures, proposeTurns, turnsTrade, type TurnsOption } from '../physics/closed-loop.js';
 import { closedLoopCircuit } from '../circuit/closed-loop.js';
 import { transient } from '../circuit/transient.js';
 import { edgeFigures } from './waveform.js';
@@ -43,15 +43,15 @@ export function closedLoopStep(spec: ClosedLoopHallSensor, supply: Pick<Supply, 
   const tFast = 1 / (2 * Math.PI * Math.max(fc, lf.windingCorner));
   const tSlow = Math.max(p.inductance / p.loopResistance, spec.compensation.zeroResistance * spec.compensation.capacitance, 1 / (2 * Math.PI * fc));
   const t1 = Math.min(8 * tSlow, 1);
-  const room = spec.driver.swing + spec.driver.drop;
   const drv = cc.index('EDRV');
+  const room = driverRoom(spec, supply, p.reference);
   const plan = {
     measurand: (t: number, left: boolean) => (t > 0 || (t === 0 && !left) ? step : 0),
     t0: -t1 / 20, t1, breakpoints: [0],
     hMin: tFast / 400, hFine: tFast / 25, hMax: t1 / 4000, hMaxWarm: t1 / 200, fineFor: 20 * tFast, recordFrom: -t1 / 20,
     nodes: [cc.nodes.out],
     // The driver's output, relative to the reference, within its voltage room (no slew limit is stated for it).
-    limits: [{ index: drv, low: supply.negative + room - p.reference, high: supply.positive - room - p.reference, slew: 1e15 }],
+    limits: [{ index: drv, low: room.low, high: room.high, slew: Infinity }],
   };
   const tr = transient(cc.circuit, plan);
   if (!tr) return null;

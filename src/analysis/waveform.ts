@@ -7,7 +7,8 @@
 import type { Design, MeasurandWaveform } from '../model/design.js';
 import type { SensorFront } from '../physics/sensors.js';
 import type { StageCircuit } from '../circuit/build.js';
-import { interpolate, transient, type TransientTrace } from '../circuit/transient.js';
+import { interpolate, transient, type BlockLimit, type TransientTrace } from '../circuit/transient.js';
+import { closedLoopParts, driverRoom } from '../physics/closed-loop.js';
 
 export { interpolate };
 import { opampSwing, type ClipResult, type DcPoint, type Speed } from './analysis.js';
@@ -199,6 +200,22 @@ export function squareDroop(t: ArrayLike<number>, v: ArrayLike<number>, T: numbe
 }
 
 /**
+ * The large-signal limits of the stage's gain blocks in the time domain: the op-amp's output swing and slew
+ * rate, and a closed-loop sensor's compensation driver held within its voltage room (`driverRoom`; no slew
+ * rate is stated for it, and its current limit is not modelled in time).
+ */
+export function blockLimits(design: Design, sc: StageCircuit): BlockLimit[] {
+  const [low, high] = opampSwing(design);
+  const out: BlockLimit[] = sc.opampIndex >= 0 ? [{ index: sc.opampIndex, low, high, slew: design.opamp.slewRate }] : [];
+  const drv = sc.circuit.elements.findIndex((e) => e.role === 'driver');
+  if (drv >= 0 && design.sensor.type === 'closed-loop-hall') {
+    const room = driverRoom(design.sensor, design.supply, closedLoopParts(design.sensor, design.supply).reference);
+    out.push({ index: drv, low: room.low, high: room.high, slew: Infinity });
+  }
+  return out;
+}
+
+/**
  * The waveform at the instrument. Example: the demo Hall clamp with a step over its range shows a 10–90 %
  * rise close to ln 9/(2π f−3dB) when the edge is small enough not to slew.
  */
@@ -210,11 +227,9 @@ export function waveform(design: Design, spec: MeasurandWaveform, sc: StageCircu
     const x = measurandAt(spec, t, left);
     return Math.min(Math.max(x, sLo), sHi);
   };
-  const [low, high] = opampSwing(design);
   const trace = transient(sc.circuit, {
     measurand: xOf, t0: plan.t0, t1: plan.t1, breakpoints: plan.breakpoints, hMin: plan.hMin, hFine: plan.hFine, hMax: plan.hMax,
-    hMaxWarm: plan.hMaxWarm, fineFor: plan.fineFor, recordFrom: plan.recordFrom, nodes: [sc.nodes.out],
-    limits: sc.opampIndex >= 0 ? [{ index: sc.opampIndex, low, high, slew: design.opamp.slewRate }] : [],
+    hMaxWarm: plan.hMaxWarm, fineFor: plan.fineFor, recordFrom: plan.recordFrom, nodes: [sc.nodes.out], limits: blockLimits(design, sc),
   });
   if (!trace || trace.t.length < 2) return null;
   return figuresOf(plan, trace, dc, front, (t) => {

@@ -64,7 +64,7 @@ export function closedLoopNetlist(spec: ClosedLoopHallSensor, p: ClosedLoopParts
   elements.push({ kind: 'C', name: 'CI', na: 'cldn', nb: 'clz', value: spec.compensation.capacitance });
   R('RZ', 'clz', 'cldo', spec.compensation.zeroResistance);
   elements.push({ kind: 'V', name: 'VHREF', na: 'cldp', nb: '0', value: 0, dc0: spec.quiescent, dc1: 0, ac: 0 });
-  elements.push({ kind: 'E', name: 'EDRV', na: 'cldo', nb: 'clref', value: p.driverGain, pole: p.driverPole, cpn: 'cldp', cnn: 'cldn' });
+  elements.push({ kind: 'E', name: 'EDRV', role: 'driver', na: 'cldo', nb: 'clref', value: p.driverGain, pole: p.driverPole, cpn: 'cldp', cnn: 'cldn' });
   R('RO', 'cldo', 'clo', p.outputResistance, false);
   R('RW', 'clo', 'clwa', p.windingResistance);
   return { elements, wires };

@@ -12,10 +12,11 @@ export type ElementKind = 'R' | 'C' | 'L' | 'V' | 'I' | 'E' | 'H';
 /**
  * What an element stands for in the stage, so that analyses find it by meaning rather than by its netlist
  * name: the signal source, the sensor's zero, each rail, the op-amp's offset source, bias-current sources and
- * gain block, the sensor's source resistance, a current transformer's burden, a shunt, the instrument's input.
+ * gain block, the sensor's source resistance, a current transformer's burden, a shunt, the instrument's input,
+ * a closed-loop sensor's compensation driver.
  */
 export type ElementRole = 'signal' | 'sensor-zero' | 'rail-positive' | 'rail-negative' | 'rail-regulated' | 'opamp-offset' | 'opamp-gain' | 'sensor-source'
-  | 'opamp-bias-positive' | 'opamp-bias-negative' | 'burden' | 'shunt' | 'load';
+  | 'opamp-bias-positive' | 'opamp-bias-negative' | 'burden' | 'shunt' | 'load' | 'driver';
 
 export interface Element {
   kind: ElementKind;

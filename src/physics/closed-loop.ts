@@ -269,6 +269,16 @@ export interface HeldRange {
 }
 
 /**
+ * Where the compensation driver's output can go, V relative to the sensor's reference: from the − rail plus
+ * the driver's swing loss and drop to the + rail less them (the same room `heldRange` divides by the loop's
+ * resistance). Example (the closed-loop demo): ±5 V rails, swing 1 V, drop 0.7 V, reference 0 V → −3.3 … 3.3 V.
+ */
+export function driverRoom(spec: ClosedLoopHallSensor, supply: Pick<Supply, 'positive' | 'negative'>, reference: number): { low: number; high: number } {
+  const room = spec.driver.swing + spec.driver.drop;
+  return { low: supply.negative + room - reference, high: supply.positive - room - reference };
+}
+
+/**
  * The largest primary current held at zero flux: the driver's voltage room above (below) the reference,
  * rail − swing − drop − V_ref, over R_o + R_w + R_M, capped by the driver's current limit, times N_s/N_p.
  * Past it the driver sits at its limit and the uncancelled ampere-turns N_p·I_p − N_s·I_s,max magnetise the
@@ -277,9 +287,9 @@ export interface HeldRange {
  * (5 − 1.7)/109 = 30.3 mA → 30.3 A.
  */
 export function heldRange(spec: ClosedLoopHallSensor, p: ClosedLoopParts, supply: Pick<Supply, 'positive' | 'negative'>): HeldRange {
-  const room = spec.driver.swing + spec.driver.drop;
-  const vUp = Math.max(0, supply.positive - room - p.reference);
-  const vDown = Math.max(0, p.reference - supply.negative - room);
+  const { low, high } = driverRoom(spec, supply, p.reference);
+  const vUp = Math.max(0, high);
+  const vDown = Math.max(0, -low);
   const iUpV = vUp / p.loopResistance, iDownV = vDown / p.loopResistance;
   const lim = spec.driver.currentLimit;
   const up = Math.min(iUpV, lim), down = Math.min(iDownV, lim);

@@ -34,6 +34,8 @@ export interface FieldDef {
   sensors?: SensorType[];
   /** Shown only when this optional group is on. */
   group?: string;
+  /** A group's switch shown only when this path has a value (a further range after the one before it). */
+  after?: string;
   hint?: string;
 }
 
@@ -167,6 +169,8 @@ export const FIELDS: readonly FieldDef[] = [
   // --- issue 19: a range switch: the further ranges (the first is the target above) and the wiring.
   { path: 'target.ranges', label: 'Range switch (a second range)', section: 'target', kind: 'bool', group: 'target.ranges', hint: 'the range above is position 1' },
   ...[0, 1, 2].flatMap((i): FieldDef[] => [
+    // The switch's third and fourth positions are switched on one after the other.
+    ...(i > 0 ? [{ path: `target.ranges.${i}`, label: `A ${i === 1 ? 'third' : 'fourth'} range on the switch`, section: 'target' as const, kind: 'bool' as const, group: `target.ranges.${i}`, after: `target.ranges.${i - 1}` }] : []),
     { ...N('target', `target.ranges.${i}.scale`, `Range ${i + 2}: scale`, 'V/A', 'mV/A', 'same sign as the wanted scale'), group: `target.ranges.${i}` },
     { ...N('target', `target.ranges.${i}.range.0`, `Range ${i + 2}: from`, '1', ''), group: `target.ranges.${i}` },
     { ...N('target', `target.ranges.${i}.range.1`, `Range ${i + 2}: to`, '1', ''), group: `target.ranges.${i}` },
@@ -239,22 +243,29 @@ export const GROUP_DEFAULTS: Record<string, unknown> = {
   'sensor.wire': { diameter: 0.25e-3, turnLength: 0.036 },
   // Issue 19: a small ferrite toroid's section, 5 mm × 5 mm, and 0.3 T (common practice for ferrite, from memory).
   'sensor.core': { width: 0.005, depth: 0.005, saturation: 0.3 },
-  // Replaced by a range derived from the target when switched on (groupDefault).
+  // Replaced by a range derived from the target (or from the range before) when switched on (groupDefault).
   'target.ranges': [],
+  'target.ranges.1': {},
+  'target.ranges.2': {},
   // Replaced by a step over the design's own range when switched on (groupDefault).
   'analysis.waveform': { shape: 'step', low: 0, high: 1, frequency: 1000, duty: 0.5 },
 };
 
 /** Issue 19: the value an optional group takes when switched off: null, or nothing at all for a list the file leaves out. */
 export function groupOff(path: string): null | undefined {
-  return path === 'target.ranges' ? undefined : null;
+  return path.startsWith('target.ranges') ? undefined : null;
 }
 
 /** The value an optional group takes when switched on: the scope waveform starts as a step over the range (a periodic shape gets 1 kHz). */
 export function groupDefault(path: string, design: Design): unknown {
   if (path === 'analysis.waveform') return { ...stepOverRange(design), frequency: 1000 };
   // Issue 19: a second range at 2.5 times the span and a 2.5th of the scale (a common bench step).
-  if (path === 'target.ranges') return [{ scale: Number((design.target.scale / 2.5).toPrecision(3)), range: design.target.range.map((x) => Number((x * 2.5).toPrecision(3))) }];
+  const further = (from: { scale: number; range: [number, number] }) => ({ scale: Number((from.scale / 2.5).toPrecision(3)), range: from.range.map((x) => Number((x * 2.5).toPrecision(3))) });
+  if (path === 'target.ranges') return [further(design.target)];
+  // A third or fourth range: the same step again from the range before it.
+  const at = /^target\.ranges\.(\d)$/.exec(path);
+  const before = at ? design.target.ranges?.[Number(at[1]) - 1] : undefined;
+  if (before) return further(before);
   return GROUP_DEFAULTS[path];
 }
 
@@ -270,14 +281,17 @@ export function setPath<T>(obj: T, path: string, value: unknown): T {
   const copy: Record<string, unknown> | unknown[] = Array.isArray(src) ? [...src] : { ...src };
   const cur = (src as Record<string, unknown>)[k!];
   const next = rest.length ? setPath(cur, rest.join('.'), value) : value;
-  if (next === undefined && !Array.isArray(copy)) delete (copy as Record<string, unknown>)[k!];
+  // `undefined` removes: a key from an object, an item from a list (the items after it move up).
+  if (next === undefined && Array.isArray(copy)) copy.splice(Number(k), 1);
+  else if (next === undefined) delete (copy as Record<string, unknown>)[k!];
   else (copy as Record<string, unknown>)[k!] = next;
   return copy as T;
 }
 
 /** The fields that apply to this design (its sensor type and the optional groups that are on). */
 export function fieldsFor(design: Design): FieldDef[] {
-  return FIELDS.filter((f) => (!f.sensors || f.sensors.includes(design.sensor.type)) && (!f.group || f.kind === 'bool' || getPath(design, f.group) !== null && getPath(design, f.group) !== undefined));
+  const has = (path: string) => getPath(design, path) !== null && getPath(design, path) !== undefined;
+  return FIELDS.filter((f) => (!f.sensors || f.sensors.includes(design.sensor.type)) && (!f.group || f.kind === 'bool' || has(f.group)) && (!f.after || has(f.after)));
 }
 
 /**

@@ -15,8 +15,7 @@ import { BOLTZMANN } from '../model/constants.js';
 import type { Circuit } from '../circuit/mna.js';
 import type { Report } from '../analysis/report.js';
 import { spiceCommentText } from './inert.js';
-import { opampSwing } from '../analysis/analysis.js';
-import { waveformPlan } from '../analysis/waveform.js';
+import { blockLimits, waveformPlan } from '../analysis/waveform.js';
 import { cautionsFor } from './cautions.js';
 
 /** SPICE's largest transient step is the report's sample spacing divided by this (see the `tran` line). */
@@ -35,6 +34,7 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
   const sc = r.circuit;
   if (!sc || !r.speed) return null;
   const c = sc.circuit;
+  const limits = blockLimits(r.design, sc);
   // A value that is not a finite number has no netlist: none is written rather than a silent 0.
   if (!c.elements.every((e) => [e.value, e.dc0 ?? 0, e.dc1 ?? 0, e.ac ?? 0].every(Number.isFinite))) return null;
   const names = c.nodeNames;
@@ -56,7 +56,7 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
   if (d.sensor.type === 'closed-loop-hall') {
     lines.push('* Closed-loop Hall sensor: the core as the magnetising inductance LM with the primary reflected across it (ISIG =');
     lines.push('* Np/Ns x measurand), the Hall sensor as HHALL controlled by LM\'s current, the compensation (RI, CI, RZ) and a');
-    lines.push('* linear driver EDRV (no swing or current limit: the report\'s largest held current is not in the netlist).');
+    lines.push('* driver EDRV held within its voltage room (the rails less its swing and drop), no current limit: the report\'s largest held current is not in the netlist.');
   } else {
     lines.push('* sensor as an ideal source with its resistance and bandwidth (its own output limits are not modelled).');
   }
@@ -128,19 +128,26 @@ export function spiceNetlist(r: Report, opts: SpiceOptions = {}): string | null 
       }
       case 'E': {
         const cp = node(names, e.cp ?? 0), cn = node(names, e.cn ?? 0);
-        if (!(e.pole && e.pole > 0) || i !== sc.opampIndex) {
+        // The same large-signal limits the report's time-domain solve gives the blocks (`blockLimits`).
+        const limit = e.pole && e.pole > 0 ? limits.find((l) => l.index === i) : undefined;
+        if (!limit) {
           lines.push(...plainElementLines(c, i));
         } else {
           // A0/(1 + s/ωp): a current gm·v_d − V(p)/Rp (gm = A0/Rp) into Cp, Rp·Cp = 1/(2π·fp), which is
-          // τ·dV(p)/dt + V(p) = A0·v_d. The current is limited to ±SR·Cp, so V(p) slews at most at SR.
-          const rp = 1e6, cp2 = 1 / (2 * Math.PI * e.pole * rp);
+          // τ·dV(p)/dt + V(p) = A0·v_d. The current is limited to ±SR·Cp, so V(p) slews at most at SR (a
+          // block with no slew rate stated, the closed-loop driver, is not limited there).
+          const rp = 1e6, cp2 = 1 / (2 * Math.PI * e.pole! * rp);
           const p = `${a}_pole`;
-          const [lo, hi] = opampSwing(d);
-          const ilim = d.opamp.slewRate * cp2;
-          lines.push(`${spiceName('B', `${e.name}_GM`)} 0 ${p} I=max(${fmt(-ilim)}, min(${fmt(ilim)}, ${fmt(e.value / rp)}*(V(${cp})-V(${cn})) - V(${p})/${fmt(rp)}))`);
+          const [lo, hi] = [limit.low, limit.high];
+          const ilim = limit.slew * cp2;
+          const gm = `${fmt(e.value / rp)}*(V(${cp})-V(${cn})) - V(${p})/${fmt(rp)}`;
+          lines.push(`${spiceName('B', `${e.name}_GM`)} 0 ${p} I=${Number.isFinite(ilim) ? `max(-(${fmt(ilim)}), min(${fmt(ilim)}, ${gm}))` : gm}`);
+          // A leak of 1 TΩ keeps the pole node a DC path while the current sits at its slew limit (where the node
+          // would otherwise float and the operating-point search meet a singular matrix); it moves A0 by 1 ppm.
+          lines.push(`${spiceName('R', `${e.name}_LEAK`)} ${p} 0 1e12 noisy=0`);
           lines.push(`${spiceName('C', `${e.name}_CP`)} ${p} 0 ${fmt(cp2)}`);
           // The pole node is held at the swing (a stiff conductance past each limit), so it does not wind up.
-          lines.push(`${spiceName('B', `${e.name}_HOLD`)} ${p} 0 I=${fmt(1e4)}*(max(V(${p})-${fmt(hi)}, 0) + min(V(${p})-${fmt(lo)}, 0))`);
+          lines.push(`${spiceName('B', `${e.name}_HOLD`)} ${p} 0 I=${fmt(1e4)}*(max(V(${p})-(${fmt(hi)}), 0) + min(V(${p})-(${fmt(lo)}), 0))`);
           // The internal output clips at the swing limits, as the report's clipping analysis assumes.
           lines.push(`${spiceName('B', e.name)} ${a} ${b} V=max(${fmt(lo)}, min(${fmt(hi)}, V(${p})))`);
         }
@@ -203,9 +210,13 @@ function nodesetLine(r: Report): string | null {
   const names = sc.circuit.nodeNames;
   const parts: string[] = [];
   for (let i = 1; i < names.length; i++) parts.push(`V(${node(names, i)})=${fmt(col[i - 1]!)}`);
-  // The op-amp's pole node sits at the internal output voltage.
-  const e = sc.circuit.elements[sc.opampIndex];
-  if (e) parts.push(`V(${node(names, e.a)}_pole)=${fmt(col[e.a - 1]!)}`);
+  // Each limited block's pole node sits at its output, V(a) − V(b) (the op-amp's internal output; the
+  // closed-loop driver's output above its reference).
+  const v = (k: number) => (k > 0 ? col[k - 1]! : 0);
+  for (const l of blockLimits(r.design, sc)) {
+    const e = sc.circuit.elements[l.index];
+    if (e) parts.push(`V(${node(names, e.a)}_pole)=${fmt(v(e.a) - v(e.b))}`);
+  }
   return `.nodeset ${parts.join(' ')}`;
 }
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { analyse } from '../../src/analysis/report.js';
-import { edgeFigures, measurandAt, squareDroop, stepOverRange } from '../../src/analysis/waveform.js';
+import { blockLimits, edgeFigures, measurandAt, squareDroop, stepOverRange } from '../../src/analysis/waveform.js';
 import { validateDesign } from '../../src/model/design.js';
 import { DEMOS } from '../../src/model/demos.js';
 import { designFrom, shuntOnSplitSupply } from '../helpers.js';
@@ -182,5 +182,22 @@ describe('waveform at the edges of the inputs', () => {
     if (!r.waveform) { expect(r.absent.waveform).toMatch(/did not finish/); return; }
     for (const a of [r.waveform.t, r.waveform.output, r.waveform.ideal, r.waveform.measurand]) expect(a.every(Number.isFinite)).toBe(true);
     for (const x of [r.waveform.riseTime, r.waveform.overshoot, r.waveform.settlingTime, r.waveform.droop]) expect(x === null || Number.isFinite(x)).toBe(true);
+  });
+});
+
+describe('the blocks the time-domain solve limits', () => {
+  it('the op-amp by its swing and slew rate; a closed-loop sensor\'s driver within its voltage room: ±5 V rails less 1 V swing and 0.7 V drop about a 0 V reference is ±3.3 V (the demo, by hand)', () => {
+    const r = analyse(designFrom('closed-loop-clamp'), { spreadTrials: 0 });
+    const limits = blockLimits(r.design, r.circuit!);
+    expect(limits).toHaveLength(2);
+    expect(limits[0]!.index).toBe(r.circuit!.opampIndex);
+    expect(limits[0]!.slew).toBe(r.design.opamp.slewRate);
+    const drv = limits[1]!;
+    expect(r.circuit!.circuit.elements[drv.index]!.role).toBe('driver');
+    expect(drv.low).toBeCloseTo(-3.3, 12);
+    expect(drv.high).toBeCloseTo(3.3, 12);
+    expect(drv.slew).toBe(Infinity);
+    // An open-loop sensor has only the op-amp.
+    expect(blockLimits(designFrom('bench-clamp'), analyse(designFrom('bench-clamp'), { spreadTrials: 0 }).circuit!)).toHaveLength(1);
   });
 });

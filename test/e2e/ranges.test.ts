@@ -62,4 +62,23 @@ describe('the range switch in Chromium (issue 19)', () => {
     expect(errors).toEqual([]);
     await page.context().close();
   });
+
+  it('the editor takes the switch to a third and a fourth range, one after the other, and back', async () => {
+    const { page, errors } = await watchedPage(h);
+    await page.goto(h.url);
+    await expect.poll(() => page.locator('gw-parts').first().locator('tbody').innerText()).toMatch(/R1/);
+    // The third range's switch appears only once there is a second range.
+    expect(await page.locator('gw-editor input[data-path="target.ranges.1"]').count()).toBe(0);
+    await page.locator('gw-editor input[data-path="target.ranges"]').check();
+    await expect.poll(() => rows(page).count()).toBe(2);
+    await page.locator('gw-editor input[data-path="target.ranges.1"]').check();
+    await expect.poll(() => rows(page).count()).toBe(3);
+    await page.locator('gw-editor input[data-path="target.ranges.2"]').check();
+    await expect.poll(() => rows(page).count()).toBe(4);
+    expect(await page.locator('gw-editor input[data-path="target.ranges.3"]').count()).toBe(0);
+    await page.locator('gw-editor input[data-path="target.ranges.2"]').uncheck();
+    await expect.poll(() => rows(page).count()).toBe(3);
+    expect(errors).toEqual([]);
+    await page.context().close();
+  });
 });

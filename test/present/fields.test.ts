@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { displayValue, FIELDS, fieldHint, fieldsFor, getPath, parseField, problemWords, readField, setPath } from '../../src/present/fields.js';
+import { displayValue, FIELDS, fieldHint, fieldsFor, getPath, groupDefault, groupOff, parseField, problemWords, readField, setPath } from '../../src/present/fields.js';
+import { designFrom } from '../helpers.js';
 import { DEMOS } from '../../src/model/demos.js';
 import { sensorFrontAtRail } from '../../src/physics/sensors.js';
 import { demoDesign } from '../../src/model/demos.js';
@@ -129,5 +130,27 @@ describe('fields are shown in the trade\'s units and read bare numbers in them',
     expect(fieldHint(f('target.scale'), back)).toMatch(/gain 100: keeps the sensor's polarity/);
     const inv = setPath(d, 'target.scale', -100 * sens);
     expect(fieldHint(f('target.gain'), inv)).toMatch(/inverts the sensor's polarity/);
+  });
+});
+
+describe('a range switch in the editor (issue 19): further ranges one after the other', () => {
+  it('a third range is offered only once there is a second, and starts at the same step from it (2.5 × the span, scale ÷ 2.5)', () => {
+    const d = designFrom('two-range-clamp');
+    const paths = fieldsFor(d).map((f) => f.path);
+    expect(paths).toContain('target.ranges.1');
+    expect(paths).not.toContain('target.ranges.2');
+    const third = groupDefault('target.ranges.1', d) as { scale: number; range: [number, number] };
+    const second = d.target.ranges![0]!;
+    expect(third.scale).toBeCloseTo(second.scale / 2.5, 12);
+    expect(third.range[1]).toBeCloseTo(second.range[1] * 2.5, 12);
+    const single = designFrom('generic-sensor');
+    expect(fieldsFor(single).map((f) => f.path)).not.toContain('target.ranges.1');
+  });
+  it('switching a range off takes it out of the list (the ones after it move up); the last one off leaves no list', () => {
+    const d = designFrom('two-range-clamp');
+    const three = setPath(d, 'target.ranges.1', groupDefault('target.ranges.1', d));
+    expect(three.target.ranges).toHaveLength(2);
+    expect(setPath(three, 'target.ranges.0', groupOff('target.ranges.0')).target.ranges).toEqual([three.target.ranges![1]]);
+    expect(setPath(d, 'target.ranges', groupOff('target.ranges')).target.ranges).toBeUndefined();
   });
 });
