@@ -77,4 +77,6 @@ export type { SupplyKind, SupplyOption } from './analysis/supply-options.js';
 export { OPAMP_LIST_KEY, MAX_OPAMPS, MAX_OPAMP_LIST_BYTES, parseOpAmpListText, serialiseOpAmpList } from './model/opamp-list.js';
 export { LIMIT_WORDS, SOURCE_WORDS, SUPPLY_WORDS, comparisonRows, hoursText, misfitWords, railsText, rangeText, supplyChoices, worstVerdict } from './present/comparison.js';
 export { KIT_SHAPES, kitListText, parseKitList } from './model/kit.js';
+export { KIT_SHELF_KEY, MAX_KIT_FILE_BYTES, MAX_SHELF_KITS, parseKitFileText, parseKitShelf, serialiseKitFile, serialiseKitShelf, shelveKit } from './model/kit-file.js';
+export type { NamedKit } from './model/kit-file.js';
 export type { ResistorKit } from './model/design.js';

@@ -1,9 +1,9 @@
 /**
  * What a resistor kit means for the report: a parts list that takes a value more often than the kit holds
- * it (the pair searches respect the counts within one network; the divider and the gain network are searched
- * apart, so their sum is checked here), and, when the kit cannot meet the target, how close it gets and the
- * one value to buy that would fix it, found by solving the stage again with each value of the next series
- * added to the kit.
+ * it (the solver builds each network from what the networks before it left of the kit, src/solve/kit.ts, so
+ * this is the check on the whole build, the stage's and a range switch's), and, when the kit cannot meet the
+ * target, how close it gets and the one value to buy that would fix it, found by solving the stage again
+ * with each value of the next series added to the kit.
  */
 import type { Design } from '../model/design.js';
 import { finding, type Finding } from '../model/findings.js';
@@ -63,4 +63,17 @@ export function kitFindings(design: Design, front: SensorFront, ideal: IdealStag
     error: reached(stage), accept: off && off.code === 'scale-off-target' ? off.data.accept : null,
     buy: buy ? { ohms: buy.ohms, series: buy.series, error: withIt, meets: !failed(buy.stage), uses: buy.stage.parts.filter((p) => p.kind === 'resistor' && Math.abs(p.ohms - buy.ohms) <= buy.ohms * 1e-9).length } : null,
   })];
+}
+
+/**
+ * A range switch's whole parts list against the kit (every position's own parts are on the board at once):
+ * `kit-quantity` for each value it takes more often than held, leaving out values the stage's own parts
+ * already overuse (said once, by `kitFindings`).
+ */
+export function switchKitFindings(design: Design, switchParts: ReadonlyArray<{ kind: string; ohms: number; role: string }>, stageParts: ReadonlyArray<{ kind: string; ohms: number; role: string }>): Finding[] {
+  const kit = design.target.kit;
+  if (!kit) return [];
+  const held = kitValues(kit, design.target.resistanceMin, design.target.resistanceMax);
+  const already = kitShortfall(stageParts, held).map((s) => s.ohms);
+  return kitShortfall(switchParts, held).filter((s) => !already.includes(s.ohms)).map((s) => finding('kit-quantity', 'fail', s));
 }

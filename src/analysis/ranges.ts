@@ -14,13 +14,18 @@
  *
  * Each position is then analysed as a single-range design built with exactly the parts the switch puts in
  * (`analyse` with the position's stage). SI units; numbers and codes only (words in src/present/ranges.ts).
+ *
+ * On a resistor kit with counts every part of the switch is on the board at once: each further position's
+ * own parts are picked, position by position, from what the first position and the positions before it left
+ * of the kit (src/solve/kit.ts, `kitWithout`); with two poles, its divider first, then its feedback arm from
+ * what the divider leaves.
  */
 import type { Design, RangeSwitchWiring, Topology } from '../model/design.js';
 import type { Arm, Part, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
 import type { SensorFront } from '../physics/sensors.js';
 import { idealStage, loadFactor, noiseGain, referenceLeverage } from '../physics/topology.js';
 import { armAt, lowerBound, type ArmTable } from '../solve/search.js';
-import { targetArmTable } from '../solve/kit.js';
+import { kitWithout, partsOfArms, targetArmTable } from '../solve/kit.js';
 import { WIPER_MAX, WIPER_MIN, fixedDivider, railTie, referenceSpan, resetWiper, trimmedDivider } from '../solve/reference.js';
 import { SETTABILITY, feedbackSensitivity, gainTrimHalfSpan, standardTrimmer } from '../solve/trimmers.js';
 import { networkTransfer, openLoopOf } from '../solve/transfer.js';
@@ -175,7 +180,8 @@ function holdZero(net: StageNetwork, first: StageNetwork, design: Design, front:
     else if (ref1.kind === 'divider') ref = fixedDivider(design, table, (v - lo) / (hi - lo), ref1.thevenin, lev, design.target.tolerance * 1e-3);
     else ref = railTie(design, v, 1e-6 * (hi - lo)) ?? trimmedDivider(design, table, (v - lo) / (hi - lo), Math.max((cur.leg?.ohms ?? 1e4) / 10, table.value[0]!), design.analysis.zeroLimit, lev);
     if (!ref) return null;
-    const next = feedbackFor({ ...cur, reference: ref }, first, design, front, table);
+    // The feedback arm from what this position's divider leaves of a kit.
+    const next = feedbackFor({ ...cur, reference: ref }, first, design, front, ref.kind === 'divider' ? kitWithout(table, partsOfArms(ref.top, ref.bottom)) : table);
     if (!next) return null;
     cur = next;
   }
@@ -259,17 +265,34 @@ export function rangeSwitch(design: Design, first: Report, analyse: Analyse, opt
   const top = s1?.ideal.topology ?? null;
   if (!s1 || !top || !RANGE_TOPOLOGIES.includes(top) || !s1.network.feedback) return { ok: false, code: 'range-stage', topology: top, buffer: !!s1 && !s1.network.feedback };
   const front = first.front;
-  // The further ranges' parts come from the same place as the first range's: the kit, or the series.
-  const table = targetArmTable(design.target);
+  // The further ranges' parts come from the same place as the first range's: the kit (less every part of the
+  // first position), or the series.
+  const taken = (net: StageNetwork) => partsOf(net, design).filter((p) => p.kind === 'resistor' && p.role !== 'burden').map((p) => p.ohms);
+  const table = targetArmTable(design.target, design.target.arrangements, taken(s1.network));
   const count = 1 + (design.target.ranges?.length ?? 0);
   const designs = Array.from({ length: count }, (_, i) => designForRange(design, i, top));
   const net1 = s1.network;
   const zero1 = zeroOf(net1, front, designs[0]!);
-  const single = designs.map((d, i) => (i === 0 ? net1 : feedbackFor(net1, net1, d, front, table)));
+  // Each position's own arm from what the positions before it left.
+  let leftSingle = table;
+  const single = designs.map((d, i) => {
+    if (i === 0) return net1;
+    const n = feedbackFor(net1, net1, d, front, leftSingle);
+    if (n) leftSingle = kitWithout(leftSingle, partsOfArms(n.feedback));
+    return n;
+  });
   const singleShift = Math.max(0, ...single.map((n) => (n ? Math.abs(zeroOf(n, front, designs[0]!) - zero1) : Infinity)));
   const asked = design.target.rangeSwitch && design.target.rangeSwitch !== 'auto' ? design.target.rangeSwitch : null;
   const limit = design.analysis.zeroLimit;
-  const held = (): Array<StageNetwork | null> => designs.map((d, i) => (i === 0 ? net1 : single[i] ? holdZero(single[i]!, net1, d, front, table, zero1) : null));
+  const held = (): Array<StageNetwork | null> => {
+    let left = table;
+    return designs.map((d, i) => {
+      if (i === 0) return net1;
+      const n = single[i] ? holdZero(single[i]!, net1, d, front, left, zero1) : null;
+      if (n) left = kitWithout(left, partsOfArms(n.feedback, n.reference.top, n.reference.bottom));
+      return n;
+    });
+  };
   let wiring: RangeSwitchWiring = asked ?? (singleShift <= limit ? 'single-pole' : 'two-pole');
   let decidedBy: RangeSwitch['decidedBy'] = asked ? 'asked' : wiring === 'single-pole' ? 'zero-holds' : 'zero-moves';
   let nets = wiring === 'single-pole' ? single : held();

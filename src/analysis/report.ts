@@ -5,7 +5,7 @@
 import type { Design, MeasurandWaveform } from '../model/design.js';
 import { sensorFrontAtRail, type SensorFront } from '../physics/sensors.js';
 import { chooseTopology, type TopologyChoiceResult } from '../physics/topology.js';
-import { kitFindings } from './kit.js';
+import { kitFindings, switchKitFindings } from './kit.js';
 import { solveStage, type SolvedStage } from '../solve/stage.js';
 import { commonModeGain, openLoopOf } from '../solve/transfer.js';
 import { buildCircuit, type StageCircuit } from '../circuit/build.js';
@@ -160,6 +160,8 @@ export function analyse(given: Design, opts: AnalyseOptions = {}): Report {
     warnings.push(...rangeFindings(report.ranges, design.sensor.measurand));
     // Two poles: the other positions' dividers stay on their rail and draw from the battery too.
     if (report.ranges.ok && report.supply) Object.assign(report, withExtraDraw(design, report.supply, report.batteryClip, IDLE_DIVIDERS, report.ranges.value.idleAtFirst));
+    // Issue 18: the whole switch from one resistor kit.
+    if (report.ranges.ok) warnings.push(...switchKitFindings(design, report.ranges.value.parts, stage.parts));
   }
   if (design.probeReadings?.length) report.trim = trimFromReadings({ design, front, stage }, design.probeReadings, design.probeSettings ?? []);
   // --- closed-loop Hall sensor (issue #20) ---

@@ -4,6 +4,6 @@ import { folderLine, type BatchJob, type BatchResult } from './batch.js';
 
 const job = workerData as BatchJob;
 job.files.forEach((file, k) => {
-  const message: BatchResult = { index: job.indices[k]!, ...folderLine(job.dir, file, job.spreadTrials) };
+  const message: BatchResult = { index: job.indices[k]!, ...folderLine(job.dir, file, job.spreadTrials, job.kit) };
   parentPort!.postMessage(message);
 });

@@ -9,7 +9,8 @@ import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { parseDesignText } from '../model/design.js';
+import { parseDesignText, type ResistorKit } from '../model/design.js';
+import { designWithKit } from '../model/kit-file.js';
 import { analyse } from '../analysis/report.js';
 import { reportJson } from '../present/json.js';
 import { jsonText } from '../present/inert.js';
@@ -19,11 +20,15 @@ import type { Io } from './cli.js';
 /** 0: reported; 2: the file is not a design; 3: a fault of ours while reporting it. */
 export type FolderStatus = 0 | 2 | 3;
 
-/** One file's line of a folder's report (with its newline) and how it went. Never throws. */
-export function folderLine(dir: string, file: string, spreadTrials: number): { line: string; status: FolderStatus } {
+/**
+ * One file's line of a folder's report (with its newline) and how it went. Never throws. `kit`: a kit file's
+ * kit in place of each design's own (`--kit`), or null.
+ */
+export function folderLine(dir: string, file: string, spreadTrials: number, kit: ResistorKit | null = null): { line: string; status: FolderStatus } {
   const read = readDesign(join(dir, file));
   if (!read.ok) return { line: jsonText({ file, ok: false, problems: [read.message] }) + '\n', status: 2 };
-  const v = parseDesignText(read.text);
+  const v0 = parseDesignText(read.text);
+  const v = v0.ok ? designWithKit(v0.design, kit) : v0;
   if (!v.ok) return { line: jsonText({ file, ok: false, problems: v.problems.map((q) => `${q.path}: ${q.message}`) }) + '\n', status: 2 };
   // One design that trips a fault of ours must not cost the report of the files after it.
   try {
@@ -38,7 +43,7 @@ export function folderLine(dir: string, file: string, spreadTrials: number): { l
 const WORKERS_FROM = 32;
 
 /** What a worker is given: the folder, its files (by index into the sorted list) and the trials. */
-export interface BatchJob { dir: string; files: string[]; indices: number[]; spreadTrials: number }
+export interface BatchJob { dir: string; files: string[]; indices: number[]; spreadTrials: number; kit: ResistorKit | null }
 /** What a worker sends for each file. */
 export interface BatchResult { index: number; line: string; status: FolderStatus }
 
@@ -46,13 +51,13 @@ export interface BatchResult { index: number; line: string; status: FolderStatus
 const exitOf = (statuses: Iterable<FolderStatus>) => { let worst = 0; for (const s of statuses) if (s === 3 || (s === 2 && worst === 0)) worst = s; return worst; };
 
 /** Reports every file of a folder, in order, through `io`; resolves to the exit code. */
-export async function reportFolder(dir: string, files: string[], spreadTrials: number, io: Io): Promise<number> {
+export async function reportFolder(dir: string, files: string[], spreadTrials: number, io: Io, kit: ResistorKit | null = null): Promise<number> {
   const workerFile = new URL('./batch-worker.js', import.meta.url);
   const threads = Math.min(availableParallelism(), 8, Math.ceil(files.length / (WORKERS_FROM / 2)));
   // The worker is the compiled file beside this one; run from the TypeScript sources (tests) there is none.
   if (files.length < WORKERS_FROM || threads < 2 || workerFile.protocol !== 'file:' || !existsSync(fileURLToPath(workerFile))) {
     const statuses: FolderStatus[] = [];
-    for (const f of files) { const r = folderLine(dir, f, spreadTrials); io.out(r.line); statuses.push(r.status); }
+    for (const f of files) { const r = folderLine(dir, f, spreadTrials, kit); io.out(r.line); statuses.push(r.status); }
     return exitOf(statuses);
   }
   const results: Array<BatchResult | undefined> = new Array(files.length);
@@ -62,11 +67,11 @@ export async function reportFolder(dir: string, files: string[], spreadTrials: n
   // arrive close to their order.
   const jobs = Array.from({ length: threads }, (_, w) => files.map((_, i) => i).filter((i) => i % threads === w));
   await Promise.all(jobs.map((indices) => new Promise<void>((done) => {
-    const job: BatchJob = { dir, files: indices.map((i) => files[i]!), indices, spreadTrials };
+    const job: BatchJob = { dir, files: indices.map((i) => files[i]!), indices, spreadTrials, kit };
     let worker: Worker;
     const finish = () => {
       // A worker that stopped early (it could not start, or died) leaves its files to this thread.
-      for (const i of indices) if (!results[i]) results[i] = { index: i, ...folderLine(dir, files[i]!, spreadTrials) };
+      for (const i of indices) if (!results[i]) results[i] = { index: i, ...folderLine(dir, files[i]!, spreadTrials, kit) };
       flush();
       done();
     };

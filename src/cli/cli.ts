@@ -9,6 +9,7 @@
  *   gainwright trim DESIGN READINGS.csv [--json] trim a built probe from its readings
  *   gainwright compare DESIGN [--opamps FILE] [--json]  the design across op-amps, one row each
  *   gainwright compare DESIGN --supplies [--json]       the design across supply choices, one row each
+ *   --kit FILE (report, compare)                 design from the resistors of a kit file ("gainwright-kit")
  *
  * Exit codes: 0 done, 1 the design was solved but fails a check (with --strict), 2 bad input, 3 a fault of
  * Gainwright's own (one line, never a stack trace). Every message is one line.
@@ -32,10 +33,11 @@ import { trimFromReadings, trimJson } from '../analysis/trim.js';
 import { fitLines, trimLines } from '../present/readings.js';
 import { comparisonJson, comparisonLines, comparisonRows, supplyChoices, supplyJson, supplyLines } from '../present/comparison.js';
 import { MAX_OPAMP_LIST_BYTES, parseOpAmpListText } from '../model/opamp-list.js';
+import { MAX_KIT_FILE_BYTES, designWithKit, parseKitFileText } from '../model/kit-file.js';
+import type { Design, OpAmpSpec, ResistorKit } from '../model/design.js';
 import { jsonText, terminalLine } from '../present/inert.js';
 import { sensorFrontAtRail } from '../physics/sensors.js';
 import { cautionsFor } from '../present/cautions.js';
-import type { Design, OpAmpSpec } from '../model/design.js';
 
 export interface Io {
   out: (s: string) => void;
@@ -75,6 +77,8 @@ const USAGE = `usage:
   gainwright compare DESIGN.json --supplies [--json]
                                          the design on each way its battery can feed it, with a zero for
                                          the end of battery life and a rail-to-rail output op-amp beside them
+  --kit KIT.json                         with report or compare: the resistors of a kit file
+                                         ("gainwright-kit") take the place of the design's own target.kit
 `;
 
 
@@ -99,16 +103,33 @@ function run(argv: string[], io: Io): number | Promise<number> {
   const [cmd, ...given] = argv;
   // `--opamps FILE` (or `--opamps=FILE`): the person's own op-amps for `compare`.
   let opampsFile: string | null = null;
+  // `--kit FILE` (or `--kit=FILE`): a kit file whose resistors the design is solved from (report, compare).
+  let kitFile: string | null = null;
   const rest: string[] = [];
   for (let i = 0; i < given.length; i++) {
     const a = given[i]!;
-    if (a === '--opamps') {
-      if (i + 1 >= given.length) { io.err(`gainwright: --opamps takes a file\n${USAGE}`); return 2; }
-      opampsFile = given[++i]!;
+    if (a === '--opamps' || a === '--kit') {
+      if (i + 1 >= given.length) { io.err(`gainwright: ${a} takes a file\n${USAGE}`); return 2; }
+      if (a === '--kit') kitFile = given[++i]!; else opampsFile = given[++i]!;
     } else if (a.startsWith('--opamps=')) opampsFile = a.slice('--opamps='.length);
+    else if (a.startsWith('--kit=')) kitFile = a.slice('--kit='.length);
     else rest.push(a);
   }
   if (opampsFile !== null && cmd !== 'compare') { io.err(`gainwright: --opamps goes with compare\n${USAGE}`); return 2; }
+  if (kitFile !== null && cmd !== 'report' && cmd !== 'compare') { io.err(`gainwright: --kit goes with report or compare\n${USAGE}`); return 2; }
+  let kit: ResistorKit | null = null;
+  if (kitFile !== null) {
+    const read = readDesign(kitFile, MAX_KIT_FILE_BYTES, 'a kit file is a few kB');
+    if (!read.ok) { io.err(`gainwright: ${shown(kitFile)}: ${read.message}\n`); return 2; }
+    const parsed = parseKitFileText(read.text);
+    if (!parsed.ok) { io.err(`gainwright: ${shown(kitFile)} is not a valid kit file:\n${problemLines(parsed.problems).map((l) => `  ${l}`).join('\n')}\n`); return 2; }
+    kit = parsed.named.kit;
+  }
+  const kitName = kitFile;
+  /** The design with the kit file's kit in place (checked again as a whole: the kit must hold a value in its window). */
+  const withKit = (d: Design) => designWithKit(d, kit);
+  const kitRefused = (file: string, problems: Array<{ path: string; message: string }>) =>
+    `gainwright: ${shown(file)} cannot take the kit of ${shown(kitName ?? '')}:\n${problemLines(problems).map((l) => `  ${l}`).join('\n')}\n`;
   const flags = new Set(rest.filter((a) => a.startsWith('--')));
   const args = rest.filter((a) => !a.startsWith('--'));
   const known = new Set(['--json', '--spice', '--spice-sensor', '--no-spread', '--help', '--supplies']);
@@ -131,7 +152,7 @@ function run(argv: string[], io: Io): number | Promise<number> {
   if (cmd === 'fit') return fitCommand(args, flags.has('--json'), io);
   if (cmd === 'trim') return trimCommand(args, flags.has('--json'), io, atFlag?.slice('--at='.length) ?? null);
   if (flags.has('--supplies') && (cmd !== 'compare' || opampsFile !== null)) { io.err(`gainwright: --supplies goes with compare, without --opamps\n${USAGE}`); return 2; }
-  if (cmd === 'compare') return compareCommand(args, flags.has('--json'), io, opampsFile, flags.has('--supplies'));
+  if (cmd === 'compare') return compareCommand(args, flags.has('--json'), io, opampsFile, withKit, kitRefused, flags.has('--supplies'));
   if (cmd !== 'report') { io.err(`gainwright: unknown command ${quoteText(cmd)}\n${USAGE}`); return 2; }
   if (args.length !== 1) { io.err(`gainwright: report takes one design file or folder\n${USAGE}`); return 2; }
   const path = args[0]!;
@@ -142,12 +163,14 @@ function run(argv: string[], io: Io): number | Promise<number> {
     if (!flags.has('--json')) { io.err('gainwright: a folder is reported with --json (one line per design)\n'); return 2; }
     let files: string[];
     try { files = readdirSync(path).filter((f) => f.endsWith('.json')).sort(); } catch { io.err(`gainwright: ${shown(path)}: cannot be listed\n`); return 2; }
-    return reportFolder(path, files, spreadTrials ?? 0, io);
+    return reportFolder(path, files, spreadTrials ?? 0, io, kit);
   }
   const read = readDesign(path);
   if (!read.ok) { io.err(`gainwright: ${shown(path)}: ${read.message}\n`); return 2; }
-  const v = parseDesignText(read.text);
-  if (!v.ok) { io.err(`gainwright: ${shown(path)} is not a valid design:\n${problemLines(v.problems).map((l) => `  ${l}`).join('\n')}\n`); return 2; }
+  const v0 = parseDesignText(read.text);
+  if (!v0.ok) { io.err(`gainwright: ${shown(path)} is not a valid design:\n${problemLines(v0.problems).map((l) => `  ${l}`).join('\n')}\n`); return 2; }
+  const v = withKit(v0.design);
+  if (!v.ok) { io.err(kitRefused(path, v.problems)); return 2; }
   if (flags.has('--spice-sensor')) {
     const net = closedLoopSpiceNetlist(v.design);
     if (!net) { io.err('gainwright: --spice-sensor exports a closed-loop Hall sensor (sensor.type "closed-loop-hall"); use --spice for the whole stage\n'); return 2; }
@@ -247,12 +270,16 @@ function trimCommand(args: string[], json: boolean, io: Io, atText: string | nul
   return 0;
 }
 
-function compareCommand(args: string[], json: boolean, io: Io, opampsFile: string | null, supplies = false): number {
+function compareCommand(args: string[], json: boolean, io: Io, opampsFile: string | null,
+  withKit: (d: Design) => ReturnType<typeof designWithKit>,
+  kitRefused: (file: string, problems: Array<{ path: string; message: string }>) => string, supplies = false): number {
   if (args.length !== 1) { io.err(`gainwright: compare takes one design file\n${USAGE}`); return 2; }
   const read = readDesign(args[0]!);
   if (!read.ok) { io.err(`gainwright: ${shown(args[0]!)}: ${read.message}\n`); return 2; }
-  const v = parseDesignText(read.text);
-  if (!v.ok) { io.err(`gainwright: ${shown(args[0]!)} is not a valid design:\n${problemLines(v.problems).map((l) => `  ${l}`).join('\n')}\n`); return 2; }
+  const v0 = parseDesignText(read.text);
+  if (!v0.ok) { io.err(`gainwright: ${shown(args[0]!)} is not a valid design:\n${problemLines(v0.problems).map((l) => `  ${l}`).join('\n')}\n`); return 2; }
+  const v = withKit(v0.design);
+  if (!v.ok) { io.err(kitRefused(args[0]!, v.problems)); return 2; }
   let own: OpAmpSpec[] = [];
   if (opampsFile !== null) {
     const list = readDesign(opampsFile, MAX_OPAMP_LIST_BYTES, 'an op-amp list is a few kB');

@@ -560,6 +560,28 @@ const sensorVariants: Record<string, Record<string, Spec>> = {
   },
 };
 
+// --- issue 18: the resistor kit's schema and limit rule, one source for `target.kit` and the kit file (src/model/kit-file.ts).
+/** A resistor kit (`target.kit`, and the `kit` of a kit file): a series between limits with a count, plus listed values. */
+export const KIT_SCHEMA: Extract<Spec, { t: 'obj' }> = {
+  t: 'obj',
+  fields: {
+    series: { t: 'str', oneOf: ['E3', 'E6', 'E12', 'E24', 'E48', 'E96', 'E192'], optional: true },
+    min: opt(num('ohms', 'positive', { min: 0.1, max: 1e10 }), 10),
+    max: opt(num('ohms', 'positive', { min: 0.1, max: 1e10 }), 1e6),
+    count: num('(count)', 'positive', { max: 1e6, whole: true, optional: true }),
+    parts: {
+      t: 'list', def: [], maxItems: 500,
+      item: { t: 'obj', fields: { ohms: num('ohms', 'positive', { min: 0.01, max: 1e10 }), count: num('(count)', 'positive', { max: 1e6, whole: true, optional: true }) } },
+    },
+  },
+};
+
+/** The kit's own rule beyond its schema: a series part's limits in order. `path` is where the kit sits (`target.kit`). */
+export function kitLimitProblem(kit: ResistorKit, path: string): Problem | null {
+  return kit.series && kit.min >= kit.max ? { path: `${path}.min`, message: `must be below ${path}.max`, other: [`${path}.max`] } : null;
+}
+// --- end issue 18
+
 /** The op-amp's figures: the design's `opamp`, and each entry of an op-amp list file (src/model/opamp-list.ts). */
 export const OPAMP_SCHEMA: Spec = {
   t: 'obj',
@@ -646,19 +668,7 @@ const SCHEMA: Spec = {
         },
         bandwidth: opt(num('hertz', 'nonneg', { max: 1e10, minAbs: 1e-3 }), 0),
         alternative: opt(num('(index)', 'nonneg', { max: 50, whole: true }), 0),
-        kit: {
-          t: 'obj', nullable: true, def: null,
-          fields: {
-            series: { t: 'str', oneOf: ['E3', 'E6', 'E12', 'E24', 'E48', 'E96', 'E192'], optional: true },
-            min: opt(num('ohms', 'positive', { min: 0.1, max: 1e10 }), 10),
-            max: opt(num('ohms', 'positive', { min: 0.1, max: 1e10 }), 1e6),
-            count: num('(count)', 'positive', { max: 1e6, whole: true, optional: true }),
-            parts: {
-              t: 'list', def: [], maxItems: 500,
-              item: { t: 'obj', fields: { ohms: num('ohms', 'positive', { min: 0.01, max: 1e10 }), count: num('(count)', 'positive', { max: 1e6, whole: true, optional: true }) } },
-            },
-          },
-        },
+        kit: { ...KIT_SCHEMA, nullable: true, def: null },
         // --- issue 19: a range switch's further positions and its wiring.
         ranges: {
           t: 'list', optional: true, maxItems: 3,
@@ -869,7 +879,8 @@ function crossCheck(d: Design, problems: Problem[]): void {
   }
   const kit = d.target.kit;
   if (kit) {
-    if (kit.series && kit.min >= kit.max) p('target.kit.min', 'must be below target.kit.max', ['target.kit.max']);
+    const limits = kitLimitProblem(kit, 'target.kit');
+    if (limits) problems.push(limits);
     else if (!kitValues(kit, d.target.resistanceMin, d.target.resistanceMax).length) {
       p('target.kit', 'holds no value between target.resistanceMin and target.resistanceMax: add values to the kit or widen the window', ['target.resistanceMin', 'target.resistanceMax']);
     }

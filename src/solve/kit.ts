@@ -2,8 +2,17 @@
  * The solver on a resistor kit: arm tables built from the kit's values instead of a whole series (an arm of
  * two equal parts only where the kit holds two), and the check that a pair of arms together takes no value
  * more often than the kit holds it. The pair search itself is the same (src/solve/search.ts).
+ *
+ * The whole build within the kit (issue 18): a stage is a few networks found one after another (a reference
+ * divider, then the gain pair for it; or the gain pair, then the divider; a range switch's further arms after
+ * the first position). Each network is searched in the kit less the parts the networks before it took
+ * (`kitWithout`: the same kit with those counts taken off, its arm table built again), so that every build
+ * the solver offers can be taken from the drawer at once. Where the stage solver enumerates the reference
+ * networks first and searches the gain pair for each (the non-inverting stage), this is exact for the pair:
+ * for each divider, the best gain pair over every pair the rest of the kit can build (the property test in
+ * test/solve/kit-budget.test.ts checks it against a brute force).
  */
-import type { Arrangement, Target } from '../model/design.js';
+import type { Arrangement, Design, Target } from '../model/design.js';
 import { kitValues, type KitValue } from '../model/kit.js';
 import { ARM_PARALLEL, ARM_SERIES, ARM_SINGLE, armTable, type ArmTable, type PairFits } from './search.js';
 
@@ -14,13 +23,22 @@ export interface KitArmTable extends ArmTable {
   k2: Int32Array;
   /** How many of each kit value there are (Infinity: as many as needed). */
   held: Float64Array;
+  /** The kit the table was built from, and its arrangements (for `kitWithout`). */
+  values: readonly KitValue[];
+  arrangements: readonly Arrangement[];
 }
+
+/** Arm tables kept, at most this many (a browser session edits many kits; each table is some tens of kB). */
+const KIT_CACHE_MAX = 400;
 
 const kitCache = new Map<string, KitArmTable>();
 
 /**
  * Every arm the kit can make: each value alone, and two values in series or in parallel, where two equal
- * values need two in the kit. Deduplicated by value (the arm with fewer parts kept), ascending.
+ * values need two in the kit; ascending by value, fewer parts first among equal values. An arm equal in
+ * value to one with fewer (or as many) parts is left out only when that one's values are held without
+ * limit: where they may run out (1.2 kΩ + 1.5 kΩ beside a single 2.7 kΩ), both stay, so that the search
+ * can take the other.
  */
 export function kitArmTable(values: readonly KitValue[], arrangements: readonly Arrangement[]): KitArmTable {
   const key = `${values.map((v) => `${v.ohms}x${v.count}`).join(',')}|${[...arrangements].sort().join(',')}`;
@@ -38,24 +56,84 @@ export function kitArmTable(values: readonly KitValue[], arrangements: readonly 
     }
   }
   rows.sort((a, b) => a[0] - b[0] || a[4] - b[4]);
-  const kept = rows.filter((r, t) => t === 0 || Math.abs(r[0] - rows[t - 1]![0]) > rows[t - 1]![0] * 1e-12);
+  const unlimited = (r: readonly number[]) => values[r[1]!]!.count === Infinity && (r[2]! < 0 || values[r[2]!]!.count === Infinity);
+  const kept: typeof rows = [];
+  let lead: (typeof rows)[number] | null = null;
+  for (const r of rows) {
+    const same = lead !== null && Math.abs(r[0] - lead[0]) <= lead[0] * 1e-12;
+    if (!same) { lead = r; kept.push(r); } else if (!unlimited(lead!)) kept.push(r);
+  }
   const m = kept.length;
   const out: KitArmTable = {
     value: new Float64Array(m), p1: new Float64Array(m), p2: new Float64Array(m), kind: new Uint8Array(m), size: m,
     k1: new Int32Array(m), k2: new Int32Array(m), held: Float64Array.from(values, (v) => v.count),
+    values: values.map((v) => ({ ...v })), arrangements: [...arrangements],
   };
   kept.forEach(([v, i, j, kind], t) => {
     out.value[t] = v; out.kind[t] = kind;
     out.p1[t] = values[i]!.ohms; out.k1[t] = i;
     out.p2[t] = j >= 0 ? values[j]!.ohms : 0; out.k2[t] = j;
   });
+  if (kitCache.size >= KIT_CACHE_MAX) kitCache.clear();
   kitCache.set(key, out);
   return out;
 }
 
-/** The arm table the solver uses for a target: its kit's when it has one, else the whole series in the window. */
-export function targetArmTable(target: Target, arrangements: readonly Arrangement[] = target.arrangements): ArmTable {
-  return target.kit ? kitArmTable(kitValues(target.kit, target.resistanceMin, target.resistanceMax), arrangements) : armTable(target.series, target.resistanceMin, target.resistanceMax, arrangements);
+/** Two resistances within this relative distance are the same kit value. */
+const SAME = 1e-9;
+
+/**
+ * The table of what is left of a kit once the parts `ohms` are taken (one per entry): the same kit with
+ * those counts taken off and its arm table built again. A value held without limit, a value not in the
+ * kit (a trimmer's, the sensor's own) and a table from a whole series leave the table as it is.
+ * `kitWithout(table of {1 kΩ ×1, 10 kΩ ×2}, [10e3])` → the table of {1 kΩ ×1, 10 kΩ ×1}.
+ */
+export function kitWithout(table: ArmTable, ohms: readonly number[]): ArmTable {
+  if (!isKit(table) || !ohms.length) return table;
+  let byParts = withoutCache.get(table);
+  if (!byParts) { byParts = new Map(); withoutCache.set(table, byParts); }
+  const key = ohms.join(',');
+  const hit = byParts.get(key);
+  if (hit) return hit;
+  const out = kitLess(table, ohms);
+  byParts.set(key, out);
+  return out;
+}
+
+/** `kitWithout`'s answers per table and parts taken (the stage solver asks the same many times). */
+const withoutCache = new WeakMap<ArmTable, Map<string, ArmTable>>();
+
+function kitLess(table: KitArmTable, ohms: readonly number[]): ArmTable {
+  let changed = false;
+  const left = table.values.map((v) => ({ ...v }));
+  for (const x of ohms) {
+    const v = left.find((h) => Math.abs(h.ohms - x) <= h.ohms * SAME);
+    if (!v || v.count === Infinity) continue;
+    v.count = Math.max(v.count - 1, 0);
+    changed = true;
+  }
+  return changed ? kitArmTable(left.filter((v) => v.count > 0), table.arrangements) : table;
+}
+
+/** The fixed parts of some arms, one entry per part (for `kitWithout`). */
+export function partsOfArms(...arms: Array<{ parts: readonly number[] } | null | undefined>): number[] {
+  return arms.flatMap((a) => (a ? [...a.parts] : []));
+}
+
+/**
+ * The fixed resistors a design states itself, not chosen by the solver but taken from the kit too when it
+ * holds their value: the output filter's series resistor.
+ */
+export function statedResistors(design: Design): number[] {
+  return design.output.filter ? [design.output.filter.resistance] : [];
+}
+
+/**
+ * The arm table the solver uses for a target: its kit's when it has one (less the parts `taken`, see
+ * `kitWithout`), else the whole series in the window.
+ */
+export function targetArmTable(target: Target, arrangements: readonly Arrangement[] = target.arrangements, taken: readonly number[] = []): ArmTable {
+  return target.kit ? kitWithout(kitArmTable(kitValues(target.kit, target.resistanceMin, target.resistanceMax), arrangements), taken) : armTable(target.series, target.resistanceMin, target.resistanceMax, arrangements);
 }
 
 /** What the parts are drawn from, for a finding: the kit, or the series. */

@@ -12,13 +12,17 @@
  * 4. A zero pot's wiper is solved exactly (bisection on the realised zero, src/solve/transfer.ts).
  * 5. Every candidate is scored once, as the classic stages are: max(|scale error|, |zero error|/span, floor)
  *    · 1.5^(fixed parts − 2) · (1 + |log10(Rf/Rf_pref)|) · (1 + I_net/I_q); the lowest wins.
+ *
+ * On a resistor kit with counts each step searches what the steps before it left of the kit (src/solve/kit.ts):
+ * the reference from the kit less the design's stated resistors, the feedback pair from what the reference
+ * leaves, the second ratio and the offset arm from what the feedback pair leaves.
  */
 import type { Design } from '../model/design.js';
 import { finding, type Finding, type FindingData } from '../model/findings.js';
 import type { Arm, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
 import type { SensorFront } from '../physics/sensors.js';
 import { loopFactor, peakRange, type IdealStage } from '../physics/topology.js';
-import { targetArmTable, kitFits, seriesLabel } from './kit.js';
+import { kitFits, kitWithout, partsOfArms, statedResistors, targetArmTable, seriesLabel } from './kit.js';
 import { searchPairs, type ArmTable, type PairCandidate, type PairResult } from './search.js';
 import { dividerAt, fixedDivider, nearestArm, noReference, railTie, referenceSpan, trimmedDivider, WIPER_MAX, WIPER_MIN } from './reference.js';
 import { COVERAGE, SETTABILITY, gainTrimHalfSpan, scaleStack, zeroStack } from './trimmers.js';
@@ -51,9 +55,9 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
     const network: StageNetwork = { topology: top, feedback: null, gainTrim: null, leg: null, reference: noReference(design) };
     return { ideal, network, parts: [], alternatives: [], chosen: 0, gain: NaN, noiseGain: NaN, reference: NaN, scaleError: NaN, zeroError: NaN, warnings };
   };
-  const table = targetArmTable(target);
+  const table = targetArmTable(target, target.arrangements, statedResistors(design));
   if (table.size === 0) return fail('gain-unrealisable', { series: seriesLabel(target), windowLow: target.resistanceMin, windowHigh: target.resistanceMax, gain: null, with: 'window' });
-  const singles = target.arrangements.includes('single') ? targetArmTable(target, ['single']) : table;
+  const singles = target.arrangements.includes('single') ? targetArmTable(target, ['single'], statedResistors(design)) : table;
   const ol = openLoopOf(design);
   const a0 = ol.a0;
   const tol = target.tolerance;
@@ -196,16 +200,23 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
   const gainTrimOf = (opt: GainOption, feedback: Arm): Trimmer | null => (opt.trim
     ? { ohms: opt.trim, setting: 0.5, need: sStack, halfSpan: gainTrimHalfSpan(opt.trim, feedback.ohms, ideal.feedbackSensitivity), step: (opt.trim / (feedback.ohms + opt.trim / 2)) * ideal.feedbackSensitivity * SETTABILITY }
     : null);
-  const search = (tA: ArmTable, ratio: { cA: number; cB: number; k: number; m: number }, pref: number, aMin: number, aMax: number, keep: number): PairResult =>
-    searchPairs(tA, table, { preferredA: pref, floor, aMin, aMax, ratio }, keep, kitFits(tA, table));
-  // The feedback pair depends on the reference only through its voltage: searched once per voltage and trimmer.
-  const feedbackCache = new Map<string, PairResult>();
-  const feedbackSearch = (key: string, opt: GainOption, ratio: { cA: number; cB: number; k: number; m: number }): PairResult => {
+  /** A pair search with both arms from `t` (the kit's rest at this step, or the whole series). */
+  const search = (t: ArmTable, ratio: { cA: number; cB: number; k: number; m: number }, pref: number, aMin: number, aMax: number, keep: number): PairResult =>
+    searchPairs(t, t, { preferredA: pref, floor, aMin, aMax, ratio }, keep, kitFits(t));
+  // The feedback pair depends on the reference only through its voltage (and, on a kit, the parts it leaves):
+  // searched once per voltage, trimmer and table.
+  const feedbackCache = new Map<ArmTable, Map<string, PairResult>>();
+  const feedbackSearch = (left: ArmTable, key: string, opt: GainOption, ratio: { cA: number; cB: number; k: number; m: number }): PairResult => {
     const k = `${key}|${opt.trim}`;
-    let hit = feedbackCache.get(k);
-    if (!hit) { hit = search(table, ratio, rfPref, opt.aMin, opt.aMax, FEEDBACK_KEEP); feedbackCache.set(k, hit); }
+    let byKey = feedbackCache.get(left);
+    if (!byKey) { byKey = new Map(); feedbackCache.set(left, byKey); }
+    let hit = byKey.get(k);
+    if (!hit) { hit = search(left, ratio, rfPref, opt.aMin, opt.aMax, FEEDBACK_KEEP); byKey.set(k, hit); }
     return hit;
   };
+  /** What a reference network leaves of a kit, and what a feedback pair leaves of that. */
+  const leftByRef = (ref: ReferenceNetwork) => (ref.kind === 'divider' ? kitWithout(table, partsOfArms(ref.top, ref.bottom)) : table);
+  const leftByPair = (left: ArmTable, fb: PairCandidate | null) => (fb ? kitWithout(left, partsOfArms(fb.a, fb.b)) : left);
 
   /**
    * The least score a network with this reference, feedback pair and trimmer can reach: the error floor, the
@@ -225,6 +236,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
     if (beaten(bound(ref, null, options[0]!, 3))) continue;
     const vr = ref.kind === 'none' ? 0 : ref.voltage;
     const rth = ref.kind === 'divider' ? ref.thevenin : 0;
+    const left = leftByRef(ref);
     for (const opt of options) {
       const half = opt.trim / 2;
       if (top === 'summing-non-inverting') {
@@ -235,7 +247,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
         const follower = kAim < 1 + 1e-6;
         // K's error moves the scale and, with no pot, the zero's offset part in proportion.
         const kLever = ((kAim - 1) / kAim) * (1 + (target.trim.zero ? 0 : Math.abs(b) / outSpan));
-        const feedbacks: Array<PairCandidate | null> = follower ? [null] : feedbackSearch(`${vr}`, opt, { cA: half, cB: 0, k: kAim - 1, m: kLever }).ranked;
+        const feedbacks: Array<PairCandidate | null> = follower ? [null] : feedbackSearch(left, `${vr}`, opt, { cA: half, cB: 0, k: kAim - 1, m: kLever }).ranked;
         const fres = follower ? [] : (feedbacks as PairCandidate[]);
         for (const fb of feedbacks) {
           if (follower && opt.trim) continue;
@@ -252,7 +264,7 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
           const pref = Math.min(Math.max(rfPref / 2, 10 * rth, r2Lo * 1.1), r2Hi / 1.1);
           // A ratio error ε moves the scale by (1−α)·ε and, with no pot to absorb it, the zero by α·|b|·ε.
           const zeroLever = ref.trim ? 0 : (alpha * Math.abs(b)) / outSpan;
-          const sres = search(table, { cA: rth, cB: rsPlus, k: alpha / (1 - alpha), m: 1 - alpha + zeroLever }, pref, Math.max(tableMin, pref / 1.1), Math.min(tableMax, pref * 1.1), 2);
+          const sres = search(leftByPair(left, fb), { cA: rth, cB: rsPlus, k: alpha / (1 - alpha), m: 1 - alpha + zeroLever }, pref, Math.max(tableMin, pref / 1.1), Math.min(tableMax, pref * 1.1), 2);
           for (const sp of sres.ranked) {
             const network: StageNetwork = { topology: top, feedback: fb ? fb.a : null, gainTrim: fb ? gainTrimOf(opt, fb.a) : null, leg: fb ? fb.b : null, reference: ref, plusArm: sp.b, offsetArm: sp.a };
             consider(network, opt, fres, fb);
@@ -265,11 +277,11 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
         if (!(inv > 0)) continue;
         const g1 = Math.abs(m) * inv;
         // The sensor's + terminal feeds Rin here: its resistance is the source resistance.
-        const res = feedbackSearch(`${vr}`, opt, { cA: half, cB: front.sourceResistance, k: g1, m: 1 });
+        const res = feedbackSearch(left, `${vr}`, opt, { cA: half, cB: front.sourceResistance, k: g1, m: 1 });
         for (const fb of res.ranked) {
           if (beaten(bound(ref, fb, opt, 1))) continue;
           const rf = fb.a.ohms + half;
-          const roff = nearestArm(table, rf / (g2w * inv) - rth);
+          const roff = nearestArm(leftByPair(left, fb), rf / (g2w * inv) - rth);
           if (!roff) continue;
           consider({ topology: top, feedback: fb.a, gainTrim: gainTrimOf(opt, fb.a), leg: fb.b, reference: ref, offsetArm: roff }, opt, res.ranked, fb);
         }
@@ -277,14 +289,14 @@ export function solveOffsetStage(design: Design, front: SensorFront, ideal: Idea
         // Difference: G = Rf/(Rin + Rs−) aimed like the inverting stage; then (R4 + Rth)/(R3 + Rs+) = G realised.
         const gAim = (ideal.gain * (1 + 1 / a0)) / (1 - ideal.gain / a0);
         if (!(gAim > 0)) continue;
-        const res = feedbackSearch('difference', opt, { cA: half, cB: rsMinus, k: gAim, m: 1 });
+        const res = feedbackSearch(left, 'difference', opt, { cA: half, cB: rsMinus, k: gAim, m: 1 });
         for (const fb of res.ranked) {
           if (beaten(bound(ref, fb, opt, 2))) continue;
           const gReal = (fb.a.ohms + half) / (fb.b.ohms + rsMinus);
           // A ratio error ε of the + side moves the scale by ε/(1+G) and the zero by about ε·G/(1+G)·(|Vcm| + |Vref|)
           // (the common-mode error of a mismatched pair): ranked on both, the zero's against the output span.
           const cmLever = ((gReal / (1 + gReal)) * (Math.abs(front.commonMode ?? 0) + Math.abs(vr))) / outSpan;
-          const pres = search(table, { cA: rth, cB: rsPlus, k: gReal, m: 1 / (1 + gReal) + cmLever }, fb.a.ohms, Math.max(tableMin, fb.a.ohms / 1.1), Math.min(tableMax, fb.a.ohms * 1.1), 2);
+          const pres = search(leftByPair(left, fb), { cA: rth, cB: rsPlus, k: gReal, m: 1 / (1 + gReal) + cmLever }, fb.a.ohms, Math.max(tableMin, fb.a.ohms / 1.1), Math.min(tableMax, fb.a.ohms * 1.1), 2);
           for (const pp of pres.ranked) {
             consider({ topology: top, feedback: fb.a, gainTrim: gainTrimOf(opt, fb.a), leg: fb.b, reference: ref, plusArm: pp.b, offsetArm: pp.a, swapped }, opt, res.ranked, fb);
           }

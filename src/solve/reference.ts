@@ -13,7 +13,7 @@ import type { Arm, ReferenceNetwork, Trimmer } from '../circuit/network.js';
 import { armAt, lowerBound, searchPairs, type ArmTable } from './search.js';
 import { COVERAGE, SETTABILITY, standardTrimmer } from './trimmers.js';
 import { TRIMMER_VALUES } from '../model/eseries.js';
-import { kitFits } from './kit.js';
+import { kitFits, kitWithout, partsOfArms } from './kit.js';
 import { referenceRails } from '../physics/topology.js';
 
 /** Wiper settings a person can rely on reaching (the ends of a cermet track are not linear; common practice). */
@@ -90,7 +90,8 @@ export function trimmedDivider(design: Design, table: ArmTable, r: number, rth: 
     const lowFrac = Math.min(Math.max(r - potFrac / 2, 0), 1 - potFrac);
     const total = Math.max(sigma, pot);
     const top = nearestArm(table, (1 - lowFrac - potFrac) * total);
-    const bottom = nearestArm(table, lowFrac * total);
+    // On a kit the bottom arm comes from what the top arm leaves (src/solve/kit.ts).
+    const bottom = nearestArm(kitWithout(table, partsOfArms(top)), lowFrac * total);
     const t = top?.ohms ?? 0, b = bottom?.ohms ?? 0;
     const s = wiperFor(t, pot, b, r);
     if (!(s >= WIPER_MIN && s <= WIPER_MAX)) continue;

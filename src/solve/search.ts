@@ -275,7 +275,13 @@ export function searchPairs(tA: ArmTable, tB: ArmTable, prob: PairProblem, keep 
   const av = tA.value, ak = tA.kind;
   const bv = tB.value, bn = tB.size, bk = tB.kind;
   // The nearest partner at or below / at or above index j that a kit can build with first arm i.
-  const fitBelow = (i: number, j: number): number => { while (j >= 0 && !fits!(tA, i, tB, j)) j--; return j; };
+  // Below the ideal partner the walk meets arms of one value with the most parts first (the table lists fewer
+  // parts first among equal values, src/solve/kit.ts): the one with the fewest parts that fits is taken.
+  const fitBelow = (i: number, j: number): number => {
+    while (j >= 0 && !fits!(tA, i, tB, j)) j--;
+    for (let k = j - 1; k >= 0 && bv[k] === bv[j]; k--) if (fits!(tA, i, tB, k)) j = k;
+    return j;
+  };
   const fitAbove = (i: number, j: number): number => { while (j < bn && !fits!(tA, i, tB, j)) j++; return j; };
   // Only the first arms inside the window: the table is sorted, so find its ends by binary search.
   const iStart = lowerBound(av, aMin);

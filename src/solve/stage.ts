@@ -17,6 +17,11 @@
  *    search stops when no remaining one can beat the best score (branch and bound: exact for this score).
  * 6. Accept only what is right: a scale more than ACCEPT of the target off, or a zero more than ACCEPT of
  *    the output span off with no trimmer to fix it, is a failure with what to change, never a caution.
+ *
+ * On a resistor kit with counts, the whole stage comes out of the kit at once (src/solve/kit.ts): the
+ * resistors the design states (an output filter's) are taken first, each reference network is built from
+ * what is left, and the gain pair for it is searched in what the network leaves in turn (inverting: the gain
+ * pair first, its reference from the rest). So every candidate scored can be built from the drawer together.
  */
 import type { Design } from '../model/design.js';
 import { TRIMMER_VALUES } from '../model/eseries.js';
@@ -24,7 +29,7 @@ import { finding, type Finding, type FindingData } from '../model/findings.js';
 import type { Arm, ReferenceNetwork, StageNetwork, Trimmer } from '../circuit/network.js';
 import type { SensorFront } from '../physics/sensors.js';
 import { aimedGain, loopFactor, noiseGain, peakRange, referenceFor, referenceLeverage, type IdealStage } from '../physics/topology.js';
-import { targetArmTable, kitFits, seriesLabel } from './kit.js';
+import { kitFits, kitWithout, partsOfArms, statedResistors, targetArmTable, seriesLabel } from './kit.js';
 import { searchPairs, type PairCandidate, type PairResult } from './search.js';
 import { fixedDivider, nearestArm, noReference, railTie, referenceSpan, resetWiper, trimmedDivider } from './reference.js';
 import { COVERAGE, SETTABILITY, feedbackSensitivity, gainTrimHalfSpan, scaleStack, zeroStack } from './trimmers.js';
@@ -89,9 +94,11 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
 
   if (ideal.topology !== 'non-inverting' && ideal.topology !== 'inverting') return solveOffsetStage(design, front, ideal);
 
-  const table = targetArmTable(target);
+  const table = targetArmTable(target, target.arrangements, statedResistors(design));
   // Single parts beside a zero pot are usually enough (its wiper absorbs their rounding): offered as well.
-  const singles = target.arrangements.includes('single') ? targetArmTable(target, ['single']) : table;
+  const singles = target.arrangements.includes('single') ? targetArmTable(target, ['single'], statedResistors(design)) : table;
+  /** What the kit has left once a reference network's fixed parts are taken (the table itself off a kit). */
+  const leftBy = (t: typeof table, ref: ReferenceNetwork | null) => (ref && ref.kind === 'divider' ? kitWithout(t, partsOfArms(ref.top, ref.bottom)) : t);
   const ol = openLoopOf(design);
   const a0 = ol.a0;
   const top = ideal.topology;
@@ -138,7 +145,8 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     // (Vq − Vref)·(G−1)·ε, ranked against the output span beside the scale's (G−1)/G·ε.
     const zeroLever = fixedRef && !fixedRef.trim && fixedRef.kind !== 'none' ? (Math.abs(front.quiescent - fixedRef.voltage) * (gAim - 1)) / outSpan : 0;
     const ratio = top === 'non-inverting' ? { cA: half, cB: rth, k: gAim - 1, m: (gAim - 1) / gAim + zeroLever } : { cA: half, cB: rs, k: gAim, m: 1 };
-    return searchPairs(table, table, { preferredA: rfPref, floor, aMin: Math.max(opt.aMin, aFrom), aMax: opt.aMax, ratio }, keep, kitFits(table));
+    const left = leftBy(table, fixedRef);
+    return searchPairs(left, left, { preferredA: rfPref, floor, aMin: Math.max(opt.aMin, aFrom), aMax: opt.aMax, ratio }, keep, kitFits(left));
   };
   /**
    * The least Rf a non-inverting leg with this reference allows: the leg holds the Thevenin at least, and
@@ -259,9 +267,12 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
       const rf = pick.a.ohms + opt.trim / 2, rin = pick.b.ohms + rs;
       const r = (referenceAimed(ideal, rf / rin, front, loopFactor(noiseGain(top, rf / rin), a0)) - lo) / vspan;
       const rth = (rf * rin) / (rf + rin);
+      // The reference from what the gain pair leaves of a kit.
+      const gainParts = partsOfArms(pick.a, pick.b);
+      const restAll = kitWithout(table, gainParts), restSingles = kitWithout(singles, gainParts);
       const built = tied ? tie
-        : (target.trim.zero ? trimmedDivider(design, singles, r, rth, zNeedAt(rf), lev, MAX_OVERSIZE) ?? trimmedDivider(design, table, r, rth, zNeedAt(rf), lev, MAX_OVERSIZE) ?? trimmedDivider(design, table, r, rth, zNeedAt(rf), lev) : railTie(design, lo + r * vspan, 1e-6 * vspan))
-          ?? fixedDivider(design, table, r, rth, lev, floor * outSpan);
+        : (target.trim.zero ? trimmedDivider(design, restSingles, r, rth, zNeedAt(rf), lev, MAX_OVERSIZE) ?? trimmedDivider(design, restAll, r, rth, zNeedAt(rf), lev, MAX_OVERSIZE) ?? trimmedDivider(design, restAll, r, rth, zNeedAt(rf), lev) : railTie(design, lo + r * vspan, 1e-6 * vspan))
+          ?? fixedDivider(design, restAll, r, rth, lev, floor * outSpan);
       if (built) consider(finish(opt, built, pick, null), opt, res, pick);
       continue;
     }
@@ -274,7 +285,7 @@ export function solveStage(design: Design, front: SensorFront, ideal: IdealStage
     // A fixed divider's Thevenin may be the whole leg (no Rg): Rf = (G−1)·Rth − Rt/2.
     if (ref.kind === 'divider' && !ref.trim && target.alternative === 0) {
       const aIdeal = (gAim - 1) * ref.thevenin - opt.trim / 2;
-      const near = aIdeal >= opt.aMin && aIdeal <= opt.aMax ? nearestArm(table, aIdeal) : null;
+      const near = aIdeal >= opt.aMin && aIdeal <= opt.aMax ? nearestArm(leftBy(table, ref), aIdeal) : null;
       if (near && mayBeat(fixedParts(near), near.ohms, ref)) consider(finish(opt, ref, null, near), opt, null, null);
     }
   }

@@ -11,6 +11,7 @@ import { chooseTopology } from '../../src/physics/topology.js';
 import { solveStage } from '../../src/solve/stage.js';
 import { sayFinding } from '../../src/present/finding-words.js';
 import { designFrom } from '../helpers.js';
+import { switchKitFindings } from '../../src/analysis/kit.js';
 
 const fixed = (r: ReturnType<typeof analyse>) => r.stage!.parts.filter((p) => p.kind === 'resistor' && p.role !== 'output-series');
 /** An E6 kit of single parts with no span trimmer: 8× from E6 values alone is 3 % off (scenario of our own). */
@@ -52,21 +53,30 @@ describe('a design on a resistor kit', () => {
     expect(sayFinding(short)).toMatch(/^From the kit the nearest network is \d+\.\d{3} % off the wanted scale, more than the 0\.10 % the solver accepts\. Buy /);
   });
 
-  // Scenario of our own: a drawer of one 10 kΩ, one 70 kΩ, three 1 kΩ and two 22 kΩ. The gain network and the
-  // divider are searched apart, so the report checks their sum against the kit.
-  it('names a value the parts list takes more often than the kit holds, and is quiet when the kit holds enough', () => {
-    const parts = (n10: number) => [{ ohms: 1e4, count: n10 }, { ohms: 7e4, count: 1 }, { ohms: 1e3, count: 3 }, { ohms: 2.2e4, count: 2 }];
-    const r = analyse(designFrom('generic-sensor', (x) => { x.target.kit = { parts: parts(1) }; }), { spreadTrials: 0 });
-    const over = r.warnings.filter((w) => w.code === 'kit-quantity');
-    for (const w of over) {
-      if (w.code !== 'kit-quantity') continue;
-      expect(fixed(r).filter((p) => p.ohms === w.data.ohms).length).toBe(w.data.used);
-      expect(w.data.used).toBeGreaterThan(w.data.held);
+  // Scenarios of our own: one of each E6 value from 100 Ω to 1 MΩ (IEC 60063). Searched apart, the gain
+  // network and the divider of the bench clamp both took 22 kΩ, the transformer stage's both 10 kΩ, and the
+  // two-range clamp's second range a second 100 kΩ. Each network now comes from what the others leave: every
+  // stage is built, every value at most once, and the quantity check has nothing to say.
+  it('builds the whole stage, divider, gain network and a second range, from one of each value', () => {
+    for (const id of ['bench-clamp', 'appliance-ct', 'two-range-clamp']) {
+      const r = analyse(designFrom(id, (x) => { x.target.kit = { series: 'E6', min: 100, max: 1e6, count: 1 }; }), { spreadTrials: 0, trade: false });
+      expect(r.warnings.filter((w) => w.level === 'fail')).toEqual([]);
+      const all = (r.ranges?.ok ? r.ranges.value.parts : r.stage!.parts).filter((p) => p.kind === 'resistor' && p.role !== 'burden').map((p) => p.ohms);
+      expect(all.length).toBeGreaterThan(4);
+      expect(new Set(all).size).toBe(all.length);
+      for (const ohms of all) expect(isMember(ohms, 'E6')).toBe(true);
     }
-    const ten = fixed(r).filter((p) => p.ohms === 1e4).length;
-    expect(over.length > 0).toBe(ten > 1);
-    const enough = analyse(designFrom('generic-sensor', (x) => { x.target.kit = { parts: parts(9) }; }), { spreadTrials: 0 });
-    expect(enough.warnings.filter((w) => w.code === 'kit-quantity')).toEqual([]);
+  });
+
+  // The check on a range switch's whole parts list (scenario of our own: one 10 kΩ held, the second position's
+  // own feedback arm a second 10 kΩ); a value the stage's own parts already overuse is said once, by the stage.
+  it('switchKitFindings flags a value the whole switch takes more often than held, once', () => {
+    const design = designFrom('generic-sensor', (x) => { x.target.kit = { parts: [{ ohms: 1e4, count: 1 }, { ohms: 1e5 }] }; });
+    const r = (role: string) => ({ kind: 'resistor', ohms: 1e4, role });
+    expect(switchKitFindings(design, [r('feedback'), r('feedback'), r('ground-leg')], [r('ground-leg')]))
+      .toEqual([{ code: 'kit-quantity', level: 'fail', data: { ohms: 1e4, used: 3, held: 1 } }]);
+    expect(switchKitFindings(design, [r('feedback'), r('feedback'), r('ground-leg')], [r('feedback'), r('ground-leg')])).toEqual([]);
+    expect(switchKitFindings(designFrom('generic-sensor'), [r('feedback'), r('feedback')], [])).toEqual([]);
   });
 
   it('the file refuses a kit with no value in the resistance window, and a series kit with its limits reversed', () => {
