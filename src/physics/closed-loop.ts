@@ -162,8 +162,11 @@ export function loopGainMagnitudeAt(p: ClosedLoopParts, f: number): number {
     const er = 1 + qr, ei = qi, de = er * er + ei * ei;
     cr = (rr * er + ri * ei) / de; ci = (ri * er - rr * ei) / de;
   }
-  let m = Math.hypot(cr, ci) * p.hallPerAmp / Math.hypot(p.loopResistance, w * p.inductance);
-  if (Number.isFinite(p.hallBandwidth)) m /= Math.hypot(1, f / p.hallBandwidth);
+  // Square roots of sums of squares, not Math.hypot (slower, and its guard against overflow is not needed at
+  // these magnitudes): the search calls this tens of thousands of times.
+  const wl = w * p.inductance, r = p.loopResistance;
+  let m = Math.sqrt(cr * cr + ci * ci) * p.hallPerAmp / Math.sqrt(r * r + wl * wl);
+  if (Number.isFinite(p.hallBandwidth)) { const q = f / p.hallBandwidth; m /= Math.sqrt(1 + q * q); }
   return m;
 }
 
