@@ -48,3 +48,12 @@ export async function watchedPage(h: Harness, opts: Parameters<Browser['newConte
 
 /** Evaluates inside <gw-app>'s shadow root. */
 export const app = (page: Page) => page.locator('gw-app');
+
+/** The fixed resistors of the design in force (read from the app's own report), output series resistor left out. */
+export const fixedParts = (page: Page) => page.evaluate(() => {
+  const a = document.querySelector('gw-app') as unknown as { currentReport: { stage: { parts: Array<{ kind: string; role: string; ohms: number }> } | null } | null };
+  return (a.currentReport?.stage?.parts ?? []).filter((p) => p.kind === 'resistor' && p.role !== 'output-series').map((p) => p.ohms);
+});
+
+/** The resistor kit of the design in force (null: none). */
+export const kitOf = (page: Page) => page.evaluate(() => (document.querySelector('gw-app') as unknown as { currentDesign: { target: { kit?: unknown } } }).currentDesign.target.kit ?? null);

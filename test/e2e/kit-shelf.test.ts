@@ -9,19 +9,13 @@ import type { Page } from 'playwright-core';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { startHarness, watchedPage, type Harness } from './harness.js';
+import { fixedParts, kitOf, startHarness, watchedPage, type Harness } from './harness.js';
 import { isMember } from '../../src/model/eseries.js';
 
 let h: Harness;
 beforeAll(async () => { h = await startHarness(); });
 afterAll(async () => { await h?.close(); });
 
-/** The fixed resistors of the design in force (read from the app's own report). */
-const fixedParts = (page: Page) => page.evaluate(() => {
-  const app = document.querySelector('gw-app') as unknown as { currentReport: { stage: { parts: Array<{ kind: string; role: string; ohms: number }> } | null } | null };
-  return (app.currentReport?.stage?.parts ?? []).filter((p) => p.kind === 'resistor' && p.role !== 'output-series').map((p) => p.ohms);
-});
-const kitOf = (page: Page) => page.evaluate(() => (document.querySelector('gw-app') as unknown as { currentDesign: { target: { kit?: unknown } } }).currentDesign.target.kit ?? null);
 /** Whether every fixed resistor of the design in force is a member of the series (and there are some). */
 const allIn = async (page: Page, series: 'E6' | 'E12' | 'E24') => { const p = await fixedParts(page); return p.length > 1 && p.every((x) => isMember(x, series)); };
 const E6_KIT = { series: 'E6', min: 100, max: 1e6, parts: [] };

@@ -3,20 +3,13 @@
  * falls short. Series membership from IEC 60063 (published); kits and designs are scenarios of our own.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Page } from 'playwright-core';
-import { startHarness, watchedPage, type Harness } from './harness.js';
+import { fixedParts, kitOf, startHarness, watchedPage, type Harness } from './harness.js';
 import { isMember } from '../../src/model/eseries.js';
 
 let h: Harness;
 beforeAll(async () => { h = await startHarness(); });
 afterAll(async () => { await h?.close(); });
 
-/** The fixed resistors of the design in force (read from the app's own report). */
-const fixedParts = (page: Page) => page.evaluate(() => {
-  const app = document.querySelector('gw-app') as unknown as { currentReport: { stage: { parts: Array<{ kind: string; role: string; ohms: number }> } | null } | null };
-  return (app.currentReport?.stage?.parts ?? []).filter((p) => p.kind === 'resistor' && p.role !== 'output-series').map((p) => p.ohms);
-});
-const kitOf = (page: Page) => page.evaluate(() => (document.querySelector('gw-app') as unknown as { currentDesign: { target: { kit?: unknown } } }).currentDesign.target.kit ?? null);
 
 describe('<gw-kit-editor> in the app', () => {
   it('switched on, the design takes every fixed resistor from an E12 kit; switched off, the kit goes', async () => {
