@@ -14,7 +14,7 @@ import { designWithKit } from '../model/kit-file.js';
 import { analyse } from '../analysis/report.js';
 import { reportJson } from '../present/json.js';
 import { jsonText } from '../present/inert.js';
-import { readDesign } from './files.js';
+import { oneLine, readDesign } from './files.js';
 import type { Io } from './cli.js';
 
 /** 0: reported; 2: the file is not a design; 3: a fault of ours while reporting it. */
@@ -35,7 +35,7 @@ export function folderLine(dir: string, file: string, spreadTrials: number, kit:
     const r = analyse(v.design, { spreadTrials, acPoints: 50 });
     return { line: jsonText({ file, ok: true, ...reportJson(r) }) + '\n', status: 0 };
   } catch (e) {
-    return { line: jsonText({ file, ok: false, problems: [`internal error: ${String(e instanceof Error ? e.message : e).replace(/\s+/g, ' ').slice(0, 300)}`] }) + '\n', status: 3 };
+    return { line: jsonText({ file, ok: false, problems: [`internal error: ${oneLine(e)}`] }) + '\n', status: 3 };
   }
 }
 

@@ -16,7 +16,7 @@
  */
 import { readdirSync, statSync } from 'node:fs';
 import { formatProblems, parseDesignText } from '../model/design.js';
-import { readDesign } from './files.js';
+import { oneLine, readDesign } from './files.js';
 import { reportFolder } from './batch.js';
 import { quoteText } from '../model/validate.js';
 import { analyse } from '../analysis/report.js';
@@ -97,7 +97,6 @@ export async function main(argv: string[], io: Io = nodeIo): Promise<number> {
   }
 }
 
-const oneLine = (e: unknown) => String(e instanceof Error ? e.message : e).replace(/\s+/g, ' ').slice(0, 300);
 
 function run(argv: string[], io: Io): number | Promise<number> {
   const [cmd, ...given] = argv;

@@ -33,3 +33,6 @@ export function readDesign(path: string, limit = MAX_DESIGN_BYTES, what = 'a des
   }
 }
 
+
+/** An error (or any value) as one short line for a message: its text, whitespace folded, at most 300 characters. */
+export const oneLine = (e: unknown) => String(e instanceof Error ? e.message : e).replace(/\s+/g, ' ').slice(0, 300);
